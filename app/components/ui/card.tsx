@@ -1,0 +1,27 @@
+import type { HTMLAttributes, ReactNode } from "react";
+import { cx } from "./cx";
+
+export function Card({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
+  return (
+    <div
+      className={cx("rounded-(--radius-panel) border border-ink-200 bg-white shadow-(--shadow-panel)", className)}
+      {...props}
+    />
+  );
+}
+
+export function CardHeader({ title, description, action }: { title: ReactNode; description?: ReactNode; action?: ReactNode }) {
+  return (
+    <div className="flex flex-wrap items-start justify-between gap-3 border-b border-ink-100 px-5 py-4">
+      <div>
+        <h2 className="text-lg font-bold text-ink-900">{title}</h2>
+        {description ? <p className="mt-0.5 text-sm text-ink-500">{description}</p> : null}
+      </div>
+      {action}
+    </div>
+  );
+}
+
+export function CardBody({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
+  return <div className={cx("px-5 py-4", className)} {...props} />;
+}

@@ -1,0 +1,40 @@
+import { z } from "zod";
+
+/**
+ * Every setting the server reads, validated once at boot. Each service is configured here alone, so
+ * pointing the app at a hosted service instead of its local stand-in is a change of environment.
+ */
+export const environmentSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  DATABASE_URL: z
+    .string({ error: "is required (a postgres:// connection string)" })
+    .regex(/^postgres(ql)?:\/\//, { error: "must be a postgres:// or postgresql:// connection string" }),
+  APP_ORIGIN: z
+    .url({ error: "must be the public origin of the app, e.g. http://localhost:3000" })
+    .default("http://localhost:3000"),
+  SESSION_SECRET: z
+    .string()
+    .min(32, { error: "must be at least 32 characters (generate one with `openssl rand -hex 32`)" })
+    .default("development-only-secret-change-me-0123456789"),
+});
+
+export type Environment = z.infer<typeof environmentSchema>;
+
+export class EnvironmentError extends Error {
+  override name = "EnvironmentError";
+}
+
+/** Parses a variables object; the message names every bad variable and what it must be. */
+export function parseEnvironment(source: Record<string, string | undefined>): Environment {
+  const result = environmentSchema.safeParse(source);
+  if (result.success) return result.data;
+  const lines = result.error.issues.map((issue) => `  ${issue.path.join(".")}: ${issue.message}`);
+  throw new EnvironmentError(`Invalid environment:\n${lines.join("\n")}`);
+}
+
+let cached: Environment | undefined;
+
+export function env(): Environment {
+  cached ??= parseEnvironment(process.env);
+  return cached;
+}

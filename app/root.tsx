@@ -1,0 +1,89 @@
+import { isRouteErrorResponse, Link, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import type { Route } from "./+types/root";
+import "./app.css";
+import { SiteFooter } from "~/components/layout/site-footer";
+import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
+import { ToastProvider } from "~/components/ui";
+import { databaseMiddleware } from "~/db/middleware.server";
+
+export const middleware: Route.MiddlewareFunction[] = [databaseMiddleware];
+
+export async function loader(_: Route.LoaderArgs) {
+  const user: HeaderUser = null;
+  return { user };
+}
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Tenthmark — used machine tools with verified accuracy" },
+  {
+    name: "description",
+    content:
+      "Buy and sell used lathes and machine tools with on-site geometric accuracy reports from certified inspectors.",
+  },
+];
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const data = useRouteLoaderData<typeof loader>("root");
+  return (
+    <html lang="en">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <meta name="theme-color" content="#17212b" />
+        <link rel="icon" href="/favicon.svg" type="image/svg+xml" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="flex min-h-screen flex-col">
+        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-4 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
+          Skip to content
+        </a>
+        <ToastProvider>
+          <SiteHeader user={data?.user ?? null} />
+          <main id="main" className="flex-1">
+            {children}
+          </main>
+          <SiteFooter />
+        </ToastProvider>
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  let title = "Something went wrong";
+  let detail = "The page could not be shown. Try again in a moment; if it keeps happening, tell us what you were doing.";
+  if (isRouteErrorResponse(error)) {
+    if (error.status === 404) {
+      title = "Page not found";
+      detail = "There is nothing at this address. The listing may have been withdrawn, or the link mistyped.";
+    } else if (error.status === 403) {
+      title = "Not allowed";
+      detail =
+        typeof error.data === "string" && error.data
+          ? error.data
+          : "Your account does not have access to this page. Sign in with an account that does, or go back.";
+    } else {
+      title = `${error.status} ${error.statusText}`;
+      if (typeof error.data === "string" && error.data) detail = error.data;
+    }
+  } else if (import.meta.env.DEV && error instanceof Error) {
+    detail = error.message;
+  }
+  return (
+    <section className="mx-auto max-w-2xl px-4 py-20 text-center sm:px-6">
+      <p className="text-sm font-bold uppercase tracking-wide text-brass-600">Tenthmark</p>
+      <h1 className="mt-2 text-3xl font-extrabold text-ink-900">{title}</h1>
+      <p className="mt-4 text-ink-600">{detail}</p>
+      <Link to="/" className="mt-8 inline-block font-semibold text-ink-900 underline underline-offset-4">
+        Back to the home page
+      </Link>
+    </section>
+  );
+}

@@ -1,0 +1,10 @@
+import { type RouteConfig, index, route } from "@react-router/dev/routes";
+
+// Every URL of the product, in one place.
+export default [
+  index("routes/home.tsx"),
+  route("how-scoring-works", "routes/how-scoring-works.tsx"),
+
+  // API (resource routes)
+  route("api/health", "routes/api.health.ts"),
+] satisfies RouteConfig;

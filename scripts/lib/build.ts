@@ -1,0 +1,33 @@
+import { spawnSync } from "node:child_process";
+import { existsSync, readdirSync, statSync } from "node:fs";
+import path from "node:path";
+import { log } from "./output.ts";
+
+const root = path.resolve(import.meta.dirname, "../..");
+const inputs = ["app", "public", "package-lock.json", "vite.config.ts", "react-router.config.ts", "tsconfig.json"];
+
+function newestMtime(target: string): number {
+  if (!existsSync(target)) return 0;
+  const stats = statSync(target);
+  if (!stats.isDirectory()) return stats.mtimeMs;
+  let newest = stats.mtimeMs;
+  for (const entry of readdirSync(target)) newest = Math.max(newest, newestMtime(path.join(target, entry)));
+  return newest;
+}
+
+/** Builds the production bundle into `buildDirectory` unless it is newer than every source file. */
+export function buildIfNeeded(buildDirectory: string, force = false) {
+  const serverEntry = path.join(root, buildDirectory, "server", "index.js");
+  const sourcesTime = Math.max(...inputs.map((input) => newestMtime(path.join(root, input))));
+  if (!force && existsSync(serverEntry) && statSync(serverEntry).mtimeMs > sourcesTime) {
+    log("build", `${buildDirectory}/ is up to date`);
+    return;
+  }
+  log("build", `building the production bundle into ${buildDirectory}/`);
+  const result = spawnSync(path.join(root, "node_modules/.bin/react-router"), ["build"], {
+    cwd: root,
+    stdio: "inherit",
+    env: { ...process.env, TENTHMARK_BUILD_DIR: buildDirectory, NODE_ENV: "production" },
+  });
+  if (result.status !== 0) throw new Error(`react-router build failed (exit ${result.status})`);
+}

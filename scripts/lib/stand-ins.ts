@@ -1,0 +1,30 @@
+// The local stand-ins for hosted services (files, payments, e-mail, search). Each is started here for both
+// `npm start` and `npm test`, on loopback only, and hands back the environment that points the app at it.
+import { freePort } from "./ports.ts";
+
+export type StandIn = { name: string; env: Record<string, string>; stop: () => Promise<void> };
+
+export type StandInOptions = {
+  dataDir: string;
+  /** Fixed ports for `npm start`; the tests take free ones. */
+  ports?: Partial<Record<string, number>>;
+  appOrigin: string;
+};
+
+type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
+
+// Each stand-in adds itself to this list with its default port.
+const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [];
+
+export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {
+  const started: StandIn[] = [];
+  for (const { name, defaultPort, start } of starters) {
+    const port = options.ports ? (options.ports[name] ?? defaultPort) : await freePort();
+    started.push(await start({ ...options, port }));
+  }
+  return started;
+}
+
+export function standInEnvironment(standIns: StandIn[]): Record<string, string> {
+  return Object.assign({}, ...standIns.map((standIn) => standIn.env));
+}

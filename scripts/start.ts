@@ -1,0 +1,66 @@
+// `npm start`: PostgreSQL, migrations, the local stand-ins, demo data on an empty database, the production
+// build, and the app server on http://localhost:3000 — all stopped again on Ctrl-C or SIGTERM.
+import { existsSync, mkdirSync } from "node:fs";
+import path from "node:path";
+import { buildIfNeeded } from "./lib/build.ts";
+import { runMigrations } from "./lib/migrate.ts";
+import { log } from "./lib/output.ts";
+import { isPortFree } from "./lib/ports.ts";
+import { startCluster } from "./lib/postgres.ts";
+import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
+import { seedDemoDataIfEmpty, demoSignIns } from "./lib/seed.ts";
+import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
+
+const root = path.resolve(import.meta.dirname, "..");
+if (existsSync(path.join(root, ".env"))) process.loadEnvFile(path.join(root, ".env"));
+
+async function main() {
+  stopOnSignals();
+  const port = Number(process.env.PORT ?? 3000);
+  if (!(await isPortFree(port))) throw new Error(`Port ${port} is taken. Stop what runs there, or start with PORT=3100 npm start.`);
+  const appOrigin = process.env.APP_ORIGIN ?? `http://localhost:${port}`;
+  const dataDir = path.resolve(root, process.env.TENTHMARK_DATA_DIR ?? ".data");
+  mkdirSync(dataDir, { recursive: true });
+
+  const cluster = await startCluster({
+    dataDir: path.join(dataDir, "postgres"),
+    port: Number(process.env.TENTHMARK_PG_PORT ?? 54329),
+    database: "tenthmark",
+  });
+  onStop(() => cluster.stop());
+  const databaseUrl = process.env.DATABASE_URL ?? cluster.url;
+  log("postgres", `ready at ${databaseUrl}`);
+  await runMigrations(databaseUrl);
+
+  const standIns = await startStandIns({ dataDir, appOrigin, ports: {} });
+  for (const standIn of standIns) onStop(() => standIn.stop());
+  const environment = {
+    ...process.env,
+    ...standInEnvironment(standIns),
+    NODE_ENV: "production",
+    DATABASE_URL: databaseUrl,
+    APP_ORIGIN: appOrigin,
+    PORT: String(port),
+  };
+  Object.assign(process.env, environment);
+  await seedDemoDataIfEmpty(databaseUrl);
+
+  buildIfNeeded("build");
+  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), ["build/server/index.js"], environment);
+  await waitForHttp(`http://127.0.0.1:${port}/api/health`);
+
+  log("app", `Tenthmark is running at ${appOrigin}`);
+  const signIns = demoSignIns();
+  if (signIns.length) {
+    log("app", "Demo sign-ins:");
+    for (const signIn of signIns) log("app", `  ${signIn.role.padEnd(10)} ${signIn.email.padEnd(34)} ${signIn.password}`);
+  }
+  for (const standIn of standIns) for (const [key, value] of Object.entries(standIn.env)) if (/URL$/.test(key)) log(standIn.name, `${key}=${value}`);
+  log("app", "Press Ctrl-C to stop.");
+}
+
+main().catch(async (error) => {
+  console.error(`\nnpm start failed: ${error instanceof Error ? error.message : String(error)}`);
+  await stopAll();
+  process.exit(1);
+});

@@ -1,0 +1,84 @@
+// `npm test`: a throwaway PostgreSQL cluster on a free port, migrations, the stand-ins, a production build on
+// a free port, then every Vitest project (unit, integration, browser). Leaves nothing running behind it;
+// its exit code is the truth. Extra arguments are handed to Vitest (e.g. `npm test -- tests/unit`).
+import { spawn } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { buildIfNeeded } from "./lib/build.ts";
+import { runMigrations } from "./lib/migrate.ts";
+import { log } from "./lib/output.ts";
+import { freePort } from "./lib/ports.ts";
+import { startCluster } from "./lib/postgres.ts";
+import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
+import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
+import { ensureChromium } from "./lib/chromium.ts";
+
+const root = path.resolve(import.meta.dirname, "..");
+
+async function main(): Promise<number> {
+  stopOnSignals();
+  const workDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-test-"));
+  onStop(() => rmSync(workDir, { recursive: true, force: true }));
+
+  const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_test" });
+  onStop(() => cluster.stop());
+  await runMigrations(cluster.url);
+
+  const port = await freePort();
+  const appOrigin = `http://localhost:${port}`;
+  const standIns = await startStandIns({ dataDir: workDir, appOrigin });
+  for (const standIn of standIns) onStop(() => standIn.stop());
+
+  const environment: NodeJS.ProcessEnv = {
+    ...process.env,
+    ...standInEnvironment(standIns),
+    DATABASE_URL: cluster.url,
+    APP_ORIGIN: appOrigin,
+    TEST_APP_ORIGIN: appOrigin,
+    TEST_WORK_DIR: workDir,
+    CHROMIUM_PATH: ensureChromium(),
+  };
+
+  buildIfNeeded("build-test");
+  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), ["build-test/server/index.js"], {
+    ...environment,
+    NODE_ENV: "production",
+    PORT: String(port),
+  });
+  await waitForHttp(`http://127.0.0.1:${port}/api/health`);
+  log("test", `app under test at ${appOrigin}`);
+
+  const resultsFile = path.join(workDir, "vitest-results.json");
+  const vitest = spawn(
+    path.join(root, "node_modules/.bin/vitest"),
+    ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${resultsFile}`, ...process.argv.slice(2)],
+    { cwd: root, stdio: "inherit", env: { ...environment, NODE_ENV: "test" } },
+  );
+  const exitCode: number = await new Promise((resolve) => vitest.on("exit", (code) => resolve(code ?? 1)));
+  printSummary(resultsFile, exitCode);
+  return exitCode;
+}
+
+/** The closing line CI reads: counts from Vitest's JSON report. */
+function printSummary(resultsFile: string, exitCode: number) {
+  try {
+    const results = JSON.parse(readFileSync(resultsFile, "utf8"));
+    const skipped = (results.numPendingTests ?? 0) + (results.numTodoTests ?? 0);
+    console.log(`\ntests: ${results.numPassedTests} passed, ${results.numFailedTests} failed, ${skipped} skipped`);
+  } catch {
+    console.log(`\ntests: 0 passed, 1 failed (no results were written; vitest exited ${exitCode})`);
+  }
+}
+
+main()
+  .then(async (code) => {
+    await stopAll();
+    process.exit(code);
+  })
+  .catch(async (error) => {
+    console.error(`\nnpm test failed before the tests could run: ${error instanceof Error ? error.stack : String(error)}`);
+    await stopAll();
+    console.log("\ntests: 0 passed, 1 failed");
+    process.exit(1);
+  });
