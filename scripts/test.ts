@@ -40,8 +40,12 @@ async function main(): Promise<number> {
     CHROMIUM_PATH: ensureChromium(),
   };
 
-  buildIfNeeded("build-test");
-  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), ["build-test/server/index.js"], {
+  // A build folder of this run's own, so that test runs side by side never overwrite each other's bundle.
+  const buildDirectory = `build-test/${path.basename(workDir)}`;
+  onStop(() => rmSync(path.join(root, buildDirectory), { recursive: true, force: true }));
+  buildIfNeeded(buildDirectory, true);
+  environment.TEST_SERVER_BUILD = `${buildDirectory}/server/index.js`;
+  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), [environment.TEST_SERVER_BUILD], {
     ...environment,
     NODE_ENV: "production",
     PORT: String(port),
