@@ -1,0 +1,33 @@
+import { requireAtLeast, requireFinite } from "./errors";
+
+/** Max − min of indicator readings over at least one revolution (ISO 230-1, from memory). */
+export function totalIndicatorReading(readings: readonly number[]): number {
+  requireAtLeast(readings, 2, "Indicator readings over a revolution");
+  let max = -Infinity;
+  let min = Infinity;
+  readings.forEach((reading, i) => {
+    requireFinite(reading, `Indicator reading ${i + 1}`, [i]);
+    if (reading > max) max = reading;
+    if (reading < min) min = reading;
+  });
+  return max - min;
+}
+
+export interface MandrelReadings {
+  near: { at0: number; at180: number };
+  far: { at0: number; at180: number };
+}
+
+/**
+ * Inclination of a test mandrel's axis to the carriage travel: mean(far) − mean(near).
+ * Averaging 0° and 180° cancels the mandrel's own run-out (common practice).
+ */
+export function mandrelInclination(readings: MandrelReadings): number {
+  const near = readings?.near;
+  const far = readings?.far;
+  requireFinite(near?.at0, "The near-end reading at 0°", ["near", "at0"]);
+  requireFinite(near?.at180, "The near-end reading at 180°", ["near", "at180"]);
+  requireFinite(far?.at0, "The far-end reading at 0°", ["far", "at0"]);
+  requireFinite(far?.at180, "The far-end reading at 180°", ["far", "at180"]);
+  return (far.at0 + far.at180) / 2 - (near.at0 + near.at180) / 2;
+}

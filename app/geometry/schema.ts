@@ -1,0 +1,238 @@
+import { z } from "zod";
+import { KINDS_FOR_METHOD } from "./acceptance-tests";
+import { getProfile, PROFILES } from "./profiles";
+import { STRAIGHTNESS_REFERENCES } from "./straightness";
+import type { ReportMeasurements, TestMeasurement } from "./types";
+
+// One schema per measurement kind, shared by the API and the forms. Values are in the request's units:
+// "mm" → stations and lengths in mm, readings and resolution in µm; "inch" → all in inches.
+// Level tilts are ratios and always in µm/m (the same number as µin/in).
+
+function numberField(what: string, unit = "") {
+  const suffix = unit ? ` (${unit})` : "";
+  return z.number({
+    error: (issue) => (issue.input === undefined ? `${what} is required${suffix}.` : `${what} must be a number${suffix}.`),
+  });
+}
+
+const READING_UNIT = "µm, or inches in inch mode";
+const LENGTH_UNIT = "mm, or inches in inch mode";
+
+const resolution = numberField("The instrument resolution", READING_UNIT)
+  .positive("The instrument resolution must be greater than 0: give the smallest step the instrument reads.")
+  .optional();
+
+const length = numberField("The distance between the near and far readings", LENGTH_UNIT)
+  .positive("The distance between the near and far readings must be greater than 0.")
+  .optional();
+
+function pointsSchema(readingWhat: string, readingUnit: string) {
+  return z
+    .array(
+      z.object({
+        station: numberField("The station", LENGTH_UNIT),
+        reading: numberField(readingWhat, readingUnit),
+      }),
+      { error: "Give the readings as a list of { station, reading } points." },
+    )
+    .min(2, "Give readings at two stations at least (a straightness needs three to mean anything).")
+    .superRefine((points, ctx) => {
+      const seen = new Map<number, number>();
+      points.forEach((point, i) => {
+        const first = seen.get(point.station);
+        if (first !== undefined) {
+          ctx.addIssue({
+            code: "custom",
+            path: [i, "station"],
+            message:
+              `Station ${point.station} is given twice (points ${first + 1} and ${i + 1}); ` +
+              `read each station once, or average the repeated readings.`,
+          });
+        } else {
+          seen.set(point.station, i);
+        }
+      });
+    });
+}
+
+export const sweepMeasurementSchema = z.object({
+  kind: z.literal("sweep"),
+  readings: z
+    .array(numberField("Each indicator reading", READING_UNIT), { error: "Give the indicator readings as a list of numbers." })
+    .min(2, 'Give at least two indicator readings over a full revolution, or the highest and lowest as kind "extremes".'),
+  resolution,
+});
+
+export const extremesMeasurementSchema = z
+  .object({
+    kind: z.literal("extremes"),
+    max: numberField("The highest reading over a revolution", READING_UNIT),
+    min: numberField("The lowest reading over a revolution", READING_UNIT),
+    resolution,
+  })
+  .refine((m) => m.max >= m.min, {
+    path: ["max"],
+    message: "The highest reading is below the lowest; swap them.",
+  });
+
+export const profileMeasurementSchema = z.object({
+  kind: z.literal("profile"),
+  points: pointsSchema("The reading", READING_UNIT),
+  reference: z
+    .enum(STRAIGHTNESS_REFERENCES as ["end-points", "least-squares", "minimum-zone"], {
+      error: `The reference line must be one of ${STRAIGHTNESS_REFERENCES.join(", ")}.`,
+    })
+    .optional(),
+  resolution,
+});
+
+export const levelMeasurementSchema = z.object({
+  kind: z.literal("level"),
+  points: pointsSchema("The level tilt", "µm/m in both unit modes"),
+  resolution: numberField("The level's resolution", "µm/m")
+    .positive("The level's resolution must be greater than 0 (µm/m).")
+    .optional(),
+});
+
+const atBothAngles = (end: string) =>
+  z.object(
+    {
+      at0: numberField(`The ${end} reading with the spindle at 0°`, READING_UNIT),
+      at180: numberField(`The ${end} reading with the spindle turned 180°`, READING_UNIT),
+    },
+    { error: `Give the ${end} readings as { at0, at180 }.` },
+  );
+
+export const mandrelMeasurementSchema = z.object({
+  kind: z.literal("mandrel"),
+  near: atBothAngles("near-end"),
+  far: atBothAngles("far-end"),
+  length,
+  resolution,
+});
+
+export const nearFarMeasurementSchema = z.object({
+  kind: z.literal("near-far"),
+  near: numberField("The near reading", READING_UNIT),
+  far: numberField("The far reading", READING_UNIT),
+  length,
+  resolution,
+});
+
+export const centreHeightMeasurementSchema = z.object({
+  kind: z.literal("centre-height"),
+  headstockEnd: numberField("The reading at the headstock end", READING_UNIT),
+  tailstockEnd: numberField("The reading at the tailstock end", READING_UNIT),
+  resolution,
+});
+
+const MEASUREMENT_KINDS = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height"] as const;
+
+export const testMeasurementSchema = z.discriminatedUnion(
+  "kind",
+  [
+    sweepMeasurementSchema,
+    extremesMeasurementSchema,
+    profileMeasurementSchema,
+    levelMeasurementSchema,
+    mandrelMeasurementSchema,
+    nearFarMeasurementSchema,
+    centreHeightMeasurementSchema,
+  ],
+  { error: `Say which kind of readings these are: one of ${MEASUREMENT_KINDS.join(", ")}.` },
+);
+
+export const conditionsSchema = z.object({
+  ambientTemperatureC: numberField("The ambient temperature", "°C")
+    .min(-40, "The ambient temperature looks wrong; give it in °C.")
+    .max(60, "The ambient temperature looks wrong; give it in °C.")
+    .optional(),
+  warmUpMinutes: numberField("The warm-up run", "minutes").min(0, "The warm-up run cannot be negative.").optional(),
+  levelled: z.boolean({ error: "Say whether the machine was levelled: true or false." }).optional(),
+});
+
+export const reportMeasurementsSchema = z.object({
+  measuredOn: z.iso.date({ error: "Give the date of the tests as YYYY-MM-DD." }).optional(),
+  conditions: conditionsSchema.optional(),
+  tests: z.record(z.string(), testMeasurementSchema, {
+    error: "Give the readings as an object keyed by test code, e.g. { \"L-SP-NOSE\": { ... } }.",
+  }),
+});
+
+export const unitsSchema = z.enum(["mm", "inch"], {
+  error: 'Say which units the readings are in: "mm" (stations in mm, readings in µm) or "inch" (both in inches).',
+});
+
+export const evaluationRequestSchema = z
+  .object({
+    profile: z.object(
+      {
+        key: z.string({ error: "Give the tolerance profile's key." }).min(1, "Give the tolerance profile's key."),
+        version: z
+          .number({ error: "Give the tolerance profile's version, a whole number." })
+          .int("The profile version is a whole number.")
+          .positive("The profile version is a whole number from 1."),
+      },
+      { error: "Say which tolerance profile to score against: { key, version }." },
+    ),
+    units: unitsSchema,
+    measurements: reportMeasurementsSchema,
+  })
+  .superRefine((request, ctx) => {
+    const profile = getProfile(request.profile.key, request.profile.version);
+    if (!profile) {
+      const sameKey = PROFILES.filter((p) => p.key === request.profile.key);
+      ctx.addIssue(
+        sameKey.length > 0
+          ? {
+              code: "custom",
+              path: ["profile", "version"],
+              message: `${request.profile.key} has versions ${sameKey.map((p) => p.version).join(", ")}, not ${request.profile.version}.`,
+            }
+          : {
+              code: "custom",
+              path: ["profile", "key"],
+              message: `No tolerance profile "${request.profile.key}"; known profiles: ${[...new Set(PROFILES.map((p) => p.key))].join(", ")}.`,
+            },
+      );
+      return;
+    }
+    for (const [code, measurement] of Object.entries(request.measurements.tests)) {
+      const test = profile.tests.find((t) => t.code === code);
+      if (!test) {
+        ctx.addIssue({
+          code: "custom",
+          path: ["measurements", "tests", code],
+          message: `"${code}" is not a test of ${profile.key} v${profile.version}; its tests are ${profile.tests.map((t) => t.code).join(", ")}.`,
+        });
+        continue;
+      }
+      const kinds = KINDS_FOR_METHOD[test.method];
+      if (!kinds.includes(measurement.kind)) {
+        ctx.addIssue({
+          code: "custom",
+          path: ["measurements", "tests", code, "kind"],
+          message: `${code} (${test.title}) takes ${kinds.map((k) => `"${k}"`).join(" or ")} readings, not "${measurement.kind}".`,
+        });
+      }
+    }
+  });
+
+export type EvaluationRequestInput = z.input<typeof evaluationRequestSchema>;
+
+/** Zod issues as { "path.to.field": ["message", …] }; issues on the whole value go under "request". */
+export function fieldErrors(error: z.ZodError): Record<string, string[]> {
+  const errors: Record<string, string[]> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length > 0 ? issue.path.map(String).join(".") : "request";
+    (errors[key] ??= []).push(issue.message);
+  }
+  return errors;
+}
+
+// The schemas' output must stay assignable to the engine's types.
+type Assignable<T, U> = [T] extends [U] ? true : false;
+const measurementTypesAgree: Assignable<z.output<typeof testMeasurementSchema>, TestMeasurement> = true;
+const reportTypesAgree: Assignable<z.output<typeof reportMeasurementsSchema>, ReportMeasurements> = true;
+void measurementTypesAgree;
+void reportTypesAgree;
