@@ -1,0 +1,45 @@
+import { describe, expect, it } from "vitest";
+import {
+  formatLength,
+  formatMoney,
+  formatPower,
+  formatWeight,
+  lengthToMillimetres,
+  powerToKilowatts,
+  toMinorUnits,
+  weightToKilograms,
+} from "~/modules/units/format";
+
+describe("display units", () => {
+  it("shows millimetres as stored and inches at 25.4 mm each (NIST SP 811: 1 in = 25.4 mm exactly)", () => {
+    expect(formatLength(330, "mm")).toBe("330 mm");
+    expect(formatLength(330.2, "inch")).toBe("13 in");
+    expect(formatLength(38.1, "inch")).toBe("1.5 in");
+    expect(formatLength(1000, "mm")).toBe("1,000 mm");
+  });
+
+  it("turns inches typed into a form into millimetres", () => {
+    expect(lengthToMillimetres(13, "inch")).toBe(330.2);
+    expect(lengthToMillimetres(40, "inch")).toBe(1016);
+    expect(lengthToMillimetres(330, "mm")).toBe(330);
+  });
+
+  it("converts weight with 1 lb = 0.45359237 kg exactly (NIST SP 811)", () => {
+    expect(formatWeight(1000, "mm")).toBe("1,000 kg");
+    expect(formatWeight(1000, "inch")).toBe("2,205 lb");
+    expect(weightToKilograms(2205, "inch")).toBe(1000);
+  });
+
+  it("converts power with 1 hp = 745.699872 W (NIST SP 811, appendix B)", () => {
+    expect(formatPower(5.5, "mm")).toBe("5.5 kW");
+    expect(formatPower(7.457, "inch")).toBe("10 hp");
+    expect(powerToKilowatts(10, "inch")).toBe(7.457);
+  });
+
+  it("keeps prices in minor units and drops cents from whole amounts", () => {
+    expect(toMinorUnits(18500.5)).toBe(1850050);
+    expect(toMinorUnits(0.29)).toBe(29);
+    expect(formatMoney(1850000, "EUR")).toBe("€18,500");
+    expect(formatMoney(1850050, "GBP")).toBe("£18,500.50");
+  });
+});
