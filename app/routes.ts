@@ -7,4 +7,5 @@ export default [
 
   // API (resource routes)
   route("api/health", "routes/api.health.ts"),
+  route("api/v1/evaluations", "routes/api.v1.evaluations.ts"),
 ] satisfies RouteConfig;
