@@ -16,6 +16,12 @@ export const environmentSchema = z.object({
     .string()
     .min(32, { error: "must be at least 32 characters (generate one with `openssl rand -hex 32`)" })
     .default("development-only-secret-change-me-0123456789"),
+  // File storage (S3 or anything speaking its API; locally the s3rver stand-in in stand-ins/files).
+  S3_ENDPOINT: z.url({ error: "must be the S3 endpoint URL, e.g. https://s3.eu-central-1.amazonaws.com" }).default("http://127.0.0.1:4568"),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3, { error: "must name the bucket for photos and documents" }).default("tenthmark-files"),
+  S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
 });
 
 export type Environment = z.infer<typeof environmentSchema>;
