@@ -41,6 +41,8 @@ async function main() {
     DATABASE_URL: databaseUrl,
     APP_ORIGIN: appOrigin,
     PORT: String(port),
+    // Loopback only unless told otherwise (a deployment sets HOST=0.0.0.0 behind its proxy).
+    HOST: process.env.HOST ?? "127.0.0.1",
   };
   Object.assign(process.env, environment);
   await seedDemoDataIfEmpty(databaseUrl);

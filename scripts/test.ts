@@ -49,6 +49,7 @@ async function main(): Promise<number> {
     ...environment,
     NODE_ENV: "production",
     PORT: String(port),
+    HOST: "127.0.0.1",
   });
   await waitForHttp(`http://127.0.0.1:${port}/api/health`);
   log("test", `app under test at ${appOrigin}`);
