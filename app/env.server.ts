@@ -22,6 +22,20 @@ export const environmentSchema = z.object({
   S3_BUCKET: z.string().min(3, { error: "must name the bucket for photos and documents" }).default("tenthmark-files"),
   S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
   S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
+  // Sessions are signed with SESSION_SECRET unless BETTER_AUTH_SECRET is set.
+  BETTER_AUTH_SECRET: z.string().min(32, { error: "must be at least 32 characters" }).optional(),
+  // E-mail through Postmark (locally the stand-in in stand-ins/mail).
+  POSTMARK_SERVER_TOKEN: z.string().min(1, { error: "must be the Postmark server API token" }).default("local-mail-stand-in-token"),
+  POSTMARK_API_HOST: z
+    .string()
+    .regex(/^[a-z0-9.-]+(:\d+)?$/i, { error: "must be host or host:port, e.g. api.postmarkapp.com" })
+    .default("127.0.0.1:4580"),
+  POSTMARK_USE_HTTPS: z.enum(["true", "false"]).default("false").transform((value) => value === "true"),
+  MAIL_FROM: z.string().min(3, { error: "must be the sender, e.g. Tenthmark <mail@example.test>" }).default("Tenthmark <mail@tenthmark.example.test>"),
+  // Job queue (pg-boss) schema in DATABASE_URL; tests may run a queue of their own in another schema.
+  JOB_QUEUE_SCHEMA: z.string().regex(/^[a-z_][a-z0-9_]*$/).default("pgboss"),
+  // Set to "false" to run no job workers in this process (e.g. a web-only server).
+  JOB_WORKERS: z.enum(["true", "false"]).default("true").transform((value) => value === "true"),
 });
 
 export type Environment = z.infer<typeof environmentSchema>;
