@@ -1,6 +1,7 @@
 // The local stand-ins for hosted services (files, payments, e-mail, search). Each is started here for both
 // `npm start` and `npm test`, on loopback only, and hands back the environment that points the app at it.
 import { startFilesStandIn } from "../../stand-ins/files/index.ts";
+import { startMailStandIn } from "../../stand-ins/mail/index.ts";
 import { freePort } from "./ports.ts";
 
 export type StandIn = { name: string; env: Record<string, string>; stop: () => Promise<void> };
@@ -17,6 +18,7 @@ type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
 // Each stand-in adds itself to this list with its default port.
 const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [
   { name: "files", defaultPort: 4568, start: startFilesStandIn },
+  { name: "mail", defaultPort: 4580, start: startMailStandIn },
 ];
 
 export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {
