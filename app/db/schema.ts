@@ -1,3 +1,4 @@
 // The database schema: each domain's tables live in its module and are re-exported here, so that
 // drizzle-kit and the Drizzle client see one schema.
 export * from "../modules/accounts/schema";
+export * from "../modules/listings/schema";

@@ -1,0 +1,144 @@
+import { sql } from "drizzle-orm";
+import {
+  bigint,
+  check,
+  doublePrecision,
+  index,
+  integer,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from "drizzle-orm/pg-core";
+import { user } from "../accounts/schema";
+
+export const machineCategory = pgEnum("machine_category", [
+  "centre_lathe",
+  "toolroom_lathe",
+  "cnc_lathe",
+  "milling_machine",
+  "surface_grinder",
+  "other",
+]);
+export const machineCondition = pgEnum("machine_condition", ["reconditioned", "used", "as_is"]);
+export const listingStatus = pgEnum("listing_status", ["draft", "published", "sold", "withdrawn"]);
+
+// A machine offered for sale. Sizes are held in millimetres, weight in kilograms, power in kilowatts,
+// the price in minor units of its currency; pages convert to the reader's units.
+export const listings = pgTable(
+  "listings",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    sellerId: text("seller_id")
+      .notNull()
+      .references(() => user.id, { onDelete: "cascade" }),
+    slug: text("slug").notNull(),
+    status: listingStatus("status").notNull().default("draft"),
+    category: machineCategory("category").notNull(),
+    make: text("make").notNull(),
+    model: text("model").notNull(),
+    year: integer("year"),
+    serialNumber: text("serial_number"),
+    swingOverBedMm: doublePrecision("swing_over_bed_mm"),
+    distanceBetweenCentresMm: doublePrecision("distance_between_centres_mm"),
+    spindleBoreMm: doublePrecision("spindle_bore_mm"),
+    spindleNose: text("spindle_nose"),
+    motorPowerKw: doublePrecision("motor_power_kw"),
+    weightKg: integer("weight_kg"),
+    city: text("city").notNull(),
+    region: text("region"),
+    country: text("country").notNull(),
+    priceMinor: bigint("price_minor", { mode: "number" }).notNull(),
+    currency: text("currency").notNull(),
+    condition: machineCondition("condition").notNull(),
+    toolingIncluded: text("tooling_included"),
+    description: text("description").notNull(),
+    publishedAt: timestamp("published_at", { withTimezone: true }),
+    soldAt: timestamp("sold_at", { withTimezone: true }),
+    withdrawnAt: timestamp("withdrawn_at", { withTimezone: true }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    uniqueIndex("listings_slug_idx").on(table.slug),
+    index("listings_seller_idx").on(table.sellerId),
+    index("listings_published_idx").on(table.status, table.publishedAt),
+    check("listings_price_positive", sql`${table.priceMinor} > 0`),
+    check("listings_currency_code", sql`${table.currency} ~ '^[A-Z]{3}$'`),
+  ],
+);
+
+// Photos in gallery order: position 0 is the cover. Only the processed WebP variants are kept.
+export const listingPhotos = pgTable(
+  "listing_photos",
+  {
+    id: uuid("id").primaryKey(),
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    position: integer("position").notNull(),
+    thumbnailKey: text("thumbnail_key").notNull(),
+    largeKey: text("large_key").notNull(),
+    width: integer("width").notNull(),
+    height: integer("height").notNull(),
+    originalName: text("original_name").notNull(),
+    originalBytes: integer("original_bytes").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index("listing_photos_listing_idx").on(table.listingId, table.position)],
+);
+
+// Manuals, earlier inspection reports and the like, as PDF.
+export const listingDocuments = pgTable(
+  "listing_documents",
+  {
+    id: uuid("id").primaryKey(),
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    title: text("title").notNull(),
+    storageKey: text("storage_key").notNull(),
+    bytes: integer("bytes").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index("listing_documents_listing_idx").on(table.listingId)],
+);
+
+// A buyer's question to the seller; kept here and forwarded by e-mail.
+export const listingInquiries = pgTable(
+  "listing_inquiries",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    senderId: text("sender_id")
+      .notNull()
+      .references(() => user.id, { onDelete: "cascade" }),
+    message: text("message").notNull(),
+    phone: text("phone"),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index("listing_inquiries_listing_idx").on(table.listingId, table.createdAt)],
+);
+
+export const listingWatches = pgTable(
+  "listing_watches",
+  {
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => user.id, { onDelete: "cascade" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [primaryKey({ columns: [table.listingId, table.userId] }), index("listing_watches_user_idx").on(table.userId)],
+);
+
+export type Listing = typeof listings.$inferSelect;
+export type ListingPhoto = typeof listingPhotos.$inferSelect;
+export type ListingDocument = typeof listingDocuments.$inferSelect;
