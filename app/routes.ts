@@ -5,6 +5,9 @@ export default [
   index("routes/home.tsx"),
   route("how-scoring-works", "routes/how-scoring-works.tsx"),
 
+  // Processed photos and documents, streamed from the bucket
+  route("files/*", "routes/files.ts"),
+
   // API (resource routes)
   route("api/health", "routes/api.health.ts"),
   route("api/v1/evaluations", "routes/api.v1.evaluations.ts"),
