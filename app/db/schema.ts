@@ -2,3 +2,4 @@
 // drizzle-kit and the Drizzle client see one schema.
 export * from "../modules/accounts/schema";
 export * from "../modules/listings/schema";
+export * from "../modules/inspections/schema";
