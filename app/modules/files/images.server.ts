@@ -27,7 +27,8 @@ export async function inspectPhoto(bytes: Buffer) {
   }
   let metadata: Metadata;
   try {
-    metadata = await sharp(bytes).metadata();
+    // Reading the header decodes no pixels, so the limit is lifted here to name the real size below.
+    metadata = await sharp(bytes, { limitInputPixels: false }).metadata();
   } catch {
     throw new RejectedFileError("This file is not a photo we can read. Send a JPEG, PNG or WebP image.");
   }
