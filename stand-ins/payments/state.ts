@@ -1,0 +1,213 @@
+// Everything the stand-in knows, kept in one JSON file under its data folder so that a restart on the same
+// folder carries on where it left off (sessions, payments, refunds, events and pending deliveries).
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
+import path from "node:path";
+
+export type Metadata = Record<string, string>;
+
+export type LineItem = { description: string; quantity: number; unit_amount: number; amount_total: number; currency: string };
+
+export type CheckoutSession = {
+  id: string;
+  object: "checkout.session";
+  amount_subtotal: number;
+  amount_total: number;
+  cancel_url: string | null;
+  client_reference_id: string | null;
+  created: number;
+  currency: string;
+  customer_details: { email: string | null } | null;
+  customer_email: string | null;
+  expires_at: number;
+  livemode: false;
+  metadata: Metadata;
+  mode: "payment";
+  payment_intent: string | null;
+  payment_status: "paid" | "unpaid";
+  status: "open" | "complete" | "expired";
+  success_url: string | null;
+  url: string | null;
+  /** Not part of Stripe's object: what the stand-in needs to make the payment intent and show the page. */
+  _line_items: LineItem[];
+  _payment_intent_data: {
+    application_fee_amount: number | null;
+    description: string | null;
+    metadata: Metadata;
+    transfer_group: string | null;
+    transfer_data: { destination: string; amount?: number } | null;
+  };
+  _api_version: string;
+};
+
+export type PaymentError = {
+  type: "card_error";
+  code: string;
+  decline_code?: string;
+  message: string;
+  param?: string;
+  payment_method: { id: string; object: "payment_method"; type: "card"; card: { brand: string; last4: string } };
+};
+
+export type PaymentIntent = {
+  id: string;
+  object: "payment_intent";
+  amount: number;
+  amount_received: number;
+  application_fee_amount: number | null;
+  canceled_at: number | null;
+  client_secret: string;
+  created: number;
+  currency: string;
+  description: string | null;
+  last_payment_error: PaymentError | null;
+  latest_charge: string | null;
+  livemode: false;
+  metadata: Metadata;
+  payment_method: string | null;
+  payment_method_types: string[];
+  receipt_email: string | null;
+  status: "requires_payment_method" | "succeeded" | "canceled";
+  transfer_data: { destination: string; amount?: number } | null;
+  transfer_group: string | null;
+};
+
+export type Charge = {
+  id: string;
+  object: "charge";
+  amount: number;
+  amount_captured: number;
+  amount_refunded: number;
+  application_fee_amount: number | null;
+  billing_details: { email: string | null };
+  captured: boolean;
+  created: number;
+  currency: string;
+  description: string | null;
+  livemode: false;
+  metadata: Metadata;
+  paid: boolean;
+  payment_intent: string;
+  payment_method: string;
+  payment_method_details: { type: "card"; card: { brand: string; last4: string; exp_month: number; exp_year: number } };
+  receipt_email: string | null;
+  refunded: boolean;
+  status: "succeeded";
+  transfer_group: string | null;
+};
+
+export type Refund = {
+  id: string;
+  object: "refund";
+  amount: number;
+  charge: string;
+  created: number;
+  currency: string;
+  metadata: Metadata;
+  payment_intent: string;
+  reason: string | null;
+  status: "succeeded";
+};
+
+export type Transfer = {
+  id: string;
+  object: "transfer";
+  amount: number;
+  amount_reversed: number;
+  created: number;
+  currency: string;
+  description: string | null;
+  destination: string;
+  livemode: false;
+  metadata: Metadata;
+  reversed: boolean;
+  source_transaction: string | null;
+  transfer_group: string | null;
+};
+
+export type StripeObject = CheckoutSession | PaymentIntent | Charge | Refund | Transfer;
+
+export type Event = {
+  id: string;
+  object: "event";
+  api_version: string;
+  created: number;
+  data: { object: Record<string, unknown> };
+  livemode: false;
+  pending_webhooks: number;
+  request: { id: string | null; idempotency_key: string | null };
+  type: string;
+};
+
+export type Delivery = {
+  event_id: string;
+  event_type: string;
+  attempt: number;
+  url: string;
+  at: number;
+  /** HTTP status the endpoint answered with, or null when it could not be reached. */
+  status: number | null;
+  error: string | null;
+  delivered: boolean;
+};
+
+export type PendingDelivery = { event_id: string; attempts: number; next_attempt_at: number };
+
+export type IdempotentResponse = { fingerprint: string; status: number; body: string; created: number };
+
+export type State = {
+  sessions: Record<string, CheckoutSession>;
+  payment_intents: Record<string, PaymentIntent>;
+  charges: Record<string, Charge>;
+  refunds: Record<string, Refund>;
+  transfers: Record<string, Transfer>;
+  events: Record<string, Event>;
+  /** Event ids in the order they happened. */
+  event_order: string[];
+  deliveries: Delivery[];
+  pending: PendingDelivery[];
+  idempotency: Record<string, IdempotentResponse>;
+};
+
+const emptyState = (): State => ({
+  sessions: {},
+  payment_intents: {},
+  charges: {},
+  refunds: {},
+  transfers: {},
+  events: {},
+  event_order: [],
+  deliveries: [],
+  pending: [],
+  idempotency: {},
+});
+
+/** Ids shaped like Stripe's: a prefix and 24 random characters from [A-Za-z0-9]. */
+export function newId(prefix: string, length = 24): string {
+  const alphabet = "ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789";
+  const bytes = randomBytes(length);
+  let out = "";
+  for (const byte of bytes) out += alphabet[byte % alphabet.length];
+  return `${prefix}${out}`;
+}
+
+export const now = () => Math.floor(Date.now() / 1000);
+
+export class Store {
+  readonly state: State;
+  private readonly file: string;
+
+  constructor(dataDir: string) {
+    const folder = path.join(dataDir, "payments");
+    mkdirSync(folder, { recursive: true });
+    this.file = path.join(folder, "state.json");
+    this.state = existsSync(this.file) ? { ...emptyState(), ...JSON.parse(readFileSync(this.file, "utf8")) } : emptyState();
+  }
+
+  /** Written whole after every change; renamed into place so that a crash never leaves half a file. */
+  save() {
+    const temporary = `${this.file}.${process.pid}.tmp`;
+    writeFileSync(temporary, JSON.stringify(this.state));
+    renameSync(temporary, this.file);
+  }
+}
