@@ -2,6 +2,7 @@
 // `npm start` and `npm test`, on loopback only, and hands back the environment that points the app at it.
 import { startFilesStandIn } from "../../stand-ins/files/index.ts";
 import { startMailStandIn } from "../../stand-ins/mail/index.ts";
+import { startPaymentsStandIn } from "../../stand-ins/payments/index.ts";
 import { freePort } from "./ports.ts";
 
 export type StandIn = { name: string; env: Record<string, string>; stop: () => Promise<void> };
@@ -19,6 +20,7 @@ type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
 const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [
   { name: "files", defaultPort: 4568, start: startFilesStandIn },
   { name: "mail", defaultPort: 4580, start: startMailStandIn },
+  { name: "payments", defaultPort: 12111, start: startPaymentsStandIn },
 ];
 
 export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {
