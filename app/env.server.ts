@@ -36,6 +36,27 @@ export const environmentSchema = z.object({
   JOB_QUEUE_SCHEMA: z.string().regex(/^[a-z_][a-z0-9_]*$/).default("pgboss"),
   // Set to "false" to run no job workers in this process (e.g. a web-only server).
   JOB_WORKERS: z.enum(["true", "false"]).default("true").transform((value) => value === "true"),
+  // Payments through Stripe (locally the stand-in in stand-ins/payments, whose key and secret are the defaults).
+  // With Stripe itself, leave STRIPE_API_HOST, STRIPE_API_PORT and STRIPE_API_PROTOCOL unset (or empty).
+  STRIPE_SECRET_KEY: z
+    .string()
+    .regex(/^(sk|rk)_(test|live)_/, { error: "must be a Stripe secret key (sk_test_… or sk_live_…)" })
+    .default("sk_test_tenthmark_payments_stand_in"),
+  STRIPE_WEBHOOK_SECRET: z
+    .string()
+    .startsWith("whsec_", { error: "must be the signing secret of the webhook endpoint (whsec_…)" })
+    .default("whsec_tenthmark_payments_stand_in"),
+  STRIPE_API_HOST: z.preprocess(
+    (value) => (value === "" ? undefined : value),
+    z.string().regex(/^[a-z0-9.-]+$/i, { error: "must be a host name, e.g. 127.0.0.1" }).optional(),
+  ),
+  STRIPE_API_PORT: z.preprocess((value) => (value === "" ? undefined : value), z.coerce.number().int().min(1).max(65535).optional()),
+  STRIPE_API_PROTOCOL: z.preprocess((value) => (value === "" ? undefined : value), z.enum(["http", "https"]).optional()),
+  STRIPE_TIMEOUT_MS: z.coerce.number().int().min(1000).default(10_000),
+  // Unset: none against a local stand-in (STRIPE_API_HOST set), two against Stripe itself.
+  STRIPE_MAX_NETWORK_RETRIES: z.preprocess((value) => (value === "" ? undefined : value), z.coerce.number().int().min(0).max(5).optional()),
+  // The stand-in's own address (its test control API); unset with Stripe itself.
+  STRIPE_STAND_IN_URL: z.preprocess((value) => (value === "" ? undefined : value), z.url().optional()),
 });
 
 export type Environment = z.infer<typeof environmentSchema>;
