@@ -317,3 +317,28 @@ describe("precision class", () => {
     expect(bed.local?.tolerance).toBe(5); // 7.5 / 2 = 3.75 µm, raised to 5 µm (IS 6040:1993)
   });
 });
+
+describe("test kinds refuse input they cannot score", () => {
+  it.each([
+    ["a mandrel length of 0", "L-SP-PAR-V", { kind: "mandrel", near: { at0: 0, at180: 0 }, far: { at0: 1, at180: 1 }, length: 0 }, ["length"]],
+    ["a negative sleeve length", "L-TS-SLV-V", { kind: "near-far", near: 0, far: 1, length: -100 }, ["length"]],
+    ["a non-finite far reading", "L-TS-SLV-V", { kind: "near-far", near: 0, far: NaN }, ["far"]],
+    ["one reading over a revolution", "L-SP-NOSE", { kind: "sweep", readings: [3] }, ["readings"]],
+    ["no readings over a revolution", "L-SP-NOSE", { kind: "sweep", readings: [] }, ["readings"]],
+    ["an infinite reading over a revolution", "L-SP-NOSE", { kind: "sweep", readings: [0, Infinity] }, ["readings", 1]],
+    ["one station along a travel", "L-CAR-H", { kind: "profile", points: [{ station: 0, reading: 0 }] }, ["points"]],
+    ["a non-finite station", "L-CAR-H", { kind: "profile", points: [{ station: 0, reading: 0 }, { station: NaN, reading: 1 }] }, ["points", 1, "station"]],
+    ["a repeated level station", "L-BED-X", { kind: "level", points: [{ station: 5, reading: 0 }, { station: 5, reading: 1 }] }, ["points", 1, "station"]],
+    ["a non-finite centre-height reading", "L-CTR-HT", { kind: "centre-height", headstockEnd: 0, tailstockEnd: -Infinity }, ["tailstockEnd"]],
+    ["a resolution of 0", "L-SP-NOSE", { kind: "sweep", readings: [0, 1], resolution: 0 }, ["resolution"]],
+  ] as const)("%s", (_, code, measurement, path) => {
+    try {
+      score(code, measurement as unknown as TestMeasurement);
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(GeometryInputError);
+      expect((error as GeometryInputError).path).toEqual(path);
+      expect((error as Error).message.length).toBeGreaterThan(20);
+    }
+  });
+});
