@@ -1,0 +1,163 @@
+// Index settings as the stand-in keeps them: every setting the SDK can send is accepted and stored; the
+// ones that shape results here are searchable, filterable, sortable and displayed attributes, typo
+// tolerance, faceting.maxValuesPerFacet and pagination.maxTotalHits.
+import { ApiError, badRequest } from "./errors.ts";
+
+export const defaultRankingRules = ["words", "typo", "proximity", "attribute", "sort", "exactness"];
+
+export function defaultSettings(): Record<string, unknown> {
+  return {
+    displayedAttributes: ["*"],
+    searchableAttributes: ["*"],
+    filterableAttributes: [],
+    sortableAttributes: [],
+    rankingRules: [...defaultRankingRules],
+    stopWords: [],
+    nonSeparatorTokens: [],
+    separatorTokens: [],
+    dictionary: [],
+    synonyms: {},
+    distinctAttribute: null,
+    proximityPrecision: "byWord",
+    typoTolerance: {
+      enabled: true,
+      minWordSizeForTypos: { oneTypo: 5, twoTypos: 9 },
+      disableOnWords: [],
+      disableOnAttributes: [],
+      disableOnNumbers: false,
+    },
+    faceting: { maxValuesPerFacet: 100, sortFacetValuesBy: { "*": "alpha" } },
+    pagination: { maxTotalHits: 1000 },
+    embedders: {},
+    searchCutoffMs: null,
+    localizedAttributes: null,
+    facetSearch: true,
+    prefixSearch: "indexingTime",
+  };
+}
+
+/** The per-setting routes, `/settings/<kebab-case>`, and the settings key each stands for. */
+export const settingRoutes: Record<string, string> = Object.fromEntries(
+  Object.keys(defaultSettings()).map((key) => [key.replace(/[A-Z]/g, (letter) => `-${letter.toLowerCase()}`), key]),
+);
+
+const kebab = (key: string) => key.replace(/[A-Z]/g, (letter) => `-${letter.toLowerCase()}`).replace(/-/g, "_");
+
+function invalid(key: string, message: string): ApiError {
+  return new ApiError(400, `invalid_settings_${kebab(key)}`, `Invalid value at \`.${key}\`: ${message}`);
+}
+
+function stringList(key: string, value: unknown): string[] {
+  if (!Array.isArray(value) || value.some((item) => typeof item !== "string")) throw invalid(key, "expected an array of strings.");
+  return value;
+}
+
+const builtInRules = new Set(defaultRankingRules);
+
+/** Checks a settings patch and returns the settings it leads to; `null` resets a setting. */
+export function applySettingsPatch(current: Record<string, unknown>, patch: unknown): Record<string, unknown> {
+  if (patch === null || typeof patch !== "object" || Array.isArray(patch)) throw badRequest("Invalid value type: expected an object of settings.");
+  const defaults = defaultSettings();
+  const next = structuredClone(current);
+  for (const [key, value] of Object.entries(patch as Record<string, unknown>)) {
+    if (!(key in defaults)) {
+      throw badRequest(`Unknown field \`${key}\`: expected one of ${Object.keys(defaults).map((name) => `\`${name}\``).join(", ")}`);
+    }
+    if (value === null) {
+      next[key] = defaults[key];
+      continue;
+    }
+    switch (key) {
+      case "displayedAttributes":
+      case "searchableAttributes":
+      case "sortableAttributes":
+      case "stopWords":
+      case "nonSeparatorTokens":
+      case "separatorTokens":
+      case "dictionary":
+        next[key] = stringList(key, value);
+        break;
+      case "filterableAttributes":
+        if (!Array.isArray(value) || value.some((item) => typeof item !== "string" && !isPatternObject(item))) {
+          throw invalid(key, "expected an array of attribute names or `{ attributePatterns: [...] }` objects.");
+        }
+        next[key] = value;
+        break;
+      case "rankingRules": {
+        const rules = stringList(key, value);
+        for (const rule of rules) {
+          if (!builtInRules.has(rule) && !/^[^:\s]+:(asc|desc)$/.test(rule)) {
+            throw invalid(key, `\`${rule}\` ranking rule is invalid. Valid ranking rules are words, typo, sort, proximity, attribute, exactness and custom ranking rules.`);
+          }
+        }
+        next[key] = rules;
+        break;
+      }
+      case "typoTolerance":
+      case "faceting":
+      case "pagination": {
+        if (typeof value !== "object" || Array.isArray(value)) throw invalid(key, "expected an object.");
+        next[key] = mergeDeep(current[key] as Record<string, unknown>, value as Record<string, unknown>);
+        validateNumbers(key, next[key] as Record<string, unknown>);
+        break;
+      }
+      default:
+        next[key] = value;
+    }
+  }
+  return next;
+}
+
+function isPatternObject(item: unknown): boolean {
+  return (
+    item !== null &&
+    typeof item === "object" &&
+    Array.isArray((item as { attributePatterns?: unknown }).attributePatterns) &&
+    (item as { attributePatterns: unknown[] }).attributePatterns.every((pattern) => typeof pattern === "string")
+  );
+}
+
+function mergeDeep(base: Record<string, unknown>, patch: Record<string, unknown>): Record<string, unknown> {
+  const merged: Record<string, unknown> = { ...base };
+  for (const [key, value] of Object.entries(patch)) {
+    const existing = merged[key];
+    merged[key] =
+      value && typeof value === "object" && !Array.isArray(value) && existing && typeof existing === "object" && !Array.isArray(existing)
+        ? mergeDeep(existing as Record<string, unknown>, value as Record<string, unknown>)
+        : value;
+  }
+  return merged;
+}
+
+function validateNumbers(key: string, value: Record<string, unknown>) {
+  const check = (path: string, number: unknown) => {
+    if (number !== undefined && (typeof number !== "number" || !Number.isInteger(number) || number < 0)) {
+      throw invalid(key, `\`${path}\` must be a non-negative integer.`);
+    }
+  };
+  if (key === "pagination") check("maxTotalHits", value.maxTotalHits);
+  if (key === "faceting") check("maxValuesPerFacet", value.maxValuesPerFacet);
+  if (key === "typoTolerance") {
+    const sizes = (value.minWordSizeForTypos ?? {}) as Record<string, unknown>;
+    check("minWordSizeForTypos.oneTypo", sizes.oneTypo);
+    check("minWordSizeForTypos.twoTypos", sizes.twoTypos);
+    if (typeof value.enabled !== "boolean") throw invalid(key, "`enabled` must be a boolean.");
+  }
+}
+
+/** Attribute patterns of `filterableAttributes`, plain names and `{ attributePatterns }` alike. */
+export function filterablePatterns(settings: Record<string, unknown>): string[] {
+  return (settings.filterableAttributes as unknown[]).flatMap((item) =>
+    typeof item === "string" ? [item] : ((item as { attributePatterns: string[] }).attributePatterns ?? []),
+  );
+}
+
+/** `seller.city` is covered by `seller.city`, by `seller` and by patterns such as `seller.*` or `*`. */
+export function attributeMatches(attribute: string, patterns: string[]): boolean {
+  return patterns.some((pattern) => {
+    if (pattern === "*" || pattern === attribute || attribute.startsWith(`${pattern}.`)) return true;
+    if (pattern.endsWith("*")) return attribute.startsWith(pattern.slice(0, -1));
+    if (pattern.startsWith("*")) return attribute.endsWith(pattern.slice(1));
+    return false;
+  });
+}
