@@ -3,6 +3,7 @@
 import { startFilesStandIn } from "../../stand-ins/files/index.ts";
 import { startMailStandIn } from "../../stand-ins/mail/index.ts";
 import { startPaymentsStandIn } from "../../stand-ins/payments/index.ts";
+import { startSearchStandIn } from "../../search/stand-in/index.ts";
 import { freePort } from "./ports.ts";
 
 export type StandIn = { name: string; env: Record<string, string>; stop: () => Promise<void> };
@@ -21,6 +22,7 @@ const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [
   { name: "files", defaultPort: 4568, start: startFilesStandIn },
   { name: "mail", defaultPort: 4580, start: startMailStandIn },
   { name: "payments", defaultPort: 12111, start: startPaymentsStandIn },
+  { name: "search", defaultPort: 7701, start: startSearchStandIn },
 ];
 
 export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {
