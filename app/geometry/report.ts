@@ -22,8 +22,9 @@ export function gradeOf(outcomes: readonly GradedOutcome[], missingRequired = 0)
 }
 
 /**
- * Scores a report against a profile. Graded: every required test, and every optional test that was
- * measured (a measured failure is never hidden by calling the test optional).
+ * Scores a report against a profile. The grade comes from the required tests alone (PRODUCT.md), so that
+ * two reports of one profile are graded on the same tests; a measured optional test still shows its own
+ * verdict and, when out of tolerance, is listed in `outOfTolerance`.
  */
 export function scoreReport(profile: ToleranceProfile, measurements: ReportMeasurements): ReportScore {
   const tests = measurements?.tests;
@@ -58,7 +59,11 @@ export function scoreReport(profile: ToleranceProfile, measurements: ReportMeasu
     }
   }
 
-  const grade = gradeOf(results, missing.length);
+  const required = new Set(profile.tests.filter((test) => test.required).map((test) => test.code));
+  const grade = gradeOf(
+    results.filter((result) => required.has(result.code)),
+    missing.length,
+  );
   const byCode = new Map(results.map((result) => [result.code, result]));
   const keyFigures = {} as KeyFigures;
   for (const [name, code] of Object.entries(profile.keyFigures) as [KeyFigureName, string][]) {

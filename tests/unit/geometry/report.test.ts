@@ -77,9 +77,11 @@ describe("scoring a whole report", () => {
     expect(score.grade).toBe("D"); // 16 of 10 µm: r = 1.6 (ISO 1708:1989, from memory)
   });
 
-  it("counts a measured optional test that fails", () => {
+  it("grades on the required tests, while still listing a measured optional test that fails", () => {
+    // PRODUCT.md / GEOMETRY.md: the grade is the worst ratio over the required tests.
     const score = scoreReport(CENTRE_LATHE_NORMAL, wellKeptReport({ "L-P-ROUND": { kind: "sweep", readings: [0, 12], resolution: 1 } }));
-    expect(score.grade).toBe("C");
+    expect(score.grade).toBe("A");
+    expect(score.outOfTolerance).toEqual(["L-P-ROUND"]);
   });
 
   it("is incomplete without a required test, and lists it", () => {
