@@ -57,6 +57,11 @@ export const environmentSchema = z.object({
   STRIPE_MAX_NETWORK_RETRIES: z.preprocess((value) => (value === "" ? undefined : value), z.coerce.number().int().min(0).max(5).optional()),
   // The stand-in's own address (its test control API); unset with Stripe itself.
   STRIPE_STAND_IN_URL: z.preprocess((value) => (value === "" ? undefined : value), z.url().optional()),
+  // Listing search through Meilisearch (locally the stand-in in search/stand-in, whose master key is the default).
+  MEILISEARCH_HOST: z.url({ error: "must be the Meilisearch URL, e.g. http://127.0.0.1:7700" }).default("http://127.0.0.1:7701"),
+  MEILISEARCH_API_KEY: z.string().min(1, { error: "must be a Meilisearch API key with search and write rights" }).default("tenthmark-local-search-master-key"),
+  // Milliseconds a search may take before the page answers from PostgreSQL instead.
+  MEILISEARCH_SEARCH_TIMEOUT_MS: z.coerce.number().int().min(50).default(800),
 });
 
 export type Environment = z.infer<typeof environmentSchema>;
