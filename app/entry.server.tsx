@@ -1,0 +1,56 @@
+// React Router's default Node entry, plus the one thing the app server does besides answering requests:
+// it runs the job queue's workers (mail, search indexing, …) in this same process.
+import { PassThrough } from "node:stream";
+import { createReadableStreamFromReadable } from "@react-router/node";
+import { isbot } from "isbot";
+import type { RenderToPipeableStreamOptions } from "react-dom/server";
+import { renderToPipeableStream } from "react-dom/server";
+import type { EntryContext } from "react-router";
+import { ServerRouter } from "react-router";
+import { startJobWorkers } from "~/modules/jobs/workers.server";
+
+// Once per process, when the server bundle is first loaded. A database that is down is retried inside.
+void startJobWorkers();
+
+export const streamTimeout = 5_000;
+
+export default function handleRequest(request: Request, responseStatusCode: number, responseHeaders: Headers, routerContext: EntryContext) {
+  // https://httpwg.org/specs/rfc9110.html#HEAD
+  if (request.method.toUpperCase() === "HEAD") {
+    return new Response(null, { status: responseStatusCode, headers: responseHeaders });
+  }
+
+  return new Promise((resolve, reject) => {
+    let shellRendered = false;
+    const userAgent = request.headers.get("user-agent");
+    // Bots and SPA mode wait for all content; people get the shell as soon as it is ready.
+    const readyOption: keyof RenderToPipeableStreamOptions = (userAgent && isbot(userAgent)) || routerContext.isSpaMode ? "onAllReady" : "onShellReady";
+
+    let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
+
+    const { pipe, abort } = renderToPipeableStream(<ServerRouter context={routerContext} url={request.url} />, {
+      [readyOption]() {
+        shellRendered = true;
+        const body = new PassThrough({
+          final(callback) {
+            clearTimeout(timeoutId);
+            timeoutId = undefined;
+            callback();
+          },
+        });
+        const stream = createReadableStreamFromReadable(body);
+        responseHeaders.set("Content-Type", "text/html");
+        pipe(body);
+        resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
+      },
+      onShellError(error: unknown) {
+        reject(error);
+      },
+      onError(error: unknown) {
+        responseStatusCode = 500;
+        // Errors inside the shell are logged here; shell errors reject and are logged by React Router.
+        if (shellRendered) console.error(error);
+      },
+    });
+  });
+}

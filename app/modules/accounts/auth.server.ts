@@ -1,0 +1,88 @@
+// better-auth on our PostgreSQL through its Drizzle adapter. Sessions, verification tokens and rate-limit
+// counters all live in the database, so the app servers keep no state of their own.
+import { betterAuth } from "better-auth";
+import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { getDatabase } from "~/db/client.server";
+import { env } from "~/env.server";
+import { account, rateLimit, session, user, verification } from "./schema";
+import { sendPasswordResetEmail, sendVerificationEmail } from "./emails.server";
+
+export const MIN_PASSWORD_LENGTH = 10;
+
+/** The origins a form may post from: the public one, and its 127.0.0.1 twin for local work. */
+export function trustedOrigins(origin = env().APP_ORIGIN): string[] {
+  const url = new URL(origin);
+  const twins = new Set([url.origin]);
+  if (url.hostname === "localhost") twins.add(url.origin.replace("localhost", "127.0.0.1"));
+  return [...twins];
+}
+
+function createAuth() {
+  const settings = env();
+  const secure = settings.APP_ORIGIN.startsWith("https://");
+  return betterAuth({
+    appName: "Tenthmark",
+    baseURL: settings.APP_ORIGIN,
+    basePath: "/api/auth",
+    secret: settings.BETTER_AUTH_SECRET ?? settings.SESSION_SECRET,
+    trustedOrigins: trustedOrigins(settings.APP_ORIGIN),
+    telemetry: { enabled: false },
+    database: drizzleAdapter(getDatabase(), { provider: "pg", schema: { user, session, account, verification, rateLimit } }),
+    user: {
+      additionalFields: {
+        displayUnits: { type: "string", required: false, defaultValue: "mm", input: false },
+      },
+    },
+    session: { expiresIn: 60 * 60 * 24 * 30, updateAge: 60 * 60 * 24 },
+    emailAndPassword: {
+      enabled: true,
+      minPasswordLength: MIN_PASSWORD_LENGTH,
+      maxPasswordLength: 128,
+      // People may sign in before verifying; selling and booking check verification (requireVerifiedUser).
+      requireEmailVerification: false,
+      autoSignIn: true,
+      revokeSessionsOnPasswordReset: true,
+      resetPasswordTokenExpiresIn: 60 * 60,
+      sendResetPassword: async ({ user, token }) => sendPasswordResetEmail(user, token),
+    },
+    emailVerification: {
+      sendOnSignUp: true,
+      autoSignInAfterVerification: true,
+      expiresIn: 60 * 60 * 24,
+      sendVerificationEmail: async ({ user, token }) => sendVerificationEmail(user, token),
+    },
+    rateLimit: {
+      // On in every environment, in PostgreSQL so that every app server counts the same requests.
+      enabled: true,
+      storage: "database",
+      window: 60,
+      max: 600,
+      // Per client address (or one shared bucket when no trusted address header is present, as in local
+      // runs): a flood guard. Guessing passwords is limited per e-mail address and client in limits.server.ts.
+      customRules: {
+        "/sign-in/email": { window: 60, max: 300 },
+        "/sign-up/email": { window: 60, max: 120 },
+        "/request-password-reset": { window: 60, max: 60 },
+        "/send-verification-email": { window: 60, max: 60 },
+        "/change-password": { window: 60, max: 60 },
+      },
+    },
+    advanced: {
+      cookiePrefix: "tenthmark",
+      // Secure only when the app is served over https: the local production build runs on http://localhost.
+      useSecureCookies: secure,
+      defaultCookieAttributes: { httpOnly: true, sameSite: "lax", secure },
+    },
+    logger: { level: "warn" },
+  });
+}
+
+export type Auth = ReturnType<typeof createAuth>;
+
+let auth: Auth | undefined;
+
+/** The process's one better-auth instance. */
+export function getAuth(): Auth {
+  auth ??= createAuth();
+  return auth;
+}

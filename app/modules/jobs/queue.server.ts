@@ -1,0 +1,125 @@
+// The job queue: pg-boss on our PostgreSQL, in a schema of its own. A request enqueues and returns; the
+// workers (running inside the app server process) do the slow or unreliable part with retries.
+import PgBoss from "pg-boss";
+import { env } from "~/env.server";
+
+export type JobOptions = PgBoss.SendOptions;
+/** Handles one job's data; throwing fails the attempt, and pg-boss retries it later. */
+export type JobHandler<Data> = (data: Data, job: PgBoss.Job<Data>) => Promise<void>;
+
+type Worker = { name: string; handler: JobHandler<any>; attached: boolean };
+
+// Defaults for every queue unless it says otherwise: a service that is down for hours still gets the work.
+const defaultRetries: PgBoss.RetryOptions = { retryLimit: 12, retryDelay: 2, retryBackoff: true };
+
+let starting: Promise<PgBoss> | undefined;
+const createdQueues = new Map<string, Promise<void>>();
+const workers = new Map<string, Worker>();
+const queueSettings = new Map<string, Omit<PgBoss.Queue, "name">>();
+
+/** The process's one pg-boss instance, started on first use; a failed start is tried again next time. */
+export function getQueue(): Promise<PgBoss> {
+  starting ??= (async () => {
+    const boss = new PgBoss({
+      connectionString: env().DATABASE_URL,
+      schema: env().JOB_QUEUE_SCHEMA,
+      max: 4,
+      ...defaultRetries,
+    });
+    // pg-boss reports lost connections here; they are retried by its own loop and must not crash the server.
+    boss.on("error", (error) => console.warn(`[jobs] ${error instanceof Error ? error.message : String(error)}`));
+    await boss.start();
+    return boss;
+  })().catch((error) => {
+    starting = undefined;
+    createdQueues.clear();
+    throw error;
+  });
+  return starting;
+}
+
+/** Settings of a queue (retries, expiry) before its first job; call next to `registerWorker`. */
+export function configureQueue(name: string, settings: Omit<PgBoss.Queue, "name">) {
+  queueSettings.set(name, settings);
+}
+
+async function ensureQueue(boss: PgBoss, name: string) {
+  let created = createdQueues.get(name);
+  if (!created) {
+    created = boss.createQueue(name, { ...defaultRetries, ...queueSettings.get(name), name });
+    createdQueues.set(name, created);
+    created.catch(() => createdQueues.delete(name));
+  }
+  await created;
+}
+
+/** Puts a job on the named queue; resolves once it is stored in PostgreSQL. */
+export async function enqueue<Data extends object>(name: string, data: Data, options: JobOptions = {}): Promise<string | null> {
+  const boss = await getQueue();
+  await ensureQueue(boss, name);
+  return boss.send(name, data, options);
+}
+
+/**
+ * Declares the handler of a queue. Workers start with `startWorkers()` (the app server calls it at boot);
+ * a worker declared after that starts at once.
+ */
+export function registerWorker<Data extends object>(name: string, handler: JobHandler<Data>, queue?: Omit<PgBoss.Queue, "name">) {
+  if (queue) configureQueue(name, queue);
+  const existing = workers.get(name);
+  if (existing) {
+    existing.handler = handler;
+    return;
+  }
+  const worker: Worker = { name, handler, attached: false };
+  workers.set(name, worker);
+  if (started) void attach(worker).catch(reportStartFailure);
+}
+
+let started = false;
+
+async function attach(worker: Worker) {
+  if (worker.attached) return;
+  const boss = await getQueue();
+  await ensureQueue(boss, worker.name);
+  worker.attached = true;
+  await boss.work<any>(worker.name, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
+    for (const job of jobs) await workers.get(worker.name)!.handler(job.data, job);
+  });
+}
+
+function reportStartFailure(error: unknown) {
+  console.warn(`[jobs] workers could not start yet: ${error instanceof Error ? error.message : String(error)}`);
+}
+
+let retryTimer: NodeJS.Timeout | undefined;
+
+/**
+ * Starts every declared worker in this process. Safe to call more than once; when the database is not
+ * reachable it tries again every 15 s instead of failing the server.
+ */
+export async function startWorkers(): Promise<void> {
+  started = true;
+  try {
+    for (const worker of workers.values()) await attach(worker);
+  } catch (error) {
+    reportStartFailure(error);
+    clearTimeout(retryTimer);
+    retryTimer = setTimeout(() => void startWorkers(), 15_000);
+    retryTimer.unref();
+  }
+}
+
+/** Stops the queue of this process (tests, shutdown), letting running jobs finish. */
+export async function stopQueue(): Promise<void> {
+  clearTimeout(retryTimer);
+  started = false;
+  const current = starting;
+  starting = undefined;
+  createdQueues.clear();
+  for (const worker of workers.values()) worker.attached = false;
+  if (current) {
+    const boss = await current.catch(() => undefined);
+    await boss?.stop({ graceful: true, wait: true, timeout: 10_000 });
+  }
+}

@@ -1,0 +1,63 @@
+// Outgoing e-mail: a request calls `queueEmail`, which stores the message as a job and returns at once;
+// the mail worker hands it to Postmark, and pg-boss retries it while Postmark (or its stand-in) is down.
+import { ServerClient } from "postmark";
+import { z } from "zod";
+import { env } from "~/env.server";
+import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
+
+export const MAIL_QUEUE = "mail.send";
+
+export const outgoingEmailSchema = z.object({
+  to: z.email(),
+  subject: z.string().min(1).max(500),
+  html: z.string().min(1),
+  text: z.string().min(1),
+  tag: z.string().max(100).optional(),
+  replyTo: z.email().optional(),
+});
+
+export type OutgoingEmail = z.infer<typeof outgoingEmailSchema>;
+
+/** Enqueues a message for sending; never waits for the mail service. */
+export async function queueEmail(message: OutgoingEmail): Promise<void> {
+  await enqueue(MAIL_QUEUE, outgoingEmailSchema.parse(message));
+}
+
+let client: ServerClient | undefined;
+
+function postmark(): ServerClient {
+  const settings = env();
+  client ??= new ServerClient(settings.POSTMARK_SERVER_TOKEN, {
+    requestHost: settings.POSTMARK_API_HOST,
+    useHttps: settings.POSTMARK_USE_HTTPS,
+    timeout: 15,
+  });
+  return client;
+}
+
+/** Sends one message through Postmark now. Used by the mail worker; a failure throws, so the job is retried. */
+export async function deliverEmail(message: OutgoingEmail): Promise<string> {
+  const receipt = await postmark().sendEmail({
+    From: env().MAIL_FROM,
+    To: message.to,
+    Subject: message.subject,
+    HtmlBody: message.html,
+    TextBody: message.text,
+    Tag: message.tag,
+    ReplyTo: message.replyTo,
+    MessageStream: "outbound",
+  });
+  return receipt.MessageID;
+}
+
+/** Declares the mail worker of this process (see ~/modules/jobs/workers.server). */
+export function declareMailWorker() {
+  registerWorker<OutgoingEmail>(
+    MAIL_QUEUE,
+    async (message) => {
+      await deliverEmail(message);
+    },
+    // Backoff from 2 s doubling, twelve tries: a mail service that is out for about an hour loses nothing.
+    { retryLimit: 12, retryDelay: 2, retryBackoff: true, expireInSeconds: 60 },
+  );
+}
