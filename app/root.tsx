@@ -5,11 +5,19 @@ import { SiteFooter } from "~/components/layout/site-footer";
 import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
 import { ToastProvider } from "~/components/ui";
 import { databaseMiddleware } from "~/db/middleware.server";
+import { getOptionalUser } from "~/modules/accounts/guards.server";
 
 export const middleware: Route.MiddlewareFunction[] = [databaseMiddleware];
 
-export async function loader(_: Route.LoaderArgs) {
-  const user: HeaderUser = null;
+export async function loader({ request }: Route.LoaderArgs) {
+  const signedIn = await getOptionalUser(request);
+  const user: HeaderUser = signedIn && {
+    name: signedIn.name,
+    email: signedIn.email,
+    roles: signedIn.roles,
+    displayUnits: signedIn.displayUnits,
+    emailVerified: signedIn.emailVerified,
+  };
   return { user };
 }
 

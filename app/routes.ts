@@ -5,10 +5,26 @@ export default [
   index("routes/home.tsx"),
   route("how-scoring-works", "routes/how-scoring-works.tsx"),
 
+  // Accounts
+  route("sign-up", "routes/accounts/sign-up.tsx"),
+  route("sign-in", "routes/accounts/sign-in.tsx"),
+  route("sign-out", "routes/accounts/sign-out.ts"),
+  route("forgot-password", "routes/accounts/forgot-password.tsx"),
+  route("reset-password", "routes/accounts/reset-password.tsx"),
+  route("verify-email", "routes/accounts/verify-email.tsx"),
+  route("account", "routes/accounts/settings.tsx"),
+  route("account/inspector", "routes/accounts/inspector-application.tsx"),
+
+  // Staff
+  route("admin/users", "routes/admin/users.tsx"),
+  route("admin/inspector-applications", "routes/admin/inspector-applications.tsx"),
+
   // Processed photos and documents, streamed from the bucket
   route("files/*", "routes/files.ts"),
 
   // API (resource routes)
   route("api/health", "routes/api.health.ts"),
+  route("api/auth/*", "routes/api.auth.ts"),
   route("api/v1/evaluations", "routes/api.v1.evaluations.ts"),
+  route("api/webhooks/stripe", "routes/api.webhooks.stripe.ts"),
 ] satisfies RouteConfig;

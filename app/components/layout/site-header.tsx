@@ -1,9 +1,17 @@
 import { useState } from "react";
 import { Link, NavLink } from "react-router";
 import { ButtonLink, cx } from "~/components/ui";
+import type { Role } from "~/modules/accounts/validation";
 import { NameMark } from "./name-mark";
 
-export type HeaderUser = { name: string; email: string } | null;
+/** The signed-in person as the pages see them (root loader); null when signed out. */
+export type HeaderUser = {
+  name: string;
+  email: string;
+  roles: Role[];
+  displayUnits: "mm" | "inch";
+  emailVerified: boolean;
+} | null;
 
 const navigation = [
   { to: "/machines", label: "Machines" },
@@ -76,7 +84,12 @@ function AccountSlot({ user }: { user: HeaderUser }) {
   if (user) {
     return (
       <>
-        <ButtonLink to="/account" variant="quiet" size="sm">
+        {user.roles.includes("admin") ? (
+          <ButtonLink to="/admin/users" variant="quiet" size="sm">
+            Staff
+          </ButtonLink>
+        ) : null}
+        <ButtonLink to="/account" variant="quiet" size="sm" className="max-w-48 truncate" title={user.email}>
           {user.name}
         </ButtonLink>
         <form method="post" action="/sign-out">
