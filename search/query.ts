@@ -1,0 +1,96 @@
+// A buyer's listing search as data, and its translation into the index's filter and sort. Pure: the search
+// module sends it to the index, and the PostgreSQL fallback reads the same fields.
+
+export type NumberRange = { min?: number | null; max?: number | null };
+
+export const listingSorts = ["relevance", "newest", "price-ascending", "price-descending", "best-accuracy"] as const;
+export type ListingSort = (typeof listingSorts)[number];
+
+export type ListingSearchQuery = {
+  text?: string;
+  categories?: string[];
+  grades?: string[];
+  verifiedOnly?: boolean;
+  /** Minor units of `currency`; a price range only makes sense with one currency. */
+  priceMinor?: NumberRange;
+  currency?: string;
+  swingMm?: NumberRange;
+  betweenCentresMm?: NumberRange;
+  /** Accuracy limits in µm: “at most”. A listing without that figure does not match. */
+  maxSpindleRunoutUm?: number;
+  maxAxialSlipUm?: number;
+  /** Applies to both planes of spindle-axis parallelism. */
+  maxSpindleParallelismUm?: number;
+  maxCentreHeightUm?: number;
+  maxBedStraightnessUm?: number;
+  /** Reports measured at most this many days ago. */
+  maxReportAgeDays?: number;
+  countries?: string[];
+  region?: string;
+  /** Defaults to published listings only. */
+  statuses?: string[];
+  sort?: ListingSort;
+  page?: number;
+  hitsPerPage?: number;
+};
+
+/** A value quoted for the filter language, whatever it holds. */
+export function quoteFilterValue(value: string | number): string {
+  if (typeof value === "number") return String(value);
+  return `"${value.replace(/\\/g, "\\\\").replace(/"/g, '\\"')}"`;
+}
+
+function anyOf(attribute: string, values: string[] | undefined): string | null {
+  if (!values || values.length === 0) return null;
+  return `${attribute} IN [${values.map(quoteFilterValue).join(", ")}]`;
+}
+
+function range(attribute: string, bounds: NumberRange | undefined): string[] {
+  const conditions: string[] = [];
+  if (bounds?.min !== undefined && bounds.min !== null) conditions.push(`${attribute} >= ${bounds.min}`);
+  if (bounds?.max !== undefined && bounds.max !== null) conditions.push(`${attribute} <= ${bounds.max}`);
+  return conditions;
+}
+
+function atMost(attribute: string, limit: number | undefined): string[] {
+  return limit === undefined || limit === null ? [] : [`${attribute} <= ${limit}`];
+}
+
+/** The filter as the index takes it: every item must hold (an array of conditions ANDed). */
+export function listingFilter(query: ListingSearchQuery, now: Date = new Date()): string[] {
+  const conditions = [
+    anyOf("status", query.statuses ?? ["published"]),
+    anyOf("category", query.categories),
+    anyOf("grade", query.grades),
+    query.verifiedOnly ? "verified = true" : null,
+    query.currency ? `currency = ${quoteFilterValue(query.currency)}` : null,
+    ...range("priceMinor", query.priceMinor),
+    ...range("swingMm", query.swingMm),
+    ...range("betweenCentresMm", query.betweenCentresMm),
+    ...atMost("spindleRunoutUm", query.maxSpindleRunoutUm),
+    ...atMost("axialSlipUm", query.maxAxialSlipUm),
+    ...atMost("spindleParallelismVerticalUm", query.maxSpindleParallelismUm),
+    ...atMost("spindleParallelismHorizontalUm", query.maxSpindleParallelismUm),
+    ...atMost("centreHeightUm", query.maxCentreHeightUm),
+    ...atMost("bedStraightnessUm", query.maxBedStraightnessUm),
+    query.maxReportAgeDays === undefined ? null : `reportDate >= ${Math.floor(now.getTime() / 1000) - Math.round(query.maxReportAgeDays * 86_400)}`,
+    anyOf("country", query.countries),
+    query.region ? `region = ${quoteFilterValue(query.region)}` : null,
+  ];
+  return conditions.filter((condition): condition is string => condition !== null);
+}
+
+export function listingSortRules(sort: ListingSort | undefined): string[] | undefined {
+  switch (sort ?? "relevance") {
+    case "relevance":
+      return undefined;
+    case "newest":
+      return ["publishedAt:desc"];
+    case "price-ascending":
+      return ["priceMinor:asc"];
+    case "price-descending":
+      return ["priceMinor:desc"];
+    case "best-accuracy":
+      return ["gradeRank:asc", "spindleRunoutUm:asc"];
+  }
+}
