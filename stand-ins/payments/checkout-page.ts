@@ -23,7 +23,7 @@ const styles = `
   form { margin-top: 22px; display: grid; gap: 14px; }
   .row { display: grid; grid-template-columns: 1fr 1fr; gap: 12px; }
   label { display: grid; gap: 4px; font-size: 14px; font-weight: 600; color: #2f3833; }
-  input { width: 100%; font: inherit; font-size: 16px; padding: 10px 12px; border: 1px solid #b9c1bc; border-radius: 6px; background: #fff; color: inherit; }
+  input { width: 100%; font: inherit; font-size: 16px; font-weight: 400; padding: 10px 12px; border: 1px solid #b9c1bc; border-radius: 6px; background: #fff; color: inherit; }
   input:focus { outline: 2px solid #2e6b57; outline-offset: 1px; border-color: #2e6b57; }
   input[readonly] { background: #f3f5f3; color: #5b6660; }
   button { font: inherit; font-weight: 700; font-size: 16px; padding: 12px 16px; border: 0; border-radius: 6px; background: #2e6b57; color: #fff; cursor: pointer; }
@@ -66,20 +66,20 @@ export function renderCheckoutPage(session: CheckoutSession, options: { error?: 
     )
     .join("");
   const email = session.customer_email ?? values.email ?? "";
-  const description = session._line_items.map((item) => item.description).join(", ");
   const body = `
 <section class="panel" aria-labelledby="amount">
-  <p class="label">Amount due</p>
+  <p class="label">Amount due · ${escape(session.currency.toUpperCase())}</p>
   <p class="amount" id="amount">${escape(total)}</p>
-  <p class="label" style="text-transform:none;letter-spacing:0;font-size:15px">${escape(description)} · ${escape(session.currency.toUpperCase())}</p>
   <ul class="items" aria-label="What you pay for">${items}</ul>
-  ${options.error ? `<p class="error" role="alert">${escape(options.error)}</p>` : ""}
+  ${options.error ? `<p class="error" id="payment-error" role="alert">${escape(options.error)}</p>` : ""}
   <form method="post" action="/pay/${escape(session.id)}" novalidate>
     <label>E-mail
       <input name="email" type="email" autocomplete="email" value="${escape(email)}" ${session.customer_email ? "readonly" : ""}>
     </label>
     <label>Card number
-      <input name="card_number" inputmode="numeric" autocomplete="cc-number" placeholder="1234 1234 1234 1234" value="${escape(values.number ?? "")}" required>
+      <input name="card_number" inputmode="numeric" autocomplete="cc-number" placeholder="1234 1234 1234 1234" value="${escape(values.number ?? "")}" required${
+        options.error ? ' aria-invalid="true" aria-describedby="payment-error"' : ""
+      }>
     </label>
     <div class="row">
       <label>Expiry (MM / YY)
