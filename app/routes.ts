@@ -19,6 +19,15 @@ export default [
   route("admin/users", "routes/admin/users.tsx"),
   route("admin/inspector-applications", "routes/admin/inspector-applications.tsx"),
 
+  // Listings: buyers browse, sellers manage
+  route("machines", "routes/listings/browse.tsx"),
+  route("machines/:slug", "routes/listings/machine.tsx"),
+  route("sell", "routes/listings/sell-dashboard.tsx"),
+  route("sell/new", "routes/listings/sell-new.tsx"),
+  route("sell/listings/:listingId", "routes/listings/sell-edit.tsx"),
+  route("sell/listings/:listingId/photos", "routes/listings/sell-photos.ts"),
+  route("sell/listings/:listingId/documents", "routes/listings/sell-documents.ts"),
+
   // Processed photos and documents, streamed from the bucket
   route("files/*", "routes/files.ts"),
 

@@ -10,7 +10,7 @@ import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg
 async function uploadAsBrowser(bytes: Buffer, contentType: string) {
   const uploadKey = `uploads/${randomUUID()}/${randomUUID()}`;
   const url = await presignUpload({ key: uploadKey, contentType });
-  const response = await fetch(url, { method: "PUT", body: bytes, headers: { "content-type": contentType } });
+  const response = await fetch(url, { method: "PUT", body: new Uint8Array(bytes), headers: { "content-type": contentType } });
   expect(response.status).toBe(200);
   return uploadKey;
 }

@@ -1,0 +1,112 @@
+import { getFormProps, useForm, type SubmissionResult } from "@conform-to/react";
+import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
+import type { ReactNode } from "react";
+import { Form, useNavigation } from "react-router";
+import { Button, Card, CardBody, CardHeader, SelectField, TextAreaField, TextField } from "~/components/ui";
+import { countryOptions, machineCategories, machineConditions, spindleNoseSuggestions } from "~/modules/listings/catalogue";
+import { listingFormSchema } from "~/modules/listings/validation";
+import { currencies, lengthUnitLabel, powerUnitLabel, weightUnitLabel, type DisplayUnits } from "~/modules/units/format";
+
+type Props = {
+  units: DisplayUnits;
+  defaultValue?: Record<string, string>;
+  lastResult?: SubmissionResult<string[]> | null;
+  submitLabel: string;
+  /** Extra buttons beside the submit button. */
+  aside?: ReactNode;
+};
+
+/** The machine's details, validated in the browser as the seller types and again on the server. */
+export function ListingForm({ units, defaultValue, lastResult, submitLabel, aside }: Props) {
+  const schema = listingFormSchema(units);
+  const [form, fields] = useForm({
+    lastResult,
+    defaultValue: { units, currency: "EUR", ...defaultValue },
+    constraint: getZodConstraint(schema),
+    shouldValidate: "onBlur",
+    shouldRevalidate: "onInput",
+    onValidate: ({ formData }) => parseWithZod(formData, { schema }),
+  });
+  const navigation = useNavigation();
+  const saving = navigation.state === "submitting" && navigation.formData?.get("intent") === "save";
+  const length = lengthUnitLabel(units);
+  const field = (name: keyof typeof fields) => ({
+    name: fields[name].name,
+    defaultValue: fields[name].initialValue as string | undefined,
+    errors: fields[name].errors,
+  });
+  const numeric = { inputMode: "decimal" as const, autoComplete: "off" };
+
+  return (
+    <Form method="post" {...getFormProps(form)} className="space-y-6">
+      <input type="hidden" name="units" value={units} />
+      {form.errors?.length ? (
+        <p role="alert" className="rounded-(--radius-control) bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
+          {form.errors.join(" ")}
+        </p>
+      ) : null}
+
+      <Card>
+        <CardHeader title="The machine" description="What it is, who made it, and when." />
+        <CardBody className="grid gap-5 sm:grid-cols-2">
+          <SelectField label="Kind of machine" options={machineCategories} placeholder="Choose…" {...field("category")} />
+          <SelectField label="Condition" options={machineConditions} placeholder="Choose…" {...field("condition")} />
+          <TextField label="Make" autoComplete="off" {...field("make")} />
+          <TextField label="Model" autoComplete="off" {...field("model")} />
+          <TextField label="Year of manufacture" hint="Optional" inputMode="numeric" autoComplete="off" {...field("year")} />
+          <TextField label="Serial number" hint="Optional; shown on the listing" autoComplete="off" {...field("serialNumber")} />
+        </CardBody>
+      </Card>
+
+      <Card>
+        <CardHeader title="Size and drive" description={`Sizes in ${length}, weight in ${weightUnitLabel(units)}, power in ${powerUnitLabel(units)} (change your units on your account page).`} />
+        <CardBody className="grid gap-5 sm:grid-cols-2">
+          <TextField label={`Swing over bed (${length})`} hint="Largest diameter that clears the bed; needed for lathes" {...numeric} {...field("swingOverBed")} />
+          <TextField label={`Distance between centres (${length})`} hint="Needed for lathes" {...numeric} {...field("distanceBetweenCentres")} />
+          <TextField label={`Spindle bore (${length})`} hint="Optional" {...numeric} {...field("spindleBore")} />
+          <TextField label="Spindle nose" hint="e.g. D1-6 camlock, A2-5, threaded; optional" list="spindle-nose-forms" autoComplete="off" {...field("spindleNose")} />
+          <TextField label={`Main motor power (${powerUnitLabel(units)})`} hint="Optional" {...numeric} {...field("motorPower")} />
+          <TextField label={`Weight (${weightUnitLabel(units)})`} hint="Optional; riggers ask for it first" {...numeric} {...field("weight")} />
+          <datalist id="spindle-nose-forms">
+            {spindleNoseSuggestions.map((form) => (
+              <option key={form} value={form} />
+            ))}
+          </datalist>
+        </CardBody>
+      </Card>
+
+      <Card>
+        <CardHeader title="Where it stands and the price" />
+        <CardBody className="grid gap-5 sm:grid-cols-2">
+          <TextField label="Town or city" autoComplete="address-level2" {...field("city")} />
+          <TextField label="Region" hint="Optional: state, county or province" autoComplete="address-level1" {...field("region")} />
+          <SelectField label="Country" options={countryOptions} placeholder="Choose…" {...field("country")} />
+          <div className="grid grid-cols-[1fr_7rem] gap-3">
+            <TextField label="Asking price" hint="Before tax, without transport" {...numeric} {...field("price")} />
+            <SelectField label="Currency" options={currencies.map((code) => ({ value: code, label: code }))} {...field("currency")} />
+          </div>
+        </CardBody>
+      </Card>
+
+      <Card>
+        <CardHeader title="Description" />
+        <CardBody className="grid gap-5">
+          <TextAreaField
+            label="Description"
+            hint="Its history, the work done on it (what was reground, replaced, re-scraped), and how it can be seen running."
+            rows={7}
+            {...field("description")}
+          />
+          <TextAreaField label="Tooling included" hint="Optional: chucks, faceplate, steadies, tool posts, collets…" rows={3} {...field("toolingIncluded")} />
+        </CardBody>
+      </Card>
+
+      <div className="flex flex-wrap items-center gap-3">
+        <Button type="submit" name="intent" value="save" size="lg" disabled={saving}>
+          {saving ? "Saving…" : submitLabel}
+        </Button>
+        {aside}
+      </div>
+    </Form>
+  );
+}

@@ -1,0 +1,49 @@
+import { useState } from "react";
+import { cx } from "~/components/ui";
+
+type Photo = { id: string; thumbnailUrl: string; largeUrl: string; width: number; height: number };
+
+/** The large view with a strip of thumbnails; without JavaScript each thumbnail opens its large image. */
+export function PhotoGallery({ photos, title }: { photos: Photo[]; title: string }) {
+  const [selected, setSelected] = useState(0);
+  if (!photos.length) {
+    return <div className="flex aspect-[4/3] items-center justify-center rounded-(--radius-panel) bg-ink-100 text-ink-500">No photos yet</div>;
+  }
+  const current = photos[Math.min(selected, photos.length - 1)];
+  return (
+    <div className="space-y-3">
+      <div className="overflow-hidden rounded-(--radius-panel) border border-ink-200 bg-ink-950">
+        <img
+          src={current.largeUrl}
+          alt={`${title}, photo ${selected + 1} of ${photos.length}`}
+          width={current.width}
+          height={current.height}
+          className="mx-auto aspect-[4/3] w-full object-contain"
+        />
+      </div>
+      {photos.length > 1 ? (
+        <ul className="grid grid-cols-4 gap-2 sm:grid-cols-6" aria-label="All photos">
+          {photos.map((photo, index) => (
+            <li key={photo.id}>
+              <a
+                href={photo.largeUrl}
+                onClick={(event) => {
+                  event.preventDefault();
+                  setSelected(index);
+                }}
+                aria-label={`Show photo ${index + 1}`}
+                aria-current={index === selected ? "true" : undefined}
+                className={cx(
+                  "block overflow-hidden rounded-(--radius-control) ring-2 ring-offset-1",
+                  index === selected ? "ring-brass-500" : "ring-transparent hover:ring-ink-300",
+                )}
+              >
+                <img src={photo.thumbnailUrl} alt="" width={480} height={360} className="aspect-[4/3] w-full object-cover" loading="lazy" />
+              </a>
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,8 @@
+import { Badge } from "~/components/ui";
+import { labelOf, listingStatuses } from "~/modules/listings/catalogue";
+
+const tones = { draft: "neutral", published: "within", sold: "brass", withdrawn: "caution" } as const;
+
+export function StatusBadge({ status }: { status: string }) {
+  return <Badge tone={tones[status as keyof typeof tones] ?? "neutral"}>{labelOf(listingStatuses, status)}</Badge>;
+}

@@ -1,0 +1,64 @@
+// Words pages use for the listing's fixed choices. Pure: shared by the server and the browser.
+
+export const machineCategories = [
+  { value: "centre_lathe", label: "Centre lathe" },
+  { value: "toolroom_lathe", label: "Toolroom lathe" },
+  { value: "cnc_lathe", label: "CNC lathe" },
+  { value: "milling_machine", label: "Milling machine" },
+  { value: "surface_grinder", label: "Surface grinder" },
+  { value: "other", label: "Other machine tool" },
+] as const;
+export type MachineCategory = (typeof machineCategories)[number]["value"];
+
+export const machineConditions = [
+  { value: "reconditioned", label: "Reconditioned", hint: "Rebuilt or overhauled, with the work described" },
+  { value: "used", label: "Used", hint: "In working order, as taken out of production" },
+  { value: "as_is", label: "As is", hint: "Sold without promises, for repair or parts" },
+] as const;
+export type MachineCondition = (typeof machineConditions)[number]["value"];
+
+export const listingStatuses = [
+  { value: "draft", label: "Draft" },
+  { value: "published", label: "Published" },
+  { value: "sold", label: "Sold" },
+  { value: "withdrawn", label: "Withdrawn" },
+] as const;
+export type ListingStatus = (typeof listingStatuses)[number]["value"];
+
+// Spindle nose forms sellers most often name; the field stays free text for anything else.
+export const spindleNoseSuggestions = [
+  "D1-3 camlock",
+  "D1-4 camlock",
+  "D1-5 camlock",
+  "D1-6 camlock",
+  "D1-8 camlock",
+  "A1-5",
+  "A1-6",
+  "A2-5",
+  "A2-6",
+  "A2-8",
+  "L0 long taper",
+  "L1 long taper",
+  "Threaded 1½\"-8",
+  "Threaded 2¼\"-8",
+  "Morse taper 5 bore",
+] as const;
+
+// ISO 3166-1 alpha-2 codes; names come from the browser's or server's own locale data.
+export const countryCodes = [
+  "AT", "AU", "BE", "BG", "CA", "CH", "CZ", "DE", "DK", "EE", "ES", "FI", "FR", "GB", "GR", "HR", "HU", "IE",
+  "IT", "LT", "LU", "LV", "NL", "NO", "NZ", "PL", "PT", "RO", "SE", "SI", "SK", "US",
+] as const;
+export type CountryCode = (typeof countryCodes)[number];
+
+const countryNames = new Intl.DisplayNames(["en"], { type: "region" });
+export function countryName(code: string) {
+  return countryNames.of(code) ?? code;
+}
+export const countryOptions = countryCodes
+  .map((code) => ({ value: code, label: countryName(code) }))
+  .sort((a, b) => a.label.localeCompare(b.label));
+
+export function labelOf<T extends { value: string; label: string }>(options: readonly T[], value: string) {
+  return options.find((option) => option.value === value)?.label ?? value;
+}

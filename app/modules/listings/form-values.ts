@@ -1,0 +1,58 @@
+// A stored listing as the form's starting values, in the reader's units. Pure: the edit page uses it.
+import {
+  fromMinorUnits,
+  lengthFromMillimetres,
+  powerFromKilowatts,
+  weightFromKilograms,
+  type DisplayUnits,
+} from "~/modules/units/format";
+
+type StoredListing = {
+  category: string;
+  make: string;
+  model: string;
+  year: number | null;
+  serialNumber: string | null;
+  swingOverBedMm: number | null;
+  distanceBetweenCentresMm: number | null;
+  spindleBoreMm: number | null;
+  spindleNose: string | null;
+  motorPowerKw: number | null;
+  weightKg: number | null;
+  city: string;
+  region: string | null;
+  country: string;
+  priceMinor: number;
+  currency: string;
+  condition: string;
+  toolingIncluded: string | null;
+  description: string;
+};
+
+const text = (value: number | null | undefined) => (value === null || value === undefined ? "" : String(value));
+
+export function formValuesOf(listing: StoredListing, units: DisplayUnits): Record<string, string> {
+  const length = (mm: number | null) => (mm === null ? "" : String(lengthFromMillimetres(mm, units)));
+  return {
+    units,
+    category: listing.category,
+    make: listing.make,
+    model: listing.model,
+    year: text(listing.year),
+    serialNumber: listing.serialNumber ?? "",
+    swingOverBed: length(listing.swingOverBedMm),
+    distanceBetweenCentres: length(listing.distanceBetweenCentresMm),
+    spindleBore: length(listing.spindleBoreMm),
+    spindleNose: listing.spindleNose ?? "",
+    motorPower: listing.motorPowerKw === null ? "" : String(powerFromKilowatts(listing.motorPowerKw, units)),
+    weight: listing.weightKg === null ? "" : String(weightFromKilograms(listing.weightKg, units)),
+    city: listing.city,
+    region: listing.region ?? "",
+    country: listing.country,
+    price: String(fromMinorUnits(listing.priceMinor)),
+    currency: listing.currency,
+    condition: listing.condition,
+    toolingIncluded: listing.toolingIncluded ?? "",
+    description: listing.description,
+  };
+}

@@ -1,0 +1,119 @@
+// One zod schema per listing form, used by Conform in the browser (live errors) and on the server (the truth).
+import { z } from "zod";
+import {
+  currencies,
+  KILOGRAMS_PER_POUND,
+  KILOWATTS_PER_HORSEPOWER,
+  lengthUnitLabel,
+  MILLIMETRES_PER_INCH,
+  powerUnitLabel,
+  weightUnitLabel,
+  type DisplayUnits,
+} from "~/modules/units/format";
+import { countryCodes, machineCategories, machineConditions } from "./catalogue";
+
+const categoryValues = machineCategories.map((c) => c.value) as [string, ...string[]];
+const conditionValues = machineConditions.map((c) => c.value) as [string, ...string[]];
+
+// Plausible ranges in the stored units; the form states them in the reader's.
+const ranges = {
+  swingOverBed: { min: 50, max: 5_000 },
+  distanceBetweenCentres: { min: 100, max: 25_000 },
+  spindleBore: { min: 5, max: 1_000 },
+  motorPower: { min: 0.05, max: 500 },
+  weight: { min: 10, max: 250_000 },
+};
+
+function rangeIn(units: DisplayUnits, range: { min: number; max: number }, kind: "length" | "power" | "weight") {
+  if (units === "mm") return range;
+  const factor = kind === "length" ? 1 / MILLIMETRES_PER_INCH : kind === "weight" ? 1 / KILOGRAMS_PER_POUND : 1 / KILOWATTS_PER_HORSEPOWER;
+  const digits = kind === "length" ? 1 : 0;
+  const round = (value: number) => Number(value.toFixed(digits));
+  return { min: Math.max(round(range.min * factor), 0.1), max: round(range.max * factor) };
+}
+
+const formatted = (value: number) => new Intl.NumberFormat("en").format(value);
+
+/** An optional positive quantity in the reader's units, with the messages a seller reads at the field. */
+function quantity(label: string, unit: string, range: { min: number; max: number }) {
+  return z
+    .number({ error: `Enter the ${label} as a number in ${unit}.` })
+    .min(range.min, { error: `The ${label} must be at least ${formatted(range.min)} ${unit}.` })
+    .max(range.max, { error: `The ${label} must be at most ${formatted(range.max)} ${unit}.` })
+    .optional();
+}
+
+function text(label: string, max: number) {
+  return z.string().trim().max(max, { error: `Keep the ${label} to ${max} characters.` });
+}
+
+/** A text a listing cannot do without; an empty field arrives as undefined (Conform's coercion). */
+function requiredText(label: string, max: number, missing: string) {
+  return z.string({ error: missing }).trim().min(1, { error: missing }).max(max, { error: `Keep the ${label} to ${max} characters.` });
+}
+
+/** The listing form in the reader's units (sizes in mm or in, weight in kg or lb, power in kW or hp). */
+export function listingFormSchema(units: DisplayUnits) {
+  const length = lengthUnitLabel(units);
+  const thisYear = new Date().getFullYear();
+  return z.object({
+    units: z.literal(units, { error: "The form's units changed; reload the page and try again." }),
+    category: z.enum(categoryValues, { error: "Choose the kind of machine." }),
+    make: requiredText("make", 80, "Enter the make, e.g. the name cast on the headstock."),
+    model: requiredText("model", 80, "Enter the model."),
+    year: z
+      .number({ error: "Enter the year of manufacture as four digits, e.g. 1987." })
+      .int({ error: "Enter the year of manufacture as four digits, e.g. 1987." })
+      .min(1850, { error: "The year of manufacture must be 1850 or later." })
+      .max(thisYear, { error: `The year of manufacture cannot be later than ${thisYear}.` })
+      .optional(),
+    serialNumber: text("serial number", 60).optional(),
+    swingOverBed: quantity("swing over bed", length, rangeIn(units, ranges.swingOverBed, "length")),
+    distanceBetweenCentres: quantity("distance between centres", length, rangeIn(units, ranges.distanceBetweenCentres, "length")),
+    spindleBore: quantity("spindle bore", length, rangeIn(units, ranges.spindleBore, "length")),
+    spindleNose: text("spindle nose", 60).optional(),
+    motorPower: quantity("motor power", powerUnitLabel(units), rangeIn(units, ranges.motorPower, "power")),
+    weight: quantity("weight", weightUnitLabel(units), rangeIn(units, ranges.weight, "weight")),
+    city: requiredText("town or city", 80, "Enter the town or city where the machine stands."),
+    region: text("region", 80).optional(),
+    country: z.enum(countryCodes, { error: "Choose the country where the machine stands." }),
+    price: z
+      .number({ error: "Enter the asking price as a number, e.g. 18500." })
+      .positive({ error: "The asking price must be more than zero." })
+      .max(50_000_000, { error: "The asking price must be at most 50,000,000." })
+      .refine((value) => Math.abs(Math.round(value * 100) - value * 100) < 1e-6, { error: "Give the price to at most two decimals." }),
+    currency: z.enum(currencies, { error: "Choose the currency of the price." }),
+    condition: z.enum(conditionValues, { error: "Choose the condition." }),
+    toolingIncluded: text("list of tooling", 2_000).optional(),
+    description: z
+      .string({ error: "Describe the machine: its history, the work done on it, and what comes with it." })
+      .trim()
+      .min(30, { error: "Describe the machine in at least 30 characters." })
+      .max(10_000, { error: "Keep the description to 10,000 characters." }),
+  })
+    .superRefine((listing, context) => {
+      // Buyers size a lathe by these two figures first; a lathe listing without them cannot be found by size.
+      if (!lathes.has(listing.category)) return;
+      if (listing.swingOverBed === undefined) {
+        context.addIssue({ code: "custom", path: ["swingOverBed"], message: `Enter the swing over bed in ${length}; buyers size a lathe by it.` });
+      }
+      if (listing.distanceBetweenCentres === undefined) {
+        context.addIssue({ code: "custom", path: ["distanceBetweenCentres"], message: `Enter the distance between centres in ${length}.` });
+      }
+    });
+}
+
+const lathes = new Set(["centre_lathe", "toolroom_lathe", "cnc_lathe"]);
+
+export type ListingFormValues = z.output<ReturnType<typeof listingFormSchema>>;
+
+export const inquiryFormSchema = z.object({
+  message: z
+    .string({ error: "Write your question to the seller." })
+    .trim()
+    .min(10, { error: "Write at least 10 characters, so the seller knows what you are asking." })
+    .max(4_000, { error: "Keep the message to 4,000 characters." }),
+  phone: z.string().trim().max(40, { error: "Keep the phone number to 40 characters." }).optional(),
+});
+
+export const documentTitleSchema = z.string().trim().min(1).max(120);

@@ -1,0 +1,281 @@
+import { getFormProps, useForm } from "@conform-to/react";
+import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
+import { data, Form, Link, useActionData, useNavigation } from "react-router";
+import { z } from "zod";
+import { PhotoGallery } from "~/components/listings/photo-gallery";
+import { StatusBadge } from "~/components/listings/status-badge";
+import { Badge, Button, ButtonLink, Card, CardBody, CardHeader, TextAreaField, TextField } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
+import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
+import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
+import { inquiryFormSchema } from "~/modules/listings/validation";
+import { formatLength, formatMoney, formatPower, formatWeight, type DisplayUnits } from "~/modules/units/format";
+import type { Route } from "./+types/machine";
+
+export const meta: Route.MetaFunction = ({ data }) =>
+  data
+    ? [
+        { title: `${data.listing.title}, ${labelOf(machineCategories, data.listing.category).toLowerCase()} — Tenthmark` },
+        { name: "description", content: data.listing.description.slice(0, 160) },
+      ]
+    : [{ title: "Machine not found — Tenthmark" }];
+
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const viewer = await getOptionalUser(request);
+  const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
+  if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
+  return { ...found, units: (viewer?.displayUnits ?? "mm") as DisplayUnits, viewer: viewer ? { id: viewer.id } : null };
+}
+
+const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
+
+export async function action({ request, context }: Route.ActionArgs) {
+  const db = context.get(databaseContext);
+  const formData = await request.formData();
+  if (formData.get("intent") === "inquire") {
+    const sender = await requireVerifiedUser(request);
+    const submission = parseWithZod(formData, { schema: inquiryFormSchema });
+    const listingId = z.uuid().safeParse(formData.get("listingId"));
+    if (submission.status !== "success" || !listingId.success) return data({ inquiry: submission.reply(), sent: false }, { status: 422 });
+    try {
+      await sendInquiry(db, sender, listingId.data, submission.value);
+    } catch (error) {
+      if (error instanceof ListingRuleError) return data({ inquiry: submission.reply({ formErrors: [error.message] }), sent: false }, { status: 422 });
+      throw error;
+    }
+    return { inquiry: submission.reply({ resetForm: true }), sent: true };
+  }
+  const viewer = await requireUser(request);
+  const parsed = otherIntents.safeParse(Object.fromEntries(formData));
+  if (!parsed.success) throw data("That request was not understood.", { status: 400 });
+  await setWatch(db, viewer, parsed.data.listingId, parsed.data.intent === "watch");
+  return { inquiry: null, sent: false };
+}
+
+export default function MachinePage({ loaderData }: Route.ComponentProps) {
+  const { listing, photos, documents, sellerName, isManager, isWatching, units, viewer } = loaderData;
+  const place = [listing.city, listing.region, countryName(listing.country)].filter(Boolean).join(", ");
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
+      {isManager && listing.status !== "published" ? (
+        <p className="mb-6 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
+          {listing.status === "sold" ? "This listing is sold." : "Preview: only you can see this page until the listing is published."}{" "}
+          <Link to={`/sell/listings/${listing.id}`} className="font-semibold underline underline-offset-2">
+            Edit the listing
+          </Link>
+        </p>
+      ) : null}
+
+      <nav aria-label="Breadcrumb" className="text-sm text-ink-500">
+        <Link to="/machines" className="font-semibold hover:text-ink-900">
+          Machines
+        </Link>{" "}
+        / {labelOf(machineCategories, listing.category)}
+      </nav>
+
+      <div className="mt-4 grid gap-8 lg:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="min-w-0 space-y-8">
+          <PhotoGallery photos={photos} title={listing.title} />
+
+          <section aria-labelledby="specification">
+            <h2 id="specification" className="text-xl font-bold text-ink-900">
+              Specification
+            </h2>
+            <SpecificationTable listing={listing} units={units} />
+          </section>
+
+          <section aria-labelledby="description">
+            <h2 id="description" className="text-xl font-bold text-ink-900">
+              Description
+            </h2>
+            <p className="mt-3 whitespace-pre-line text-ink-700">{listing.description}</p>
+            {listing.toolingIncluded ? (
+              <>
+                <h3 className="mt-6 font-bold text-ink-900">Tooling included</h3>
+                <p className="mt-2 whitespace-pre-line text-ink-700">{listing.toolingIncluded}</p>
+              </>
+            ) : null}
+          </section>
+
+          {documents.length ? (
+            <section aria-labelledby="documents">
+              <h2 id="documents" className="text-xl font-bold text-ink-900">
+                Documents
+              </h2>
+              <ul className="mt-3 divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white">
+                {documents.map((document) => (
+                  <li key={document.id} className="flex items-center justify-between gap-3 px-4 py-3 text-sm">
+                    <a href={document.url} target="_blank" rel="noreferrer" className="font-semibold text-ink-900 underline underline-offset-2">
+                      {document.title}
+                    </a>
+                    <span className="text-ink-500">PDF, {document.size}</span>
+                  </li>
+                ))}
+              </ul>
+            </section>
+          ) : null}
+
+          <SafetyNote />
+        </div>
+
+        <aside className="space-y-6">
+          <div>
+            <p className="text-sm font-bold uppercase tracking-wide text-brass-600">
+              {labelOf(machineCategories, listing.category)}
+              {listing.year ? ` · ${listing.year}` : ""}
+            </p>
+            <h1 className="mt-1 text-3xl font-extrabold leading-tight text-ink-950">{listing.title}</h1>
+            <p className="mt-2 text-ink-600">{place}</p>
+            <div className="mt-4 flex flex-wrap items-center gap-3">
+              <p className="text-2xl font-extrabold text-ink-900 tabular">{formatMoney(listing.priceMinor, listing.currency)}</p>
+              <Badge>{labelOf(machineConditions, listing.condition)}</Badge>
+              {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
+            </div>
+            <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
+            {listing.status === "published" && !isManager ? (
+              <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={Boolean(viewer)} />
+            ) : null}
+          </div>
+
+          <AccuracyPanel />
+
+          {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={Boolean(viewer)} /> : null}
+        </aside>
+      </div>
+    </div>
+  );
+}
+
+function SpecificationTable({ listing, units }: { listing: Route.ComponentProps["loaderData"]["listing"]; units: DisplayUnits }) {
+  const rows: Array<[string, string | null]> = [
+    ["Kind of machine", labelOf(machineCategories, listing.category)],
+    ["Make", listing.make],
+    ["Model", listing.model],
+    ["Year of manufacture", listing.year ? String(listing.year) : null],
+    ["Serial number", listing.serialNumber],
+    ["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null],
+    ["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null],
+    ["Spindle bore", listing.spindleBoreMm ? formatLength(listing.spindleBoreMm, units) : null],
+    ["Spindle nose", listing.spindleNose],
+    ["Main motor", listing.motorPowerKw ? formatPower(listing.motorPowerKw, units) : null],
+    ["Weight", listing.weightKg ? formatWeight(listing.weightKg, units) : null],
+    ["Condition", labelOf(machineConditions, listing.condition)],
+  ];
+  return (
+    <dl className="mt-3 divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white text-sm">
+      {rows.map(([term, value]) => (
+        <div key={term} className="grid grid-cols-[11rem_1fr] gap-4 px-4 py-2.5 sm:grid-cols-[14rem_1fr]">
+          <dt className="font-semibold text-ink-600">{term}</dt>
+          <dd className={value ? "text-ink-900 tabular" : "text-ink-400"}>{value ?? "not given"}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+function AccuracyPanel() {
+  return (
+    <Card id="accuracy" className="border-caution/40">
+      <CardHeader title="Accuracy" action={<Badge tone="caution">Not yet verified</Badge>} />
+      <CardBody className="space-y-3 text-sm text-ink-700">
+        <p>
+          No certified inspector has measured this machine yet. An on-site check reads spindle run-out, axial slip, spindle-axis parallelism,
+          bed straightness and centre height, and scores each against the tolerance for a machine of this size.
+        </p>
+        <ButtonLink to="#book-inspection" variant="secondary" className="w-full">
+          Book an inspection
+        </ButtonLink>
+        <p id="book-inspection" className="text-xs text-ink-500">
+          Booking opens soon: inspectors are setting up their regions and fees.{" "}
+          <Link to="/how-scoring-works" className="underline underline-offset-2">
+            How scoring works
+          </Link>
+        </p>
+      </CardBody>
+    </Card>
+  );
+}
+
+function WatchButton({ listingId, isWatching, signedIn }: { listingId: string; isWatching: boolean; signedIn: boolean }) {
+  const navigation = useNavigation();
+  if (!signedIn) {
+    return (
+      <p className="mt-4 text-sm text-ink-600">
+        <Link to="/sign-in" className="font-semibold underline underline-offset-2">
+          Sign in
+        </Link>{" "}
+        to watch this machine or write to the seller.
+      </p>
+    );
+  }
+  return (
+    <Form method="post" className="mt-4" preventScrollReset>
+      <input type="hidden" name="listingId" value={listingId} />
+      <Button type="submit" name="intent" value={isWatching ? "unwatch" : "watch"} variant="secondary" disabled={navigation.state === "submitting"}>
+        {isWatching ? "★ Watching — stop" : "☆ Watch this machine"}
+      </Button>
+    </Form>
+  );
+}
+
+function InquiryCard({ listingId, sellerName, signedIn }: { listingId: string; sellerName: string; signedIn: boolean }) {
+  return (
+    <Card id="ask">
+      <CardHeader title="Ask the seller" description={`Your message goes to ${sellerName} by e-mail; replies come to your address.`} />
+      <CardBody>{signedIn ? <InquiryForm listingId={listingId} /> : <p className="text-sm text-ink-600">Sign in to write to the seller.</p>}</CardBody>
+    </Card>
+  );
+}
+
+function InquiryForm({ listingId }: { listingId: string }) {
+  const navigation = useNavigation();
+  const actionData = useActionData<typeof action>();
+  const [form, fields] = useForm({
+    lastResult: navigation.state === "idle" ? actionData?.inquiry : null,
+    constraint: getZodConstraint(inquiryFormSchema),
+    shouldValidate: "onBlur",
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: inquiryFormSchema }),
+  });
+  const sending = navigation.state === "submitting" && navigation.formData?.get("intent") === "inquire";
+  return (
+    <Form method="post" {...getFormProps(form)} className="space-y-4" preventScrollReset>
+      <input type="hidden" name="listingId" value={listingId} />
+      {actionData?.sent ? (
+        <p role="status" className="rounded-(--radius-control) bg-within-soft px-3 py-2 text-sm font-medium text-within">
+          Sent. The seller has your message and your e-mail address.
+        </p>
+      ) : null}
+      {form.errors?.length ? (
+        <p role="alert" className="text-sm font-medium text-beyond">
+          {form.errors.join(" ")}
+        </p>
+      ) : null}
+      <TextAreaField
+        label="Your question"
+        rows={5}
+        name={fields.message.name}
+        defaultValue={fields.message.initialValue}
+        errors={fields.message.errors}
+        placeholder="Can I see it under power? Is the leadscrew original?"
+      />
+      <TextField label="Phone" hint="Optional" type="tel" autoComplete="tel" name={fields.phone.name} defaultValue={fields.phone.initialValue} errors={fields.phone.errors} />
+      <Button type="submit" name="intent" value="inquire" className="w-full" disabled={sending}>
+        {sending ? "Sending…" : "Send to the seller"}
+      </Button>
+    </Form>
+  );
+}
+
+function SafetyNote() {
+  return (
+    <aside className="rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800" aria-label="Safety and compliance">
+      <p className="font-bold text-caution">Safety and compliance</p>
+      <p className="mt-1">
+        Have the machine rigged and moved by qualified riggers, and connected by a licensed electrician. Guarding and safety rules for used
+        machines differ from place to place: meeting them is the buyer's and the seller's responsibility under local rules. Follow the
+        machine's manual when you see it run.
+      </p>
+    </aside>
+  );
+}
