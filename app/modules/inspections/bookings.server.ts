@@ -1,0 +1,458 @@
+// Paid inspection bookings: the hold on an inspector's time, checkout, acceptance, decline and cancellation
+// with the refund rules, the inspector's payout, and the lists behind the dashboards.
+import { and, asc, desc, eq, inArray, isNotNull, lt, or, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import type { Database } from "~/db/client.server";
+import { env } from "~/env.server";
+import { user, userRole } from "~/modules/accounts/schema";
+import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
+import { listings } from "~/modules/listings/schema";
+import { createCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
+import { BookingRuleError, DEADLOCK_DETECTED, isExclusionViolation, SlotTakenError, sqlStateOf } from "./errors";
+import { sendBookingNotice, type BookingNotice } from "./notices.server";
+import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
+import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule } from "./rules";
+import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "./schema";
+import { categoryLabel } from "./validation";
+
+export type Booking = typeof bookings.$inferSelect;
+type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
+type Person = { id: string; email: string };
+
+export const SETTLE_REFUND_QUEUE = "inspections.settle-refund";
+export const PAYOUT_QUEUE = "inspections.payout";
+
+/** Moves a booking from the status it was read with to the next, with a line in its history; false if it moved meanwhile. */
+export async function transition(
+  tx: Transaction,
+  booking: Pick<Booking, "id" | "status">,
+  to: BookingStatus,
+  event: { kind: string; actorId?: string | null; stripeEventId?: string; note?: string },
+  set: Partial<typeof bookings.$inferInsert> = {},
+): Promise<boolean> {
+  const moved = await tx
+    .update(bookings)
+    .set({ ...set, status: to, updatedAt: new Date() })
+    .where(and(eq(bookings.id, booking.id), eq(bookings.status, booking.status)))
+    .returning({ id: bookings.id });
+  if (!moved.length) return false;
+  await tx.insert(bookingEvents).values({
+    bookingId: booking.id,
+    kind: event.kind,
+    fromStatus: booking.status,
+    toStatus: to,
+    actorId: event.actorId ?? null,
+    stripeEventId: event.stripeEventId,
+    note: event.note,
+  });
+  return true;
+}
+
+export async function logBookingEvent(tx: Executor, bookingId: string, event: { kind: string; actorId?: string | null; stripeEventId?: string; note?: string }) {
+  await tx.insert(bookingEvents).values({ bookingId, kind: event.kind, actorId: event.actorId ?? null, stripeEventId: event.stripeEventId, note: event.note });
+}
+
+/** Sends each notice; a failure to queue mail is reported but never undoes the committed change. */
+export async function notify(db: Executor, notices: Array<{ bookingId: string; notice: BookingNotice }>) {
+  for (const { bookingId, notice } of notices) await sendBookingNotice(db, bookingId, notice);
+}
+
+async function lockBooking(tx: Transaction, bookingId: string): Promise<Booking | undefined> {
+  const [booking] = await tx.select().from(bookings).where(eq(bookings.id, bookingId)).for("update");
+  return booking;
+}
+
+/**
+ * Releases unpaid holds whose checkout session has lapsed (Stripe refuses payment after `expires_at`), and
+ * holds that never got a session. The webhook's `checkout.session.expired` does the same as it arrives.
+ */
+export async function releaseLapsedCheckouts(db: Database, inspectorId?: string, now = new Date()) {
+  const released = await db.transaction(async (tx) => {
+    const lapsed = await tx
+      .select({ id: bookings.id, status: bookings.status })
+      .from(bookings)
+      .where(
+        and(
+          eq(bookings.status, "awaiting_payment"),
+          inspectorId ? eq(bookings.inspectorId, inspectorId) : undefined,
+          or(
+            lt(bookings.checkoutExpiresAt, now),
+            and(sql`${bookings.checkoutSessionId} is null`, lt(bookings.createdAt, new Date(now.getTime() - 10 * 60_000))),
+          ),
+        ),
+      )
+      .for("update", { skipLocked: true });
+    const done: string[] = [];
+    for (const booking of lapsed) {
+      if (await transition(tx, booking, "expired", { kind: "checkout_lapsed", note: "The checkout session lapsed unpaid." })) done.push(booking.id);
+    }
+    return done;
+  });
+  await notify(db, released.map((bookingId) => ({ bookingId, notice: { kind: "expired" } as const })));
+  return released.length;
+}
+
+/**
+ * Holds the slot for this person and opens a Stripe Checkout session for the fee. The hold is inserted
+ * first, under the exclusion constraint: the loser of a race gets SlotTakenError and no session, so is
+ * never charged.
+ */
+export async function createBooking(
+  db: Database,
+  input: { booker: Person; listingSlug: string; inspectorId: string; slotId: string },
+  now = new Date(),
+): Promise<{ bookingId: string; checkoutUrl: string }> {
+  const listing = await findListingBySlug(db, input.listingSlug);
+  if (!listing || (listing.status !== "published" && listing.sellerId !== input.booker.id)) throw new BookingRuleError("No such listing.", 404);
+  if (input.inspectorId === listing.sellerId) throw new BookingRuleError("An inspector cannot inspect a listing of their own.", 403, "inspectorId");
+  if (input.inspectorId === input.booker.id) throw new BookingRuleError("You cannot book yourself.", 403, "inspectorId");
+  const [inspector] = (await listPublicInspectors(db, { category: listing.category })).filter((candidate) => candidate.id === input.inspectorId);
+  const fee = inspector?.fees.find((candidate) => candidate.category === listing.category);
+  if (!inspector || !fee || !regionMatches(inspector.regions, listing)) {
+    throw new BookingRuleError("This inspector does not take bookings for this machine or region.", 422, "inspectorId");
+  }
+  const [slot] = await db
+    .select()
+    .from(inspectorSlots)
+    .where(and(eq(inspectorSlots.id, input.slotId), eq(inspectorSlots.inspectorId, inspector.id)));
+  if (!slot) throw new BookingRuleError("Choose one of the inspector's slots.", 422, "slotId");
+  if (slot.startsAt <= now) throw new BookingRuleError("This slot has already begun; choose a later one.", 422, "slotId");
+
+  await releaseLapsedCheckouts(db, inspector.id, now);
+
+  const { platformFeeMinor, inspectorShareMinor } = splitFee(fee.amountMinor);
+  const hold = () =>
+    db.transaction(async (tx) => {
+      const [created] = await tx
+        .insert(bookings)
+        .values({
+          reference: bookingReference(),
+          listingId: listing.id,
+          buyerId: input.booker.id,
+          inspectorId: inspector.id,
+          slotId: slot.id,
+          category: listing.category,
+          startsAt: slot.startsAt,
+          endsAt: slot.endsAt,
+          feeMinor: fee.amountMinor,
+          currency: inspector.currency,
+          platformFeeMinor,
+          inspectorShareMinor,
+        })
+        .returning();
+      await logBookingEvent(tx, created!.id, { kind: "requested", actorId: input.booker.id, note: "Slot held while the buyer pays." });
+      return created!;
+    });
+  let booking: Booking | undefined;
+  for (let attempt = 1; !booking; attempt++) {
+    try {
+      booking = await hold();
+    } catch (error) {
+      if (isExclusionViolation(error, "bookings_no_overlap_per_inspector")) throw new SlotTakenError();
+      // Two holds racing for one time can deadlock on the constraint's check; trying again gives a clear answer.
+      if (sqlStateOf(error) === DEADLOCK_DETECTED && attempt < 4) continue;
+      throw error;
+    }
+  }
+
+  const origin = env().APP_ORIGIN;
+  let session: CheckoutSessionSummary;
+  try {
+    session = await createCheckoutSession({
+      bookingId: booking.id,
+      amountMinor: booking.feeMinor,
+      currency: booking.currency,
+      description: `On-site inspection ${booking.reference}: ${categoryLabel(listing.category)} ${listing.make} ${listing.model}, ${listing.city}, by ${inspector.name}`,
+      platformFeeMinor,
+      successUrl: `${origin}/bookings/${booking.id}/paid`,
+      cancelUrl: `${origin}/bookings/${booking.id}/checkout-cancelled`,
+      customerEmail: input.booker.email,
+      expiresInMinutes: CHECKOUT_MINUTES,
+    });
+  } catch (error) {
+    // No session, no charge: free the slot again at once, then let the caller say the payment service is down.
+    await db.transaction((tx) =>
+      transition(tx, booking, "cancelled", { kind: "checkout_failed", note: error instanceof Error ? error.message : String(error) }),
+    );
+    throw error;
+  }
+  await db
+    .update(bookings)
+    .set({
+      checkoutSessionId: session.id,
+      checkoutUrl: session.url,
+      checkoutExpiresAt: session.expiresAt,
+      updatedAt: new Date(),
+    })
+    .where(eq(bookings.id, booking.id));
+  return { bookingId: booking.id, checkoutUrl: session.url! };
+}
+
+export type Viewer = { id: string; roles: readonly string[] };
+
+const inspectorUser = alias(user, "inspector_user");
+const buyerUser = alias(user, "buyer_user");
+
+function bookingSummaryQuery(db: Executor) {
+  return db
+    .select({
+      booking: bookings,
+      listing: { slug: listings.slug, make: listings.make, model: listings.model, city: listings.city, country: listings.country, sellerId: listings.sellerId },
+      inspectorName: inspectorUser.name,
+      buyerName: buyerUser.name,
+      buyerEmail: buyerUser.email,
+    })
+    .from(bookings)
+    .innerJoin(listings, eq(listings.id, bookings.listingId))
+    .innerJoin(inspectorUser, eq(inspectorUser.id, bookings.inspectorId))
+    .innerJoin(buyerUser, eq(buyerUser.id, bookings.buyerId));
+}
+
+export type BookingSummary = Awaited<ReturnType<typeof listBookingsForBuyer>>[number];
+
+/** One booking with its history, for its buyer, its inspector, the listing's seller or an admin. */
+export async function getBookingView(db: Executor, bookingId: string, viewer: Viewer, now = new Date()) {
+  const [row] = await bookingSummaryQuery(db).where(eq(bookings.id, bookingId));
+  if (!row) throw new BookingRuleError("No such booking.", 404);
+  const role =
+    row.booking.buyerId === viewer.id
+      ? "buyer"
+      : row.booking.inspectorId === viewer.id
+        ? "inspector"
+        : row.listing.sellerId === viewer.id
+          ? "seller"
+          : viewer.roles.includes("admin")
+            ? "admin"
+            : null;
+  if (!role) throw new BookingRuleError("This booking is not yours.", 403);
+  const history = await db.select().from(bookingEvents).where(eq(bookingEvents.bookingId, bookingId)).orderBy(asc(bookingEvents.createdAt));
+  const refunds = await db.select().from(bookingRefunds).where(eq(bookingRefunds.bookingId, bookingId)).orderBy(asc(bookingRefunds.createdAt));
+  const cancellable = row.booking.status === "paid" || row.booking.status === "accepted";
+  const refundIfCancelledNow = cancellable
+    ? refundFor({ by: "buyer", status: row.booking.status, feeMinor: row.booking.feeMinor, startsAt: row.booking.startsAt, at: now })
+    : null;
+  return { ...row, role, history, refunds, refundIfCancelledNow };
+}
+
+export async function listBookingsForBuyer(db: Executor, buyerId: string) {
+  return bookingSummaryQuery(db).where(eq(bookings.buyerId, buyerId)).orderBy(desc(bookings.startsAt));
+}
+
+/** The inspector's requests to answer, upcoming visits, finished work and the rest. */
+export async function listBookingsForInspector(db: Executor, inspectorId: string, now = new Date()) {
+  const rows = await bookingSummaryQuery(db).where(eq(bookings.inspectorId, inspectorId)).orderBy(asc(bookings.startsAt));
+  return {
+    requests: rows.filter((row) => row.booking.status === "paid"),
+    upcoming: rows.filter((row) => row.booking.status === "accepted"),
+    done: rows.filter((row) => row.booking.status === "report_filed" || row.booking.status === "closed").reverse(),
+    other: rows.filter((row) => ["declined", "cancelled", "refunded"].includes(row.booking.status) && row.booking.paidAt).reverse(),
+    now,
+  };
+}
+
+export async function acceptBooking(db: Database, inspector: Person, bookingId: string) {
+  const accepted = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking || booking.inspectorId !== inspector.id) throw new BookingRuleError("No such request of yours.", 404);
+    if (booking.status === "accepted") return false;
+    if (booking.status !== "paid") throw new BookingRuleError("Only a paid request can be accepted.", 409);
+    return transition(tx, booking, "accepted", { kind: "accepted", actorId: inspector.id }, { acceptedAt: new Date() });
+  });
+  if (accepted) await notify(db, [{ bookingId, notice: { kind: "accepted" } }]);
+}
+
+/** Writes the refund the rules owe and tries to issue it now; if Stripe is unreachable, a queued job retries. */
+async function refundAfterCommit(db: Database, bookingId: string, actorId: string | null) {
+  try {
+    await settleRefund(db, bookingId, actorId);
+  } catch (error) {
+    console.warn(`[inspections] refund of booking ${bookingId} queued for retry: ${error instanceof Error ? error.message : String(error)}`);
+    await enqueue(SETTLE_REFUND_QUEUE, { bookingId, actorId }, { singletonKey: bookingId });
+  }
+}
+
+/** The inspector declines a paid request, or cancels an accepted one: the buyer is refunded in full. */
+export async function declineBooking(db: Database, inspector: Person, bookingId: string, reason: string) {
+  const kind = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking || booking.inspectorId !== inspector.id) throw new BookingRuleError("No such request of yours.", 404);
+    if (booking.status === "declined" || booking.status === "refunded") return null;
+    if (booking.status !== "paid" && booking.status !== "accepted") throw new BookingRuleError("This booking can no longer be declined.", 409);
+    const refund = refundFor({ by: "inspector", status: booking.status, feeMinor: booking.feeMinor, startsAt: booking.startsAt, at: new Date() });
+    await transition(tx, booking, "declined", { kind: refund.rule, actorId: inspector.id, note: reason }, { declineReason: reason, refundDueMinor: refund.amountMinor });
+    return booking.status === "accepted" ? ("cancelled_by_inspector" as const) : ("declined" as const);
+  });
+  if (!kind) return;
+  await notify(db, [{ bookingId, notice: { kind, reason } }]);
+  await refundAfterCommit(db, bookingId, inspector.id);
+}
+
+/** The buyer cancels: an unpaid hold is simply released; a paid booking is refunded by the written rules. */
+export async function cancelBookingAsBuyer(db: Database, buyer: Person, bookingId: string, reason: string, now = new Date()) {
+  const outcome = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking || booking.buyerId !== buyer.id) throw new BookingRuleError("No such booking of yours.", 404);
+    if (booking.status === "awaiting_payment") {
+      await transition(tx, booking, "cancelled", { kind: "released_by_buyer", actorId: buyer.id, note: reason || undefined }, { cancelReason: reason || null });
+      return "released" as const;
+    }
+    if (booking.status !== "paid" && booking.status !== "accepted") throw new BookingRuleError("This booking can no longer be cancelled.", 409);
+    const refund = refundFor({ by: "buyer", status: booking.status, feeMinor: booking.feeMinor, startsAt: booking.startsAt, at: now });
+    await transition(tx, booking, "cancelled", { kind: refund.rule, actorId: buyer.id, note: reason || undefined }, { cancelReason: reason || null, refundDueMinor: refund.amountMinor });
+    return "cancelled" as const;
+  });
+  if (outcome === "cancelled") {
+    await notify(db, [{ bookingId, notice: { kind: "cancelled_by_buyer", reason } }]);
+    await refundAfterCommit(db, bookingId, buyer.id);
+  }
+  return outcome;
+}
+
+/**
+ * Issues what is still owed (refund due less refunded so far) through Stripe and records it, holding the
+ * booking's row so that two settlers never refund twice. Returns the amount refunded now (0 if nothing was owed).
+ */
+export async function settleRefund(db: Database, bookingId: string, actorId: string | null, rule?: RefundRule): Promise<number> {
+  const refunded = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking) throw new BookingRuleError("No such booking.", 404);
+    const owed = (booking.refundDueMinor ?? 0) - booking.refundedMinor;
+    if (owed <= 0 || !booking.paymentIntentId) return 0;
+    const history = await tx.select({ kind: bookingEvents.kind }).from(bookingEvents).where(eq(bookingEvents.bookingId, bookingId)).orderBy(desc(bookingEvents.createdAt));
+    const appliedRule = rule ?? history.find((event) => event.kind in ruleKinds)?.kind ?? "admin";
+    const refund = await refundPayment({
+      paymentIntentId: booking.paymentIntentId,
+      amountMinor: owed,
+      reason: "requested_by_customer",
+      bookingId,
+    });
+    await tx.insert(bookingRefunds).values({
+      bookingId,
+      stripeRefundId: refund.id,
+      amountMinor: owed,
+      currency: booking.currency,
+      reason: booking.declineReason ?? booking.cancelReason ?? "",
+      rule: appliedRule,
+      issuedBy: actorId,
+    });
+    const set = { refundedMinor: booking.refundedMinor + owed };
+    if (booking.status === "declined" || booking.status === "cancelled") {
+      await transition(tx, booking, "refunded", { kind: "refund_issued", actorId, note: `Refund ${refund.id}` }, set);
+    } else {
+      await tx.update(bookings).set({ ...set, updatedAt: new Date() }).where(eq(bookings.id, bookingId));
+      await logBookingEvent(tx, bookingId, { kind: "refund_issued", actorId, note: `Refund ${refund.id}` });
+    }
+    return owed;
+  });
+  if (refunded > 0) await notify(db, [{ bookingId, notice: { kind: "refunded", amountMinor: refunded } }]);
+  return refunded;
+}
+
+const ruleKinds: Record<string, true> = {
+  inspector_declined: true,
+  inspector_cancelled: true,
+  before_acceptance: true,
+  ample_notice: true,
+  short_notice: true,
+  late_notice: true,
+  slot_lost: true,
+  admin: true,
+};
+
+/** An admin refunds part or all of what was paid and not yet refunded, with a written reason. */
+export async function refundAsAdmin(db: Database, admin: Person, bookingId: string, amountMinor: number, reason: string) {
+  await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking) throw new BookingRuleError("No such booking.", 404);
+    if (!booking.paymentIntentId || !booking.paidAt) throw new BookingRuleError("Nothing was paid for this booking.", 409);
+    const refundable = booking.feeMinor - booking.refundedMinor;
+    if (amountMinor > refundable) throw new BookingRuleError(`At most ${(refundable / 100).toFixed(2)} can still be refunded.`, 422, "amount");
+    await tx.update(bookings).set({ refundDueMinor: booking.refundedMinor + amountMinor, cancelReason: booking.cancelReason ?? reason }).where(eq(bookings.id, bookingId));
+    await logBookingEvent(tx, bookingId, { kind: "admin_refund_ordered", actorId: admin.id, note: reason });
+  });
+  return settleRefund(db, bookingId, admin.id, "admin");
+}
+
+/** The reports domain calls this when the inspector signs the report of an accepted booking; the payout follows. */
+export async function recordReportFiled(db: Database, input: { bookingId: string; reportId: string; inspectorId: string }) {
+  const filed = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, input.bookingId);
+    if (!booking || booking.inspectorId !== input.inspectorId) throw new BookingRuleError("No such booking of yours.", 404);
+    if (booking.status === "report_filed" || booking.status === "closed") return false;
+    if (booking.status !== "accepted") throw new BookingRuleError("A report can only be filed for an accepted booking.", 409);
+    return transition(tx, booking, "report_filed", { kind: "report_filed", actorId: input.inspectorId }, { reportId: input.reportId });
+  });
+  if (filed) await enqueue(PAYOUT_QUEUE, { bookingId: input.bookingId }, { singletonKey: input.bookingId });
+}
+
+/** Records the inspector's share as a transfer and closes the booking; once per booking. */
+export async function payInspector(db: Database, bookingId: string) {
+  const amount = await db.transaction(async (tx) => {
+    const booking = await lockBooking(tx, bookingId);
+    if (!booking || booking.status !== "report_filed") return 0;
+    const [existing] = await tx.select({ id: payouts.id }).from(payouts).where(eq(payouts.bookingId, bookingId));
+    if (existing) return 0;
+    const transfer = await recordTransfer({
+      amountMinor: booking.inspectorShareMinor,
+      currency: booking.currency,
+      destination: payoutDestination(booking.inspectorId),
+      bookingId,
+    });
+    await tx.insert(payouts).values({
+      bookingId,
+      inspectorId: booking.inspectorId,
+      amountMinor: booking.inspectorShareMinor,
+      currency: booking.currency,
+      stripeTransferId: transfer.id,
+    });
+    await transition(tx, booking, "closed", { kind: "payout_recorded", note: `Transfer ${transfer.id}` });
+    return booking.inspectorShareMinor;
+  });
+  if (amount > 0) await notify(db, [{ bookingId, notice: { kind: "payout", amountMinor: amount } }]);
+}
+
+/** The inspector's connected account. Onboarding to Stripe Connect is not built yet; the id is derived from the user. */
+export function payoutDestination(inspectorId: string) {
+  return `acct_${inspectorId.replace(/[^A-Za-z0-9]/g, "").slice(0, 16)}`;
+}
+
+/** Every booking that took money, with its refunds and payout, newest first, for the admin's payments page. */
+export async function listPayments(db: Executor) {
+  const rows = await bookingSummaryQuery(db).where(isNotNull(bookings.paidAt)).orderBy(desc(bookings.paidAt)).limit(200);
+  const ids = rows.map((row) => row.booking.id);
+  const refunds = ids.length ? await db.select().from(bookingRefunds).where(inArray(bookingRefunds.bookingId, ids)) : [];
+  const transfers = ids.length ? await db.select().from(payouts).where(inArray(payouts.bookingId, ids)) : [];
+  const totals = new Map<string, { paid: number; platform: number; refunded: number; paidOut: number }>();
+  for (const { booking } of rows) {
+    const total = totals.get(booking.currency) ?? { paid: 0, platform: 0, refunded: 0, paidOut: 0 };
+    total.paid += booking.feeMinor;
+    total.platform += booking.platformFeeMinor;
+    total.refunded += booking.refundedMinor;
+    totals.set(booking.currency, total);
+  }
+  for (const payout of transfers) totals.get(payout.currency)!.paidOut += payout.amountMinor;
+  return {
+    rows: rows.map((row) => ({
+      ...row,
+      refunds: refunds.filter((refund) => refund.bookingId === row.booking.id),
+      payout: transfers.find((payout) => payout.bookingId === row.booking.id) ?? null,
+    })),
+    totals: [...totals.entries()].map(([currency, total]) => ({ currency, ...total })),
+  };
+}
+
+/** Whether this person is a certified inspector (holds the role an admin grants). */
+export async function isCertifiedInspector(db: Executor, userId: string) {
+  const [row] = await db.select().from(userRole).where(and(eq(userRole.userId, userId), eq(userRole.role, "inspector")));
+  return Boolean(row);
+}
+
+/** The queue workers of this domain; declared with the others in ~/modules/jobs/workers.server. */
+export function declareInspectionWorkers(getDb: () => Database) {
+  registerWorker<{ bookingId: string; actorId: string | null }>(SETTLE_REFUND_QUEUE, async ({ bookingId, actorId }) => {
+    await settleRefund(getDb(), bookingId, actorId);
+  });
+  registerWorker<{ bookingId: string }>(PAYOUT_QUEUE, async ({ bookingId }) => {
+    await payInspector(getDb(), bookingId);
+  });
+}

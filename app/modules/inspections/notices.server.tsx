@@ -1,0 +1,180 @@
+// E-mails about a booking: each change of status tells the people it concerns, through the mail queue.
+import { eq, inArray } from "drizzle-orm";
+import { format } from "date-fns";
+import { env } from "~/env.server";
+import { user } from "~/modules/accounts/schema";
+import { listings } from "~/modules/listings/schema";
+import { queueEmail } from "~/modules/mail/mail.server";
+import { renderEmail } from "~/modules/mail/render.server";
+import { EmailAction, EmailHeading, EmailLayout, EmailParagraph } from "~/modules/mail/templates/layout";
+import { formatMoney } from "~/modules/units/format";
+import type { Executor } from "./profiles.server";
+import { bookings } from "./schema";
+
+export type BookingNotice =
+  | { kind: "paid" }
+  | { kind: "accepted" }
+  | { kind: "declined"; reason: string }
+  | { kind: "cancelled_by_buyer"; reason: string }
+  | { kind: "cancelled_by_inspector"; reason: string }
+  | { kind: "refunded"; amountMinor: number }
+  | { kind: "expired" }
+  | { kind: "slot_lost" }
+  | { kind: "payout"; amountMinor: number };
+
+type Letter = { to: string; subject: string; heading: string; paragraphs: string[]; action?: { href: string; label: string }; reason: string };
+
+const when = (date: Date) => `${format(date, "EEEE d MMMM yyyy, HH:mm")} UTC`;
+
+export async function sendBookingNotice(db: Executor, bookingId: string, notice: BookingNotice) {
+  const [row] = await db
+    .select({ booking: bookings, machine: { make: listings.make, model: listings.model, city: listings.city, sellerId: listings.sellerId, slug: listings.slug } })
+    .from(bookings)
+    .innerJoin(listings, eq(listings.id, bookings.listingId))
+    .where(eq(bookings.id, bookingId));
+  if (!row) return;
+  const { booking, machine } = row;
+  const people = await db
+    .select({ id: user.id, name: user.name, email: user.email })
+    .from(user)
+    .where(inArray(user.id, [booking.buyerId, booking.inspectorId, machine.sellerId]));
+  const person = (id: string) => people.find((candidate) => candidate.id === id);
+  const buyer = person(booking.buyerId)!;
+  const inspector = person(booking.inspectorId)!;
+  const seller = machine.sellerId !== booking.buyerId ? person(machine.sellerId) : undefined;
+  const origin = env().APP_ORIGIN;
+  const buyerLink = { href: `${origin}/bookings/${booking.id}`, label: "Open the booking" };
+  const inspectorLink = { href: `${origin}/inspector/bookings/${booking.id}`, label: "Open the request" };
+  const what = `${machine.make} ${machine.model} in ${machine.city}`;
+  const slot = when(booking.startsAt);
+  const fee = formatMoney(booking.feeMinor, booking.currency);
+  const ref = booking.reference;
+  const forBuyer = `You receive this because you booked inspection ${ref} on Tenthmark.`;
+  const forInspector = `You receive this because you are the inspector of booking ${ref} on Tenthmark.`;
+  const forSeller = `You receive this because an inspection of your listing was booked on Tenthmark (${ref}).`;
+
+  const letters: Letter[] = [];
+  switch (notice.kind) {
+    case "paid":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref} paid — waiting for ${inspector.name}`,
+        heading: "Your inspection is paid",
+        paragraphs: [`We received ${fee} for the inspection of the ${what} on ${slot}.`, `${inspector.name} will accept or decline shortly; if they decline, the whole fee is refunded.`],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      letters.push({
+        to: inspector.email,
+        subject: `New inspection request ${ref}: ${machine.make} ${machine.model}, ${format(booking.startsAt, "d MMM")}`,
+        heading: "A new inspection request",
+        paragraphs: [`${buyer.name} booked and paid you (${fee}) to inspect the ${what} on ${slot}.`, "Please accept or decline it. Declining refunds the buyer in full."],
+        action: { href: inspectorLink.href, label: "Accept or decline" },
+        reason: forInspector,
+      });
+      break;
+    case "accepted":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref} accepted for ${format(booking.startsAt, "d MMM yyyy")}`,
+        heading: "Your inspection is scheduled",
+        paragraphs: [`${inspector.name} accepted the inspection of the ${what} on ${slot}.`],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      if (seller)
+        letters.push({
+          to: seller.email,
+          subject: `An inspector visits your ${machine.make} ${machine.model} on ${format(booking.startsAt, "d MMM yyyy")}`,
+          heading: "An inspection of your machine is scheduled",
+          paragraphs: [
+            `${inspector.name} will inspect the ${what} on ${slot}, booked by ${buyer.name}.`,
+            "Please have the machine connected, clean and warmed up, with its manual at hand. Guarding and safety of the machine remain your responsibility under local rules.",
+          ],
+          reason: forSeller,
+        });
+      break;
+    case "declined":
+    case "cancelled_by_inspector":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref} ${notice.kind === "declined" ? "declined" : "cancelled by the inspector"} — full refund`,
+        heading: notice.kind === "declined" ? "The inspector declined your request" : "The inspector cancelled your booking",
+        paragraphs: [`${inspector.name} cannot inspect the ${what} on ${slot}. Their reason: “${notice.reason}”`, `The whole fee (${fee}) is refunded to your card; you will get a second e-mail when it is issued.`],
+        action: { href: `${origin}/machines/${machine.slug}/book`, label: "Book another inspector" },
+        reason: forBuyer,
+      });
+      break;
+    case "cancelled_by_buyer":
+      letters.push({
+        to: inspector.email,
+        subject: `Inspection ${ref} cancelled by the buyer`,
+        heading: "A booking was cancelled",
+        paragraphs: [`${buyer.name} cancelled the inspection of the ${what} on ${slot}.${notice.reason ? ` Their reason: “${notice.reason}”` : ""}`, "The slot is free for other bookings again."],
+        action: inspectorLink,
+        reason: forInspector,
+      });
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref} cancelled`,
+        heading: "Your booking is cancelled",
+        paragraphs: [`You cancelled the inspection of the ${what} on ${slot}.`, booking.refundDueMinor ? `By the refund rules you get ${formatMoney(booking.refundDueMinor, booking.currency)} back; a second e-mail follows when it is issued.` : "By the refund rules no refund is due for this notice."],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      break;
+    case "refunded":
+      letters.push({
+        to: buyer.email,
+        subject: `Refund of ${formatMoney(notice.amountMinor, booking.currency)} issued for ${ref}`,
+        heading: "Your refund is issued",
+        paragraphs: [`We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. It shows on your card statement within a few working days.`],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      break;
+    case "expired":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref} not paid — slot released`,
+        heading: "The held slot was released",
+        paragraphs: [`The payment for the inspection of the ${what} on ${slot} was not completed in time, so the slot was released. Nothing was charged.`],
+        action: { href: `${origin}/machines/${machine.slug}/book`, label: "Book again" },
+        reason: forBuyer,
+      });
+      break;
+    case "slot_lost":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref}: payment arrived too late — full refund`,
+        heading: "Your payment arrived after the slot was released",
+        paragraphs: [`The slot on ${slot} was released before your payment arrived, and another booking took it. The whole fee (${fee}) is refunded.`],
+        action: { href: `${origin}/machines/${machine.slug}/book`, label: "Choose another slot" },
+        reason: forBuyer,
+      });
+      break;
+    case "payout":
+      letters.push({
+        to: inspector.email,
+        subject: `Payout of ${formatMoney(notice.amountMinor, booking.currency)} for ${ref}`,
+        heading: "Your share is on its way",
+        paragraphs: [`Thank you for the report on the ${what}. Your share of ${formatMoney(notice.amountMinor, booking.currency)} has been transferred.`],
+        action: inspectorLink,
+        reason: forInspector,
+      });
+      break;
+  }
+
+  for (const letter of letters) {
+    const { html, text } = await renderEmail(
+      <EmailLayout preview={letter.subject} reason={letter.reason}>
+        <EmailHeading>{letter.heading}</EmailHeading>
+        {letter.paragraphs.map((paragraph) => (
+          <EmailParagraph key={paragraph}>{paragraph}</EmailParagraph>
+        ))}
+        {letter.action ? <EmailAction href={letter.action.href}>{letter.action.label}</EmailAction> : null}
+      </EmailLayout>,
+    );
+    await queueEmail({ to: letter.to, subject: letter.subject, html, text, tag: `booking-${notice.kind}` });
+  }
+}

@@ -1,0 +1,110 @@
+// Inputs of the inspections pages, one zod schema per form, shared by the form and the server.
+import { z } from "zod";
+import { labelOf, machineCategories, type MachineCategory } from "~/modules/listings/catalogue";
+import { currencies } from "~/modules/units/format";
+
+/** Machine categories an inspector can serve: the same values and words as a listing's category. */
+export const inspectionCategories = machineCategories.map((category) => category.value) as [MachineCategory, ...MachineCategory[]];
+export type InspectionCategory = MachineCategory;
+
+export function categoryLabel(category: string): string {
+  return labelOf(machineCategories, category);
+}
+
+const trimmed = (max: number) => z.string().trim().max(max, { error: `must be at most ${max} characters` });
+
+/** A fee typed as major units ("350" or "350.50"), kept in minor units. */
+const feeField = z
+  .string()
+  .trim()
+  .regex(/^\d{1,6}([.,]\d{1,2})?$/, { error: "Enter the fee as a number, e.g. 350 or 350.50" })
+  .transform((value) => Math.round(Number(value.replace(",", ".")) * 100))
+  .refine((minor) => minor >= 1000, { error: "A fee must be at least 10.00" });
+
+export const profileSchema = z.object({
+  headline: trimmed(120).min(3, { error: "Give a one-line headline, e.g. 'Lathe rebuilder, 20 years'" }),
+  bio: trimmed(4000).min(20, { error: "Tell buyers about your experience in at least a few sentences" }),
+  qualifications: trimmed(2000).min(3, { error: "List your qualifications" }),
+  baseCity: trimmed(120).min(2, { error: "Where do you travel from?" }),
+  regions: z
+    .string()
+    .transform((value) =>
+      [...new Set(value.split(/[\n,;]/).map((region) => region.trim()).filter(Boolean))],
+    )
+    .pipe(z.array(z.string().max(80)).min(1, { error: "Name at least one region or country you travel to" }).max(30)),
+  currency: z.enum(currencies, { error: "Choose a currency" }),
+  categories: z.array(z.enum(inspectionCategories)).min(1, { error: "Choose at least one category of machine" }),
+  fees: z.partialRecord(z.enum(inspectionCategories), z.string()),
+});
+
+/** Parses the profile form: one checkbox per category, one fee field per category (`fee.<category>`). */
+export function parseProfileForm(form: FormData) {
+  const fees: Record<string, string> = {};
+  for (const category of inspectionCategories) {
+    const value = form.get(`fee.${category}`);
+    if (typeof value === "string") fees[category] = value;
+  }
+  const parsed = profileSchema.safeParse({
+    headline: form.get("headline") ?? "",
+    bio: form.get("bio") ?? "",
+    qualifications: form.get("qualifications") ?? "",
+    baseCity: form.get("baseCity") ?? "",
+    regions: form.get("regions") ?? "",
+    currency: form.get("currency") ?? "",
+    categories: form.getAll("categories"),
+    fees,
+  });
+  if (!parsed.success) return { errors: z.flattenError(parsed.error).fieldErrors as Record<string, string[]> } as const;
+  const errors: Record<string, string[]> = {};
+  const feeMinorByCategory: Partial<Record<InspectionCategory, number>> = {};
+  for (const category of parsed.data.categories) {
+    const fee = feeField.safeParse(parsed.data.fees[category] ?? "");
+    if (fee.success) feeMinorByCategory[category] = fee.data;
+    else errors[`fee.${category}`] = [fee.error.issues[0]?.message ?? "Enter a fee"];
+  }
+  if (Object.keys(errors).length) return { errors } as const;
+  const { fees: _typed, ...profile } = parsed.data;
+  return { value: { ...profile, feeMinorByCategory } } as const;
+}
+
+export type ProfileInput = Extract<ReturnType<typeof parseProfileForm>, { value: unknown }>["value"];
+
+export const SLOT_DURATIONS = [120, 180, 240, 360, 480] as const;
+
+export const slotSchema = z.object({
+  date: z.iso.date({ error: "Choose a day" }),
+  startTime: z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { error: "Enter a start time, e.g. 08:30" }),
+  durationMinutes: z.coerce
+    .number()
+    .int()
+    .refine((minutes) => (SLOT_DURATIONS as readonly number[]).includes(minutes), { error: "Choose a duration" }),
+  /** The browser's offset from UTC in minutes (Date#getTimezoneOffset), so "08:30" means the inspector's 08:30. */
+  timezoneOffset: z.coerce.number().int().min(-840).max(840).default(0),
+  repeatWeeks: z.coerce.number().int().min(1, { error: "At least once" }).max(12, { error: "At most 12 weeks ahead" }).default(1),
+});
+
+export type SlotInput = z.infer<typeof slotSchema>;
+
+export const bookingRequestSchema = z.object({
+  inspectorId: z.string().min(1, { error: "Choose an inspector" }),
+  slotId: z.string().min(1, { error: "Choose a slot" }),
+  acceptTerms: z.literal("on", { error: "Confirm that you have read the refund rules" }),
+});
+
+export const declineSchema = z.object({
+  reason: z.string().trim().min(5, { error: "Say briefly why, so the buyer can book someone else" }).max(1000),
+});
+
+export const cancelSchema = z.object({
+  reason: z.string().trim().max(1000).default(""),
+});
+
+export const adminRefundSchema = z.object({
+  amount: z
+    .string()
+    .trim()
+    .regex(/^\d{1,6}([.,]\d{1,2})?$/, { error: "Enter the amount, e.g. 120 or 120.50" })
+    .transform((value) => Math.round(Number(value.replace(",", ".")) * 100))
+    .refine((minor) => minor > 0, { error: "Enter an amount above zero" }),
+  reason: z.string().trim().min(5, { error: "Write down why this refund is given" }).max(1000),
+});
