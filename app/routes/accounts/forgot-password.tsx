@@ -10,6 +10,9 @@ import type { Route } from "./+types/forgot-password";
 
 export const meta: Route.MetaFunction = () => [{ title: "Reset your password — Tenthmark" }];
 
+// A 429 tells the client when to try again.
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+
 export async function action({ request }: Route.ActionArgs) {
   const submission = parseWithZod(await request.formData(), { schema: forgotPasswordSchema });
   if (submission.status !== "success") return invalidReply(submission);

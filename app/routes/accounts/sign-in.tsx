@@ -18,6 +18,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { redirectTo: redirectTo ?? "", passwordChanged: url.searchParams.has("reset") };
 }
 
+// A 429 tells the client when to try again.
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+
 export async function action({ request }: Route.ActionArgs) {
   const submission = parseWithZod(await request.formData(), { schema: signInSchema });
   if (submission.status !== "success") return invalidReply(submission, { hideFields: ["password"] });

@@ -19,6 +19,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { redirectTo: redirectTo ?? "", chosen: role === "seller" || role === "inspector" ? role : "buyer" };
 }
 
+// A 429 tells the client when to try again.
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+
 export async function action({ request }: Route.ActionArgs) {
   const submission = parseWithZod(await request.formData(), { schema: signUpSchema });
   if (submission.status !== "success") return invalidReply(submission, { hideFields: ["password"] });
