@@ -28,13 +28,14 @@ function toArrays(value: FormValue): FormValue {
       .sort((a, b) => Number(a) - Number(b))
       .map((key) => toArrays(value[key]!));
   }
-  const out: FormObject = {};
+  const out: FormObject = Object.create(null);
   for (const [key, inner] of Object.entries(value)) out[key] = toArrays(inner);
   return out;
 }
 
+// Objects without a prototype, so that keys such as `__proto__` are plain keys here.
 export function parseStripeForm(encoded: string): FormObject {
-  const root: FormObject = {};
+  const root: FormObject = Object.create(null);
   for (const [rawKey, value] of new URLSearchParams(encoded)) {
     const path = keyPath(rawKey);
     let node: FormObject = root;
@@ -47,7 +48,7 @@ export function parseStripeForm(encoded: string): FormObject {
         node[segment] = value;
       } else {
         const next = node[segment];
-        if (typeof next !== "object" || next === null || Array.isArray(next)) node[segment] = {};
+        if (typeof next !== "object" || next === null || Array.isArray(next)) node[segment] = Object.create(null);
         node = node[segment] as FormObject;
       }
     }

@@ -63,9 +63,9 @@ export function url(value: string, param: string): string {
 
 /** Stripe's rule: an empty value removes the key. */
 export function metadata(value: FormValue | undefined, param = "metadata", base: Metadata = {}): Metadata {
-  if (value === undefined || value === "") return { ...base };
+  if (value === undefined || value === "") return Object.assign(Object.create(null), base);
   const object = optionalObject(value, param)!;
-  const out: Metadata = { ...base };
+  const out: Metadata = Object.assign(Object.create(null), base);
   for (const [key, inner] of Object.entries(object)) {
     if (typeof inner !== "string") throw invalidParam(`${param}[${key}]`, `Invalid string: ${param}[${key}]`, "parameter_invalid_string");
     if (key.length > 40) throw invalidParam(`${param}[${key}]`, `Metadata keys can have up to 40 characters; "${key}" has ${key.length}.`);
