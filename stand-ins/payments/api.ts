@@ -327,8 +327,8 @@ export class PaymentsLedger {
     if (session.status !== "open") {
       throw new ApiError(400, "invalid_request_error", `Only Checkout Sessions with a status in ["open"] can be expired; this one is "${session.status}".`, "checkout_session_not_open");
     }
-    const expanded = this.expire(session, context);
-    await this.settle([expanded]);
+    const delivery = this.expire(session, context);
+    await this.settle([delivery]);
     return this.expand(session, expandPaths(params));
   }
 
