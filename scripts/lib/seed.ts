@@ -4,10 +4,48 @@ import { log } from "./output.ts";
 
 export type DemoSignIn = { role: string; email: string; password: string };
 
+// The demo accounts, one per role (plus an inspector whose application waits for staff). Other domains
+// find their owners here by `key` (e.g. the dealer's listings) through `demoAccountId(key)`.
+export const demoAccounts = [
+  { key: "admin", role: "admin", name: "Maren Tolvstad (staff)", email: "staff@example.test", password: "demo-staff-4471", roles: ["admin"] },
+  { key: "dealer", role: "seller", name: "Kessling & Daughters Machine Tools", email: "dealer@example.test", password: "demo-dealer-4471", roles: ["seller"] },
+  { key: "buyer", role: "buyer", name: "Ilse Varga", email: "buyer@example.test", password: "demo-buyer-4471", roles: [] },
+  { key: "inspector", role: "inspector", name: "Tobiah Renner", email: "inspector@example.test", password: "demo-inspector-4471", roles: ["inspector"] },
+  { key: "applicant", role: "applicant", name: "Corvin Aldane", email: "applicant@example.test", password: "demo-applicant-4471", roles: [], inspectorStatus: "pending" },
+] as const;
+
+export type DemoAccountKey = (typeof demoAccounts)[number]["key"];
+
 export function demoSignIns(): DemoSignIn[] {
-  return [];
+  return demoAccounts.map(({ role, email, password }) => ({ role, email, password }));
+}
+
+/** The user id of a demo account (after seeding). */
+export async function demoAccountId(key: DemoAccountKey): Promise<string> {
+  const { findUserIdByEmail } = await import("../../app/modules/accounts/service.server.ts");
+  const account = demoAccounts.find((candidate) => candidate.key === key)!;
+  const id = await findUserIdByEmail(account.email);
+  if (!id) throw new Error(`demo account ${account.email} is missing`);
+  return id;
+}
+
+async function seedDemoAccounts() {
+  // Loaded here, not at the top, so that listing the sign-ins needs no database.
+  const { createAccount, findUserIdByEmail } = await import("../../app/modules/accounts/service.server.ts");
+  for (const account of demoAccounts) {
+    if (await findUserIdByEmail(account.email)) continue;
+    await createAccount({
+      name: account.name,
+      email: account.email,
+      password: account.password,
+      verified: true,
+      roles: [...account.roles],
+      inspectorStatus: "inspectorStatus" in account ? account.inspectorStatus : undefined,
+    });
+  }
+  log("postgres", `demo accounts ready (${demoAccounts.length})`);
 }
 
 export async function seedDemoDataIfEmpty(_databaseUrl: string) {
-  log("postgres", "no demo data to load yet");
+  await seedDemoAccounts();
 }
