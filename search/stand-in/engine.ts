@@ -93,6 +93,7 @@ export class SearchEngine {
       state.settings = { ...defaultSettings(), ...saved.settings };
       for (const document of saved.documents) state.documents.set(documentKey(document[saved.primaryKey!]), document);
       this.configureText(state);
+      this.indexes.set(saved.uid, state);
     }
     // Tasks that had not run when the snapshot was written can no longer run: say so instead of hanging.
     this.tasks = snapshot.tasks.map((task) =>

@@ -318,10 +318,11 @@ function reference(node: FilterNode, document: Record<string, unknown>): boolean
     case "comparison": {
       if (node.operator === "=") return values.some((leaf) => referenceEquals(leaf, node.value));
       if (node.operator === "!=") return !values.some((leaf) => referenceEquals(leaf, node.value));
+      const operator = node.operator;
       return values.some((leaf) => {
         const order = referenceOrder(leaf, node.value);
         if (order === null) return false;
-        return { ">": order > 0, ">=": order >= 0, "<": order < 0, "<=": order <= 0 }[node.operator];
+        return { ">": order > 0, ">=": order >= 0, "<": order < 0, "<=": order <= 0 }[operator];
       });
     }
   }
