@@ -1,0 +1,138 @@
+// The listing-to-document mapping and the translation of a buyer's search into the index's filter and sort.
+import { describe, expect, it } from "vitest";
+import { listingToSearchDocument, type SearchableListing, type SearchableReport } from "../../../search/document.ts";
+import { listingFilter, listingSortRules, quoteFilterValue } from "../../../search/query.ts";
+import { listingIndexSettings } from "../../../search/settings.ts";
+import { conditionsOf, evaluateFilter, parseFilter, parseFilterExpression } from "../../../search/stand-in/filter.ts";
+
+// An invented dealer's machine.
+const listing: SearchableListing = {
+  id: "lst_01",
+  status: "published",
+  category: "centre_lathe",
+  categoryLabel: "Centre lathe",
+  make: "Orvik",
+  model: "CL-360",
+  year: 1998,
+  description: "Reconditioned, new spindle bearings.",
+  swingMm: 360,
+  betweenCentresMm: 1000,
+  spindleBoreMm: 52,
+  priceMinor: 1_450_000,
+  currency: "EUR",
+  city: "Aldmoor",
+  region: "North Brae",
+  country: "DE",
+  sellerName: "Aldmoor Machine Exchange",
+  publishedAt: new Date("2026-03-01T10:00:00.900Z"),
+  photoUrl: "/files/lst_01/thumb.webp",
+};
+
+const report: SearchableReport = {
+  id: "rep_07",
+  grade: "B",
+  measuredOn: new Date("2026-02-20T00:00:00Z"),
+  keyFigures: {
+    spindleRunOut: 4,
+    axialSlip: 2.5,
+    spindleParallelismVertical: -7,
+    spindleParallelismHorizontal: 3,
+    centreHeight: 11,
+    bedStraightness: null,
+  },
+};
+
+describe("listingToSearchDocument", () => {
+  it("carries the report's grade, date and key figures as magnitudes in µm", () => {
+    const document = listingToSearchDocument(listing, report);
+    expect(document).toMatchObject({
+      id: "lst_01",
+      title: "Orvik CL-360",
+      verified: true,
+      reportId: "rep_07",
+      grade: "B",
+      gradeRank: 2,
+      // 2026-02-20T00:00:00Z and 2026-03-01T10:00:00Z in epoch seconds (whole seconds, rounded down).
+      reportDate: 1_771_545_600,
+      publishedAt: 1_772_359_200,
+      spindleRunoutUm: 4,
+      axialSlipUm: 2.5,
+      spindleParallelismVerticalUm: 7,
+      spindleParallelismHorizontalUm: 3,
+      centreHeightUm: 11,
+      bedStraightnessUm: null,
+    });
+  });
+
+  it("marks a listing without a report as not verified, with empty figures", () => {
+    const document = listingToSearchDocument({ ...listing, publishedAt: null }, null);
+    expect(document).toMatchObject({ verified: false, grade: null, gradeRank: null, reportDate: null, spindleRunoutUm: null, publishedAt: null });
+  });
+
+  it("holds every attribute the index settings name", () => {
+    const document = listingToSearchDocument(listing, report);
+    const named = [...listingIndexSettings.searchableAttributes, ...listingIndexSettings.filterableAttributes, ...listingIndexSettings.sortableAttributes];
+    for (const attribute of named) expect(document, attribute).toHaveProperty(attribute);
+  });
+});
+
+describe("listingFilter", () => {
+  const now = new Date("2026-03-10T00:00:00Z");
+
+  it("shows published listings only by default", () => {
+    expect(listingFilter({}, now)).toEqual(['status IN ["published"]']);
+  });
+
+  it("writes the buyer's limits as conditions the stand-in parses, on filterable attributes only", () => {
+    const filter = listingFilter(
+      {
+        categories: ["centre_lathe", "toolroom_lathe"],
+        grades: ["A", "B"],
+        verifiedOnly: true,
+        currency: "EUR",
+        priceMinor: { min: 500_000, max: 2_000_000 },
+        swingMm: { min: 300 },
+        betweenCentresMm: { max: 1500 },
+        maxSpindleRunoutUm: 5,
+        maxAxialSlipUm: 4,
+        maxSpindleParallelismUm: 10,
+        maxCentreHeightUm: 20,
+        maxBedStraightnessUm: 15,
+        maxReportAgeDays: 365,
+        countries: ["DE"],
+        region: 'North "Brae"',
+      },
+      now,
+    );
+    const parsed = parseFilter(filter)!;
+    const filterable = new Set<string>(listingIndexSettings.filterableAttributes);
+    for (const condition of conditionsOf(parsed)) expect(filterable.has(condition.attribute), condition.attribute).toBe(true);
+    // 365 days before 2026-03-10T00:00:00Z, in epoch seconds.
+    expect(filter).toContain("reportDate >= 1741564800");
+    expect(filter).toContain("spindleParallelismVerticalUm <= 10");
+    expect(filter).toContain("spindleParallelismHorizontalUm <= 10");
+
+    const matching = { ...listingToSearchDocument(listing, report), region: 'North "Brae"' };
+    expect(evaluateFilter(parsed, matching)).toBe(false); // bedStraightnessUm is null: an “at most” limit needs the figure
+    expect(evaluateFilter(parsed, { ...matching, bedStraightnessUm: 12 })).toBe(true);
+    expect(evaluateFilter(parsed, { ...matching, bedStraightnessUm: 12, spindleRunoutUm: 6 })).toBe(false);
+  });
+
+  it("quotes any text so that it cannot change the expression", () => {
+    const hostile = `x" OR status = "draft`;
+    expect(parseFilterExpression(`region = ${quoteFilterValue(hostile)}`)).toEqual({ kind: "comparison", attribute: "region", operator: "=", value: hostile });
+    expect(quoteFilterValue(12.5)).toBe("12.5");
+  });
+});
+
+describe("listingSortRules", () => {
+  it("uses sortable attributes only, and none for relevance", () => {
+    expect(listingSortRules("relevance")).toBeUndefined();
+    expect(listingSortRules(undefined)).toBeUndefined();
+    const sortable = new Set<string>(listingIndexSettings.sortableAttributes);
+    for (const sort of ["newest", "price-ascending", "price-descending", "best-accuracy"] as const) {
+      for (const rule of listingSortRules(sort)!) expect(sortable.has(rule.split(":")[0]!), rule).toBe(true);
+    }
+    expect(listingSortRules("best-accuracy")).toEqual(["gradeRank:asc", "spindleRunoutUm:asc"]);
+  });
+});
