@@ -64,7 +64,7 @@ export function FileUploader({ endpoint, accept, maxBytes, limitText, label, mul
     setUploads((current) => [...current, { id, name: file.name, size: file.size, progress: 0, state: "sending" }]);
     try {
       if (!accept.includes(file.type)) throw new Error(`This file is not one we accept. ${limitText}.`);
-      if (file.size > maxBytes) throw new Error(`This file is ${formatBytes(file.size)}; the limit is ${formatBytes(maxBytes)}.`);
+      if (file.size > maxBytes) throw new Error(`This file is ${formatBytes(file.size)}, over the ${formatBytes(maxBytes)} limit.`);
       const ticket = await postForm(endpoint, { intent: "presign", fileName: file.name, size: String(file.size), contentType: file.type });
       await putWithProgress(ticket.uploadUrl!, file, (progress) => update(id, { progress }));
       update(id, { progress: 1, state: "checking" });

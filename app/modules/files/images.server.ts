@@ -23,7 +23,7 @@ function openImage(bytes: Buffer) {
 /** The format and size of a photo, judged by its bytes; rejects anything but JPEG, PNG or WebP within limits. */
 export async function inspectPhoto(bytes: Buffer) {
   if (bytes.length > PHOTO_MAX_BYTES) {
-    throw new RejectedFileError(`This photo is ${formatBytes(bytes.length)}; the limit is ${formatBytes(PHOTO_MAX_BYTES)}.`);
+    throw new RejectedFileError(`This photo is ${formatBytes(bytes.length)}, over the ${formatBytes(PHOTO_MAX_BYTES)} limit.`);
   }
   let metadata: Metadata;
   try {
@@ -73,7 +73,7 @@ async function requireUploaded(uploadKey: string, maxBytes: number, what: string
   if (!stat) throw new RejectedFileError(`The ${what} did not reach storage. Try uploading it again.`);
   if (stat.size > maxBytes) {
     await deleteObjects([uploadKey]);
-    throw new RejectedFileError(`This ${what} is ${formatBytes(stat.size)}; the limit is ${formatBytes(maxBytes)}.`);
+    throw new RejectedFileError(`This ${what} is ${formatBytes(stat.size)}, over the ${formatBytes(maxBytes)} limit.`);
   }
   if (stat.size === 0) {
     await deleteObjects([uploadKey]);

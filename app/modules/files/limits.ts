@@ -11,7 +11,9 @@ export const DOCUMENT_TYPES = ["application/pdf"] as const;
 export const DOCUMENTS_PER_LISTING = 10;
 
 export function formatBytes(bytes: number): string {
-  return bytes >= 1024 * 1024 ? `${Math.round(bytes / (1024 * 1024))} MB` : `${Math.round(bytes / 1024)} KB`;
+  const megabytes = bytes / (1024 * 1024);
+  if (megabytes >= 1) return `${Number.isInteger(megabytes) ? megabytes : megabytes.toFixed(1)} MB`;
+  return `${Math.max(1, Math.round(bytes / 1024))} KB`;
 }
 
 export const photoLimitText = `JPEG, PNG or WebP, up to ${formatBytes(PHOTO_MAX_BYTES)} and ${PHOTO_MAX_PIXELS / 1_000_000} megapixels each`;

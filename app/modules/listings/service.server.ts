@@ -254,7 +254,7 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
     throw new RejectedFileError(`${file.fileName} is not a JPEG, PNG or WebP photo.`);
   }
   if (file.size > PHOTO_MAX_BYTES) {
-    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}; the limit is ${formatBytes(PHOTO_MAX_BYTES)}.`);
+    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(PHOTO_MAX_BYTES)} limit.`);
   }
   const [{ photos }] = await db.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
   if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
@@ -334,7 +334,7 @@ export async function startDocumentUpload(db: Database, actor: SessionUser, list
   const listing = await managedListing(db, actor, listingId);
   if (!(DOCUMENT_TYPES as readonly string[]).includes(file.contentType)) throw new RejectedFileError(`${file.fileName} is not a PDF.`);
   if (file.size > DOCUMENT_MAX_BYTES) {
-    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}; the limit is ${formatBytes(DOCUMENT_MAX_BYTES)}.`);
+    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(DOCUMENT_MAX_BYTES)} limit.`);
   }
   const [{ documents }] = await db.select({ documents: count() }).from(listingDocuments).where(eq(listingDocuments.listingId, listing.id));
   if (documents >= DOCUMENTS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${DOCUMENTS_PER_LISTING} documents; delete one first.`);
