@@ -220,8 +220,13 @@ export class SearchEngine {
     // Written to a temporary file and renamed, so that a crash never leaves half a snapshot.
     this.writing = this.writing.then(async () => {
       const temporary = `${this.snapshotFile}.${process.pid}.tmp`;
-      await writeFile(temporary, text);
-      await rename(temporary, this.snapshotFile);
+      try {
+        await writeFile(temporary, text);
+        await rename(temporary, this.snapshotFile);
+      } catch (error) {
+        // The index stays usable in memory; the next task's snapshot tries again.
+        process.stderr.write(`search stand-in: could not write ${this.snapshotFile}: ${(error as Error).message}\n`);
+      }
     });
     return this.writing;
   }
