@@ -28,6 +28,20 @@ export default [
   route("sell/listings/:listingId/photos", "routes/listings/sell-photos.ts"),
   route("sell/listings/:listingId/documents", "routes/listings/sell-documents.ts"),
 
+  // Inspections: certified inspectors, booking and paying, dashboards
+  route("inspectors", "routes/inspections/inspectors.tsx"),
+  route("inspectors/:inspectorId", "routes/inspections/inspector-public.tsx"),
+  route("inspectors/:inspectorId/certificate", "routes/inspections/inspector-certificate.ts"),
+  route("machines/:slug/book", "routes/inspections/book.tsx"),
+  route("bookings", "routes/inspections/buyer-bookings.tsx"),
+  route("bookings/:bookingId", "routes/inspections/booking.tsx"),
+  route("bookings/:bookingId/paid", "routes/inspections/checkout-return.tsx"),
+  route("bookings/:bookingId/checkout-cancelled", "routes/inspections/checkout-cancelled.tsx"),
+  route("inspector/profile", "routes/inspections/inspector-profile-edit.tsx"),
+  route("inspector/bookings", "routes/inspections/inspector-bookings.tsx"),
+  route("inspector/bookings/:bookingId", "routes/inspections/inspector-booking.tsx"),
+  route("admin/payments", "routes/inspections/admin-payments.tsx"),
+
   // Processed photos and documents, streamed from the bucket
   route("files/*", "routes/files.ts"),
 

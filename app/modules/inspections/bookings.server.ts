@@ -7,7 +7,7 @@ import { env } from "~/env.server";
 import { user, userRole } from "~/modules/accounts/schema";
 import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
 import { listings } from "~/modules/listings/schema";
-import { createCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
+import { createCheckoutSession, expireCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
 import { BookingRuleError, DEADLOCK_DETECTED, isExclusionViolation, SlotTakenError, sqlStateOf } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
 import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
@@ -301,6 +301,11 @@ export async function cancelBookingAsBuyer(db: Database, buyer: Person, bookingI
     await transition(tx, booking, "cancelled", { kind: refund.rule, actorId: buyer.id, note: reason || undefined }, { cancelReason: reason || null, refundDueMinor: refund.amountMinor });
     return "cancelled" as const;
   });
+  if (outcome === "released") {
+    // End the session too, so the released slot cannot be paid for afterwards; a late payment would be refunded anyway.
+    const [released] = await db.select({ sessionId: bookings.checkoutSessionId }).from(bookings).where(eq(bookings.id, bookingId));
+    if (released?.sessionId) await expireCheckoutSession(released.sessionId).catch((error: unknown) => console.warn(`[inspections] could not expire ${released.sessionId}: ${String(error)}`));
+  }
   if (outcome === "cancelled") {
     await notify(db, [{ bookingId, notice: { kind: "cancelled_by_buyer", reason } }]);
     await refundAfterCommit(db, bookingId, buyer.id);

@@ -1,8 +1,12 @@
 // Inspector profiles, their fees and their bookable slots; who is shown to buyers for which listing.
+import { randomUUID } from "node:crypto";
 import { addMinutes, addWeeks } from "date-fns";
 import { and, asc, eq, gt, inArray, sql } from "drizzle-orm";
 import type { Database } from "~/db/client.server";
 import { inspectorApplication, user, userRole } from "~/modules/accounts/schema";
+import { looksLikePdf } from "~/modules/files/images.server";
+import { DOCUMENT_MAX_BYTES, formatBytes } from "~/modules/files/limits";
+import { openObject, writeObject } from "~/modules/files/storage.server";
 import { countryName } from "~/modules/listings/catalogue";
 import { listings } from "~/modules/listings/schema";
 import { BookingRuleError, isExclusionViolation } from "./errors";
@@ -264,4 +268,33 @@ export async function getCertificate(db: Executor, inspectorId: string) {
     .from(inspectorProfiles)
     .where(and(eq(inspectorProfiles.userId, inspectorId), isCertified));
   return profile?.fileKey ? { fileKey: profile.fileKey, fileName: profile.fileName ?? "certificate.pdf" } : null;
+}
+
+/** What the booking page of a listing offers this person: the machine, and the inspectors they may book with free slots. */
+export async function bookingPageFor(db: Executor, slug: string, viewerId: string | null) {
+  const listing = await findListingBySlug(db, slug);
+  if (!listing || (listing.status !== "published" && listing.sellerId !== viewerId)) return null;
+  const inspectors = await eligibleInspectors(db, listing, viewerId);
+  return { listing, inspectors };
+}
+
+/** Checks an uploaded certificate (a PDF within the document limit, by its first bytes) and stores it on the profile. */
+export async function storeCertificate(db: Database, userId: string, file: File) {
+  await requireProfile(db, userId);
+  if (file.size === 0) throw new BookingRuleError("Choose a PDF file to upload.", 422, "certificate");
+  if (file.size > DOCUMENT_MAX_BYTES) throw new BookingRuleError(`This file is ${formatBytes(file.size)}; the limit is ${formatBytes(DOCUMENT_MAX_BYTES)}.`, 422, "certificate");
+  const bytes = Buffer.from(await file.arrayBuffer());
+  if (!looksLikePdf(bytes)) throw new BookingRuleError("This file is not a PDF. Upload your certificate as PDF.", 422, "certificate");
+  const fileKey = `inspectors/${userId}/certificate-${randomUUID()}.pdf`;
+  await writeObject({ key: fileKey, body: bytes, contentType: "application/pdf" });
+  const fileName = file.name.replace(/[^\w .()-]/g, "_").slice(0, 120) || "certificate.pdf";
+  await setCertificate(db, userId, { fileKey, fileName });
+}
+
+/** The certificate of a certified inspector as a stream, or null. */
+export async function openCertificate(db: Executor, inspectorId: string) {
+  const certificate = await getCertificate(db, inspectorId);
+  if (!certificate) return null;
+  const object = await openObject(certificate.fileKey);
+  return object ? { ...object, fileName: certificate.fileName } : null;
 }

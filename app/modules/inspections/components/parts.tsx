@@ -1,0 +1,53 @@
+// Pieces shared by the inspections pages: status badge, times, refund rules and the safety cautions.
+import { Badge } from "~/components/ui";
+import { bookingStatusLabels, bookingStatusTones, refundRulesText, type BookingStatus } from "../rules";
+
+// Times are shown in UTC on every page and e-mail, so that what the inspector offers is what the buyer sees.
+const dayFormat = new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+const timeFormat = new Intl.DateTimeFormat("en-GB", { hour: "2-digit", minute: "2-digit", timeZone: "UTC" });
+
+export function formatDay(date: Date | string) {
+  return dayFormat.format(new Date(date));
+}
+
+export function formatSlot(startsAt: Date | string, endsAt: Date | string) {
+  return `${formatDay(startsAt)}, ${timeFormat.format(new Date(startsAt))}–${timeFormat.format(new Date(endsAt))} UTC`;
+}
+
+export function SlotTime({ startsAt, endsAt }: { startsAt: Date | string; endsAt: Date | string }) {
+  return <time dateTime={new Date(startsAt).toISOString()}>{formatSlot(startsAt, endsAt)}</time>;
+}
+
+export function BookingStatusBadge({ status }: { status: BookingStatus }) {
+  return <Badge tone={bookingStatusTones[status]}>{bookingStatusLabels[status]}</Badge>;
+}
+
+export function RefundRules({ className }: { className?: string }) {
+  return (
+    <div className={className}>
+      <h3 className="text-sm font-bold text-ink-900">Refund rules</h3>
+      <ul className="mt-2 list-disc space-y-1 pl-5 text-sm text-ink-700" data-testid="refund-rules">
+        {refundRulesText.map((entry) => (
+          <li key={entry.rule}>{entry.text}</li>
+        ))}
+      </ul>
+      <p className="mt-2 text-sm text-ink-500">If the payment is not completed within 30 minutes, the slot is released and nothing is charged.</p>
+    </div>
+  );
+}
+
+/** The usual cautions wherever inspection work on a machine is described. */
+export function InspectionSafetyNotice({ compact = false }: { compact?: boolean }) {
+  return (
+    <aside className="rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-4 text-sm text-ink-800 sm:p-5" aria-label="Safety">
+      <p className="font-bold text-caution">Safety on site</p>
+      <ul className={compact ? "mt-1 space-y-1" : "mt-2 list-disc space-y-1 pl-5"}>
+        <li>Rotating spindles and chucks: chuck key out, no gloves, loose sleeves or hair near the work, guards in place.</li>
+        <li>Lock the machine out and tag it before any adjustment of bearings, gibs or levelling screws.</li>
+        <li>Test mandrels and faceplates are heavy: use lifting aids, and leave rigging and moving machines to qualified riggers.</li>
+        <li>Electrical connection of a machine is work for a licensed electrician.</li>
+      </ul>
+      <p className="mt-2 text-ink-600">The machine's manual, local rules and licensed practice come first; the inspector may stop a test they judge unsafe.</p>
+    </aside>
+  );
+}

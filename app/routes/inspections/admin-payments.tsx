@@ -1,0 +1,132 @@
+import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
+import { z } from "zod";
+import { Button, Card, CardBody, Table, Td, Th, Tr } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { requireRole } from "~/modules/accounts/guards.server";
+import { StaffNav } from "~/modules/accounts/components/staff-nav";
+import { listPayments, refundAsAdmin } from "~/modules/inspections/bookings.server";
+import { BookingStatusBadge } from "~/modules/inspections/components/parts";
+import { BookingRuleError } from "~/modules/inspections/errors";
+import { adminRefundSchema } from "~/modules/inspections/validation";
+import { PaymentsRejectedError, PaymentsUnavailableError } from "~/modules/payments/stripe.server";
+import { formatMoney } from "~/modules/units/format";
+import type { Route } from "./+types/admin-payments";
+
+export const meta: Route.MetaFunction = () => [{ title: "Payments — Tenthmark staff" }];
+
+export async function loader({ request, context }: Route.LoaderArgs) {
+  await requireRole(request, "admin");
+  return listPayments(context.get(databaseContext));
+}
+
+type Result = { bookingId: string; errors: Record<string, string[] | undefined> | null; message?: string };
+
+export async function action({ request, context }: Route.ActionArgs) {
+  const admin = await requireRole(request, "admin");
+  const form = Object.fromEntries(await request.formData());
+  const bookingId = String(form.bookingId ?? "");
+  const parsed = adminRefundSchema.safeParse(form);
+  if (!parsed.success) return data<Result>({ bookingId, errors: z.flattenError(parsed.error).fieldErrors }, { status: 422 });
+  try {
+    const refunded = await refundAsAdmin(context.get(databaseContext), admin, bookingId, parsed.data.amount, parsed.data.reason);
+    return { bookingId, errors: null, message: refunded ? "Refund issued." : "Nothing was owed." } satisfies Result;
+  } catch (error) {
+    if (error instanceof BookingRuleError) return data<Result>({ bookingId, errors: { [error.field ?? "amount"]: [error.message] } }, { status: error.status });
+    if (error instanceof PaymentsUnavailableError || error instanceof PaymentsRejectedError) return data<Result>({ bookingId, errors: { amount: [error.message] } }, { status: 503 });
+    throw error;
+  }
+}
+
+export default function AdminPayments() {
+  const { rows, totals } = useLoaderData<typeof loader>();
+  const actionData = useActionData<typeof action>();
+  const busy = useNavigation().state !== "idle";
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
+      <StaffNav current="users" />
+      <h1 className="mt-4 text-3xl font-extrabold tracking-tight text-ink-950">Payments</h1>
+      <p className="mt-1 text-ink-600">Inspection fees taken through Stripe, their refunds and the inspectors' transfers.</p>
+      <div className="mt-5 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        {totals.map((total) => (
+          <Card key={total.currency}>
+            <CardBody className="space-y-1 text-sm">
+              <p className="font-bold text-ink-900">{total.currency}</p>
+              <p className="text-ink-700">Paid: <span className="tabular">{formatMoney(total.paid, total.currency)}</span></p>
+              <p className="text-ink-700">Refunded: <span className="tabular">{formatMoney(total.refunded, total.currency)}</span></p>
+              <p className="text-ink-700">Platform fees: <span className="tabular">{formatMoney(total.platform, total.currency)}</span></p>
+              <p className="text-ink-700">Transferred: <span className="tabular">{formatMoney(total.paidOut, total.currency)}</span></p>
+            </CardBody>
+          </Card>
+        ))}
+      </div>
+      <div className="mt-6">
+        <Table caption="Payments">
+          <thead>
+            <tr>
+              <Th>Booking</Th>
+              <Th>Paid</Th>
+              <Th>Status</Th>
+              <Th>Fee / platform / inspector</Th>
+              <Th>Refunds</Th>
+              <Th>Refund</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map(({ booking, listing, inspectorName, buyerName, refunds, payout }) => {
+              const errors = actionData?.bookingId === booking.id ? actionData.errors : null;
+              const refundable = booking.feeMinor - booking.refundedMinor;
+              return (
+                <Tr key={booking.id}>
+                  <Td>
+                    <Link to={`/bookings/${booking.id}`} className="font-mono text-xs font-semibold underline">
+                      {booking.reference}
+                    </Link>
+                    <div className="text-xs text-ink-600">
+                      {listing.make} {listing.model} · {buyerName} → {inspectorName}
+                    </div>
+                    <div className="font-mono text-[11px] text-ink-400">{booking.paymentIntentId}</div>
+                  </Td>
+                  <Td className="whitespace-nowrap text-xs">{booking.paidAt ? new Date(booking.paidAt).toISOString().slice(0, 16).replace("T", " ") : ""}</Td>
+                  <Td>
+                    <BookingStatusBadge status={booking.status} />
+                  </Td>
+                  <Td className="whitespace-nowrap tabular text-xs">
+                    {formatMoney(booking.feeMinor, booking.currency)} / {formatMoney(booking.platformFeeMinor, booking.currency)} / {formatMoney(booking.inspectorShareMinor, booking.currency)}
+                    {payout ? <div className="text-within">transferred {payout.stripeTransferId}</div> : null}
+                  </Td>
+                  <Td className="text-xs">
+                    {refunds.length === 0
+                      ? "—"
+                      : refunds.map((refund) => (
+                          <div key={refund.id} className="tabular">
+                            {formatMoney(refund.amountMinor, refund.currency)} ({refund.rule})
+                          </div>
+                        ))}
+                  </Td>
+                  <Td className="min-w-56">
+                    {refundable > 0 ? (
+                      <Form method="post" className="space-y-1.5">
+                        <input type="hidden" name="bookingId" value={booking.id} />
+                        <div className="flex gap-1.5">
+                          <input name="amount" aria-label={`Amount to refund for ${booking.reference}`} defaultValue={(refundable / 100).toFixed(2)} inputMode="decimal" className="w-24 rounded-(--radius-control) border border-ink-300 px-2 py-1 text-sm tabular" />
+                          <input name="reason" aria-label={`Reason for the refund of ${booking.reference}`} placeholder="Reason" className="w-full min-w-24 rounded-(--radius-control) border border-ink-300 px-2 py-1 text-sm" />
+                        </div>
+                        <Button type="submit" size="sm" variant="secondary" disabled={busy}>
+                          Refund
+                        </Button>
+                        {errors ? <p role="alert" className="text-xs font-medium text-beyond">{Object.values(errors).flat().join(" ")}</p> : null}
+                        {actionData?.bookingId === booking.id && actionData.message ? <p className="text-xs font-medium text-within">{actionData.message}</p> : null}
+                      </Form>
+                    ) : (
+                      <span className="text-xs text-ink-500">Fully refunded</span>
+                    )}
+                  </Td>
+                </Tr>
+              );
+            })}
+          </tbody>
+        </Table>
+      </div>
+    </div>
+  );
+}

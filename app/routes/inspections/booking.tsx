@@ -1,0 +1,92 @@
+import { data, Form, useActionData, useLoaderData, useNavigation } from "react-router";
+import { Button, Card, CardBody, CardHeader, TextAreaField } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { requireUser } from "~/modules/accounts/guards.server";
+import { cancelBookingAsBuyer, getBookingView } from "~/modules/inspections/bookings.server";
+import { BookingFacts, BookingHistory } from "~/modules/inspections/components/booking-detail";
+import { InspectionSafetyNotice, RefundRules } from "~/modules/inspections/components/parts";
+import { BookingRuleError } from "~/modules/inspections/errors";
+import { cancelSchema } from "~/modules/inspections/validation";
+import { formatMoney } from "~/modules/units/format";
+import type { Route } from "./+types/booking";
+
+export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ? `Booking ${loaded.detail.booking.reference} — Tenthmark` : "Booking — Tenthmark" }];
+
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  try {
+    return { detail: await getBookingView(context.get(databaseContext), params.bookingId, user) };
+  } catch (error) {
+    if (error instanceof BookingRuleError) throw data(error.message, { status: error.status });
+    throw error;
+  }
+}
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireUser(request);
+  const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ errors: { reason: parsed.error.issues.map((issue) => issue.message) } }, { status: 422 });
+  try {
+    await cancelBookingAsBuyer(context.get(databaseContext), user, params.bookingId, parsed.data.reason);
+    return { errors: null };
+  } catch (error) {
+    if (error instanceof BookingRuleError) return data({ errors: { reason: [error.message] } }, { status: error.status });
+    throw error;
+  }
+}
+
+export default function BookingPage() {
+  const { detail } = useLoaderData<typeof loader>();
+  const actionData = useActionData<typeof action>();
+  const busy = useNavigation().state !== "idle";
+  const { booking } = detail;
+  const refund = detail.refundIfCancelledNow;
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6 sm:py-10">
+      <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">
+        Inspection of the {detail.listing.make} {detail.listing.model}
+      </h1>
+      <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
+        <div className="space-y-6">
+          <BookingFacts detail={detail} />
+          <BookingHistory detail={detail} />
+        </div>
+        <aside className="space-y-4">
+          {detail.role === "buyer" && booking.status === "awaiting_payment" && booking.checkoutUrl ? (
+            <Card>
+              <CardHeader title="Payment not finished" />
+              <CardBody className="space-y-3 text-sm text-ink-700">
+                <p>The slot is held for you until the checkout lapses. Nothing has been charged yet.</p>
+                <a href={booking.checkoutUrl} className="inline-flex h-10 w-full items-center justify-center rounded-(--radius-control) bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700">
+                  Return to payment
+                </a>
+              </CardBody>
+            </Card>
+          ) : null}
+          {detail.role === "buyer" && refund ? (
+            <Card>
+              <CardHeader title="Cancel this booking" />
+              <CardBody>
+                <Form method="post" className="space-y-3">
+                  <p className="text-sm text-ink-700">
+                    Cancelling now refunds <strong className="tabular">{formatMoney(refund.amountMinor, booking.currency)}</strong> ({refund.percent}% of the fee). {refund.explanation}
+                  </p>
+                  <TextAreaField label="Reason (optional)" name="reason" errors={actionData?.errors?.reason} />
+                  <Button type="submit" variant="danger" className="w-full" disabled={busy}>
+                    Cancel booking
+                  </Button>
+                </Form>
+              </CardBody>
+            </Card>
+          ) : null}
+          <Card>
+            <CardBody>
+              <RefundRules />
+            </CardBody>
+          </Card>
+          <InspectionSafetyNotice compact />
+        </aside>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,100 @@
+import { data, Form, useActionData, useLoaderData, useNavigation } from "react-router";
+import { z } from "zod";
+import { Button, Card, CardBody, CardHeader, TextAreaField } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { requireRole } from "~/modules/accounts/guards.server";
+import { acceptBooking, declineBooking, getBookingView } from "~/modules/inspections/bookings.server";
+import { BookingFacts, BookingHistory } from "~/modules/inspections/components/booking-detail";
+import { InspectionSafetyNotice } from "~/modules/inspections/components/parts";
+import { BookingRuleError } from "~/modules/inspections/errors";
+import { declineSchema } from "~/modules/inspections/validation";
+import type { Route } from "./+types/inspector-booking";
+
+export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ? `Request ${loaded.detail.booking.reference} — Tenthmark` : "Request — Tenthmark" }];
+
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(request, "inspector");
+  try {
+    const detail = await getBookingView(context.get(databaseContext), params.bookingId, user);
+    if (detail.role !== "inspector") throw data("This request is for another inspector.", { status: 403 });
+    return { detail };
+  } catch (error) {
+    if (error instanceof BookingRuleError) throw data(error.message, { status: error.status });
+    throw error;
+  }
+}
+
+const intentSchema = z.discriminatedUnion("intent", [z.object({ intent: z.literal("accept") }), declineSchema.extend({ intent: z.literal("decline") })]);
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(request, "inspector");
+  const parsed = intentSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ errors: { reason: parsed.error.issues.map((issue) => issue.message) }, done: null }, { status: 422 });
+  const db = context.get(databaseContext);
+  try {
+    if (parsed.data.intent === "accept") await acceptBooking(db, user, params.bookingId);
+    else await declineBooking(db, user, params.bookingId, parsed.data.reason);
+    return { errors: null, done: parsed.data.intent };
+  } catch (error) {
+    if (error instanceof BookingRuleError) return data({ errors: { reason: [error.message] }, done: null }, { status: error.status });
+    throw error;
+  }
+}
+
+export default function InspectorBooking() {
+  const { detail } = useLoaderData<typeof loader>();
+  const actionData = useActionData<typeof action>();
+  const busy = useNavigation().state !== "idle";
+  const { booking } = detail;
+  const answerable = booking.status === "paid";
+  const cancellable = booking.status === "accepted";
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6 sm:py-10">
+      <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">
+        {answerable ? "Inspection request" : "Inspection"}: {detail.listing.make} {detail.listing.model}
+      </h1>
+      {actionData?.done === "accept" ? (
+        <p role="status" className="mt-4 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
+          Accepted. The buyer and the seller have been told.
+        </p>
+      ) : null}
+      {actionData?.done === "decline" ? (
+        <p role="status" className="mt-4 rounded-(--radius-control) border border-ink-200 bg-ink-50 px-4 py-3 text-sm font-semibold text-ink-800">
+          Declined. The buyer is refunded in full and has been told.
+        </p>
+      ) : null}
+      <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
+        <div className="space-y-6">
+          <BookingFacts detail={detail} showSplit />
+          <BookingHistory detail={detail} />
+        </div>
+        <aside className="space-y-4">
+          {answerable || cancellable ? (
+            <Card>
+              <CardHeader title={answerable ? "Your answer" : "Cannot make it?"} />
+              <CardBody className="space-y-4">
+                {answerable ? (
+                  <Form method="post">
+                    <input type="hidden" name="intent" value="accept" />
+                    <Button type="submit" size="lg" className="w-full" disabled={busy}>
+                      Accept this inspection
+                    </Button>
+                  </Form>
+                ) : null}
+                <Form method="post" className="space-y-3">
+                  <input type="hidden" name="intent" value="decline" />
+                  <TextAreaField label={answerable ? "Or decline, with a reason for the buyer" : "Cancel, with a reason for the buyer"} name="reason" errors={actionData?.errors?.reason} required minLength={5} />
+                  <Button type="submit" variant="secondary" className="w-full" disabled={busy}>
+                    {answerable ? "Decline and refund" : "Cancel and refund"}
+                  </Button>
+                  <p className="text-xs text-ink-500">The buyer gets the whole fee back.</p>
+                </Form>
+              </CardBody>
+            </Card>
+          ) : null}
+          <InspectionSafetyNotice />
+        </aside>
+      </div>
+    </div>
+  );
+}
