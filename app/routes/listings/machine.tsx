@@ -138,7 +138,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
             ) : null}
           </div>
 
-          <AccuracyPanel />
+          <AccuracyPanel slug={listing.slug} />
 
           {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={Boolean(viewer)} /> : null}
         </aside>
@@ -174,7 +174,7 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
   );
 }
 
-function AccuracyPanel() {
+function AccuracyPanel({ slug }: { slug: string }) {
   return (
     <Card id="accuracy" className="border-caution/40">
       <CardHeader title="Accuracy" action={<Badge tone="caution">Not yet verified</Badge>} />
@@ -183,11 +183,11 @@ function AccuracyPanel() {
           No certified inspector has measured this machine yet. An on-site check reads spindle run-out, axial slip, spindle-axis parallelism,
           bed straightness and centre height, and scores each against the tolerance for a machine of this size.
         </p>
-        <ButtonLink to="#book-inspection" variant="secondary" className="w-full">
+        <ButtonLink to={`/machines/${slug}/book`} variant="secondary" className="w-full">
           Book an inspection
         </ButtonLink>
-        <p id="book-inspection" className="text-xs text-ink-500">
-          Booking opens soon: inspectors are setting up their regions and fees.{" "}
+        <p className="text-xs text-ink-500">
+          A certified inspector serving this region checks it on site; the fee and refund rules are shown before you pay.{" "}
           <Link to="/how-scoring-works" className="underline underline-offset-2">
             How scoring works
           </Link>
