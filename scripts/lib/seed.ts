@@ -46,6 +46,25 @@ async function seedDemoAccounts() {
   log("postgres", `demo accounts ready (${demoAccounts.length})`);
 }
 
+// Two more dealers who own demo listings; they have no listed sign-in (the demo dealer above is the one to use).
+const demoListingDealers = [
+  { name: "Brandmoor Used Machinery Ltd", email: "brandmoor.sales@example.test" },
+  { name: "Atelier Vernois Machines-Outils", email: "atelier.vernois@example.test" },
+];
+
+async function seedDemoListingsPart() {
+  const { createAccount, findUserIdByEmail } = await import("../../app/modules/accounts/service.server.ts");
+  const { seedDemoListings } = await import("../../app/modules/listings/demo.server.ts");
+  const dealerIds = [await demoAccountId("dealer")];
+  for (const dealer of demoListingDealers) {
+    const id = (await findUserIdByEmail(dealer.email)) ?? (await createAccount({ ...dealer, password: `demo-${crypto.randomUUID()}`, verified: true, roles: ["seller"] })).id;
+    dealerIds.push(id);
+  }
+  const written = await seedDemoListings(dealerIds);
+  log("postgres", written ? `demo listings written (${written})` : "demo listings already there");
+}
+
 export async function seedDemoDataIfEmpty(_databaseUrl: string) {
   await seedDemoAccounts();
+  await seedDemoListingsPart();
 }

@@ -90,7 +90,7 @@ function SellingExplained({ signedIn }: { signedIn: boolean }) {
           </>
         ) : (
           <>
-            <ButtonLink to="/sign-up?role=seller" size="lg">
+            <ButtonLink to="/sign-up?role=seller&redirectTo=%2Fsell" size="lg">
               Create a seller account
             </ButtonLink>
             <ButtonLink to="/sign-in?redirectTo=%2Fsell" variant="secondary" size="lg">
