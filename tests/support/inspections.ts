@@ -9,7 +9,7 @@ import { createBooking } from "~/modules/inspections/bookings.server";
 import { saveProfile } from "~/modules/inspections/profiles.server";
 import { bookings, inspectorSlots } from "~/modules/inspections/schema";
 import { listings } from "~/modules/listings/schema";
-import { createTestUser, type TestUser } from "../../support/accounts";
+import { createTestUser, type TestUser } from "./accounts";
 
 export const appOrigin = process.env.TEST_APP_ORIGIN!;
 export const db = getDatabase();

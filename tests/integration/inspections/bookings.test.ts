@@ -7,7 +7,7 @@ import { eligibleInspectors } from "~/modules/inspections/profiles.server";
 import { bookingRefunds, bookings } from "~/modules/inspections/schema";
 import { createTestUser } from "../../support/accounts";
 import { latestEmailTo } from "../../support/mailbox";
-import { bookingRow, certifiedInspector, completedSession, db, heldBooking, postWebhook, publishedLathe, signedEvent } from "./fixtures";
+import { bookingRow, certifiedInspector, completedSession, db, heldBooking, postWebhook, publishedLathe, signedEvent } from "../../support/inspections";
 
 async function paidBooking() {
   const held = await heldBooking();

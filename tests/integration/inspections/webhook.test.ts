@@ -3,7 +3,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { bookingEvents, processedWebhookEvents } from "~/modules/inspections/schema";
 import { latestEmailTo } from "../../support/mailbox";
-import { bookingRow, completedSession, db, failedIntent, heldBooking, postWebhook, signedEvent } from "./fixtures";
+import { bookingRow, completedSession, db, failedIntent, heldBooking, postWebhook, signedEvent } from "../../support/inspections";
 
 async function statusChanges(bookingId: string) {
   return db
