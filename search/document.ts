@@ -112,7 +112,8 @@ export function listingToSearchDocument(listing: SearchableListing, report: Sear
     sellerName: listing.sellerName,
     publishedAt: listing.publishedAt ? epochSeconds(listing.publishedAt) : null,
     photoUrl: listing.photoUrl,
-    verified: report !== null,
+    // Verified means a current signed report that graded the machine; an incomplete one proves nothing yet.
+    verified: report !== null && report.grade !== "incomplete",
     reportId: report?.id ?? null,
     grade: report?.grade ?? null,
     gradeRank: report ? gradeRanks[report.grade] : null,

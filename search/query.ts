@@ -8,6 +8,8 @@ export type ListingSort = (typeof listingSorts)[number];
 
 export type ListingSearchQuery = {
   text?: string;
+  /** Only these listings (a saved search asks whether one listing matches). */
+  ids?: string[];
   categories?: string[];
   grades?: string[];
   verifiedOnly?: boolean;
@@ -59,6 +61,7 @@ function atMost(attribute: string, limit: number | undefined): string[] {
 /** The filter as the index takes it: every item must hold (an array of conditions ANDed). */
 export function listingFilter(query: ListingSearchQuery, now: Date = new Date()): string[] {
   const conditions = [
+    anyOf("id", query.ids),
     anyOf("status", query.statuses ?? ["published"]),
     anyOf("category", query.categories),
     anyOf("grade", query.grades),

@@ -69,6 +69,11 @@ describe("listingToSearchDocument", () => {
     expect(document).toMatchObject({ verified: false, grade: null, gradeRank: null, reportDate: null, spindleRunoutUm: null, publishedAt: null });
   });
 
+  it("does not call a listing verified when its current report is incomplete, but keeps its figures", () => {
+    const document = listingToSearchDocument(listing, { ...report, grade: "incomplete" });
+    expect(document).toMatchObject({ verified: false, grade: "incomplete", gradeRank: 5, spindleRunoutUm: 4 });
+  });
+
   it("holds every attribute the index settings name", () => {
     const document = listingToSearchDocument(listing, report);
     const named = [...listingIndexSettings.searchableAttributes, ...listingIndexSettings.filterableAttributes, ...listingIndexSettings.sortableAttributes];
@@ -116,6 +121,14 @@ describe("listingFilter", () => {
     expect(evaluateFilter(parsed, matching)).toBe(false); // bedStraightnessUm is null: an “at most” limit needs the figure
     expect(evaluateFilter(parsed, { ...matching, bedStraightnessUm: 12 })).toBe(true);
     expect(evaluateFilter(parsed, { ...matching, bedStraightnessUm: 12, spindleRunoutUm: 6 })).toBe(false);
+  });
+
+  it("narrows to given listings, as a saved search asks about one listing", () => {
+    const filter = listingFilter({ ids: ["lst_01"], maxSpindleRunoutUm: 5 }, now);
+    expect(filter[0]).toBe('id IN ["lst_01"]');
+    const parsed = parseFilter(filter)!;
+    expect(evaluateFilter(parsed, listingToSearchDocument(listing, report))).toBe(true);
+    expect(evaluateFilter(parsed, { ...listingToSearchDocument(listing, report), id: "lst_02" })).toBe(false);
   });
 
   it("quotes any text so that it cannot change the expression", () => {
