@@ -1,6 +1,6 @@
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
-import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
+import { Form, Link, redirect, useActionData, useLoaderData, useNavigation } from "react-router";
 import { Badge, Button, ButtonLink, Card, CardBody, CardHeader, TextField } from "~/components/ui";
 import { FormMessage } from "~/modules/accounts/components/auth-card";
 import { failureReply, invalidReply } from "~/modules/accounts/forms.server";
@@ -13,7 +13,8 @@ export const meta: Route.MetaFunction = () => [{ title: "Your account — Tenthm
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  return { user, justVerified: new URL(request.url).searchParams.has("verified") };
+  const url = new URL(request.url);
+  return { user, justVerified: url.searchParams.has("verified"), passwordChanged: url.searchParams.get("password") === "changed" };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -33,8 +34,8 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const outcome = await changePassword(request, submission.value);
   if (!outcome.ok) return failureReply(submission, outcome, { hideFields, extra: { intent, saved: null } });
-  // The new session cookie: changing the password ended every other session.
-  return data({ intent, result: submission.reply({ resetForm: true }), errors: {}, saved: "Password changed. Other devices were signed out." }, { headers: outcome.headers });
+  // Changing the password ended every session, this one included: come back with the new session cookie.
+  throw redirect("/account?password=changed", { headers: outcome.headers });
 }
 
 const statusText = {
@@ -45,7 +46,7 @@ const statusText = {
 } as const;
 
 export default function AccountSettings() {
-  const { user, justVerified } = useLoaderData<typeof loader>();
+  const { user, justVerified, passwordChanged } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
   const navigation = useNavigation();
   const submittingIntent = navigation.state === "submitting" ? navigation.formData?.get("intent") : null;
@@ -150,7 +151,7 @@ export default function AccountSettings() {
           <CardBody>
             <Form method="post" {...getFormProps(passwordForm)} className="space-y-5">
               <input type="hidden" name="intent" value="password" />
-              {actionData?.intent === "password" && actionData.saved ? <FormMessage tone="within">{actionData.saved}</FormMessage> : null}
+              {passwordChanged && !actionData ? <FormMessage tone="within">Password changed. Other devices were signed out.</FormMessage> : null}
               {passwordForm.errors?.length ? <FormMessage>{passwordForm.errors.join(" ")}</FormMessage> : null}
               <TextField
                 label="Current password"

@@ -1,6 +1,6 @@
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
-import { useFetcher, useLoaderData } from "react-router";
+import { useFetcher, useLoaderData, type ShouldRevalidateFunctionArgs } from "react-router";
 import { Badge, Button, Card, TextAreaField } from "~/components/ui";
 import { FormMessage } from "~/modules/accounts/components/auth-card";
 import { StaffNav } from "~/modules/accounts/components/staff-nav";
@@ -25,6 +25,12 @@ export async function action({ request }: Route.ActionArgs) {
   const outcome = await decideApplication(admin.id, submission.value);
   if (!outcome.ok) return failureReply(submission, outcome, { extra: { decided: null } });
   return { result: submission.reply(), errors: {}, decided: outcome.approved ? ("approved" as const) : ("rejected" as const) };
+}
+
+// Keep a decided card on screen with its outcome; the list is fresh again on the next visit.
+export function shouldRevalidate({ actionResult, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  if (actionResult && typeof actionResult === "object" && "decided" in actionResult && actionResult.decided) return false;
+  return defaultShouldRevalidate;
 }
 
 const categoryLabel = (value: string) => INSPECTION_CATEGORIES.find((category) => category.value === value)?.label ?? value;
