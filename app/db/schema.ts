@@ -4,3 +4,4 @@ export * from "../modules/accounts/schema";
 export * from "../modules/listings/schema";
 export * from "../modules/inspections/schema";
 export * from "../modules/reports/schema";
+export * from "../modules/search/saved-searches/schema";
