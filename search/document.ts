@@ -6,11 +6,15 @@ import type { Grade, KeyFigures } from "../app/geometry/types.ts";
 /** What the listings domain hands over for one listing. */
 export type SearchableListing = {
   id: string;
+  /** The listing page's address part: /machines/<slug>. */
+  slug: string;
   /** draft | published | sold | withdrawn; the buyer's search shows published listings. */
   status: string;
   /** The category's stored value, e.g. `centre_lathe`, and the words shown for it. */
   category: string;
   categoryLabel: string;
+  /** reconditioned | used | as_is */
+  condition: string;
   make: string;
   model: string;
   year: number | null;
@@ -44,9 +48,11 @@ export type SearchableReport = {
 
 export type ListingSearchDocument = {
   id: string;
+  slug: string;
   status: string;
   category: string;
   categoryLabel: string;
+  condition: string;
   make: string;
   model: string;
   title: string;
@@ -93,9 +99,11 @@ export function listingToSearchDocument(listing: SearchableListing, report: Sear
   const figures = report?.keyFigures;
   return {
     id: listing.id,
+    slug: listing.slug,
     status: listing.status,
     category: listing.category,
     categoryLabel: listing.categoryLabel,
+    condition: listing.condition,
     make: listing.make,
     model: listing.model,
     title: `${listing.make} ${listing.model}`.trim(),

@@ -15,9 +15,11 @@ import { startSearchStandIn, type SearchStandIn } from "../../../search/stand-in
 function listing(id: string, overrides: Partial<SearchableListing>): SearchableListing {
   return {
     id,
+    slug: `orvik-cl-360-${id}`,
     status: "published",
     category: "centre_lathe",
     categoryLabel: "Centre lathe",
+    condition: "used",
     make: "Orvik",
     model: "CL-360",
     year: 1998,

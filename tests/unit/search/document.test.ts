@@ -8,9 +8,11 @@ import { conditionsOf, evaluateFilter, parseFilter, parseFilterExpression } from
 // An invented dealer's machine.
 const listing: SearchableListing = {
   id: "lst_01",
+  slug: "orvik-cl-360-centre-lathe-1998-k3f9q2",
   status: "published",
   category: "centre_lathe",
   categoryLabel: "Centre lathe",
+  condition: "reconditioned",
   make: "Orvik",
   model: "CL-360",
   year: 1998,
