@@ -3,7 +3,6 @@ import { z } from "zod";
 import { Button, Card, CardBody, Table, Td, Th, Tr } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
-import { StaffNav } from "~/modules/accounts/components/staff-nav";
 import { listPayments, refundAsAdmin } from "~/modules/inspections/bookings.server";
 import { BookingStatusBadge } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
@@ -43,7 +42,11 @@ export default function AdminPayments() {
   const busy = useNavigation().state !== "idle";
   return (
     <div className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
-      <StaffNav current="users" />
+      <nav aria-label="Staff" className="flex flex-wrap gap-4 border-b border-ink-200 pb-2 text-sm font-semibold text-ink-600">
+        <Link to="/admin/users" className="hover:text-ink-900">People</Link>
+        <Link to="/admin/inspector-applications" className="hover:text-ink-900">Inspector applications</Link>
+        <span aria-current="page" className="text-ink-900">Payments</span>
+      </nav>
       <h1 className="mt-4 text-3xl font-extrabold tracking-tight text-ink-950">Payments</h1>
       <p className="mt-1 text-ink-600">Inspection fees taken through Stripe, their refunds and the inspectors' transfers.</p>
       <div className="mt-5 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
@@ -72,6 +75,13 @@ export default function AdminPayments() {
             </tr>
           </thead>
           <tbody>
+            {rows.length === 0 ? (
+              <Tr>
+                <Td colSpan={6} className="py-8 text-center text-ink-500">
+                  No inspection fee has been paid yet.
+                </Td>
+              </Tr>
+            ) : null}
             {rows.map(({ booking, listing, inspectorName, buyerName, refunds, payout }) => {
               const errors = actionData?.bookingId === booking.id ? actionData.errors : null;
               const refundable = booking.feeMinor - booking.refundedMinor;
