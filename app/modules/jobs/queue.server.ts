@@ -24,6 +24,9 @@ export function getQueue(): Promise<PgBoss> {
       connectionString: env().DATABASE_URL,
       schema: env().JOB_QUEUE_SCHEMA,
       max: 4,
+      // Maintenance and cron belong to the app servers; a test process only sends (and maybe works).
+      supervise: env().NODE_ENV !== "test",
+      schedule: env().NODE_ENV !== "test",
       ...defaultRetries,
     });
     // pg-boss reports lost connections here; they are retried by its own loop and must not crash the server.

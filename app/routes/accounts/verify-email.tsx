@@ -1,11 +1,10 @@
-import { Form, redirect, useActionData, useLoaderData, useNavigation } from "react-router";
+import { data, Form, redirect, useActionData, useLoaderData, useNavigation } from "react-router";
 import { Button, ButtonLink } from "~/components/ui";
 import { AuthCard, FormMessage } from "~/modules/accounts/components/auth-card";
 import { getOptionalUser, requireUser } from "~/modules/accounts/guards.server";
 import { resendVerificationEmail, verifyEmailToken } from "~/modules/accounts/service.server";
 import { redirectTo as redirectToSchema } from "~/modules/accounts/validation";
 import type { Route } from "./+types/verify-email";
-import { data } from "react-router";
 
 export const meta: Route.MetaFunction = () => [{ title: "Confirm your e-mail address — Tenthmark" }];
 
