@@ -64,7 +64,28 @@ async function seedDemoListingsPart() {
   log("postgres", written ? `demo listings written (${written})` : "demo listings already there");
 }
 
+// A second certified inspector with no listed sign-in (the demo inspector above is the one to use).
+const demoSecondInspector = { name: "Agathe Mirelle", email: "agathe.mirelle@example.test" };
+
+async function seedDemoInspectionsPart() {
+  const { createAccount, findUserIdByEmail } = await import("../../app/modules/accounts/service.server.ts");
+  const { seedDemoInspections } = await import("../../app/modules/inspections/demo.server.ts");
+  const account = (key: DemoAccountKey) => demoAccounts.find((candidate) => candidate.key === key)!;
+  const secondId =
+    (await findUserIdByEmail(demoSecondInspector.email)) ??
+    (await createAccount({ ...demoSecondInspector, password: `demo-${crypto.randomUUID()}`, verified: true, roles: ["inspector"] })).id;
+  const written = await seedDemoInspections({
+    inspectors: [
+      { id: await demoAccountId("inspector"), email: account("inspector").email },
+      { id: secondId, email: demoSecondInspector.email },
+    ],
+    buyer: { id: await demoAccountId("buyer"), email: account("buyer").email },
+  });
+  log("postgres", written ? `demo inspector profiles and bookings written (${written} bookings)` : "demo inspections already there");
+}
+
 export async function seedDemoDataIfEmpty(_databaseUrl: string) {
   await seedDemoAccounts();
   await seedDemoListingsPart();
+  await seedDemoInspectionsPart();
 }
