@@ -74,8 +74,28 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
         / {labelOf(machineCategories, listing.category)}
       </nav>
 
-      <div className="mt-4 grid gap-8 lg:grid-cols-[minmax(0,1fr)_24rem]">
-        <div className="min-w-0 space-y-8">
+      {/* Phone order: title and price, photos and specification, then accuracy and the question form. */}
+      <div className="mt-4 grid items-start gap-8 lg:grid-cols-[minmax(0,1fr)_24rem] lg:grid-rows-[auto_auto_1fr]">
+        <div className="lg:col-start-2 lg:row-start-1">
+          <p className="text-sm font-bold uppercase tracking-wide text-brass-600">
+            {labelOf(machineCategories, listing.category)}
+            {listing.year ? ` · ${listing.year}` : ""}
+          </p>
+          <h1 className="mt-1 text-3xl font-extrabold leading-tight text-ink-950">{listing.title}</h1>
+          <p className="mt-2 text-ink-600">{place}</p>
+          <div className="mt-4 flex flex-wrap items-center gap-3">
+            <p className="text-2xl font-extrabold text-ink-900 tabular">{formatMoney(listing.priceMinor, listing.currency)}</p>
+            <Badge>{labelOf(machineConditions, listing.condition)}</Badge>
+            <Badge tone="caution">Not yet verified</Badge>
+            {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
+          </div>
+          <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
+          {listing.status === "published" && !isManager ? (
+            <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={Boolean(viewer)} />
+          ) : null}
+        </div>
+
+        <div className="min-w-0 space-y-8 lg:col-start-1 lg:row-span-3 lg:row-start-1">
           <PhotoGallery photos={photos} title={listing.title} />
 
           <section aria-labelledby="specification">
@@ -119,25 +139,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           <SafetyNote />
         </div>
 
-        <aside className="space-y-6">
-          <div>
-            <p className="text-sm font-bold uppercase tracking-wide text-brass-600">
-              {labelOf(machineCategories, listing.category)}
-              {listing.year ? ` · ${listing.year}` : ""}
-            </p>
-            <h1 className="mt-1 text-3xl font-extrabold leading-tight text-ink-950">{listing.title}</h1>
-            <p className="mt-2 text-ink-600">{place}</p>
-            <div className="mt-4 flex flex-wrap items-center gap-3">
-              <p className="text-2xl font-extrabold text-ink-900 tabular">{formatMoney(listing.priceMinor, listing.currency)}</p>
-              <Badge>{labelOf(machineConditions, listing.condition)}</Badge>
-              {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
-            </div>
-            <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
-            {listing.status === "published" && !isManager ? (
-              <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={Boolean(viewer)} />
-            ) : null}
-          </div>
-
+        <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
           <AccuracyPanel slug={listing.slug} />
 
           {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={Boolean(viewer)} /> : null}

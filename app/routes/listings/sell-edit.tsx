@@ -126,10 +126,13 @@ export default function EditListing({ loaderData, actionData }: Route.ComponentP
         </p>
       ) : null}
 
-      <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
-        <aside className="space-y-6 lg:order-2">
+      {/* Phone order: status, photos, details, documents; on a wide screen status and documents sit on the right. */}
+      <div className="mt-6 grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:grid-rows-[auto_auto_1fr]">
+        <div className="lg:col-start-2 lg:row-start-1">
           <StatusCard status={listing.status} slug={listing.slug} photoCount={photos.length} isPublic={isPublic} />
-          <Card id="documents">
+        </div>
+        <aside className="lg:col-start-2 lg:row-start-2">
+          <Card id="documents" className="scroll-mt-20">
             <CardHeader title="Documents" description="Manuals, earlier inspection reports, rebuild records." />
             <CardBody className="space-y-4">
               {documents.length ? (
@@ -165,8 +168,8 @@ export default function EditListing({ loaderData, actionData }: Route.ComponentP
           </Card>
         </aside>
 
-        <div className="min-w-0 space-y-6 lg:order-1">
-          <Card id="photos">
+        <div className="min-w-0 space-y-6 lg:col-start-1 lg:row-span-3 lg:row-start-1">
+          <Card id="photos" className="scroll-mt-20">
             <CardHeader
               title="Photos"
               description={`The first photo is the cover. Up to ${PHOTOS_PER_LISTING}; we remove location and camera data from every photo.`}

@@ -1,9 +1,10 @@
 import { randomUUID } from "node:crypto";
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import type { Browser, Page } from "playwright-core";
+import type { Browser, Cookie, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { drawLathePhoto, paints } from "~/modules/listings/demo-photos.server";
+import { createTestUser, signInPage } from "../../support/accounts";
 import { appOrigin, isLocal, launchBrowser, newRecordedPage } from "../../support/browser";
 import { latestEmailTo, linkIn } from "../../support/mailbox";
 
@@ -20,9 +21,10 @@ const screenshotDir = process.env.SCREENSHOT_DIR;
 async function shoot(page: Page, name: string) {
   if (!screenshotDir) return;
   mkdirSync(screenshotDir, { recursive: true });
+  await page.evaluate(() => window.scrollTo(0, 0));
   await page.screenshot({ path: path.join(screenshotDir, `${name}.png`), fullPage: true });
 }
-async function shootOnPhone(url: string, name: string, cookies: Awaited<ReturnType<Page["context"]>["cookies"]>) {
+async function shootOnPhone(url: string, name: string, cookies: Cookie[]) {
   if (!screenshotDir) return;
   const phone = await newRecordedPage(browser, { width: 390, height: 844 });
   await phone.context.addCookies(cookies);
@@ -122,7 +124,7 @@ describe("the dealer's story", () => {
     await shoot(page, "browse-desktop");
     await card.click();
     await page.waitForURL((url) => url.pathname.startsWith("/machines/halvorsen-ml-"));
-    await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toBe(`Halvorsen ${model}`);
+    await page.getByRole("heading", { level: 1, name: `Halvorsen ${model}` }).waitFor();
     await page.getByText("Not yet verified").first().waitFor();
     await page.getByRole("link", { name: "Book an inspection" }).waitFor();
     await expect(page.locator("dl").first().textContent()).resolves.toMatch(/Swing over bed280 mm.*Distance between centres750 mm/);
@@ -142,5 +144,19 @@ describe("the dealer's story", () => {
 
     expect(requests.filter((url) => !isLocal(url))).toEqual([]);
     await context.close();
+
+    // A buyer watches the machine and writes to the seller, who gets the question by e-mail.
+    const buyer = await createTestUser({ name: "Ilka Brenner" });
+    const visit = await newRecordedPage(browser);
+    await signInPage(visit.page, buyer.email, buyer.password, new URL(publicUrl).pathname);
+    await visit.page.getByRole("button", { name: "☆ Watch this machine" }).click();
+    await visit.page.getByRole("button", { name: "★ Watching — stop" }).waitFor();
+    await visit.page.getByLabel("Your question").fill("Could I see it cutting next week? Is the leadscrew original?");
+    await visit.page.getByRole("button", { name: "Send to the seller" }).click();
+    await visit.page.getByText("Sent. The seller has your message").waitFor();
+    await shoot(visit.page, "public-buyer-desktop");
+    const inquiry = await latestEmailTo(email, { matching: (candidate) => candidate.tag === "listing-inquiry" });
+    expect(inquiry.replyTo).toBe(buyer.email);
+    await visit.context.close();
   });
 });
