@@ -1,0 +1,47 @@
+// Accuracy figures as buyers read and type them: µm for millimetre users, inches for inch users (a dial
+// indicator in inch reads to 0.0001 in, "a tenth"). Stored and searched in µm. Pure: server and browser.
+import { inchesToMicrometres, micrometresToInches } from "~/geometry/units";
+import type { DisplayUnits } from "~/modules/units/format";
+
+export const deviationUnitLabel = (units: DisplayUnits) => (units === "inch" ? "in" : "µm");
+
+function trimmed(value: number, digits: number) {
+  return new Intl.NumberFormat("en", { maximumFractionDigits: digits, minimumFractionDigits: 0, useGrouping: false }).format(value);
+}
+
+/** The number a form field shows for a limit held in µm. */
+export function deviationInputValue(micrometres: number, units: DisplayUnits): string {
+  return units === "inch" ? trimmed(micrometresToInches(micrometres), 6) : trimmed(micrometres, 3);
+}
+
+/** "4 µm" or "0.00016 in". */
+export function formatDeviation(micrometres: number, units: DisplayUnits): string {
+  return units === "inch" ? `${trimmed(micrometresToInches(micrometres), 5)} in` : `${trimmed(micrometres, 1)} µm`;
+}
+
+/** A typed limit in the user's units to µm (to 0.001 µm); undefined when blank or not a positive number. */
+export function deviationFromInput(text: string, units: DisplayUnits): number | undefined {
+  const value = Number(text.trim().replace(",", "."));
+  if (!text.trim() || !Number.isFinite(value) || value <= 0) return undefined;
+  const micrometres = units === "inch" ? inchesToMicrometres(value) : value;
+  return Math.round(micrometres * 1000) / 1000;
+}
+
+// Limits a buyer might widen to, in each unit system's round numbers.
+const micrometreSteps = [1, 2, 3, 4, 5, 6, 8, 10, 12, 15, 20, 25, 30, 40, 50, 75, 100, 150, 200];
+const inchSteps = [0.0001, 0.0002, 0.0003, 0.0004, 0.0005, 0.0006, 0.0008, 0.001, 0.0015, 0.002, 0.003, 0.004, 0.005, 0.008];
+
+/** The next few round limits above `micrometres`, in µm, as the user would type them. */
+export function widerLimits(micrometres: number, units: DisplayUnits, howMany = 4): number[] {
+  const steps = units === "inch" ? inchSteps.map((inches) => Math.round(inchesToMicrometres(inches) * 1000) / 1000) : micrometreSteps;
+  return steps.filter((step) => step > micrometres + 1e-9).slice(0, howMany);
+}
+
+export const accuracyFilters = [
+  { key: "maxSpindleRunoutUm", param: "runoutMax", label: "Spindle run-out", hint: "Total indicator reading at the spindle nose" },
+  { key: "maxAxialSlipUm", param: "axialSlipMax", label: "Axial slip", hint: "End float of the spindle" },
+  { key: "maxSpindleParallelismUm", param: "parallelismMax", label: "Spindle-axis parallelism", hint: "Test mandrel, both planes" },
+  { key: "maxCentreHeightUm", param: "centreHeightMax", label: "Centre height difference", hint: "Tailstock centre against headstock" },
+] as const;
+
+export type AccuracyFilterKey = (typeof accuracyFilters)[number]["key"];

@@ -1,0 +1,314 @@
+// What the search reads from PostgreSQL: listings with their current report, for indexing (the worker and
+// the full re-index) and for the fallback search that runs the buyer's filters here when the search service
+// is down or slow. It reads the listings' and reports' tables directly because those domains export no
+// query of this shape; it never writes to them.
+import { and, asc, count, desc, eq, gt, gte, ilike, inArray, isNotNull, lte, ne, or, sql, type SQL } from "drizzle-orm";
+import type { AnyPgColumn } from "drizzle-orm/pg-core";
+import type { Database } from "~/db/client.server";
+import type { KeyFigures } from "~/geometry/types";
+import { user } from "~/modules/accounts/schema";
+import { fileUrl } from "~/modules/files/serve.server";
+import { labelOf, machineCategories } from "~/modules/listings/catalogue";
+import { listingPhotos, listings } from "~/modules/listings/schema";
+import { reports } from "~/modules/reports/schema";
+import {
+  gradeRanks,
+  listingToSearchDocument,
+  type ListingSearchDocument,
+  type SearchableListing,
+  type SearchableReport,
+} from "../../../search/document.ts";
+import type { ListingSearchQuery, NumberRange } from "../../../search/query.ts";
+import type { ListingFacet, ListingSearchResult } from "./search.server";
+
+/** A listing as the search sees it, with its current report and when that report was signed. */
+export type SourceListing = { listing: SearchableListing; report: SearchableReport | null; reportSignedAt: Date | null };
+
+// The listing's current report: its latest signed revision (a correction marks the one before superseded).
+function currentReports(db: Database) {
+  const figure = (name: keyof KeyFigures) => sql<number | null>`abs((${reports.keyFigures} ->> ${name})::double precision)`;
+  return db
+    .selectDistinctOn([reports.listingId], {
+      listingId: reports.listingId,
+      id: reports.id,
+      grade: reports.grade,
+      keyFigures: reports.keyFigures,
+      measuredOn: reports.measuredOn,
+      signedAt: reports.signedAt,
+      spindleRunoutUm: figure("spindleRunOut").as("spindle_runout_um"),
+      axialSlipUm: figure("axialSlip").as("axial_slip_um"),
+      parallelismVerticalUm: figure("spindleParallelismVertical").as("parallelism_vertical_um"),
+      parallelismHorizontalUm: figure("spindleParallelismHorizontal").as("parallelism_horizontal_um"),
+      centreHeightUm: figure("centreHeight").as("centre_height_um"),
+      bedStraightnessUm: figure("bedStraightness").as("bed_straightness_um"),
+    })
+    .from(reports)
+    .where(eq(reports.status, "signed"))
+    .orderBy(reports.listingId, desc(reports.signedAt))
+    .as("current_report");
+}
+
+function coverPhotos(db: Database) {
+  return db
+    .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
+    .from(listingPhotos)
+    .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
+    .as("cover");
+}
+
+type Joined = {
+  current: ReturnType<typeof currentReports>;
+  cover: ReturnType<typeof coverPhotos>;
+};
+
+function joinedSelection({ current, cover }: Joined) {
+  return {
+    listing: listings,
+    sellerName: user.name,
+    coverKey: cover.thumbnailKey,
+    reportId: current.id,
+    grade: current.grade,
+    keyFigures: current.keyFigures,
+    measuredOn: current.measuredOn,
+    signedAt: current.signedAt,
+  };
+}
+
+type JoinedRow = {
+  listing: typeof listings.$inferSelect;
+  sellerName: string;
+  coverKey: string | null;
+  reportId: string | null;
+  grade: string | null;
+  keyFigures: unknown;
+  measuredOn: string | null;
+  signedAt: Date | null;
+};
+
+const emptyFigures: KeyFigures = {
+  spindleRunOut: null,
+  axialSlip: null,
+  spindleParallelismVertical: null,
+  spindleParallelismHorizontal: null,
+  centreHeight: null,
+  bedStraightness: null,
+};
+
+function toSource(row: JoinedRow): SourceListing {
+  const { listing } = row;
+  const report: SearchableReport | null =
+    row.reportId && row.grade && row.measuredOn
+      ? {
+          id: row.reportId,
+          grade: row.grade as SearchableReport["grade"],
+          measuredOn: new Date(`${row.measuredOn}T00:00:00Z`),
+          keyFigures: { ...emptyFigures, ...((row.keyFigures ?? {}) as Partial<KeyFigures>) },
+        }
+      : null;
+  return {
+    listing: {
+      id: listing.id,
+      slug: listing.slug,
+      status: listing.status,
+      category: listing.category,
+      categoryLabel: labelOf(machineCategories, listing.category),
+      condition: listing.condition,
+      make: listing.make,
+      model: listing.model,
+      year: listing.year,
+      description: listing.description,
+      swingMm: listing.swingOverBedMm,
+      betweenCentresMm: listing.distanceBetweenCentresMm,
+      spindleBoreMm: listing.spindleBoreMm,
+      priceMinor: listing.priceMinor,
+      currency: listing.currency,
+      city: listing.city,
+      region: listing.region,
+      country: listing.country,
+      sellerName: row.sellerName,
+      publishedAt: listing.publishedAt,
+      photoUrl: row.coverKey ? fileUrl(row.coverKey) : null,
+    },
+    report,
+    reportSignedAt: report ? row.signedAt : null,
+  };
+}
+
+/** The listings with these ids (any status), each with its current report; missing ids are left out. */
+export async function loadSearchableListings(db: Database, ids: string[]): Promise<Map<string, SourceListing>> {
+  const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  if (!valid.length) return new Map();
+  const joined = { current: currentReports(db), cover: coverPhotos(db) };
+  const rows = await db
+    .select(joinedSelection(joined))
+    .from(listings)
+    .innerJoin(user, eq(user.id, listings.sellerId))
+    .leftJoin(joined.current, eq(joined.current.listingId, listings.id))
+    .leftJoin(joined.cover, eq(joined.cover.listingId, listings.id))
+    .where(inArray(listings.id, valid));
+  return new Map(rows.map((row) => [row.listing.id, toSource(row)]));
+}
+
+/** One page of listing ids in id order, for the full re-index to walk every listing without holding them all. */
+export async function listingIdsAfter(db: Database, afterId: string | null, limit: number): Promise<{ id: string; status: string }[]> {
+  return db
+    .select({ id: listings.id, status: listings.status })
+    .from(listings)
+    .where(afterId ? gt(listings.id, afterId) : undefined)
+    .orderBy(asc(listings.id))
+    .limit(limit);
+}
+
+// ————— The fallback search —————
+
+function escapeLike(word: string) {
+  return word.replace(/[\\%_]/g, (character) => `\\${character}`);
+}
+
+function rangeOf(column: AnyPgColumn, bounds: NumberRange | undefined): SQL[] {
+  const conditions: SQL[] = [];
+  if (bounds?.min !== undefined && bounds.min !== null) conditions.push(gte(column, bounds.min));
+  if (bounds?.max !== undefined && bounds.max !== null) conditions.push(lte(column, bounds.max));
+  return conditions;
+}
+
+function idsCondition(ids: string[]): SQL {
+  const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  return valid.length ? inArray(listings.id, valid) : sql`false`;
+}
+
+/** The same conditions as search/query.ts's listingFilter, written against the tables. */
+function conditionsFor(query: ListingSearchQuery, current: ReturnType<typeof currentReports>, now: Date): SQL | undefined {
+  const atMost = (column: SQL.Aliased<number | null>, limit: number | undefined) =>
+    limit === undefined || limit === null ? [] : [sql`${column} <= ${limit}`];
+  const words = (query.text ?? "").trim().split(/\s+/).filter(Boolean).slice(0, 8);
+  const textConditions = words.map((word) => {
+    const pattern = `%${escapeLike(word)}%`;
+    const categories = machineCategories.filter((category) => category.label.toLowerCase().includes(word.toLowerCase())).map((category) => category.value);
+    return or(
+      ilike(listings.make, pattern),
+      ilike(listings.model, pattern),
+      ilike(listings.description, pattern),
+      ilike(listings.city, pattern),
+      ilike(sql`coalesce(${listings.region}, '')`, pattern),
+      ilike(listings.country, pattern),
+      ilike(user.name, pattern),
+      categories.length ? inArray(listings.category, categories as (typeof machineCategories)[number]["value"][]) : undefined,
+    )!;
+  });
+  const conditions: (SQL | undefined)[] = [
+    query.ids ? idsCondition(query.ids) : undefined,
+    inArray(listings.status, (query.statuses ?? ["published"]) as (typeof listings.status.enumValues)[number][]),
+    query.categories?.length ? inArray(listings.category, query.categories as (typeof listings.category.enumValues)[number][]) : undefined,
+    query.grades?.length ? inArray(current.grade, query.grades) : undefined,
+    query.verifiedOnly ? and(isNotNull(current.id), ne(current.grade, "incomplete")) : undefined,
+    query.currency ? eq(listings.currency, query.currency) : undefined,
+    ...rangeOf(listings.priceMinor, query.priceMinor),
+    ...rangeOf(listings.swingOverBedMm, query.swingMm),
+    ...rangeOf(listings.distanceBetweenCentresMm, query.betweenCentresMm),
+    ...atMost(current.spindleRunoutUm, query.maxSpindleRunoutUm),
+    ...atMost(current.axialSlipUm, query.maxAxialSlipUm),
+    ...atMost(current.parallelismVerticalUm, query.maxSpindleParallelismUm),
+    ...atMost(current.parallelismHorizontalUm, query.maxSpindleParallelismUm),
+    ...atMost(current.centreHeightUm, query.maxCentreHeightUm),
+    ...atMost(current.bedStraightnessUm, query.maxBedStraightnessUm),
+    query.maxReportAgeDays === undefined
+      ? undefined
+      : gte(current.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),
+    query.countries?.length ? inArray(listings.country, query.countries) : undefined,
+    query.region ? sql`lower(${listings.region}) = lower(${query.region})` : undefined,
+    ...textConditions,
+  ];
+  return and(...conditions);
+}
+
+function orderFor(query: ListingSearchQuery, current: ReturnType<typeof currentReports>): SQL[] {
+  const newest = [sql`${listings.publishedAt} desc nulls last`, desc(listings.id)];
+  switch (query.sort ?? "relevance") {
+    case "price-ascending":
+      return [asc(listings.priceMinor), ...newest];
+    case "price-descending":
+      return [desc(listings.priceMinor), ...newest];
+    case "best-accuracy": {
+      const rank = sql`case ${current.grade} ${sql.join(
+        Object.entries(gradeRanks).map(([grade, rank]) => sql`when ${grade} then ${rank}`),
+        sql` `,
+      )} end`;
+      return [sql`${rank} asc nulls last`, sql`${current.spindleRunoutUm} asc nulls last`, ...newest];
+    }
+    default:
+      // Without the index's text ranking, newest first is the most useful order.
+      return newest;
+  }
+}
+
+const facetColumns = (current: ReturnType<typeof currentReports>): Record<ListingFacet, SQL> => ({
+  category: sql`${listings.category}::text`,
+  grade: sql`${current.grade}`,
+  verified: sql`case when ${current.id} is not null and ${current.grade} <> 'incomplete' then 'true' else 'false' end`,
+  country: sql`${listings.country}`,
+});
+
+/**
+ * The buyer's search run against PostgreSQL: the same filters, sorts, page and facet counts as the index,
+ * with plain word matching instead of the index's ranking and typo tolerance.
+ */
+export async function searchListingsInDatabase(db: Database, query: ListingSearchQuery, now: Date = new Date()): Promise<ListingSearchResult> {
+  const started = performance.now();
+  const hitsPerPage = query.hitsPerPage ?? 20;
+  const page = query.page ?? 1;
+  const joined = { current: currentReports(db), cover: coverPhotos(db) };
+  const where = conditionsFor(query, joined.current, now);
+  const { current, cover } = joined;
+  const columns = facetColumns(current);
+  const facetNames = Object.keys(columns) as ListingFacet[];
+  const [rows, [{ total }], ...facetRows] = await Promise.all([
+    db
+      .select(joinedSelection(joined))
+      .from(listings)
+      .innerJoin(user, eq(user.id, listings.sellerId))
+      .leftJoin(current, eq(current.listingId, listings.id))
+      .leftJoin(cover, eq(cover.listingId, listings.id))
+      .where(where)
+      .orderBy(...orderFor(query, current))
+      .limit(hitsPerPage)
+      .offset((page - 1) * hitsPerPage),
+    db
+      .select({ total: count() })
+      .from(listings)
+      .innerJoin(user, eq(user.id, listings.sellerId))
+      .leftJoin(current, eq(current.listingId, listings.id))
+      .where(where),
+    ...facetNames.map((facet) =>
+      db
+        .select({ value: columns[facet], count: count() })
+        .from(listings)
+        .innerJoin(user, eq(user.id, listings.sellerId))
+        .leftJoin(current, eq(current.listingId, listings.id))
+        .where(where)
+        .groupBy(columns[facet]),
+    ),
+  ]);
+  const facets = Object.fromEntries(
+    facetNames.map((facet, position) => [
+      facet,
+      Object.fromEntries(
+        facetRows[position]!
+          .filter((row) => row.value !== null && row.value !== undefined)
+          .map((row) => [String(row.value), Number(row.count)]),
+      ),
+    ]),
+  ) as ListingSearchResult["facets"];
+  return {
+    hits: rows.map((row) => {
+      const source = toSource(row);
+      return listingToSearchDocument(source.listing, source.report) satisfies ListingSearchDocument;
+    }),
+    totalHits: Number(total),
+    page,
+    hitsPerPage,
+    totalPages: Math.ceil(Number(total) / hitsPerPage),
+    facets,
+    processingTimeMs: Math.round(performance.now() - started),
+  };
+}

@@ -1,0 +1,254 @@
+// The buyer's machine search: asks the index, and when the search service is down, slow or failing, runs
+// the same filters against PostgreSQL and says the results may be incomplete. Adds the facet counts a
+// filter panel needs and, for an empty result, which filter to widen. The page and the API share it.
+import type { Database } from "~/db/client.server";
+import type { DisplayUnits } from "~/modules/units/format";
+import { formatLength, formatMoney } from "~/modules/units/format";
+import type { ListingSearchDocument } from "../../../search/document.ts";
+import type { ListingSearchQuery } from "../../../search/query.ts";
+import { accuracyFilters, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
+import { searchListingsInDatabase } from "./listing-source.server";
+import { listingSearch, SearchUnavailableError, type ListingSearch, type ListingSearchResult } from "./search.server";
+import { paramsFromQuery } from "./search-params.server";
+
+export type ResultSource = "index" | "database";
+
+/** One result as the page and the API show it. Accuracy in µm, sizes in mm, prices in minor units. */
+export type ListingHit = {
+  id: string;
+  slug: string;
+  url: string;
+  title: string;
+  category: string;
+  categoryLabel: string;
+  condition: string;
+  year: number | null;
+  status: string;
+  price: { minor: number; currency: string } | null;
+  swingMm: number | null;
+  betweenCentresMm: number | null;
+  location: { city: string | null; region: string | null; country: string };
+  photoUrl: string | null;
+  publishedAt: string | null;
+  verified: boolean;
+  grade: string | null;
+  report: {
+    id: string;
+    measuredOn: string;
+    keyFigures: {
+      spindleRunoutUm: number | null;
+      axialSlipUm: number | null;
+      spindleParallelismVerticalUm: number | null;
+      spindleParallelismHorizontalUm: number | null;
+      centreHeightUm: number | null;
+      bedStraightnessUm: number | null;
+    };
+  } | null;
+};
+
+/** A way out of an empty result: the search with one filter widened or dropped, and how many it finds. */
+export type WidenSuggestion = { filter: string; text: string; count: number; queryString: string };
+
+export type MachineSearch = {
+  source: ResultSource;
+  /** Set when the answer came from PostgreSQL: text matching is plainer and the index may hold more. */
+  notice: string | null;
+  hits: ListingHit[];
+  totalHits: number;
+  page: number;
+  totalPages: number;
+  hitsPerPage: number;
+  facets: { category: Record<string, number>; grade: Record<string, number>; verified: number; country: Record<string, number> };
+  /** For an empty result: what widening one filter would find. */
+  emptyBecause: string | null;
+  suggestions: WidenSuggestion[];
+  /** The search as canonical parameters (no page), for links and saving. */
+  queryString: string;
+};
+
+export const INCOMPLETE_NOTICE = "Search is running in reduced mode: results may be incomplete, and text matching is simpler than usual.";
+
+function toHit(document: ListingSearchDocument): ListingHit {
+  const reportDate = document.reportDate === null ? null : new Date(document.reportDate * 1000).toISOString().slice(0, 10);
+  return {
+    id: document.id,
+    slug: document.slug,
+    url: `/machines/${document.slug}`,
+    title: document.title,
+    category: document.category,
+    categoryLabel: document.categoryLabel,
+    condition: document.condition,
+    year: document.year,
+    status: document.status,
+    price: document.priceMinor !== null && document.currency ? { minor: document.priceMinor, currency: document.currency } : null,
+    swingMm: document.swingMm,
+    betweenCentresMm: document.betweenCentresMm,
+    location: { city: document.city, region: document.region, country: document.country },
+    photoUrl: document.photoUrl,
+    publishedAt: document.publishedAt === null ? null : new Date(document.publishedAt * 1000).toISOString(),
+    verified: document.verified,
+    grade: document.grade,
+    report:
+      document.reportId && reportDate
+        ? {
+            id: document.reportId,
+            measuredOn: reportDate,
+            keyFigures: {
+              spindleRunoutUm: document.spindleRunoutUm,
+              axialSlipUm: document.axialSlipUm,
+              spindleParallelismVerticalUm: document.spindleParallelismVerticalUm,
+              spindleParallelismHorizontalUm: document.spindleParallelismHorizontalUm,
+              centreHeightUm: document.centreHeightUm,
+              bedStraightnessUm: document.bedStraightnessUm,
+            },
+          }
+        : null,
+  };
+}
+
+/**
+ * Runs searches against the index until it fails once, then against PostgreSQL for the rest of this
+ * request, so that a down service costs one timeout, not one per query.
+ */
+export function createListingFinder(db: Database, options: { search?: ListingSearch; now?: Date } = {}) {
+  const search = options.search ?? listingSearch();
+  const now = options.now ?? new Date();
+  let source: ResultSource = "index";
+  return {
+    get source() {
+      return source;
+    },
+    async find(query: ListingSearchQuery): Promise<ListingSearchResult> {
+      if (source === "index") {
+        try {
+          return await search.searchListings(query, now);
+        } catch (error) {
+          if (!(error instanceof SearchUnavailableError)) throw error;
+          console.warn(`[search] answering from PostgreSQL: ${error.message}`);
+          source = "database";
+        }
+      }
+      return searchListingsInDatabase(db, query, now);
+    },
+  };
+}
+
+export type ListingFinder = ReturnType<typeof createListingFinder>;
+
+function countOnly(query: ListingSearchQuery): ListingSearchQuery {
+  return { ...query, page: 1, hitsPerPage: 1 };
+}
+
+type Relaxation = { filter: string; relaxed: ListingSearchQuery; text: string };
+
+/** Each active filter dropped (or, for accuracy limits, widened to the next round values) on its own. */
+function relaxations(query: ListingSearchQuery, units: DisplayUnits): { dropped: Relaxation[]; widened: Map<AccuracyFilterKey, Relaxation[]> } {
+  const dropped: Relaxation[] = [];
+  const drop = (filter: string, active: unknown, change: Partial<ListingSearchQuery>, text: string) => {
+    if (active === undefined || active === null || active === false || (Array.isArray(active) && !active.length)) return;
+    dropped.push({ filter, relaxed: { ...query, ...change }, text });
+  };
+  const length = (mm: number | null | undefined) => (mm == null ? "" : formatLength(mm, units));
+  drop("text", query.text, { text: undefined }, `without the words “${query.text}”`);
+  drop("categories", query.categories, { categories: undefined }, "in any category");
+  drop("grades", query.grades, { grades: undefined }, "with any grade");
+  drop("verifiedOnly", query.verifiedOnly, { verifiedOnly: undefined }, "including machines not yet verified");
+  drop("price", query.priceMinor && (query.priceMinor.min ?? query.priceMinor.max), { priceMinor: undefined }, "at any price");
+  drop("swing", query.swingMm && (query.swingMm.min ?? query.swingMm.max), { swingMm: undefined }, `with any swing${query.swingMm?.max ? ` (not only up to ${length(query.swingMm.max)})` : ""}`);
+  drop("betweenCentres", query.betweenCentresMm && (query.betweenCentresMm.min ?? query.betweenCentresMm.max), { betweenCentresMm: undefined }, "with any distance between centres");
+  drop("reportAge", query.maxReportAgeDays, { maxReportAgeDays: undefined }, "with reports of any age");
+  drop("countries", query.countries, { countries: undefined }, "in any country");
+  const widened = new Map<AccuracyFilterKey, Relaxation[]>();
+  for (const filter of accuracyFilters) {
+    const limit = query[filter.key];
+    if (limit === undefined) continue;
+    const label = filter.label.toLowerCase();
+    widened.set(
+      filter.key,
+      widerLimits(limit, units).map((wider) => ({ filter: filter.key, relaxed: { ...query, [filter.key]: wider }, text: `with ${label} ≤ ${formatDeviation(wider, units)}` })),
+    );
+    dropped.push({ filter: filter.key, relaxed: { ...query, [filter.key]: undefined }, text: `with any ${label}` });
+  }
+  return { dropped, widened };
+}
+
+function describeEmpty(query: ListingSearchQuery, units: DisplayUnits): string {
+  const parts: string[] = [];
+  for (const filter of accuracyFilters) {
+    const limit = query[filter.key];
+    if (limit !== undefined) parts.push(`${filter.label.toLowerCase()} ≤ ${formatDeviation(limit, units)}`);
+  }
+  if (query.verifiedOnly) parts.push("a verified report");
+  if (query.priceMinor?.max != null && query.currency) parts.push(`a price up to ${formatMoney(query.priceMinor.max, query.currency)}`);
+  if (query.text) parts.push(`the words “${query.text}”`);
+  return parts.length ? `No machines with ${parts.slice(0, 3).join(", ")}` : "No machines match this search";
+}
+
+async function widenSuggestions(finder: ListingFinder, query: ListingSearchQuery, units: DisplayUnits): Promise<WidenSuggestion[]> {
+  const { dropped, widened } = relaxations(query, units);
+  const count = async (candidate: Relaxation) => ({ candidate, count: (await finder.find(countOnly(candidate.relaxed))).totalHits });
+  const [droppedCounts, widenedCounts] = await Promise.all([
+    Promise.all(dropped.map(count)),
+    Promise.all([...widened.values()].map((ladder) => Promise.all(ladder.map(count)))),
+  ]);
+  const suggestions: WidenSuggestion[] = [];
+  // For an accuracy limit, the tightest wider limit that finds something says most.
+  for (const ladder of widenedCounts) {
+    const first = ladder.find((entry) => entry.count > 0);
+    if (first) suggestions.push(suggestion(first.candidate, first.count));
+  }
+  for (const entry of droppedCounts) {
+    if (entry.count === 0) continue;
+    if (widened.has(entry.candidate.filter as AccuracyFilterKey) && suggestions.some((known) => known.filter === entry.candidate.filter)) continue;
+    suggestions.push(suggestion(entry.candidate, entry.count));
+  }
+  return suggestions.slice(0, 4);
+}
+
+function suggestion(candidate: Relaxation, count: number): WidenSuggestion {
+  return {
+    filter: candidate.filter,
+    count,
+    text: `${count} ${count === 1 ? "machine" : "machines"} ${candidate.text}`,
+    queryString: paramsFromQuery(candidate.relaxed).toString(),
+  };
+}
+
+/**
+ * The search page's and the API's answer: one page of results, facet counts per value (each facet
+ * counted without its own filter, so other choices stay visible), and for an empty page what to widen.
+ */
+export async function searchMachines(
+  db: Database,
+  query: ListingSearchQuery,
+  options: { units?: DisplayUnits; now?: Date; search?: ListingSearch } = {},
+): Promise<MachineSearch> {
+  const units = options.units ?? "mm";
+  const finder = createListingFinder(db, options);
+  const result = await finder.find(query);
+  const [categoryFacets, gradeFacets, verifiedFacets] = await Promise.all([
+    query.categories?.length ? finder.find(countOnly({ ...query, categories: undefined })).then((other) => other.facets.category) : result.facets.category,
+    query.grades?.length ? finder.find(countOnly({ ...query, grades: undefined })).then((other) => other.facets.grade) : result.facets.grade,
+    query.verifiedOnly ? finder.find(countOnly({ ...query, verifiedOnly: undefined })).then((other) => other.facets.verified) : result.facets.verified,
+  ]);
+  const empty = result.totalHits === 0;
+  const suggestions = empty ? await widenSuggestions(finder, query, units) : [];
+  return {
+    source: finder.source,
+    notice: finder.source === "database" ? INCOMPLETE_NOTICE : null,
+    hits: result.hits.map(toHit),
+    totalHits: result.totalHits,
+    page: result.page,
+    totalPages: result.totalPages,
+    hitsPerPage: result.hitsPerPage,
+    facets: {
+      category: categoryFacets,
+      grade: gradeFacets,
+      verified: verifiedFacets.true ?? 0,
+      country: result.facets.country,
+    },
+    emptyBecause: empty ? describeEmpty(query, units) : null,
+    suggestions,
+    queryString: paramsFromQuery(query).toString(),
+  };
+}
