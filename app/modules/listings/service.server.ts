@@ -21,6 +21,7 @@ import { fileUrl } from "~/modules/files/serve.server";
 import { deleteObjects, presignUpload } from "~/modules/files/storage.server";
 import { queueEmail } from "~/modules/mail/mail.server";
 import { renderEmail } from "~/modules/mail/render.server";
+import { queueListingIndexUpdate } from "~/modules/search/indexing.server";
 import { lengthToMillimetres, powerToKilowatts, toMinorUnits, weightToKilograms } from "~/modules/units/format";
 import { labelOf, machineCategories, type ListingStatus } from "./catalogue";
 import { InquiryEmail } from "./emails/inquiry";
@@ -119,6 +120,7 @@ export async function updateListing(db: Database, actor: SessionUser, listingId:
   // A published address stays valid; a draft's follows its make and model.
   const slug = listing.status === "draft" ? makeSlug(columns) : listing.slug;
   await db.update(listings).set({ ...columns, slug, updatedAt: new Date() }).where(eq(listings.id, listing.id));
+  await queueListingIndexUpdate(listing.id);
   return { id: listing.id, slug };
 }
 
@@ -152,6 +154,7 @@ export async function changeListingStatus(db: Database, actor: SessionUser, list
     .where(and(eq(listings.id, listing.id), inArray(listings.status, rule.from)))
     .returning({ id: listings.id, slug: listings.slug, status: listings.status });
   if (!updated.length) throw new ListingRuleError(rule.refusal);
+  await queueListingIndexUpdate(listing.id);
   return updated[0];
 }
 
@@ -165,6 +168,7 @@ export async function deleteDraftListing(db: Database, actor: SessionUser, listi
     await tx.delete(listings).where(and(eq(listings.id, listing.id), eq(listings.status, "draft")));
     return [...photos.flatMap((photo) => [photo.thumbnailKey, photo.largeKey]), ...documents.map((document) => document.storageKey)];
   });
+  await queueListingIndexUpdate(listing.id);
   await deleteObjects(keys);
 }
 
