@@ -4,6 +4,7 @@ import { env } from "~/env.server";
 import { getDatabase } from "~/db/client.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
+import { declareSearchWorkers } from "~/modules/search/indexing.server";
 import { startWorkers } from "./queue.server";
 
 let declared = false;
@@ -13,6 +14,7 @@ export function declareJobWorkers() {
   declared = true;
   declareMailWorker();
   declareInspectionWorkers(getDatabase);
+  declareSearchWorkers(getDatabase);
 }
 
 /** Declares and starts the workers, unless JOB_WORKERS=false. */
