@@ -42,6 +42,17 @@ export default [
   route("inspector/bookings/:bookingId", "routes/inspections/inspector-booking.tsx"),
   route("admin/payments", "routes/inspections/admin-payments.tsx"),
 
+  // Accuracy reports: the inspector's entry, review and signing; public reports, certificates, verification
+  route("inspector/bookings/:bookingId/report", "routes/reports/entry.tsx"),
+  route("inspector/bookings/:bookingId/report/draft", "routes/reports/draft.ts"),
+  route("inspector/bookings/:bookingId/report/photos", "routes/reports/setup-photos.ts"),
+  route("inspector/bookings/:bookingId/report/review", "routes/reports/review.tsx"),
+  route("inspector/reports/:reportId/correct", "routes/reports/correct.ts"),
+  route("reports/verify", "routes/reports/verify.tsx"),
+  route("reports/photos/:photoId/:variant", "routes/reports/photo.ts"),
+  route("reports/:reportId", "routes/reports/report.tsx"),
+  route("reports/:reportId/certificate.pdf", "routes/reports/certificate.ts"),
+
   // Processed photos and documents, streamed from the bucket
   route("files/*", "routes/files.ts"),
 
@@ -49,5 +60,7 @@ export default [
   route("api/health", "routes/api.health.ts"),
   route("api/auth/*", "routes/api.auth.ts"),
   route("api/v1/evaluations", "routes/api.v1.evaluations.ts"),
+  route("api/v1/reports/verify", "routes/api.v1.reports.verify.ts"),
+  route("api/v1/reports/:reportId", "routes/api.v1.reports.report.ts"),
   route("api/webhooks/stripe", "routes/api.webhooks.stripe.ts"),
 ] satisfies RouteConfig;

@@ -1,0 +1,169 @@
+// The body of a scored report: grade with key figures, conditions, instruments, results with plots.
+// Shared by the inspector's review and the public report page.
+import { Badge, Card, CardBody, CardHeader, Table, Td, Th, Tr, cx } from "~/components/ui";
+import type { TestResult } from "~/geometry";
+import type { DisplayUnits } from "~/modules/units/format";
+import { reportAge, type ReportContent } from "../content";
+import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate } from "../format";
+import { GradeMark, gradeMeaning, KeyFigureList, RatioBar, VerdictBadge } from "./grade";
+import { TestPlot } from "./plots";
+
+export function GradeCard({ content, units, now }: { content: ReportContent; units: DisplayUnits; now: Date }) {
+  const age = reportAge(content.measuredOn, now);
+  const { score } = content;
+  return (
+    <Card>
+      <CardBody className="flex flex-col gap-5 sm:flex-row sm:items-start">
+        <div className="flex items-center gap-4 sm:w-64 sm:shrink-0">
+          <GradeMark grade={score.grade} size="lg" />
+          <div>
+            <p className="text-lg font-extrabold text-ink-900">Grade {score.grade}</p>
+            <p className="text-sm text-ink-600">{gradeMeaning(score.grade)}</p>
+            <p className={cx("mt-1 text-sm", age.expired ? "font-semibold text-beyond" : "text-ink-500")}>
+              Measured {formatReportDate(content.measuredOn)} · {age.label}
+            </p>
+            {age.expired ? <Badge tone="caution" className="mt-1">Older than 12 months</Badge> : null}
+          </div>
+        </div>
+        <div className="min-w-0 flex-1">
+          <h3 className="mb-1 text-sm font-bold uppercase tracking-wide text-ink-500">Key figures</h3>
+          <KeyFigureList figures={score.keyFigures} units={units} />
+          {score.missing.length ? (
+            <p className="mt-3 text-sm text-beyond">Required tests without a reading: {score.missing.join(", ")}.</p>
+          ) : null}
+          {score.outOfTolerance.length ? <p className="mt-2 text-sm text-ink-700">Out of tolerance or leaning the wrong way: {score.outOfTolerance.join(", ")}.</p> : null}
+        </div>
+      </CardBody>
+    </Card>
+  );
+}
+
+export function ConditionsAndInstruments({ content, units }: { content: ReportContent; units: DisplayUnits }) {
+  const { conditions } = content;
+  const rows: Array<[string, string | null]> = [
+    ["Ambient temperature", conditions.ambientTemperatureC === null ? null : `${conditions.ambientTemperatureC} °C`],
+    ["Warm-up run", conditions.warmUpMinutes === null ? null : `${conditions.warmUpMinutes} min`],
+    ["Levelled before the tests", conditions.levelled === null ? null : conditions.levelled ? "yes" : "no"],
+  ];
+  return (
+    <div className="grid gap-6 lg:grid-cols-2">
+      <Card>
+        <CardHeader title="Conditions" description="The reference temperature for measurement is 20 °C (ISO 1:2016)." />
+        <CardBody>
+          <dl className="divide-y divide-ink-100 text-sm">
+            {rows.map(([term, value]) => (
+              <div key={term} className="flex justify-between gap-4 py-1.5">
+                <dt className="text-ink-600">{term}</dt>
+                <dd className={value ? "font-semibold text-ink-900 tabular" : "text-ink-400"}>{value ?? "not recorded"}</dd>
+              </div>
+            ))}
+          </dl>
+          {conditions.notes ? <p className="mt-3 whitespace-pre-line text-sm text-ink-700">{conditions.notes}</p> : null}
+        </CardBody>
+      </Card>
+      <Card>
+        <CardHeader title="Instruments" />
+        <ul className="divide-y divide-ink-100 text-sm">
+          {content.instruments.map((instrument) => (
+            <li key={instrument.id} className="flex flex-wrap items-baseline justify-between gap-2 px-5 py-2.5">
+              <div>
+                <p className="font-semibold text-ink-900">{instrument.kindLabel}</p>
+                {instrument.description ? <p className="text-ink-600">{instrument.description}</p> : null}
+              </div>
+              <div className="text-right text-ink-700">
+                <p className="tabular">{instrument.resolution === null ? "—" : `reads ${formatDeviation(instrument.resolution, units, { unit: instrument.resolutionUnit ?? "µm" })}`}</p>
+                <p className={cx("text-xs", instrument.calibrationOverdue ? "font-semibold text-beyond" : "text-ink-500")}>
+                  {instrument.calibrationDue ? `calibration due ${formatReportDate(instrument.calibrationDue)}${instrument.calibrationOverdue ? " — overdue" : ""}` : "calibration date not given"}
+                </p>
+              </div>
+            </li>
+          ))}
+        </ul>
+      </Card>
+    </div>
+  );
+}
+
+function directionText(result: TestResult, units: DisplayUnits) {
+  const allowed = DIRECTION_LABELS[result.direction.allowed] ?? result.direction.allowed;
+  if (result.direction.allowed === "any") return allowed;
+  const observed = result.direction.observed === "none" ? "level" : result.direction.observed;
+  if (result.direction.pass) return `${allowed}; read ${observed}`;
+  return `${allowed}; read ${observed}, ${formatDeviation(result.direction.against, units)} the wrong way`;
+}
+
+export function ResultsTable({ content, units }: { content: ReportContent; units: DisplayUnits }) {
+  return (
+    <Table caption="Results per test" data-testid="results-table">
+      <thead>
+        <tr>
+          <Th>Test</Th>
+          <Th className="text-right">Value</Th>
+          <Th className="text-right">Tolerance</Th>
+          <Th className="min-w-36">Ratio</Th>
+          <Th>Direction</Th>
+          <Th>Verdict</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {content.score.results.map((result) => (
+          <Tr key={result.code} data-code={result.code}>
+            <Td>
+              <p className="font-semibold text-ink-900">{result.title}</p>
+              <p className="text-xs text-ink-500">
+                {result.code}
+                {result.required ? "" : " · optional"}
+              </p>
+            </Td>
+            <Td className="text-right font-semibold whitespace-nowrap tabular">{formatDeviation(result.value, units, { signed: result.direction.allowed !== "any", unit: result.unit })}</Td>
+            <Td className="text-right whitespace-nowrap tabular">
+              {formatDeviation(result.tolerance, units, { unit: result.unit })}
+              {result.measuringLength ? <span className="block text-xs text-ink-500">over {units === "inch" ? `${(result.measuringLength / 25.4).toFixed(1)} in` : `${Math.round(result.measuringLength)} mm`}</span> : null}
+            </Td>
+            <Td>
+              <div className="flex items-center gap-2">
+                <RatioBar ratio={result.ratio} pass={result.pass} className="w-20" />
+                <span className="tabular text-ink-700">{formatRatio(result.ratio)}</span>
+              </div>
+            </Td>
+            <Td className={cx("text-sm", result.direction.pass ? "text-ink-700" : "font-semibold text-beyond")}>{directionText(result, units)}</Td>
+            <Td>
+              <VerdictBadge result={result} />
+            </Td>
+          </Tr>
+        ))}
+      </tbody>
+    </Table>
+  );
+}
+
+const PLOTTED = new Set(["profile", "level", "mandrel", "sweep"]);
+
+export function TestDetails({ content, units, photoUrls }: { content: ReportContent; units: DisplayUnits; photoUrls: Record<string, { thumb: string; large: string }> }) {
+  const results = new Map(content.score.results.map((result) => [result.code, result]));
+  const shown = Object.entries(content.measurements.tests).filter(([code, measurement]) => PLOTTED.has(measurement.kind) || photoUrls[code] || content.tests[code]?.notes);
+  if (!shown.length) return null;
+  return (
+    <div className="grid gap-6 lg:grid-cols-2">
+      {shown.map(([code, measurement]) => {
+        const result = results.get(code) ?? null;
+        const meta = content.tests[code];
+        const instrument = content.instruments.find((candidate) => candidate.id === meta?.instrumentId);
+        return (
+          <Card key={code} data-plot={code}>
+            <CardHeader title={result?.title ?? code} description={`${code}${instrument ? ` · ${instrument.kindLabel}` : ""}`} action={result ? <VerdictBadge result={result} /> : null} />
+            <CardBody className="space-y-3">
+              {PLOTTED.has(measurement.kind) ? <TestPlot measurement={measurement} result={result} units={units} /> : null}
+              {meta?.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{meta.notes}</p> : null}
+              {photoUrls[code] ? (
+                <a href={photoUrls[code].large} target="_blank" rel="noreferrer" className="block">
+                  <img src={photoUrls[code].thumb} alt={`Set-up of ${code}`} className="h-36 w-auto rounded-(--radius-control) border border-ink-200 object-cover" loading="lazy" />
+                </a>
+              ) : null}
+            </CardBody>
+          </Card>
+        );
+      })}
+    </div>
+  );
+}

@@ -1,0 +1,100 @@
+// What a signed report says: the exact object whose RFC 8785 canonical JSON is hashed. Pure types and
+// helpers, shared by the report page, the certificate and the API.
+import type { MachineCategory, ReportMeasurements, ReportScore } from "~/geometry";
+import type { EntryUnits } from "./form";
+
+export const REPORT_FORMAT = "tenthmark.accuracy-report/1";
+
+export interface ReportContent {
+  format: typeof REPORT_FORMAT;
+  reportId: string;
+  revision: number;
+  /** The signed revision this one corrects, with its hash, so revisions form a chain. */
+  supersedes: { reportId: string; contentHash: string } | null;
+  booking: { id: string; reference: string };
+  machine: {
+    listingId: string;
+    slug: string;
+    title: string;
+    category: string;
+    make: string;
+    model: string;
+    year: number | null;
+    serialNumber: string | null;
+    swingOverBedMm: number | null;
+    distanceBetweenCentresMm: number | null;
+    location: string;
+  };
+  inspector: { id: string; name: string };
+  measuredOn: string;
+  profile: {
+    key: string;
+    version: number;
+    title: string;
+    /** What the machine's category and size suggested, and why this profile was used. */
+    suggested: { key: string; version: number } | null;
+    reason: string;
+  };
+  entryUnits: EntryUnits;
+  conditions: { ambientTemperatureC: number | null; warmUpMinutes: number | null; levelled: boolean | null; notes: string };
+  instruments: Array<{
+    id: string;
+    kind: string;
+    kindLabel: string;
+    description: string;
+    /** Smallest step, in µm (µm/m for a level); null when not given. */
+    resolution: number | null;
+    resolutionUnit: "µm" | "µm/m" | null;
+    calibrationDue: string | null;
+    calibrationOverdue: boolean;
+  }>;
+  tests: Record<string, { instrumentId: string | null; notes: string; photo: { id: string; width: number; height: number } | null }>;
+  /** The readings in the units they were typed in (stations mm or in; readings µm or in). */
+  measurementsAsEntered: ReportMeasurements;
+  /** The readings the engine scored: stations in mm, readings in µm (µm/m for levels). */
+  measurements: ReportMeasurements;
+  score: ReportScore;
+  notes: string;
+  safety: { acknowledged: boolean; cautions: readonly string[] };
+  submittedAt: string;
+  signedAt: string | null;
+}
+
+/** Machine categories of listings mapped to the engine's, where it has profiles. */
+export function engineCategory(listingCategory: string): MachineCategory | null {
+  if (listingCategory === "centre_lathe") return "centre-lathe";
+  if (listingCategory === "toolroom_lathe") return "toolroom-lathe";
+  return null;
+}
+
+export const KEY_FIGURE_LABELS = {
+  spindleRunOut: "Spindle run-out",
+  axialSlip: "Axial slip",
+  spindleParallelismVertical: "Spindle axis, vertical",
+  spindleParallelismHorizontal: "Spindle axis, horizontal",
+  centreHeight: "Centre height",
+  bedStraightness: "Bed straightness",
+} as const;
+
+export type KeyFigureKey = keyof typeof KEY_FIGURE_LABELS;
+
+/** A report older than this is shown as expired: accuracy drifts with use (PRODUCT.md). */
+export const REPORT_FRESH_MONTHS = 12;
+
+export function monthsBetween(fromIsoDate: string, to: Date): number {
+  const from = new Date(`${fromIsoDate}T00:00:00Z`);
+  return (to.getUTCFullYear() - from.getUTCFullYear()) * 12 + (to.getUTCMonth() - from.getUTCMonth()) - (to.getUTCDate() < from.getUTCDate() ? 1 : 0);
+}
+
+/** "measured 3 months ago" and whether the report is past its 12 months. */
+export function reportAge(measuredOn: string, now: Date): { months: number; label: string; expired: boolean } {
+  const months = Math.max(0, monthsBetween(measuredOn, now));
+  const label =
+    months === 0 ? "this month" : months < 12 ? `${months} month${months === 1 ? "" : "s"} ago` : `${Math.floor(months / 12)} year${months >= 24 ? "s" : ""}${months % 12 ? ` ${months % 12} month${months % 12 === 1 ? "" : "s"}` : ""} ago`;
+  return { months, label, expired: months >= REPORT_FRESH_MONTHS };
+}
+
+/** Where a set-up photo is served (access is checked there). */
+export function setupPhotoUrl(photoId: string, variant: "thumb" | "large") {
+  return `/reports/photos/${photoId}/${variant}`;
+}

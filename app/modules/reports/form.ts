@@ -1,0 +1,426 @@
+// The report entry form as the inspector types it: strings, partial, in mm or inch. Pure and shared by the
+// browser (live preview, local copy) and the server (draft checks, authoritative scoring on submit).
+import { z } from "zod";
+import {
+  conditionsSchema,
+  evaluateTest,
+  GeometryInputError,
+  getProfile,
+  KINDS_FOR_METHOD,
+  PROFILES,
+  scoreReport,
+  testMeasurementSchema,
+  toMetric,
+  type MeasurementKind,
+  type ProfileTest,
+  type ReportMeasurements,
+  type ReportScore,
+  type StraightnessReference,
+  type TestMeasurement,
+  type TestResult,
+  type ToleranceProfile,
+} from "~/geometry";
+
+export type EntryUnits = "mm" | "inch";
+
+export const INSTRUMENT_KINDS = [
+  { value: "dial-indicator", label: "Dial indicator", reads: "deviation" },
+  { value: "lever-indicator", label: "Lever (test) indicator", reads: "deviation" },
+  { value: "electronic-probe", label: "Electronic probe / indicator", reads: "deviation" },
+  { value: "precision-level", label: "Precision spirit level", reads: "tilt" },
+  { value: "electronic-level", label: "Electronic level", reads: "tilt" },
+  { value: "micrometer", label: "Micrometer", reads: "deviation" },
+  { value: "wire-microscope", label: "Taut wire and microscope", reads: "deviation" },
+  { value: "test-mandrel", label: "Test mandrel", reads: "none" },
+  { value: "other", label: "Other", reads: "deviation" },
+] as const;
+
+export type InstrumentKind = (typeof INSTRUMENT_KINDS)[number]["value"];
+
+export function instrumentReads(kind: string): "deviation" | "tilt" | "none" {
+  return INSTRUMENT_KINDS.find((entry) => entry.value === kind)?.reads ?? "deviation";
+}
+
+const MAX_TEXT = 2000;
+const MAX_NUMBER_TEXT = 32;
+const MAX_STATIONS = 200;
+const MAX_READINGS = 72;
+
+const numberText = z.string().max(MAX_NUMBER_TEXT, "Too long for a number.").default("");
+const note = z.string().max(MAX_TEXT, `Keep notes under ${MAX_TEXT} characters.`).default("");
+
+export const instrumentEntrySchema = z.object({
+  id: z.string().min(1).max(40),
+  kind: z.enum(INSTRUMENT_KINDS.map((entry) => entry.value) as [InstrumentKind, ...InstrumentKind[]], {
+    error: "Choose the kind of instrument.",
+  }),
+  description: z.string().max(200, "Keep the description under 200 characters.").default(""),
+  resolution: numberText,
+  calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
+});
+
+const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height"] as const;
+
+export const testEntrySchema = z.object({
+  kind: z.enum(kinds, { error: "Choose how the readings were taken." }),
+  readings: z.array(numberText).max(MAX_READINGS, `At most ${MAX_READINGS} readings.`).default([]),
+  max: numberText,
+  min: numberText,
+  points: z
+    .array(z.object({ station: numberText, reading: numberText }))
+    .max(MAX_STATIONS, `At most ${MAX_STATIONS} stations.`)
+    .default([]),
+  reference: z.union([z.literal(""), z.enum(["end-points", "least-squares", "minimum-zone"])]).default(""),
+  near0: numberText,
+  near180: numberText,
+  far0: numberText,
+  far180: numberText,
+  near: numberText,
+  far: numberText,
+  headstockEnd: numberText,
+  tailstockEnd: numberText,
+  length: numberText,
+  instrumentId: z.string().max(40).default(""),
+  /** Overrides the instrument's resolution for this test, in reading units. */
+  resolution: numberText,
+  notes: note,
+  photoId: z.uuid().nullable().default(null),
+});
+
+export const reportFormSchema = z.object({
+  units: z.enum(["mm", "inch"], { error: 'Choose "mm" or "inch" for the readings.' }),
+  profile: z.object({
+    key: z.string().min(1).max(80),
+    version: z.number().int().positive(),
+    /** Why the inspector chose another profile than the one suggested; empty when they kept it. */
+    reason: z.string().max(500, "Keep the reason under 500 characters.").default(""),
+  }),
+  measuredOn: z.union([z.literal(""), z.iso.date({ error: "Give the date of the tests as YYYY-MM-DD." })]).default(""),
+  conditions: z
+    .object({
+      ambientTemperatureC: numberText,
+      warmUpMinutes: numberText,
+      levelled: z.enum(["", "yes", "no"]).default(""),
+      notes: note,
+    })
+    .default({ ambientTemperatureC: "", warmUpMinutes: "", levelled: "", notes: "" }),
+  instruments: z.array(instrumentEntrySchema).max(30, "At most 30 instruments.").default([]),
+  tests: z.record(z.string().max(40), testEntrySchema).default({}),
+  notes: note,
+  safetyAcknowledged: z.boolean().default(false),
+});
+
+export type ReportForm = z.output<typeof reportFormSchema>;
+export type TestEntry = z.output<typeof testEntrySchema>;
+export type InstrumentEntry = z.output<typeof instrumentEntrySchema>;
+
+export function emptyTestEntry(kind: MeasurementKind): TestEntry {
+  return testEntrySchema.parse({ kind });
+}
+
+/** The readings' units in this entry mode, as labels. */
+export function unitLabels(units: EntryUnits) {
+  return units === "inch" ? { reading: "in", station: "in", resolution: "in" } : { reading: "µm", station: "mm", resolution: "µm" };
+}
+
+// ————— Numbers as typed —————
+
+/** A number as an inspector types it: "-2", "−2", "0,0004" (decimal comma), "+3". Empty → undefined. */
+export function parseTypedNumber(text: string): number | undefined | "invalid" {
+  const trimmed = text.trim().replace(/\u2212/g, "-").replace(/^\+/, "");
+  if (trimmed === "") return undefined;
+  const normalised = /^-?\d*,\d+$/.test(trimmed) ? trimmed.replace(",", ".") : trimmed;
+  if (!/^-?(\d+\.?\d*|\.\d+)(e-?\d+)?$/i.test(normalised)) return "invalid";
+  const value = Number(normalised);
+  return Number.isFinite(value) ? value : "invalid";
+}
+
+/**
+ * Rows pasted from a spreadsheet or a CSV file: two columns, station and reading. Tabs and semicolons
+ * separate columns (then a decimal comma is allowed); otherwise commas or spaces do. Lines that are not
+ * two numbers (a header, a blank line) are skipped and counted.
+ */
+export function parseStationTable(text: string): { points: { station: string; reading: string }[]; skipped: number } {
+  const points: { station: string; reading: string }[] = [];
+  let skipped = 0;
+  for (const line of text.split(/\r?\n/)) {
+    if (!line.trim()) continue;
+    const cells = (/[\t;]/.test(line) ? line.split(/[\t;]/) : line.split(/[,\s]+/)).map((cell) => cell.trim()).filter(Boolean);
+    const [station, reading] = cells;
+    const s = station === undefined ? "invalid" : parseTypedNumber(station);
+    const r = reading === undefined ? "invalid" : parseTypedNumber(reading);
+    if (typeof s === "number" && typeof r === "number") points.push({ station: station!, reading: reading! });
+    else skipped += 1;
+  }
+  return { points, skipped };
+}
+
+// ————— From the form to the engine's measurements —————
+
+export type EntryState = "empty" | "incomplete" | "complete" | "invalid";
+
+export interface TestEntryCheck {
+  state: EntryState;
+  /** Field path within the entry (e.g. "far0", "points.2.reading") → messages. */
+  errors: Record<string, string[]>;
+  /** In the entry's units, as the engine's schemas take it; present when state is "complete". */
+  measurement?: TestMeasurement;
+}
+
+type Numbers = Record<string, number | undefined>;
+
+function readFields(entry: TestEntry, fields: readonly (keyof TestEntry)[], errors: Record<string, string[]>): Numbers {
+  const values: Numbers = {};
+  for (const field of fields) {
+    const parsed = parseTypedNumber(String(entry[field] ?? ""));
+    if (parsed === "invalid") errors[field] = ["Not a number."];
+    else values[field] = parsed;
+  }
+  return values;
+}
+
+function effectiveResolution(entry: TestEntry, instruments: readonly InstrumentEntry[], errors: Record<string, string[]>): number | undefined {
+  const own = parseTypedNumber(entry.resolution);
+  if (own === "invalid") {
+    errors.resolution = ["Not a number."];
+    return undefined;
+  }
+  if (own !== undefined) return own;
+  const instrument = instruments.find((candidate) => candidate.id === entry.instrumentId);
+  if (!instrument) return undefined;
+  const reads = instrumentReads(instrument.kind);
+  // A level's resolution is a tilt (µm/m); it only applies to tilt readings, and an indicator's only to deviations.
+  if (reads === "none" || (reads === "tilt") !== (entry.kind === "level")) return undefined;
+  const value = parseTypedNumber(instrument.resolution);
+  return typeof value === "number" ? value : undefined;
+}
+
+/** Turns one test's typed entry into a measurement, saying whether it is empty, incomplete, complete or invalid. */
+export function checkTestEntry(entry: TestEntry, instruments: readonly InstrumentEntry[] = []): TestEntryCheck {
+  const errors: Record<string, string[]> = {};
+  const resolution = effectiveResolution(entry, instruments, errors);
+  const withResolution = resolution === undefined ? {} : { resolution };
+  let candidate: Record<string, unknown> | null = null;
+  let filled = 0;
+  let needed = 0;
+
+  const count = (values: Numbers) => {
+    const present = Object.values(values).filter((value) => value !== undefined).length;
+    filled += present;
+    return present;
+  };
+
+  switch (entry.kind) {
+    case "sweep": {
+      const readings: number[] = [];
+      entry.readings.forEach((text, i) => {
+        const parsed = parseTypedNumber(text);
+        if (parsed === "invalid") errors[`readings.${i}`] = ["Not a number."];
+        else if (parsed !== undefined) readings.push(parsed);
+      });
+      filled += readings.length;
+      needed = 2;
+      if (readings.length >= 2) candidate = { kind: "sweep", readings };
+      break;
+    }
+    case "extremes": {
+      const values = readFields(entry, ["max", "min"], errors);
+      needed = 2;
+      if (count(values) === 2) candidate = { kind: "extremes", max: values.max, min: values.min };
+      break;
+    }
+    case "profile":
+    case "level": {
+      const points: { station: number; reading: number }[] = [];
+      entry.points.forEach((row, i) => {
+        const station = parseTypedNumber(row.station);
+        const reading = parseTypedNumber(row.reading);
+        if (station === "invalid") errors[`points.${i}.station`] = ["Not a number."];
+        if (reading === "invalid") errors[`points.${i}.reading`] = ["Not a number."];
+        if (typeof station === "number" && typeof reading === "number") points.push({ station, reading });
+        else if ((station === undefined) !== (reading === undefined) && station !== "invalid" && reading !== "invalid") {
+          errors[`points.${i}.${station === undefined ? "station" : "reading"}`] = ["Give both the station and the reading, or clear the row."];
+        }
+        if (station !== undefined || reading !== undefined) filled += 1;
+      });
+      needed = 2;
+      if (points.length >= 2) {
+        candidate = { kind: entry.kind, points, ...(entry.kind === "profile" && entry.reference ? { reference: entry.reference } : {}) };
+      }
+      break;
+    }
+    case "mandrel": {
+      const values = readFields(entry, ["near0", "near180", "far0", "far180", "length"], errors);
+      const present = count({ near0: values.near0, near180: values.near180, far0: values.far0, far180: values.far180 });
+      needed = 4;
+      if (present === 4) {
+        candidate = {
+          kind: "mandrel",
+          near: { at0: values.near0, at180: values.near180 },
+          far: { at0: values.far0, at180: values.far180 },
+          ...(values.length !== undefined ? { length: values.length } : {}),
+        };
+      }
+      break;
+    }
+    case "near-far": {
+      const values = readFields(entry, ["near", "far", "length"], errors);
+      const present = count({ near: values.near, far: values.far });
+      needed = 2;
+      if (present === 2) candidate = { kind: "near-far", near: values.near, far: values.far, ...(values.length !== undefined ? { length: values.length } : {}) };
+      break;
+    }
+    case "centre-height": {
+      const values = readFields(entry, ["headstockEnd", "tailstockEnd"], errors);
+      needed = 2;
+      if (count(values) === 2) candidate = { kind: "centre-height", headstockEnd: values.headstockEnd, tailstockEnd: values.tailstockEnd };
+      break;
+    }
+  }
+
+  if (Object.keys(errors).length > 0) return { state: "invalid", errors };
+  if (!candidate) return { state: filled === 0 ? "empty" : "incomplete", errors: filled === 0 || needed === 0 ? {} : incompleteMessage(entry) };
+
+  // The engine's schema has the last word on shape and messages (e.g. a station given twice).
+  const parsed = testMeasurementSchema.safeParse({ ...candidate, ...withResolution });
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues) {
+      const key = entryPath(entry.kind, issue.path.map(String));
+      (errors[key] ??= []).push(issue.message);
+    }
+    return { state: "invalid", errors };
+  }
+  return { state: "complete", errors, measurement: parsed.data };
+}
+
+function incompleteMessage(entry: TestEntry): Record<string, string[]> {
+  const message: Record<MeasurementKind, string> = {
+    sweep: "Give at least two readings over a full revolution.",
+    extremes: "Give both the highest and the lowest reading.",
+    profile: "Give readings at two stations at least.",
+    level: "Give level readings at two stations at least.",
+    mandrel: "Give all four readings: near and far, at 0° and at 180°.",
+    "near-far": "Give both the near and the far reading.",
+    "centre-height": "Give the readings at both ends.",
+  };
+  return { entry: [message[entry.kind]] };
+}
+
+/** Maps a path of the engine's measurement (e.g. far.at0) to the form's field (far0). */
+function entryPath(kind: MeasurementKind, path: string[]): string {
+  if (kind === "mandrel" && path.length === 2) return `${path[0]}${path[1] === "at0" ? "0" : "180"}`;
+  if (path[0] === "readings" || path[0] === "points") return path.join(".");
+  return path[0] ?? "entry";
+}
+
+// ————— The whole report —————
+
+export interface ConditionsCheck {
+  values: NonNullable<ReportMeasurements["conditions"]>;
+  errors: Record<string, string[]>;
+}
+
+export function checkConditions(form: Pick<ReportForm, "conditions">): ConditionsCheck {
+  const errors: Record<string, string[]> = {};
+  const temperature = parseTypedNumber(form.conditions.ambientTemperatureC);
+  const warmUp = parseTypedNumber(form.conditions.warmUpMinutes);
+  if (temperature === "invalid") errors.ambientTemperatureC = ["Not a number."];
+  if (warmUp === "invalid") errors.warmUpMinutes = ["Not a number."];
+  const candidate = {
+    ...(typeof temperature === "number" ? { ambientTemperatureC: temperature } : {}),
+    ...(typeof warmUp === "number" ? { warmUpMinutes: warmUp } : {}),
+    ...(form.conditions.levelled ? { levelled: form.conditions.levelled === "yes" } : {}),
+  };
+  const parsed = conditionsSchema.safeParse(candidate);
+  if (!parsed.success) {
+    for (const issue of parsed.error.issues) (errors[String(issue.path[0] ?? "conditions")] ??= []).push(issue.message);
+    return { values: {}, errors };
+  }
+  return { values: parsed.data, errors };
+}
+
+export function profileOf(form: Pick<ReportForm, "profile">): ToleranceProfile | undefined {
+  return getProfile(form.profile.key, form.profile.version);
+}
+
+export interface TestPreview {
+  test: ProfileTest;
+  check: TestEntryCheck;
+  result: TestResult | null;
+  /** The engine's message when it refused readings the schema accepted (e.g. a travel beyond the profile). */
+  engineError: string | null;
+}
+
+export interface ReportPreview {
+  tests: TestPreview[];
+  conditions: ConditionsCheck;
+  /** The score of the complete, valid tests; the grade stays "incomplete" while a required test is missing. */
+  score: ReportScore | null;
+  measuredCount: number;
+  requiredCount: number;
+  requiredMeasured: number;
+}
+
+/** In the engine's units, for the given complete measurements. */
+export function metricMeasurements(form: ReportForm, tests: Record<string, TestMeasurement>, conditions: ConditionsCheck["values"]): ReportMeasurements {
+  return toMetric({ tests, conditions, ...(form.measuredOn ? { measuredOn: form.measuredOn } : {}) }, form.units);
+}
+
+/** Live preview: every test checked and scored on its own, then the report scored on what is complete. */
+export function previewReport(form: ReportForm): ReportPreview | null {
+  const profile = profileOf(form);
+  if (!profile) return null;
+  const conditions = checkConditions(form);
+  const complete: Record<string, TestMeasurement> = {};
+  const tests: TestPreview[] = profile.tests.map((test) => {
+    const entry = form.tests[test.code];
+    const check = entry ? checkTestEntry(entry, form.instruments) : ({ state: "empty", errors: {} } as TestEntryCheck);
+    if (entry && check.state === "complete" && !KINDS_FOR_METHOD[test.method].includes(entry.kind)) {
+      return { test, check: { state: "invalid", errors: { entry: ["This test takes other readings."] } }, result: null, engineError: null };
+    }
+    if (check.state !== "complete" || !check.measurement) return { test, check, result: null, engineError: null };
+    try {
+      const metric = toMetric({ tests: { [test.code]: check.measurement } }, form.units).tests[test.code]!;
+      const result = evaluateTest(test, metric, conditions.values);
+      complete[test.code] = check.measurement;
+      return { test, check, result, engineError: null };
+    } catch (error) {
+      if (error instanceof GeometryInputError) return { test, check, result: null, engineError: error.message };
+      throw error;
+    }
+  });
+  const score = scoreReport(profile, metricMeasurements(form, complete, conditions.values));
+  const required = profile.tests.filter((test) => test.required);
+  return {
+    tests,
+    conditions,
+    score,
+    measuredCount: Object.keys(complete).length,
+    requiredCount: required.length,
+    requiredMeasured: required.filter((test) => complete[test.code]).length,
+  };
+}
+
+/** A new form for a booking: the suggested profile, the entry units and today's date. */
+export function newReportForm(options: { profileKey: string; profileVersion: number; units: EntryUnits; measuredOn: string }): ReportForm {
+  return reportFormSchema.parse({
+    units: options.units,
+    profile: { key: options.profileKey, version: options.profileVersion, reason: "" },
+    measuredOn: options.measuredOn,
+    instruments: [
+      { id: "i1", kind: "dial-indicator", description: "", resolution: options.units === "inch" ? "0.0001" : "1", calibrationDue: "" },
+      { id: "i2", kind: "precision-level", description: "", resolution: "20", calibrationDue: "" },
+    ],
+  });
+}
+
+/** The default way of reading each test: the first kind its method accepts. */
+export function defaultKind(test: ProfileTest): MeasurementKind {
+  return KINDS_FOR_METHOD[test.method][0]!;
+}
+
+export function knownProfiles() {
+  return PROFILES.map((profile) => ({ key: profile.key, version: profile.version, title: profile.title }));
+}
+
+export type { StraightnessReference };

@@ -1,0 +1,634 @@
+// Accuracy reports: drafts saved as the inspector types, submission scored by the server alone, signing that
+// seals the content for good, corrections as new revisions, and the reads behind the public pages and API.
+import { randomUUID } from "node:crypto";
+import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import { z } from "zod";
+import type { Database } from "~/db/client.server";
+import { env } from "~/env.server";
+import {
+  CENTRE_LATHE_NORMAL,
+  fieldErrors,
+  GeometryInputError,
+  getProfile,
+  inchesToMicrometres,
+  KINDS_FOR_METHOD,
+  latestProfile,
+  scoreReport,
+  suggestProfile,
+  type KeyFigures,
+  type ReportMeasurements,
+  type TestMeasurement,
+} from "~/geometry";
+import type { SessionUser } from "~/modules/accounts/guards.server";
+import { recordReportFiled } from "~/modules/inspections/bookings.server";
+import type { Executor } from "~/modules/inspections/profiles.server";
+import { getBookingForReport, type BookingForReport } from "~/modules/inspections/report-queries.server";
+import { labelOf, machineCategories } from "~/modules/listings/catalogue";
+import { queueListingIndexUpdate } from "~/modules/search/indexing.server";
+import { REPORT_FORMAT, engineCategory, setupPhotoUrl, type ReportContent } from "./content";
+
+export { setupPhotoUrl };
+import {
+  checkConditions,
+  checkTestEntry,
+  INSTRUMENT_KINDS,
+  instrumentReads,
+  metricMeasurements,
+  newReportForm,
+  reportFormSchema,
+  type ReportForm,
+} from "./form";
+import { formFromContent } from "./form-from-content";
+import { sendReportSignedNotices } from "./notices.server";
+import { SAFETY_CAUTIONS } from "./safety";
+import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
+import { reportUrl, verificationUrl } from "./links.server";
+import { HASH_PATTERN, sealContent, sealHolds } from "./seal.server";
+
+/** An expected refusal: the route answers with `status` and shows `errors` at their fields. */
+export class ReportRuleError extends Error {
+  override name = "ReportRuleError";
+  constructor(
+    message: string,
+    readonly status: 400 | 403 | 404 | 409 | 422 = 422,
+    readonly errors: Record<string, string[]> = {},
+  ) {
+    super(message);
+  }
+}
+
+type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
+
+// ————— Who may write what —————
+
+async function bookingOfInspector(db: Executor, inspector: Pick<SessionUser, "id">, bookingId: string): Promise<BookingForReport> {
+  const found = await getBookingForReport(db, bookingId);
+  if (!found || found.booking.inspectorId !== inspector.id) throw new ReportRuleError("There is no booking of yours at this address.", 404);
+  return found;
+}
+
+async function signedReportOfBooking(db: Executor, bookingId: string): Promise<ReportRow | undefined> {
+  const [row] = await db
+    .select()
+    .from(reports)
+    .where(and(eq(reports.bookingId, bookingId), eq(reports.status, "signed")))
+    .orderBy(desc(reports.signedAt))
+    .limit(1);
+  return row;
+}
+
+export type EntryMode =
+  | { kind: "first" }
+  | { kind: "correction"; corrects: ReportRow }
+  | { kind: "locked"; reason: string; signed: ReportRow | null };
+
+/** Whether the inspector may enter readings for this booking now: a first report, a correction, or neither. */
+async function entryMode(db: Executor, found: BookingForReport, draft: ReportDraftRow | undefined): Promise<EntryMode> {
+  const signed = (await signedReportOfBooking(db, found.booking.id)) ?? null;
+  if (draft?.correctsReportId) {
+    if (signed && signed.id === draft.correctsReportId) return { kind: "correction", corrects: signed };
+    return { kind: "locked", reason: "The report this draft corrects has been corrected already.", signed };
+  }
+  if (signed) {
+    return { kind: "locked", reason: "This booking's report is signed and cannot be changed. Start a correction to file a new revision.", signed };
+  }
+  if (found.booking.status !== "accepted") {
+    return { kind: "locked", reason: `A report can only be filed for an accepted booking; this one is ${found.booking.status.replace("_", " ")}.`, signed: null };
+  }
+  if (found.listing.sellerId === found.booking.inspectorId) {
+    return { kind: "locked", reason: "An inspector may not inspect their own listing.", signed: null };
+  }
+  return { kind: "first" };
+}
+
+async function draftOf(db: Executor, bookingId: string, lock = false): Promise<ReportDraftRow | undefined> {
+  const query = db.select().from(reportDrafts).where(eq(reportDrafts.bookingId, bookingId));
+  const [row] = lock ? await query.for("update") : await query;
+  return row;
+}
+
+// ————— Profile suggestion —————
+
+export function suggestionFor(listing: BookingForReport["listing"]): { profile: { key: string; version: number; title: string } | null; reason: string } {
+  const categoryName = labelOf(machineCategories, listing.category).toLowerCase();
+  const category = engineCategory(listing.category);
+  if (!category) {
+    return { profile: null, reason: `No tolerance profile covers a ${categoryName} yet; choose the nearest one and say why.` };
+  }
+  const swing = listing.swingOverBedMm;
+  const centres = listing.distanceBetweenCentresMm;
+  if (!swing || !centres) {
+    const fallback = category === "toolroom-lathe" ? latestProfile("centre-lathe-precision") : latestProfile("centre-lathe-normal");
+    return {
+      profile: fallback ? { key: fallback.key, version: fallback.version, title: fallback.title } : null,
+      reason: `The listing gives no ${!swing ? "swing over the bed" : "distance between centres"}, so the size could not be checked; measure it and confirm the profile fits.`,
+    };
+  }
+  const profile = suggestProfile({ category, swingMm: swing, betweenCentresMm: centres });
+  if (!profile) {
+    return { profile: null, reason: `No ${categoryName} profile covers ${swing} mm swing and ${centres} mm between centres yet; choose the nearest and say why.` };
+  }
+  return {
+    profile: { key: profile.key, version: profile.version, title: profile.title },
+    reason: `A ${categoryName} with ${swing} mm swing and ${centres} mm between centres is within this profile (swing up to ${profile.scope.swingMaxMm} mm, between centres up to ${profile.scope.betweenCentresMaxMm} mm).`,
+  };
+}
+
+// ————— The entry page —————
+
+export function machineTitle(listing: Pick<BookingForReport["listing"], "make" | "model">) {
+  return `${listing.make} ${listing.model}`;
+}
+
+/** Everything the entry page needs: booking, machine, suggestion, saved draft (or a new form), photos, and whether it is editable. */
+export async function getReportEntry(db: Database, inspector: SessionUser, bookingId: string, today = new Date()) {
+  const found = await bookingOfInspector(db, inspector, bookingId);
+  const draft = await draftOf(db, bookingId);
+  const mode = await entryMode(db, found, draft);
+  const suggestion = suggestionFor(found.listing);
+  const start = suggestion.profile ?? CENTRE_LATHE_NORMAL;
+  const form: ReportForm = draft
+    ? reportFormSchema.parse(draft.form)
+    : newReportForm({
+        profileKey: start.key,
+        profileVersion: start.version,
+        units: inspector.displayUnits,
+        measuredOn: today.toISOString().slice(0, 10),
+      });
+  const [submitted] = await db
+    .select({ id: reports.id, draftVersion: reports.draftVersion })
+    .from(reports)
+    .where(and(eq(reports.bookingId, bookingId), eq(reports.status, "draft")));
+  return {
+    booking: { id: found.booking.id, reference: found.booking.reference, status: found.booking.status, startsAt: found.booking.startsAt.toISOString() },
+    machine: {
+      title: machineTitle(found.listing),
+      slug: found.listing.slug,
+      category: found.listing.category,
+      categoryLabel: labelOf(machineCategories, found.listing.category),
+      year: found.listing.year,
+      swingOverBedMm: found.listing.swingOverBedMm,
+      distanceBetweenCentresMm: found.listing.distanceBetweenCentresMm,
+      location: [found.listing.city, found.listing.country].join(", "),
+    },
+    suggestion,
+    form,
+    draft: draft ? { version: draft.version, updatedAt: draft.updatedAt.toISOString(), correctsReportId: draft.correctsReportId } : null,
+    mode: mode.kind === "locked" ? { kind: "locked" as const, reason: mode.reason, signedReportId: mode.signed?.id ?? null } : { kind: mode.kind },
+    submitted: submitted && draft && submitted.draftVersion === draft.version ? { reportId: submitted.id } : null,
+    photos: await photosOfBooking(db, bookingId),
+  };
+}
+
+export async function photosOfBooking(db: Executor, bookingId: string) {
+  const rows = await db.select().from(reportPhotos).where(eq(reportPhotos.bookingId, bookingId));
+  return rows.map((row) => ({ id: row.id, testCode: row.testCode, width: row.width, height: row.height, thumbnailUrl: setupPhotoUrl(row.id, "thumb") }));
+}
+
+// ————— Drafts —————
+
+const draftBodySchema = z.object({ form: reportFormSchema });
+
+function prefixed(errors: Record<string, string[]>, prefix: string) {
+  return Object.fromEntries(Object.entries(errors).map(([key, messages]) => [key === "request" ? prefix : `${prefix}.${key}`, messages]));
+}
+
+/** The shape checks a draft must pass to be stored: a known profile, its test codes, kinds those tests take. */
+function parseDraftBody(body: unknown): ReportForm {
+  const parsed = draftBodySchema.safeParse(body);
+  if (!parsed.success) throw new ReportRuleError("The draft could not be read; nothing was saved.", 422, fieldErrors(parsed.error));
+  const form = parsed.data.form;
+  const profile = getProfile(form.profile.key, form.profile.version);
+  if (!profile) throw new ReportRuleError("Unknown tolerance profile; nothing was saved.", 422, { "form.profile.key": [`No tolerance profile ${form.profile.key} v${form.profile.version}.`] });
+  const errors: Record<string, string[]> = {};
+  for (const [code, entry] of Object.entries(form.tests)) {
+    const test = profile.tests.find((candidate) => candidate.code === code);
+    if (!test) errors[`form.tests.${code}`] = [`"${code}" is not a test of ${profile.key} v${profile.version}.`];
+    else if (!KINDS_FOR_METHOD[test.method].includes(entry.kind)) errors[`form.tests.${code}.kind`] = [`${code} takes ${KINDS_FOR_METHOD[test.method].join(" or ")} readings, not ${entry.kind}.`];
+  }
+  if (Object.keys(errors).length) throw new ReportRuleError("The draft names tests its profile does not have; nothing was saved.", 422, errors);
+  return form;
+}
+
+/** Per-test problems of a draft, reported but not blocking the save: a draft may be half typed. */
+export function draftIssues(form: ReportForm): Record<string, string[]> {
+  const issues: Record<string, string[]> = {};
+  for (const [code, entry] of Object.entries(form.tests)) {
+    const check = checkTestEntry(entry, form.instruments);
+    if (check.state === "invalid") Object.assign(issues, prefixed(check.errors, `tests.${code}`));
+  }
+  Object.assign(issues, prefixed(checkConditions(form).errors, "conditions"));
+  return issues;
+}
+
+async function upsertDraft(tx: Transaction, inspectorId: string, bookingId: string, form: ReportForm) {
+  const [row] = await tx
+    .insert(reportDrafts)
+    .values({ bookingId, inspectorId, form })
+    .onConflictDoUpdate({
+      target: reportDrafts.bookingId,
+      set: { form, version: sql`${reportDrafts.version} + 1`, updatedAt: new Date() },
+    })
+    .returning({ version: reportDrafts.version, updatedAt: reportDrafts.updatedAt });
+  return row!;
+}
+
+/**
+ * Stores the inspector's form as typed. The shape must be right (profile, test codes, kinds, field sizes);
+ * half-typed readings are kept and their problems returned as `issues`. Refused once the report is signed.
+ */
+export async function saveDraft(db: Database, inspector: SessionUser, bookingId: string, body: unknown) {
+  const form = parseDraftBody(body);
+  return db.transaction(async (tx) => {
+    const draft = await draftOf(tx, bookingId, true);
+    const found = await bookingOfInspector(tx, inspector, bookingId);
+    const mode = await entryMode(tx, found, draft);
+    if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
+    const saved = await upsertDraft(tx, inspector.id, bookingId, form);
+    return { version: saved.version, savedAt: saved.updatedAt.toISOString(), issues: draftIssues(form) };
+  });
+}
+
+// ————— Submission: the server's own check and score —————
+
+function buildContent(
+  found: BookingForReport,
+  form: ReportForm,
+  mode: Extract<EntryMode, { kind: "first" | "correction" }>,
+  photos: Awaited<ReturnType<typeof photosOfBooking>>,
+  reportId: string,
+  now: Date,
+): { content: ReportContent; errors: Record<string, string[]> } | { content: null; errors: Record<string, string[]> } {
+  const errors: Record<string, string[]> = {};
+  const profile = getProfile(form.profile.key, form.profile.version)!;
+  const suggestion = suggestionFor(found.listing);
+  if (!form.safetyAcknowledged) errors.safetyAcknowledged = ["Read the safety cautions and tick the box before submitting."];
+  if (!form.measuredOn) errors.measuredOn = ["Give the date of the tests."];
+  else if (form.measuredOn > now.toISOString().slice(0, 10)) errors.measuredOn = ["The date of the tests is in the future."];
+  const differs = !suggestion.profile || suggestion.profile.key !== profile.key || suggestion.profile.version !== profile.version;
+  if (differs && !form.profile.reason.trim()) {
+    errors["profile.reason"] = [suggestion.profile ? "Say why you chose another profile than the one suggested." : "Say why this profile fits the machine."];
+  }
+  const conditions = checkConditions(form);
+  Object.assign(errors, prefixed(conditions.errors, "conditions"));
+
+  const entered: Record<string, TestMeasurement> = {};
+  const testMeta: ReportContent["tests"] = {};
+  for (const test of profile.tests) {
+    const entry = form.tests[test.code];
+    if (!entry) continue;
+    const check = checkTestEntry(entry, form.instruments);
+    if (check.state === "empty") continue;
+    if (check.state !== "complete" || !check.measurement) {
+      Object.assign(errors, prefixed(check.errors, `tests.${test.code}`));
+      continue;
+    }
+    if (entry.instrumentId && !form.instruments.some((instrument) => instrument.id === entry.instrumentId)) {
+      errors[`tests.${test.code}.instrumentId`] = ["This instrument is no longer in the list; choose another."];
+    }
+    let photo: ReportContent["tests"][string]["photo"] = null;
+    if (entry.photoId) {
+      const stored = photos.find((candidate) => candidate.id === entry.photoId && candidate.testCode === test.code);
+      if (!stored) errors[`tests.${test.code}.photoId`] = ["The set-up photo is missing; upload it again or remove it."];
+      else photo = { id: stored.id, width: stored.width, height: stored.height };
+    }
+    entered[test.code] = check.measurement;
+    testMeta[test.code] = { instrumentId: entry.instrumentId || null, notes: entry.notes.trim(), photo };
+  }
+  if (Object.keys(entered).length === 0 && !errors.tests) errors.tests = ["Enter the readings of at least one test."];
+  if (Object.keys(errors).length) return { content: null, errors };
+
+  const measurementsAsEntered: ReportMeasurements = { measuredOn: form.measuredOn, conditions: conditions.values, tests: entered };
+  let measurements: ReportMeasurements;
+  let score;
+  try {
+    measurements = metricMeasurements(form, entered, conditions.values);
+    // Authoritative: the server scores the readings itself; nothing the browser computed is read.
+    score = scoreReport(profile, measurements);
+  } catch (error) {
+    if (error instanceof GeometryInputError) {
+      const key = error.path.length ? error.path.map(String).join(".") : "tests";
+      return { content: null, errors: { [key]: [error.message] } };
+    }
+    throw error;
+  }
+
+  const instruments: ReportContent["instruments"] = form.instruments.map((instrument) => {
+    const reads = instrumentReads(instrument.kind);
+    const typed = instrument.resolution.trim() === "" ? null : Number(instrument.resolution.replace(",", "."));
+    const resolution =
+      typed === null || !Number.isFinite(typed) || reads === "none" ? null : reads === "tilt" || form.units === "mm" ? typed : inchesToMicrometres(typed);
+    return {
+      id: instrument.id,
+      kind: instrument.kind,
+      kindLabel: INSTRUMENT_KINDS.find((entry) => entry.value === instrument.kind)?.label ?? instrument.kind,
+      description: instrument.description.trim(),
+      resolution,
+      resolutionUnit: resolution === null ? null : reads === "tilt" ? "µm/m" : "µm",
+      calibrationDue: instrument.calibrationDue || null,
+      calibrationOverdue: Boolean(instrument.calibrationDue && instrument.calibrationDue < form.measuredOn),
+    };
+  });
+
+  const content: ReportContent = {
+    format: REPORT_FORMAT,
+    reportId,
+    revision: mode.kind === "correction" ? mode.corrects.revision + 1 : 1,
+    supersedes: mode.kind === "correction" ? { reportId: mode.corrects.id, contentHash: mode.corrects.contentHash! } : null,
+    booking: { id: found.booking.id, reference: found.booking.reference },
+    machine: {
+      listingId: found.listing.id,
+      slug: found.listing.slug,
+      title: machineTitle(found.listing),
+      category: found.listing.category,
+      make: found.listing.make,
+      model: found.listing.model,
+      year: found.listing.year,
+      serialNumber: found.listing.serialNumber,
+      swingOverBedMm: found.listing.swingOverBedMm,
+      distanceBetweenCentresMm: found.listing.distanceBetweenCentresMm,
+      location: [found.listing.city, found.listing.region, found.listing.country].filter(Boolean).join(", "),
+    },
+    inspector: { id: found.booking.inspectorId, name: found.inspector.name },
+    measuredOn: form.measuredOn,
+    profile: {
+      key: profile.key,
+      version: profile.version,
+      title: profile.title,
+      suggested: suggestion.profile ? { key: suggestion.profile.key, version: suggestion.profile.version } : null,
+      reason: form.profile.reason.trim() || suggestion.reason,
+    },
+    entryUnits: form.units,
+    conditions: {
+      ambientTemperatureC: conditions.values.ambientTemperatureC ?? null,
+      warmUpMinutes: conditions.values.warmUpMinutes ?? null,
+      levelled: conditions.values.levelled ?? null,
+      notes: form.conditions.notes.trim(),
+    },
+    instruments,
+    tests: testMeta,
+    measurementsAsEntered,
+    measurements,
+    score,
+    notes: form.notes.trim(),
+    safety: { acknowledged: true, cautions: SAFETY_CAUTIONS },
+    submittedAt: now.toISOString(),
+    signedAt: null,
+  };
+  return { content, errors: {} };
+}
+
+/**
+ * Saves the form, then checks and scores it on the server. The score comes from the readings alone: any
+ * grade or result the browser sends is not part of the form's schema and is dropped unread. The scored
+ * report waits for the inspector's signature (status draft).
+ */
+export async function submitReport(db: Database, inspector: SessionUser, bookingId: string, body: unknown, now = new Date()) {
+  const form = parseDraftBody(body);
+  return db.transaction(async (tx) => {
+    const draft = await draftOf(tx, bookingId, true);
+    const found = await bookingOfInspector(tx, inspector, bookingId);
+    const mode = await entryMode(tx, found, draft);
+    if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
+    const saved = await upsertDraft(tx, inspector.id, bookingId, form);
+    const [existing] = await tx
+      .select({ id: reports.id })
+      .from(reports)
+      .where(and(eq(reports.bookingId, bookingId), eq(reports.status, "draft")))
+      .for("update");
+    const reportId = existing?.id ?? randomUUID();
+    const built = buildContent(found, form, mode, await photosOfBooking(tx, bookingId), reportId, now);
+    if (!built.content) {
+      // The typed form is kept (saved above); only the scored submission is refused.
+      return { ok: false as const, errors: built.errors, version: saved.version };
+    }
+    const { content } = built;
+    const row = {
+      bookingId,
+      listingId: found.listing.id,
+      inspectorId: inspector.id,
+      supersedesId: content.supersedes?.reportId ?? null,
+      revision: content.revision,
+      profileKey: content.profile.key,
+      profileVersion: content.profile.version,
+      grade: content.score.grade,
+      keyFigures: content.score.keyFigures,
+      measuredOn: content.measuredOn,
+      draftVersion: saved.version,
+      content,
+      updatedAt: now,
+    };
+    if (existing) await tx.update(reports).set(row).where(eq(reports.id, existing.id));
+    else await tx.insert(reports).values({ id: reportId, ...row });
+    return { ok: true as const, reportId, version: saved.version };
+  });
+}
+
+/** The scored, unsigned report of a booking for its inspector to review. */
+export async function getReviewReport(db: Database, inspector: SessionUser, bookingId: string) {
+  const found = await bookingOfInspector(db, inspector, bookingId);
+  const [report] = await db.select().from(reports).where(and(eq(reports.bookingId, bookingId), eq(reports.status, "draft")));
+  const draft = await draftOf(db, bookingId);
+  if (!report || !draft) {
+    const signed = await signedReportOfBooking(db, bookingId);
+    if (signed) return { kind: "signed" as const, reportId: signed.id };
+    return { kind: "none" as const };
+  }
+  return {
+    kind: "review" as const,
+    reportId: report.id,
+    content: report.content as ReportContent,
+    stale: draft.version !== report.draftVersion,
+    booking: { id: found.booking.id, reference: found.booking.reference },
+    photos: await photosOfBooking(db, bookingId),
+  };
+}
+
+// ————— Signing —————
+
+/**
+ * Seals the reviewed report: adds the signing time, writes its RFC 8785 canonical JSON and SHA-256 hash,
+ * and marks the revision it corrects as superseded, all in one transaction. From then on nothing about
+ * it can change (the database refuses). The booking moves on and buyer and seller are e-mailed.
+ */
+export async function signReport(db: Database, inspector: SessionUser, bookingId: string, reportId: string, now = new Date()) {
+  const sealed = await db.transaction(async (tx) => {
+    const [report] = await tx.select().from(reports).where(eq(reports.id, reportId)).for("update");
+    if (!report || report.bookingId !== bookingId || report.inspectorId !== inspector.id) throw new ReportRuleError("There is no report of yours at this address.", 404);
+    if (report.status !== "draft") throw new ReportRuleError("This report is signed and cannot be changed. Start a correction to file a new revision.", 409);
+    const draft = await draftOf(tx, bookingId, true);
+    if (!draft || draft.version !== report.draftVersion) {
+      throw new ReportRuleError("The readings changed after you submitted them. Submit them again and review the new result before signing.", 409);
+    }
+    const found = await bookingOfInspector(tx, inspector, bookingId);
+    const mode = await entryMode(tx, found, draft);
+    if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
+    const content: ReportContent = { ...(report.content as ReportContent), signedAt: now.toISOString() };
+    const { canonical, hash } = sealContent(content);
+    if (mode.kind === "correction") {
+      await tx.update(reports).set({ status: "superseded", updatedAt: now }).where(and(eq(reports.id, mode.corrects.id), eq(reports.status, "signed")));
+    }
+    await tx
+      .update(reports)
+      .set({ status: "signed", canonicalJson: canonical, contentHash: hash, signedAt: now, content: JSON.parse(canonical), updatedAt: now })
+      .where(eq(reports.id, report.id));
+    await tx.delete(reportDrafts).where(eq(reportDrafts.bookingId, bookingId));
+    return { found, content, hash, correction: mode.kind === "correction" };
+  });
+  // After the commit: the booking's own transaction moves it on and queues the payout once.
+  if (!sealed.correction) await recordReportFiled(db, { bookingId, reportId, inspectorId: inspector.id });
+  await queueListingIndexUpdate(sealed.found.listing.id);
+  const mailed = await sendReportSignedNotices(sealed.found, sealed.content, sealed.hash);
+  return { reportId, contentHash: sealed.hash, mailed };
+}
+
+/** Opens a correction of a signed report: a new draft prefilled from the signed readings. */
+export async function startCorrection(db: Database, inspector: SessionUser, reportId: string) {
+  return db.transaction(async (tx) => {
+    const [report] = await tx.select().from(reports).where(eq(reports.id, reportId));
+    if (!report || report.inspectorId !== inspector.id) throw new ReportRuleError("There is no report of yours at this address.", 404);
+    if (report.status !== "signed") throw new ReportRuleError("Only the current signed revision can be corrected.", 409);
+    const draft = await draftOf(tx, report.bookingId, true);
+    if (draft) {
+      if (draft.correctsReportId === report.id) return { bookingId: report.bookingId };
+      throw new ReportRuleError("This booking already has a draft in progress.", 409);
+    }
+    const form = formFromContent(report.content as ReportContent);
+    await tx.insert(reportDrafts).values({ bookingId: report.bookingId, inspectorId: inspector.id, correctsReportId: report.id, form });
+    return { bookingId: report.bookingId };
+  });
+}
+
+// ————— Public reads —————
+
+/** A signed or superseded report as anyone may read it; a draft only tells its own inspector where to review it. */
+export async function getPublicReport(db: Database, reportId: string, viewer: Pick<SessionUser, "id"> | null) {
+  if (!z.uuid().safeParse(reportId).success) return null;
+  const [report] = await db.select().from(reports).where(eq(reports.id, reportId));
+  if (!report) return null;
+  if (report.status === "draft") {
+    return viewer?.id === report.inspectorId ? { kind: "draft" as const, bookingId: report.bookingId } : null;
+  }
+  const content = JSON.parse(report.canonicalJson!) as ReportContent;
+  const revisions = await db
+    .select({ id: reports.id, revision: reports.revision, status: reports.status, signedAt: reports.signedAt, grade: reports.grade, supersedesId: reports.supersedesId })
+    .from(reports)
+    .where(and(eq(reports.bookingId, report.bookingId), inArray(reports.status, ["signed", "superseded"])))
+    .orderBy(reports.revision);
+  const supersededBy = revisions.find((revision) => revision.supersedesId === report.id) ?? null;
+  return {
+    kind: "published" as const,
+    id: report.id,
+    status: report.status as "signed" | "superseded",
+    content,
+    contentHash: report.contentHash!,
+    intact: sealHolds(report.canonicalJson!, report.contentHash!),
+    signedAt: report.signedAt!.toISOString(),
+    supersededBy: supersededBy ? { id: supersededBy.id, revision: supersededBy.revision } : null,
+    revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
+    isInspector: viewer?.id === report.inspectorId,
+    photoUrls: Object.fromEntries(
+      Object.entries(content.tests)
+        .filter(([, meta]) => meta.photo)
+        .map(([code, meta]) => [code, { thumb: setupPhotoUrl(meta.photo!.id, "thumb"), large: setupPhotoUrl(meta.photo!.id, "large") }]),
+    ),
+    verificationUrl: verificationUrl(report.contentHash!),
+  };
+}
+
+export type PublicReport = Extract<NonNullable<Awaited<ReturnType<typeof getPublicReport>>>, { kind: "published" }>;
+
+/** GET /api/v1/reports/:id: the signed content exactly as hashed, with its status and links. Null for drafts. */
+export async function reportForApi(db: Database, reportId: string) {
+  const report = await getPublicReport(db, reportId, null);
+  if (!report || report.kind !== "published") return null;
+  const origin = env().APP_ORIGIN;
+  return {
+    id: report.id,
+    status: report.status,
+    revision: report.content.revision,
+    supersedes: report.content.supersedes,
+    supersededBy: report.supersededBy,
+    signedAt: report.signedAt,
+    contentHash: report.contentHash,
+    hashAlgorithm: "SHA-256 of the RFC 8785 canonical JSON of `content`",
+    intact: report.intact,
+    links: { page: `${origin}/reports/${report.id}`, certificate: `${origin}/reports/${report.id}/certificate.pdf`, verification: report.verificationUrl },
+    content: report.content,
+  };
+}
+
+/** Whether a hash is that of a signed report (current or superseded), and which; the stored seal is re-checked. */
+export async function verifyReportHash(db: Database, hash: string) {
+  if (!HASH_PATTERN.test(hash)) throw new ReportRuleError("Give the hash as 64 hexadecimal characters (SHA-256), lower case.", 400);
+  const [report] = await db.select().from(reports).where(eq(reports.contentHash, hash));
+  if (!report || report.status === "draft" || !report.canonicalJson) return { match: false as const, hash };
+  const content = JSON.parse(report.canonicalJson) as ReportContent;
+  const [successor] = await db.select({ id: reports.id }).from(reports).where(eq(reports.supersedesId, report.id));
+  return {
+    match: true as const,
+    hash,
+    intact: sealHolds(report.canonicalJson, hash),
+    report: {
+      id: report.id,
+      status: report.status,
+      revision: report.revision,
+      signedAt: report.signedAt!.toISOString(),
+      measuredOn: report.measuredOn,
+      grade: report.grade,
+      machine: content.machine.title,
+      inspector: content.inspector.name,
+      supersededBy: successor?.id ?? null,
+      url: reportUrl(report.id),
+    },
+  };
+}
+
+export type ListingReportSummary = {
+  id: string;
+  grade: string;
+  keyFigures: KeyFigures;
+  measuredOn: string;
+  signedAt: string;
+  profile: { key: string; version: number };
+  inspectorName: string;
+};
+
+/** The listing's current report: the latest signed revision that nothing supersedes; null when there is none. */
+export async function currentReportForListing(db: Executor, listingId: string): Promise<ListingReportSummary | null> {
+  return (await currentReportsForListings(db, [listingId])).get(listingId) ?? null;
+}
+
+/** The current report of each listing given, for lists and search documents. */
+export async function currentReportsForListings(db: Executor, listingIds: string[]): Promise<Map<string, ListingReportSummary>> {
+  const found = new Map<string, ListingReportSummary>();
+  if (!listingIds.length) return found;
+  const rows = await db
+    .select({
+      id: reports.id,
+      listingId: reports.listingId,
+      grade: reports.grade,
+      keyFigures: reports.keyFigures,
+      measuredOn: reports.measuredOn,
+      signedAt: reports.signedAt,
+      profileKey: reports.profileKey,
+      profileVersion: reports.profileVersion,
+      inspectorName: sql<string>`${reports.content} -> 'inspector' ->> 'name'`,
+    })
+    .from(reports)
+    .where(and(inArray(reports.listingId, listingIds), eq(reports.status, "signed")))
+    .orderBy(desc(reports.signedAt));
+  for (const row of rows) {
+    if (found.has(row.listingId)) continue;
+    found.set(row.listingId, {
+      id: row.id,
+      grade: row.grade,
+      keyFigures: row.keyFigures as KeyFigures,
+      measuredOn: row.measuredOn,
+      signedAt: row.signedAt!.toISOString(),
+      profile: { key: row.profileKey, version: row.profileVersion },
+      inspectorName: row.inspectorName,
+    });
+  }
+  return found;
+}

@@ -1,0 +1,199 @@
+import QRCode from "qrcode";
+import { data, Form, Link, redirect, useLoaderData, useSearchParams } from "react-router";
+import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { getOptionalUser } from "~/modules/accounts/guards.server";
+import { reportAge } from "~/modules/reports/content";
+import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
+import { SafetyCautions } from "~/modules/reports/components/safety";
+import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
+import { getPublicReport } from "~/modules/reports/service.server";
+import { formatLength, type DisplayUnits } from "~/modules/units/format";
+import type { Route } from "./+types/report";
+
+export const meta: Route.MetaFunction = ({ data: loaded }) =>
+  loaded
+    ? [
+        { title: `Accuracy report, grade ${loaded.report.content.score.grade}: ${loaded.report.content.machine.title} — Tenthmark` },
+        { name: "description", content: `Geometric accuracy of the ${loaded.report.content.machine.title}, measured ${loaded.report.content.measuredOn} by ${loaded.report.content.inspector.name}.` },
+      ]
+    : [{ title: "Report not found — Tenthmark" }];
+
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const viewer = await getOptionalUser(request);
+  const report = await getPublicReport(context.get(databaseContext), params.reportId, viewer);
+  if (!report) throw data("There is no signed report at this address.", { status: 404 });
+  if (report.kind === "draft") throw redirect(`/inspector/bookings/${report.bookingId}/report/review`);
+  const requested = new URL(request.url).searchParams.get("units");
+  const units: DisplayUnits = requested === "inch" || requested === "mm" ? requested : (viewer?.displayUnits ?? "mm");
+  const qrSvg = await QRCode.toString(report.verificationUrl, { type: "svg", margin: 1, errorCorrectionLevel: "M", color: { dark: "#17212b", light: "#ffffff" } });
+  return { report, units, qrSvg, now: new Date().toISOString() };
+}
+
+export default function ReportPage() {
+  const { report, units, qrSvg, now } = useLoaderData<typeof loader>();
+  const [search] = useSearchParams();
+  const { content } = report;
+  const age = reportAge(content.measuredOn, new Date(now));
+  const facts: Array<[string, string]> = [
+    ["Inspector", content.inspector.name],
+    ["Date of the tests", `${formatReportDate(content.measuredOn)} (${age.label})`],
+    ["Signed", formatSignedAt(report.signedAt)],
+    ["Tolerance profile", `${content.profile.title} — ${content.profile.key} v${content.profile.version}`],
+    ["Why this profile", content.profile.reason],
+    ["Swing over bed", content.machine.swingOverBedMm ? formatLength(content.machine.swingOverBedMm, units) : "not given"],
+    ["Between centres", content.machine.distanceBetweenCentresMm ? formatLength(content.machine.distanceBetweenCentresMm, units) : "not given"],
+    ["Serial number", content.machine.serialNumber ?? "not given"],
+    ["Booking", content.booking.reference],
+    ["Revision", `${content.revision}${content.supersedes ? ` (corrects revision ${content.revision - 1})` : ""}`],
+  ];
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
+      {search.get("signed") ? (
+        <p role="status" className="mb-6 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
+          Signed and published. {search.get("mail") === "failed" ? "The e-mails to the buyer and seller could not be queued; tell them yourself." : "The buyer and the seller have been e-mailed."}
+        </p>
+      ) : null}
+      {report.status === "superseded" ? (
+        <p role="alert" className="mb-6 rounded-(--radius-control) border border-caution/40 bg-caution-soft px-4 py-3 text-sm font-semibold text-caution" data-testid="superseded-banner">
+          Superseded: a later revision corrects this report.{" "}
+          {report.supersededBy ? (
+            <Link to={`/reports/${report.supersededBy.id}`} className="underline underline-offset-2">
+              Read revision {report.supersededBy.revision}
+            </Link>
+          ) : null}
+        </p>
+      ) : null}
+
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <nav aria-label="Breadcrumb" className="text-sm text-ink-500">
+            <Link to={`/machines/${content.machine.slug}`} className="font-semibold hover:text-ink-900">
+              {content.machine.title}
+            </Link>{" "}
+            / accuracy report
+          </nav>
+          <h1 className="mt-1 text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">Accuracy report: {content.machine.title}</h1>
+          <p className="mt-1 text-ink-600">
+            {content.machine.year ? `${content.machine.year} · ` : ""}
+            {content.machine.location}
+          </p>
+        </div>
+        <div className="flex flex-wrap items-center gap-2">
+          <Badge tone={report.status === "signed" ? "within" : "caution"}>{report.status === "signed" ? "Signed" : "Superseded"}</Badge>
+          <div className="inline-flex rounded-(--radius-control) ring-1 ring-ink-300" aria-label="Units">
+            {(["mm", "inch"] as const).map((option) => (
+              <Link
+                key={option}
+                to={`?units=${option}`}
+                preventScrollReset
+                className={`px-3 py-1.5 text-sm font-semibold first:rounded-l-(--radius-control) last:rounded-r-(--radius-control) ${units === option ? "bg-ink-900 text-white" : "bg-white text-ink-700"}`}
+              >
+                {option === "mm" ? "µm" : "in"}
+              </Link>
+            ))}
+          </div>
+          <a href={`/reports/${report.id}/certificate.pdf`} className="inline-flex h-10 items-center rounded-(--radius-control) bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700" download>
+            Download the certificate (PDF)
+          </a>
+        </div>
+      </div>
+
+      <div className="mt-6 space-y-6">
+        <GradeCard content={content} units={units} now={new Date(now)} />
+
+        <Card>
+          <CardHeader title="Machine and inspection" />
+          <dl className="grid divide-y divide-ink-100 text-sm md:grid-cols-2 md:divide-y-0">
+            {facts.map(([term, value]) => (
+              <div key={term} className="grid grid-cols-[9.5rem_1fr] gap-3 px-5 py-2 md:border-b md:border-ink-100">
+                <dt className="font-semibold text-ink-600">{term}</dt>
+                <dd className="text-ink-900">{value}</dd>
+              </div>
+            ))}
+          </dl>
+        </Card>
+
+        <section aria-labelledby="results">
+          <h2 id="results" className="mb-3 text-xl font-bold text-ink-900">
+            Results
+          </h2>
+          <ResultsTable content={content} units={units} />
+          <p className="mt-2 text-xs text-ink-500">
+            Ratio = value ÷ tolerance at the length measured. A test that allows one direction fails on any reading the other way beyond the instrument's resolution. Sources of each tolerance are in the JSON.
+          </p>
+        </section>
+
+        <TestDetails content={content} units={units} photoUrls={report.photoUrls} />
+        <ConditionsAndInstruments content={content} units={units} />
+
+        {content.notes ? (
+          <Card>
+            <CardHeader title="Inspector's notes" />
+            <CardBody className="whitespace-pre-line text-sm text-ink-800">{content.notes}</CardBody>
+          </Card>
+        ) : null}
+
+        <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_18rem]">
+          <Card>
+            <CardHeader
+              title="Verification"
+              description="The SHA-256 hash of this report's RFC 8785 canonical JSON. Anyone can recompute it from the JSON and check it here."
+              action={<Badge tone={report.intact ? "within" : "beyond"}>{report.intact ? "Hash verified" : "Hash mismatch"}</Badge>}
+            />
+            <CardBody className="space-y-3 text-sm">
+              <p className="break-all font-mono text-ink-900" data-testid="content-hash">
+                {report.contentHash}
+              </p>
+              <div className="flex flex-wrap gap-x-4 gap-y-1">
+                <a href={report.verificationUrl} className="font-semibold text-ink-900 underline underline-offset-2">
+                  Verification page
+                </a>
+                <a href={`/api/v1/reports/${report.id}`} className="font-semibold text-ink-900 underline underline-offset-2">
+                  JSON
+                </a>
+              </div>
+              {report.revisions.length > 1 ? (
+                <div>
+                  <h3 className="mt-2 font-bold text-ink-900">Revisions</h3>
+                  <ol className="mt-1 space-y-1">
+                    {report.revisions.map((revision) => (
+                      <li key={revision.id} className="flex flex-wrap items-center gap-2">
+                        <Link to={`/reports/${revision.id}`} className={revision.id === report.id ? "font-bold text-ink-900" : "text-ink-700 underline underline-offset-2"}>
+                          Revision {revision.revision}
+                        </Link>
+                        <span className="text-ink-500">{revision.signedAt ? formatSignedAt(revision.signedAt) : ""}</span>
+                        <Badge tone={revision.status === "signed" ? "within" : "caution"}>{revision.status}</Badge>
+                      </li>
+                    ))}
+                  </ol>
+                </div>
+              ) : null}
+            </CardBody>
+          </Card>
+          <Card className="flex items-center justify-center p-4">
+            <div className="w-full max-w-56" role="img" aria-label="QR code of the verification page" dangerouslySetInnerHTML={{ __html: qrSvg }} />
+          </Card>
+        </div>
+
+        <SafetyCautions heading="Safety: how these tests are taken" />
+
+        {report.isInspector && report.status === "signed" ? (
+          <Card>
+            <CardBody className="flex flex-wrap items-center justify-between gap-3">
+              <p className="text-sm text-ink-700">Found a mistake? A correction files a new revision; this one stays readable, marked superseded.</p>
+              <Form method="post" action={`/inspector/reports/${report.id}/correct`}>
+                <Button type="submit" variant="secondary">
+                  Start a correction
+                </Button>
+              </Form>
+            </CardBody>
+          </Card>
+        ) : null}
+        <ButtonLink to={`/machines/${content.machine.slug}`} variant="quiet">
+          ← Back to the machine
+        </ButtonLink>
+      </div>
+    </div>
+  );
+}
