@@ -32,7 +32,8 @@ async function main() {
   log("postgres", `ready at ${databaseUrl}`);
   await runMigrations(databaseUrl);
 
-  const standIns = await startStandIns({ dataDir, appOrigin, ports: {} });
+  // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).
+  const standIns = await startStandIns({ dataDir, appOrigin, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
   for (const standIn of standIns) onStop(() => standIn.stop());
   const environment = {
     ...process.env,
