@@ -19,8 +19,12 @@ export default [
   route("admin/users", "routes/admin/users.tsx"),
   route("admin/inspector-applications", "routes/admin/inspector-applications.tsx"),
 
+  // Search: buyers find machines by verified accuracy, save searches and hear about new matches
+  route("machines", "routes/search/machines.tsx"),
+  route("account/saved-searches", "routes/search/saved-searches.tsx"),
+  route("saved-searches/unsubscribe", "routes/search/unsubscribe.tsx"),
+
   // Listings: buyers browse, sellers manage
-  route("machines", "routes/listings/browse.tsx"),
   route("machines/:slug", "routes/listings/machine.tsx"),
   route("sell", "routes/listings/sell-dashboard.tsx"),
   route("sell/new", "routes/listings/sell-new.tsx"),
@@ -60,6 +64,7 @@ export default [
   route("api/health", "routes/api.health.ts"),
   route("api/auth/*", "routes/api.auth.ts"),
   route("api/v1/evaluations", "routes/api.v1.evaluations.ts"),
+  route("api/v1/listings", "routes/search/api.listings.ts"),
   route("api/v1/reports/verify", "routes/api.v1.reports.verify.ts"),
   route("api/v1/reports/:reportId", "routes/api.v1.reports.report.ts"),
   route("api/webhooks/stripe", "routes/api.webhooks.stripe.ts"),

@@ -76,6 +76,8 @@ export const listingSearchParamsSchema = z
     sort: z.preprocess(blankAsMissing, z.enum(listingSorts, { error: `Sort must be one of ${listingSorts.join(", ")}.` }).optional()),
     page: whole("Page", 1, 1000),
     perPage: whole("Results per page", 1, MAX_HITS_PER_PAGE),
+    // Only the words of suggestions and summaries; numbers in parameters and answers stay µm and mm.
+    units: z.preprocess(blankAsMissing, z.enum(["mm", "inch"], { error: "Units must be mm or inch." }).optional()),
   })
   .superRefine((params, context) => {
     const ordered = (low: number | undefined, high: number | undefined, path: string, what: string) => {
@@ -176,7 +178,7 @@ export function paramsFromQuery(query: ListingSearchQuery, options: { withPage?:
 }
 
 export type ParsedSearchParams =
-  | { success: true; query: ListingSearchQuery }
+  | { success: true; query: ListingSearchQuery; units: "mm" | "inch" | undefined }
   | { success: false; errors: Record<string, string[]> };
 
 /** Validates the parameters; on failure, the messages per parameter name. */
@@ -190,5 +192,5 @@ export function parseListingSearchParams(params: URLSearchParams): ParsedSearchP
     }
     return { success: false, errors };
   }
-  return { success: true, query: queryFromParams(parsed.data) };
+  return { success: true, query: queryFromParams(parsed.data), units: parsed.data.units };
 }

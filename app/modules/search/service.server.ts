@@ -6,6 +6,7 @@ import type { DisplayUnits } from "~/modules/units/format";
 import { formatLength, formatMoney } from "~/modules/units/format";
 import type { ListingSearchDocument } from "../../../search/document.ts";
 import type { ListingSearchQuery } from "../../../search/query.ts";
+import { describeSearch } from "./describe";
 import { accuracyFilters, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
 import { searchListingsInDatabase } from "./listing-source.server";
 import { listingSearch, SearchUnavailableError, type ListingSearch, type ListingSearchResult } from "./search.server";
@@ -64,9 +65,11 @@ export type MachineSearch = {
   suggestions: WidenSuggestion[];
   /** The search as canonical parameters (no page), for links and saving. */
   queryString: string;
+  /** The search in words, in the reader's units (a saved search's default name). */
+  summary: string;
 };
 
-export const INCOMPLETE_NOTICE = "Search is running in reduced mode: results may be incomplete, and text matching is simpler than usual.";
+export const INCOMPLETE_NOTICE = "Results may be incomplete: the search service is not answering, so these come straight from our database, with simpler word matching.";
 
 function toHit(document: ListingSearchDocument): ListingHit {
   const reportDate = document.reportDate === null ? null : new Date(document.reportDate * 1000).toISOString().slice(0, 10);
@@ -250,5 +253,6 @@ export async function searchMachines(
     emptyBecause: empty ? describeEmpty(query, units) : null,
     suggestions,
     queryString: paramsFromQuery(query).toString(),
+    summary: describeSearch(query, units),
   };
 }

@@ -1,0 +1,241 @@
+import type { ReactNode } from "react";
+import { Button, cx } from "~/components/ui";
+import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
+import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
+import { accuracyFilters, deviationUnitLabel } from "../figures";
+import type { MachineSearch } from "../service.server";
+import { inputName, type DraftKey, type SearchDraft } from "./search-form";
+
+const grades = [
+  { value: "A", label: "A" },
+  { value: "B", label: "B" },
+  { value: "C", label: "C" },
+  { value: "D", label: "D" },
+];
+
+const reportAges = [
+  { value: "", label: "Any age" },
+  { value: "90", label: "Last 3 months" },
+  { value: "180", label: "Last 6 months" },
+  { value: "365", label: "Last 12 months" },
+];
+
+const control =
+  "block w-full rounded-(--radius-control) border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400";
+
+function invalid(errors: Record<string, string[]> | null, ...keys: string[]) {
+  return keys.flatMap((key) => errors?.[key] ?? []);
+}
+
+function Group({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <fieldset className="border-t border-ink-200 pt-4">
+      <legend className="float-left mb-2 w-full text-sm font-bold text-ink-900">{title}</legend>
+      <div className="clear-both space-y-2">{children}</div>
+    </fieldset>
+  );
+}
+
+function FieldErrors({ messages }: { messages: string[] }) {
+  return messages.length ? (
+    <p className="text-sm font-medium text-beyond" role="alert">
+      {messages.join(" ")}
+    </p>
+  ) : null;
+}
+
+type PanelProps = {
+  draft: SearchDraft;
+  units: DisplayUnits;
+  facets: MachineSearch["facets"] | null;
+  errors: Record<string, string[]> | null;
+  /** A field changed; `commit` when the change should search at once (boxes, menus). */
+  onChange: (key: DraftKey, value: SearchDraft[DraftKey], commit: boolean) => void;
+  onCommit: () => void;
+  onClear: () => void;
+};
+
+/** Facets, ranges and accuracy limits. A plain GET form underneath, so it also works before JavaScript loads. */
+export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, onClear }: PanelProps) {
+  const length = lengthUnitLabel(units);
+  const deviation = deviationUnitLabel(units);
+  const toggle = (key: "category" | "grade", value: string, checked: boolean) =>
+    onChange(key, checked ? [...draft[key], value] : draft[key].filter((item) => item !== value), true);
+  const numberInput = (key: DraftKey, label: string, placeholder: string, step: string) => (
+    <label className="block min-w-0 flex-1">
+      <span className="sr-only">{label}</span>
+      <input
+        name={inputName(key, units)}
+        type="number"
+        inputMode="decimal"
+        min="0"
+        step={step}
+        placeholder={placeholder}
+        aria-label={label}
+        aria-invalid={invalid(errors, key, `${key}In`).length ? true : undefined}
+        className={cx(control, "tabular", invalid(errors, key, `${key}In`).length ? "border-beyond" : "border-ink-300")}
+        value={draft[key] as string}
+        onChange={(event) => onChange(key, event.target.value, false)}
+        onBlur={onCommit}
+      />
+    </label>
+  );
+  return (
+    <div className="space-y-4">
+      <Group title="Verification">
+        <label className="flex cursor-pointer items-center justify-between gap-3 rounded-(--radius-control) bg-within-soft/60 px-3 py-2">
+          <span className="flex items-center gap-2 text-sm font-semibold text-ink-900">
+            <input type="checkbox" name="verified" value="1" className="size-4 accent-ink-900" checked={draft.verified} onChange={(event) => onChange("verified", event.target.checked, true)} />
+            Verified only
+          </span>
+          {facets ? <span className="text-xs font-semibold text-ink-600 tabular">{facets.verified}</span> : null}
+        </label>
+        <p className="text-xs text-ink-500">A signed inspection report that graded the machine.</p>
+      </Group>
+
+      <Group title="Kind of machine">
+        {machineCategories.map((category) => {
+          const counted = facets?.category[category.value] ?? 0;
+          return (
+            <label key={category.value} className={cx("flex cursor-pointer items-center justify-between gap-3 text-sm", counted === 0 && !draft.category.includes(category.value) && "text-ink-400")}>
+              <span className="flex items-center gap-2">
+                <input
+                  type="checkbox"
+                  name="category"
+                  value={category.value}
+                  className="size-4 accent-ink-900"
+                  checked={draft.category.includes(category.value)}
+                  onChange={(event) => toggle("category", category.value, event.target.checked)}
+                />
+                {category.label}
+              </span>
+              {facets ? <span className="text-xs tabular">{counted}</span> : null}
+            </label>
+          );
+        })}
+      </Group>
+
+      <Group title="Accuracy grade">
+        <div className="grid grid-cols-4 gap-2">
+          {grades.map((grade) => (
+            <label
+              key={grade.value}
+              className={cx(
+                "flex cursor-pointer flex-col items-center rounded-(--radius-control) border px-2 py-1.5 text-sm font-bold has-[:checked]:border-ink-900 has-[:checked]:bg-ink-900 has-[:checked]:text-white has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-brass-400",
+                "border-ink-300 text-ink-800",
+              )}
+            >
+              <input
+                type="checkbox"
+                name="grade"
+                value={grade.value}
+                className="sr-only"
+                checked={draft.grade.includes(grade.value)}
+                onChange={(event) => toggle("grade", grade.value, event.target.checked)}
+              />
+              <span aria-hidden="true">{grade.label}</span>
+              <span className="sr-only">Grade {grade.label}</span>
+              {facets ? <span className="text-[11px] font-medium opacity-75 tabular">{facets.grade[grade.value] ?? 0}</span> : null}
+            </label>
+          ))}
+        </div>
+      </Group>
+
+      <Group title={`Accuracy, at most (${deviation})`}>
+        {accuracyFilters.map((filter) => (
+          <div key={filter.key}>
+            <div className="flex items-baseline justify-between gap-2">
+              <span className="text-sm font-semibold text-ink-800" id={`${filter.param}-label`}>
+                {filter.label}
+              </span>
+              <span className="text-xs text-ink-500">{deviation}</span>
+            </div>
+            {numberInput(filter.param, `${filter.label} at most (${deviation})`, units === "inch" ? "e.g. 0.0002" : "e.g. 5", units === "inch" ? "0.00001" : "0.1")}
+            <FieldErrors messages={invalid(errors, filter.param, `${filter.param}In`)} />
+          </div>
+        ))}
+        <label className="block">
+          <span className="text-sm font-semibold text-ink-800">Report measured</span>
+          <select
+            name="reportAgeMax"
+            className={cx(control, "border-ink-300")}
+            value={draft.reportAgeMax}
+            onChange={(event) => onChange("reportAgeMax", event.target.value, true)}
+          >
+            {reportAges.map((age) => (
+              <option key={age.value} value={age.value}>
+                {age.label}
+              </option>
+            ))}
+          </select>
+        </label>
+      </Group>
+
+      <Group title="Size">
+        <p className="text-sm font-semibold text-ink-800">Swing over bed ({length})</p>
+        <div className="flex items-center gap-2">
+          {numberInput("swingMin", `Smallest swing over bed (${length})`, "from", "any")}
+          <span className="text-ink-400">–</span>
+          {numberInput("swingMax", `Largest swing over bed (${length})`, "to", "any")}
+        </div>
+        <FieldErrors messages={invalid(errors, "swingMin", "swingMax", "swingMinIn", "swingMaxIn")} />
+        <p className="pt-1 text-sm font-semibold text-ink-800">Between centres ({length})</p>
+        <div className="flex items-center gap-2">
+          {numberInput("centresMin", `Shortest distance between centres (${length})`, "from", "any")}
+          <span className="text-ink-400">–</span>
+          {numberInput("centresMax", `Longest distance between centres (${length})`, "to", "any")}
+        </div>
+        <FieldErrors messages={invalid(errors, "centresMin", "centresMax", "centresMinIn", "centresMaxIn")} />
+      </Group>
+
+      <Group title="Price">
+        <div className="flex items-center gap-2">
+          {numberInput("priceMin", "Lowest price", "from", "any")}
+          <span className="text-ink-400">–</span>
+          {numberInput("priceMax", "Highest price", "to", "any")}
+        </div>
+        <label className="flex items-center gap-2 text-sm text-ink-700">
+          Currency
+          <select
+            name="currency"
+            className={cx(control, "w-auto border-ink-300 py-1.5")}
+            value={draft.currency}
+            onChange={(event) => onChange("currency", event.target.value, Boolean(draft.priceMin || draft.priceMax))}
+          >
+            {currencies.map((currency) => (
+              <option key={currency} value={currency}>
+                {currency}
+              </option>
+            ))}
+          </select>
+        </label>
+        <p className="text-xs text-ink-500">Listings in other currencies are left out, not converted.</p>
+        <FieldErrors messages={invalid(errors, "priceMin", "priceMax", "currency")} />
+      </Group>
+
+      <Group title="Location">
+        <label className="block">
+          <span className="sr-only">Country</span>
+          <select name="country" className={cx(control, "border-ink-300")} value={draft.country} onChange={(event) => onChange("country", event.target.value, true)}>
+            <option value="">Any country</option>
+            {countryOptions.map((country) => (
+              <option key={country.value} value={country.value}>
+                {country.label}
+                {facets?.country[country.value] ? ` (${facets.country[country.value]})` : ""}
+              </option>
+            ))}
+          </select>
+        </label>
+      </Group>
+
+      <div className="flex gap-2 border-t border-ink-200 pt-4">
+        <Button type="submit" className="flex-1">
+          Show machines
+        </Button>
+        <Button type="button" variant="quiet" onClick={onClear}>
+          Clear all
+        </Button>
+      </div>
+    </div>
+  );
+}

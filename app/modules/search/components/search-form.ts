@@ -1,0 +1,109 @@
+// The search page's form state: what each field shows, in the reader's units, read from the address and
+// written back to it in µm and mm. No validation library here (the server validates every parameter): this
+// runs in the browser on every change and must stay small.
+import { inchesToMillimetres, millimetresToInches } from "~/geometry/units";
+import type { DisplayUnits } from "~/modules/units/format";
+import { accuracyFilters, deviationFromInput, deviationInputValue } from "../figures";
+
+export type SearchDraft = {
+  q: string;
+  category: string[];
+  grade: string[];
+  verified: boolean;
+  country: string;
+  currency: string;
+  priceMin: string;
+  priceMax: string;
+  swingMin: string;
+  swingMax: string;
+  centresMin: string;
+  centresMax: string;
+  runoutMax: string;
+  axialSlipMax: string;
+  parallelismMax: string;
+  centreHeightMax: string;
+  reportAgeMax: string;
+  sort: string;
+};
+
+export type DraftKey = keyof SearchDraft;
+
+const lengthKeys = ["swingMin", "swingMax", "centresMin", "centresMax"] as const;
+const deviationKeys = accuracyFilters.map((filter) => filter.param);
+
+function positive(text: string | null): number | undefined {
+  if (text === null || text.trim() === "") return undefined;
+  const value = Number(text);
+  return Number.isFinite(value) && value >= 0 ? value : undefined;
+}
+
+function trimmedNumber(value: number, digits: number) {
+  return String(Math.round(value * 10 ** digits) / 10 ** digits);
+}
+
+/** The form as the address describes it (the `…In` twins are read too, as a form without JavaScript sends them). */
+export function draftFromParams(params: URLSearchParams, units: DisplayUnits): SearchDraft {
+  const length = (key: (typeof lengthKeys)[number]) => {
+    const inches = positive(params.get(`${key}In`));
+    const mm = inches !== undefined ? inchesToMillimetres(inches) : positive(params.get(key));
+    if (mm === undefined) return "";
+    return units === "inch" ? trimmedNumber(millimetresToInches(mm), 3) : trimmedNumber(mm, 1);
+  };
+  const deviation = (key: string) => {
+    const inches = positive(params.get(`${key}In`));
+    const um = inches !== undefined ? inches * 25_400 : positive(params.get(key));
+    return um === undefined || um === 0 ? "" : deviationInputValue(um, units);
+  };
+  const list = (key: string) => params.getAll(key).flatMap((value) => value.split(",")).filter(Boolean);
+  return {
+    q: params.get("q") ?? "",
+    category: list("category"),
+    grade: list("grade"),
+    verified: params.get("verified") === "1" || params.get("verified") === "true",
+    country: list("country")[0] ?? "",
+    currency: params.get("currency") ?? "EUR",
+    priceMin: params.get("priceMin") ?? "",
+    priceMax: params.get("priceMax") ?? "",
+    swingMin: length("swingMin"),
+    swingMax: length("swingMax"),
+    centresMin: length("centresMin"),
+    centresMax: length("centresMax"),
+    runoutMax: deviation("runoutMax"),
+    axialSlipMax: deviation("axialSlipMax"),
+    parallelismMax: deviation("parallelismMax"),
+    centreHeightMax: deviation("centreHeightMax"),
+    reportAgeMax: params.get("reportAgeMax") ?? "",
+    sort: params.get("sort") ?? "",
+  };
+}
+
+/** The address for a form state: µm and mm, in one fixed order, without empty fields; page 1. */
+export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSearchParams {
+  const params = new URLSearchParams();
+  const put = (key: string, value: string | number | undefined) => {
+    if (value !== undefined && String(value).trim() !== "") params.append(key, String(value).trim());
+  };
+  put("q", draft.q);
+  for (const category of draft.category) put("category", category);
+  for (const grade of draft.grade) put("grade", grade);
+  if (draft.verified) put("verified", "1");
+  put("country", draft.country);
+  if (draft.priceMin.trim() || draft.priceMax.trim()) put("currency", draft.currency);
+  put("priceMin", draft.priceMin);
+  put("priceMax", draft.priceMax);
+  for (const key of lengthKeys) {
+    const value = positive(draft[key].replace(",", "."));
+    if (value === undefined) continue;
+    put(key, units === "inch" ? trimmedNumber(inchesToMillimetres(value), 2) : trimmedNumber(value, 2));
+  }
+  for (const key of deviationKeys) put(key, deviationFromInput(draft[key], units));
+  put("reportAgeMax", draft.reportAgeMax);
+  put("sort", draft.sort);
+  return params;
+}
+
+/** Input names as a form without JavaScript submits them: inch users' lengths and limits go to the `…In` twins. */
+export function inputName(key: DraftKey, units: DisplayUnits): string {
+  if (units !== "inch") return key;
+  return (lengthKeys as readonly string[]).includes(key) || (deviationKeys as readonly string[]).includes(key) ? `${key}In` : key;
+}

@@ -1,0 +1,366 @@
+import { useEffect, useRef, useState } from "react";
+import { Link, useFetcher, useLocation, useSearchParams, type ShouldRevalidateFunctionArgs } from "react-router";
+import { Button, ButtonLink, Card, cx } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { getOptionalUser } from "~/modules/accounts/guards.server";
+import { FilterPanel } from "~/modules/search/components/filter-panel";
+import { ResultCard } from "~/modules/search/components/result-card";
+import { draftFromParams, paramsFromDraft, type DraftKey, type SearchDraft } from "~/modules/search/components/search-form";
+import { parseListingSearchParams } from "~/modules/search/search-params.server";
+import { searchMachines, type MachineSearch } from "~/modules/search/service.server";
+import type { DisplayUnits } from "~/modules/units/format";
+import type { Route } from "./+types/machines";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Machines for sale, searchable by verified accuracy — Tenthmark" },
+  { name: "description", content: "Used lathes and machine tools for sale. Filter by inspected spindle run-out, axial slip, parallelism and grade." },
+];
+
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const viewer = await getOptionalUser(request);
+  const units: DisplayUnits = viewer?.displayUnits ?? "mm";
+  const account = viewer ? { verified: viewer.emailVerified } : null;
+  const parsed = parseListingSearchParams(new URL(request.url).searchParams);
+  if (!parsed.success) return { units, account, search: null, errors: parsed.errors, now: Date.now() };
+  const search = await searchMachines(context.get(databaseContext), parsed.query, { units });
+  return { units, account, search, errors: null, now: Date.now() };
+}
+
+// After the first page, the page fetches its results from the API itself: a change of the search alone
+// needs no loader run.
+export function shouldRevalidate({ currentUrl, nextUrl, formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  if (!formMethod && currentUrl.pathname === nextUrl.pathname) return false;
+  return defaultShouldRevalidate;
+}
+
+type Answer = { key: string; search: MachineSearch | null; errors: Record<string, string[]> | null; failed: boolean };
+
+const sorts = [
+  { value: "newest", label: "Newest first" },
+  { value: "best-accuracy", label: "Best accuracy first" },
+  { value: "price-ascending", label: "Price, lowest first" },
+  { value: "price-descending", label: "Price, highest first" },
+];
+
+export default function MachineSearchPage({ loaderData }: Route.ComponentProps) {
+  const { units, account, now } = loaderData;
+  const location = useLocation();
+  const [searchParams, setSearchParams] = useSearchParams();
+  const [answer, setAnswer] = useState<Answer>({ key: location.search, search: loaderData.search, errors: loaderData.errors, failed: false });
+  const [loading, setLoading] = useState(false);
+  const [draft, setDraft] = useState<SearchDraft>(() => draftFromParams(searchParams, units));
+  const [filtersOpen, setFiltersOpen] = useState(false);
+  const [attempt, setAttempt] = useState(0);
+  const resultsRef = useRef<HTMLDivElement>(null);
+
+  // The address is the state: back, forward and shared links set the form from it.
+  useEffect(() => {
+    setDraft(draftFromParams(new URLSearchParams(location.search), units));
+  }, [location.search, units]);
+
+  useEffect(() => {
+    if (answer.key === location.search && !answer.failed) return;
+    const controller = new AbortController();
+    const params = new URLSearchParams(location.search);
+    params.set("units", units);
+    setLoading(true);
+    fetch(`/api/v1/listings?${params}`, { signal: controller.signal, headers: { accept: "application/json" } })
+      .then(async (response) => {
+        if (response.status === 400) {
+          const body = (await response.json()) as { errors: Record<string, string[]> };
+          setAnswer({ key: location.search, search: null, errors: body.errors, failed: false });
+        } else if (response.ok) {
+          setAnswer({ key: location.search, search: (await response.json()) as MachineSearch, errors: null, failed: false });
+        } else {
+          setAnswer((previous) => ({ ...previous, key: location.search, failed: true }));
+        }
+      })
+      .catch((error: unknown) => {
+        if (!controller.signal.aborted) setAnswer((previous) => ({ ...previous, key: location.search, failed: true }));
+        if (!(error instanceof Error)) throw error;
+      })
+      .finally(() => {
+        if (!controller.signal.aborted) setLoading(false);
+      });
+    return () => controller.abort();
+    // `answer` is read only to skip the first page, which the server already rendered.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [location.search, units, attempt]);
+
+  function commit(next: SearchDraft = draft) {
+    const params = paramsFromDraft(next, units);
+    if (params.toString() === new URLSearchParams(location.search).toString()) return;
+    setSearchParams(params, { preventScrollReset: true });
+  }
+
+  function change(key: DraftKey, value: SearchDraft[DraftKey], now: boolean) {
+    const next = { ...draft, [key]: value } as SearchDraft;
+    setDraft(next);
+    if (now) commit(next);
+  }
+
+  const { search, errors } = answer;
+  const activeFilters = [...searchParams.keys()].filter((key) => !["q", "sort", "page", "perPage", "currency", "units"].includes(key)).length;
+  const pageLink = (page: number) => {
+    const params = new URLSearchParams(location.search);
+    if (page > 1) params.set("page", String(page));
+    else params.delete("page");
+    return `?${params}`;
+  };
+
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6 sm:py-10">
+      <form
+        method="get"
+        action="/machines"
+        onSubmit={(event) => {
+          event.preventDefault();
+          commit();
+          setFiltersOpen(false);
+        }}
+      >
+        <div className="flex flex-wrap items-end justify-between gap-4">
+          <div>
+            <h1 className="text-3xl font-extrabold text-ink-900">Machines for sale</h1>
+            <p className="mt-1 max-w-2xl text-ink-600">
+              Filter on what an inspector measured: spindle run-out, axial slip, parallelism, centre height. Figures in{" "}
+              {units === "inch" ? "inches" : "µm"}; change your units in{" "}
+              <Link to="/account" className="font-semibold underline underline-offset-2">
+                account settings
+              </Link>
+              .
+            </p>
+          </div>
+          <ButtonLink to="/sell/new" variant="secondary">
+            Sell a machine
+          </ButtonLink>
+        </div>
+
+        <div className="mt-6 flex gap-2">
+          <label className="min-w-0 flex-1">
+            <span className="sr-only">Search words</span>
+            <input
+              type="search"
+              name="q"
+              value={draft.q}
+              onChange={(event) => change("q", event.target.value, false)}
+              placeholder="Make, model, town… e.g. toolroom D1-4"
+              className="block h-12 w-full rounded-(--radius-control) border border-ink-300 bg-white px-4 text-base shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
+            />
+          </label>
+          <Button type="submit" size="lg">
+            Search
+          </Button>
+        </div>
+
+        <div className="mt-6 grid gap-8 lg:grid-cols-[17rem_minmax(0,1fr)]">
+          <aside aria-label="Filters">
+            <button
+              type="button"
+              className="flex w-full items-center justify-between rounded-(--radius-control) border border-ink-300 bg-white px-4 py-3 text-sm font-semibold text-ink-900 lg:hidden"
+              aria-expanded={filtersOpen}
+              aria-controls="search-filters"
+              onClick={() => setFiltersOpen((open) => !open)}
+            >
+              <span>Filters{activeFilters ? ` (${activeFilters})` : ""}</span>
+              <span aria-hidden="true">{filtersOpen ? "▴" : "▾"}</span>
+            </button>
+            <div id="search-filters" className={cx("mt-3 lg:mt-0 lg:block", filtersOpen ? "block" : "hidden")}>
+              <FilterPanel
+                draft={draft}
+                units={units}
+                facets={search?.facets ?? null}
+                errors={errors}
+                onChange={change}
+                onCommit={() => commit()}
+                onClear={() => {
+                  const cleared = draftFromParams(new URLSearchParams(), units);
+                  setDraft(cleared);
+                  commit(cleared);
+                }}
+              />
+            </div>
+          </aside>
+
+          <section aria-label="Results" ref={resultsRef} aria-busy={loading} className={cx("min-w-0 transition-opacity", loading && "opacity-60")}>
+            {search?.notice ? (
+              <p role="status" className="mb-4 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800" data-testid="search-notice">
+                {search.notice}
+              </p>
+            ) : null}
+            {answer.failed ? (
+              <p role="alert" className="mb-4 flex flex-wrap items-center gap-3 rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-ink-800">
+                The results could not be loaded. Check your connection and try again.
+                <Button size="sm" variant="secondary" onClick={() => setAttempt((count) => count + 1)}>
+                  Try again
+                </Button>
+              </p>
+            ) : null}
+
+            <div className="flex flex-wrap items-center justify-between gap-3">
+              <p className="text-sm font-semibold text-ink-700" aria-live="polite" data-testid="result-count">
+                {search ? (search.totalHits === 1 ? "1 machine" : `${search.totalHits} machines`) : errors ? "Check the filters" : ""}
+                {search?.summary && search.summary !== "Every machine" ? <span className="font-normal text-ink-500"> · {search.summary}</span> : null}
+              </p>
+              <label className="flex items-center gap-2 text-sm text-ink-700">
+                Sort
+                <select
+                  name="sort"
+                  value={draft.sort || (draft.q ? "relevance" : "newest")}
+                  onChange={(event) => change("sort", event.target.value, true)}
+                  className="rounded-(--radius-control) border border-ink-300 bg-white py-1.5 pl-2 pr-8 text-sm"
+                >
+                  {draft.q ? <option value="relevance">Best match</option> : null}
+                  {sorts.map((sort) => (
+                    <option key={sort.value} value={sort.value}>
+                      {sort.label}
+                    </option>
+                  ))}
+                </select>
+              </label>
+            </div>
+
+            {errors ? (
+              <Card className="mt-4 p-6 text-sm text-ink-700" role="alert">
+                <p className="font-semibold text-ink-900">Some filters are not valid:</p>
+                <ul className="mt-2 list-disc pl-5">
+                  {Object.values(errors).flat().map((message) => (
+                    <li key={message}>{message}</li>
+                  ))}
+                </ul>
+              </Card>
+            ) : null}
+
+            {search && search.hits.length ? (
+              <ul className="mt-4 grid gap-5 sm:grid-cols-2 xl:grid-cols-3" data-testid="results">
+                {search.hits.map((hit) => (
+                  <li key={hit.id}>
+                    <ResultCard hit={hit} units={units} now={now} />
+                  </li>
+                ))}
+              </ul>
+            ) : null}
+
+            {search && !search.hits.length ? (
+              <Card className="mt-4 p-6 sm:p-8" data-testid="empty-results">
+                <h2 className="text-lg font-bold text-ink-900">{search.emptyBecause ?? "No machines match this search"}.</h2>
+                {search.suggestions.length ? (
+                  <>
+                    <p className="mt-2 text-sm text-ink-600">Widen one filter:</p>
+                    <ul className="mt-3 flex flex-col gap-2">
+                      {search.suggestions.map((suggestion) => (
+                        <li key={suggestion.filter}>
+                          <Link to={`?${suggestion.queryString}`} className="text-sm font-semibold text-ink-900 underline decoration-brass-400 underline-offset-4 hover:decoration-2">
+                            {suggestion.text}
+                          </Link>
+                        </li>
+                      ))}
+                    </ul>
+                  </>
+                ) : (
+                  <p className="mt-2 text-sm text-ink-600">Nothing is listed that comes close yet. Save the search and we will e-mail you when a machine matches.</p>
+                )}
+              </Card>
+            ) : null}
+
+            {search && search.totalPages > 1 ? (
+              <nav aria-label="Pages" className="mt-8 flex flex-wrap items-center justify-center gap-2">
+                {search.page > 1 ? (
+                  <Link to={pageLink(search.page - 1)} rel="prev" className="rounded-(--radius-control) px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                    ← Previous
+                  </Link>
+                ) : null}
+                {Array.from({ length: search.totalPages }, (_, index) => index + 1)
+                  .filter((page) => page === 1 || page === search.totalPages || Math.abs(page - search.page) <= 2)
+                  .map((page) => (
+                    <Link
+                      key={page}
+                      to={pageLink(page)}
+                      aria-current={page === search.page ? "page" : undefined}
+                      className={cx(
+                        "min-w-10 rounded-(--radius-control) px-3 py-2 text-center text-sm font-semibold tabular",
+                        page === search.page ? "bg-ink-900 text-white" : "text-ink-700 hover:bg-ink-100",
+                      )}
+                    >
+                      {page}
+                    </Link>
+                  ))}
+                {search.page < search.totalPages ? (
+                  <Link to={pageLink(search.page + 1)} rel="next" className="rounded-(--radius-control) px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                    Next →
+                  </Link>
+                ) : null}
+              </nav>
+            ) : null}
+
+            {search ? <SaveSearch account={account} queryString={search.queryString} summary={search.summary} /> : null}
+          </section>
+        </div>
+      </form>
+    </div>
+  );
+}
+
+type SaveReply = { saved?: { id: string; name: string }; errors?: Record<string, string[]> };
+
+/** Save the current search with e-mail alerts: signed-in, confirmed accounts only. */
+function SaveSearch({ account, queryString, summary }: { account: { verified: boolean } | null; queryString: string; summary: string }) {
+  const fetcher = useFetcher<SaveReply>();
+  const [name, setName] = useState(summary);
+  const location = useLocation();
+  useEffect(() => setName(summary), [summary]);
+  const here = `/machines${location.search}`;
+  const saved = fetcher.data?.saved;
+  return (
+    <div className="mt-10 rounded-(--radius-panel) border border-ink-200 bg-white p-5" data-testid="save-search">
+      <h2 className="text-base font-bold text-ink-900">Hear about new matches</h2>
+      {!account ? (
+        <p className="mt-1 text-sm text-ink-600">
+          <Link to={`/sign-in?${new URLSearchParams({ redirectTo: here })}`} className="font-semibold text-ink-900 underline underline-offset-2">
+            Sign in
+          </Link>{" "}
+          to save this search and get an e-mail when a matching machine is listed or verified.
+        </p>
+      ) : !account.verified ? (
+        <p className="mt-1 text-sm text-ink-600">
+          <Link to={`/verify-email?${new URLSearchParams({ redirectTo: here })}`} className="font-semibold text-ink-900 underline underline-offset-2">
+            Confirm your e-mail address
+          </Link>{" "}
+          to save searches with alerts.
+        </p>
+      ) : saved ? (
+        <p className="mt-1 text-sm text-ink-700" role="status">
+          Saved as “{saved.name}”. We will e-mail you when a machine matching it is listed or verified.{" "}
+          <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
+            Your saved searches
+          </Link>
+        </p>
+      ) : (
+        <div className="mt-3 flex flex-col gap-2 sm:flex-row sm:items-start">
+          <label className="min-w-0 flex-1">
+            <span className="sr-only">Name of the saved search</span>
+            <input
+              value={name}
+              onChange={(event) => setName(event.target.value)}
+              maxLength={120}
+              className="block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+              aria-label="Name of the saved search"
+            />
+            {fetcher.data?.errors ? (
+              <span className="mt-1 block text-sm font-medium text-beyond" role="alert">
+                {Object.values(fetcher.data.errors).flat().join(" ")}
+              </span>
+            ) : null}
+          </label>
+          <Button
+            variant="secondary"
+            disabled={fetcher.state !== "idle"}
+            onClick={() => fetcher.submit({ intent: "save", name, queryString }, { method: "post", action: "/account/saved-searches" })}
+          >
+            {fetcher.state !== "idle" ? "Saving…" : "Save this search"}
+          </Button>
+        </div>
+      )}
+    </div>
+  );
+}

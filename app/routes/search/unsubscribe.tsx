@@ -1,0 +1,64 @@
+import { Form, Link } from "react-router";
+import { Button, Card } from "~/components/ui";
+import { databaseContext } from "~/db/context";
+import { savedSearchForToken, unsubscribeWithToken } from "~/modules/search/saved-searches/service.server";
+import type { Route } from "./+types/unsubscribe";
+
+export const meta: Route.MetaFunction = () => [{ title: "Stop saved-search alerts — Tenthmark" }, { name: "robots", content: "noindex" }];
+
+// The link in an alert: GET shows what will stop (mail scanners follow links, so a GET changes nothing);
+// POST stops it, from the button here or from a mail client's one-click unsubscribe.
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const token = new URL(request.url).searchParams.get("token") ?? "";
+  const found = await savedSearchForToken(context.get(databaseContext), token);
+  return { token, found: found ? { name: found.name, alertsEnabled: found.alertsEnabled } : null };
+}
+
+export async function action({ request, context }: Route.ActionArgs) {
+  const form = await request.formData();
+  const token = String(form.get("token") ?? new URL(request.url).searchParams.get("token") ?? "");
+  return { stopped: await unsubscribeWithToken(context.get(databaseContext), token) };
+}
+
+export default function Unsubscribe({ loaderData, actionData }: Route.ComponentProps) {
+  const { token, found } = loaderData;
+  return (
+    <div className="mx-auto max-w-xl px-4 py-16 sm:px-6">
+      <Card className="p-6 sm:p-8">
+        {actionData?.stopped || (found && !found.alertsEnabled) ? (
+          <>
+            <h1 className="text-2xl font-extrabold text-ink-900">Alerts stopped</h1>
+            <p className="mt-2 text-ink-700">
+              You will get no more e-mails for {found ? `“${found.name}”` : "this saved search"}. The search itself is still saved; turn its alerts on again
+              under{" "}
+              <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
+                Saved searches
+              </Link>
+              .
+            </p>
+          </>
+        ) : found ? (
+          <>
+            <h1 className="text-2xl font-extrabold text-ink-900">Stop alerts for “{found.name}”?</h1>
+            <p className="mt-2 text-ink-700">We will stop e-mailing you about new machines that match this saved search.</p>
+            <Form method="post" className="mt-6">
+              <input type="hidden" name="token" value={token} />
+              <Button type="submit">Stop these alerts</Button>
+            </Form>
+          </>
+        ) : (
+          <>
+            <h1 className="text-2xl font-extrabold text-ink-900">This link does not work</h1>
+            <p className="mt-2 text-ink-700">
+              The saved search may have been deleted, or the link was cut short. Manage your alerts under{" "}
+              <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
+                Saved searches
+              </Link>
+              .
+            </p>
+          </>
+        )}
+      </Card>
+    </div>
+  );
+}
