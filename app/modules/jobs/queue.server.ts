@@ -96,19 +96,23 @@ function reportStartFailure(error: unknown) {
 }
 
 let retryTimer: NodeJS.Timeout | undefined;
+let retryDelayMs = 2_000;
 
 /**
  * Starts every declared worker in this process. Safe to call more than once; when the database is not
- * reachable it tries again every 15 s instead of failing the server.
+ * reachable (or two processes create pg-boss's tables at once and one loses a deadlock) it tries again,
+ * soon at first and then every 15 s at most, instead of failing the server.
  */
 export async function startWorkers(): Promise<void> {
   started = true;
   try {
     for (const worker of workers.values()) await attach(worker);
+    retryDelayMs = 2_000;
   } catch (error) {
     reportStartFailure(error);
     clearTimeout(retryTimer);
-    retryTimer = setTimeout(() => void startWorkers(), 15_000);
+    retryTimer = setTimeout(() => void startWorkers(), retryDelayMs);
+    retryDelayMs = Math.min(retryDelayMs * 2, 15_000);
     retryTimer.unref();
   }
 }
