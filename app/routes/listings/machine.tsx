@@ -10,6 +10,8 @@ import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/acc
 import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
+import { VerifiedAccuracyPanel } from "~/modules/reports/components/listing-accuracy";
+import { currentReportForListing, type ListingReportSummary } from "~/modules/reports/service.server";
 import { formatLength, formatMoney, formatPower, formatWeight, type DisplayUnits } from "~/modules/units/format";
 import type { Route } from "./+types/machine";
 
@@ -25,7 +27,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
-  return { ...found, units: (viewer?.displayUnits ?? "mm") as DisplayUnits, viewer: viewer ? { id: viewer.id } : null };
+  const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
+  return { ...found, accuracy, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, viewer: viewer ? { id: viewer.id } : null };
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
@@ -140,7 +143,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
         </div>
 
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
-          <AccuracyPanel slug={listing.slug} />
+          <AccuracyPanel slug={listing.slug} report={loaderData.accuracy} units={units} now={loaderData.now} />
 
           {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={Boolean(viewer)} /> : null}
         </aside>
@@ -176,7 +179,8 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
   );
 }
 
-function AccuracyPanel({ slug }: { slug: string }) {
+function AccuracyPanel({ slug, report, units, now }: { slug: string; report: ListingReportSummary | null; units: DisplayUnits; now: string }) {
+  if (report) return <VerifiedAccuracyPanel report={report} units={units} now={new Date(now)} bookingLink={`/machines/${slug}/book`} />;
   return (
     <Card id="accuracy" className="border-caution/40">
       <CardHeader title="Accuracy" action={<Badge tone="caution">Not yet verified</Badge>} />

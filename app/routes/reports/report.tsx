@@ -30,6 +30,11 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   return { report, units, qrSvg, now: new Date().toISOString() };
 }
 
+// A published report is immutable: nothing is posted to it.
+export function action() {
+  throw data("A signed report cannot be changed. Its inspector can file a correction as a new revision.", { status: 405, headers: { Allow: "GET" } });
+}
+
 export default function ReportPage() {
   const { report, units, qrSvg, now } = useLoaderData<typeof loader>();
   const [search] = useSearchParams();

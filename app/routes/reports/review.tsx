@@ -39,6 +39,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     const signed = await signReport(context.get(databaseContext), inspector, params.bookingId, parsed.data.reportId);
     return redirect(`/reports/${signed.reportId}?signed=1${signed.mailed ? "" : "&mail=failed"}`);
   } catch (error) {
+    // Already signed or not theirs: an error page, since the review itself no longer exists.
+    if (error instanceof ReportRuleError && error.status !== 422) throw data(error.message, { status: error.status });
     if (error instanceof ReportRuleError) return data({ error: error.message }, { status: error.status });
     throw error;
   }
