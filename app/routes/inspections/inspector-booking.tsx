@@ -1,6 +1,6 @@
 import { data, Form, useActionData, useLoaderData, useNavigation } from "react-router";
 import { z } from "zod";
-import { Button, Card, CardBody, CardHeader, TextAreaField } from "~/components/ui";
+import { Button, ButtonLink, Card, CardBody, CardHeader, TextAreaField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { acceptBooking, declineBooking, getBookingView } from "~/modules/inspections/bookings.server";
@@ -69,6 +69,11 @@ export default function InspectorBooking() {
           <BookingHistory detail={detail} />
         </div>
         <aside className="space-y-4">
+          {cancellable || booking.reportId ? (
+            <ButtonLink to={cancellable ? `/inspector/bookings/${booking.id}/report` : `/reports/${booking.reportId}`} size="lg" className="w-full">
+              {cancellable ? "File the report" : "Read the signed report"}
+            </ButtonLink>
+          ) : null}
           {answerable || cancellable ? (
             <Card>
               <CardHeader title={answerable ? "Your answer" : "Cannot make it?"} />
