@@ -80,24 +80,62 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
   );
 }
 
+/** Where a signed-in person's own work is, by the roles they hold. */
+function personalLinks(user: NonNullable<HeaderUser>) {
+  const links = [
+    { to: "/account", label: "Account settings" },
+    { to: "/bookings", label: "My inspection bookings" },
+    { to: "/account/saved-searches", label: "Saved searches" },
+  ];
+  if (user.roles.includes("seller")) links.push({ to: "/sell", label: "My listings" });
+  if (user.roles.includes("inspector")) {
+    links.push({ to: "/inspector/bookings", label: "Inspection requests" });
+    links.push({ to: "/inspector/profile", label: "Inspector profile" });
+  }
+  if (user.roles.includes("admin")) {
+    links.push({ to: "/admin/users", label: "Staff: people" });
+    links.push({ to: "/admin/inspector-applications", label: "Staff: inspector applications" });
+    links.push({ to: "/admin/payments", label: "Staff: payments" });
+  }
+  return links;
+}
+
 function AccountSlot({ user }: { user: HeaderUser }) {
   if (user) {
     return (
-      <>
-        {user.roles.includes("admin") ? (
-          <ButtonLink to="/admin/users" variant="quiet" size="sm">
-            Staff
-          </ButtonLink>
-        ) : null}
-        <ButtonLink to="/account" variant="quiet" size="sm" className="max-w-48 truncate" title={user.email}>
-          {user.name}
-        </ButtonLink>
-        <form method="post" action="/sign-out">
-          <button type="submit" className="rounded-(--radius-control) px-3 py-1.5 text-sm font-semibold text-ink-600 hover:bg-ink-100">
-            Sign out
-          </button>
-        </form>
-      </>
+      // <details> opens and closes without JavaScript; the links close it by navigating away.
+      <details className="group relative">
+        <summary
+          className="flex h-8 max-w-52 cursor-pointer list-none items-center gap-1.5 rounded-(--radius-control) px-3 text-sm font-semibold text-ink-800 hover:bg-ink-100 [&::-webkit-details-marker]:hidden"
+          title={user.email}
+        >
+          <span className="min-w-0 truncate">{user.name}</span>
+          <svg viewBox="0 0 12 12" className="size-3 shrink-0 transition-transform group-open:rotate-180" aria-hidden="true">
+            <path d="M2.5 4.5 6 8l3.5-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
+          </svg>
+        </summary>
+        <div className="absolute right-0 z-40 mt-2 w-64 rounded-(--radius-panel) border border-ink-200 bg-white py-1.5 shadow-lg">
+          <p className="truncate px-4 py-1.5 text-xs text-ink-500">{user.email}</p>
+          <ul>
+            {personalLinks(user).map((link) => (
+              <li key={link.to}>
+                <Link
+                  to={link.to}
+                  className="block px-4 py-2 text-sm font-medium text-ink-800 hover:bg-ink-50"
+                  onClick={(event) => event.currentTarget.closest("details")?.removeAttribute("open")}
+                >
+                  {link.label}
+                </Link>
+              </li>
+            ))}
+          </ul>
+          <form method="post" action="/sign-out" className="mt-1 border-t border-ink-100 pt-1">
+            <button type="submit" className="block w-full px-4 py-2 text-left text-sm font-semibold text-ink-600 hover:bg-ink-50">
+              Sign out
+            </button>
+          </form>
+        </div>
+      </details>
     );
   }
   return (

@@ -59,7 +59,7 @@ describe("signing in", () => {
 
     await page.getByLabel("Password", { exact: true }).fill(person.password);
     await Promise.all([page.waitForURL((url) => url.pathname !== "/sign-in"), page.getByRole("button", { name: "Sign in" }).click()]);
-    await page.getByRole("button", { name: "Sign out" }).first().waitFor();
+    await page.locator("[data-slot=account] summary").first().waitFor();
     await context.close();
   });
 
@@ -74,6 +74,7 @@ describe("signing in", () => {
     await Promise.all([page.waitForURL((url) => url.pathname === "/account"), page.getByRole("button", { name: "Sign in" }).click()]);
     await page.getByRole("heading", { name: "Your account" }).waitFor();
 
+    await page.locator("[data-slot=account] summary").first().click();
     await Promise.all([page.waitForURL((url) => url.pathname === "/"), page.getByRole("button", { name: "Sign out" }).first().click()]);
     await page.goto("/account");
     expect(new URL(page.url()).pathname).toBe("/sign-in");
@@ -110,7 +111,7 @@ describe("resetting a forgotten password", () => {
 
     await page.getByLabel("Password", { exact: true }).fill(newPassword);
     await Promise.all([page.waitForURL((url) => url.pathname !== "/sign-in"), page.getByRole("button", { name: "Sign in" }).click()]);
-    await page.getByRole("button", { name: "Sign out" }).first().waitFor();
+    await page.locator("[data-slot=account] summary").first().waitFor();
     await context.close();
   });
 });
