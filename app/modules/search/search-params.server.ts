@@ -78,20 +78,27 @@ export const listingSearchParamsSchema = z
     perPage: whole("Results per page", 1, MAX_HITS_PER_PAGE),
     // Only the words of suggestions and summaries; numbers in parameters and answers stay µm and mm.
     units: z.preprocess(blankAsMissing, z.enum(["mm", "inch"], { error: "Units must be mm or inch." }).optional()),
-  })
-  .superRefine((params, context) => {
-    const ordered = (low: number | undefined, high: number | undefined, path: string, what: string) => {
-      if (low !== undefined && high !== undefined && low > high) context.addIssue({ code: "custom", path: [path], message: `${what}: the upper limit is below the lower one.` });
-    };
-    ordered(params.priceMin, params.priceMax, "priceMax", "Price");
-    ordered(params.swingMin, params.swingMax, "swingMax", "Swing");
-    ordered(params.swingMinIn, params.swingMaxIn, "swingMaxIn", "Swing");
-    ordered(params.centresMin, params.centresMax, "centresMax", "Distance between centres");
-    ordered(params.centresMinIn, params.centresMaxIn, "centresMaxIn", "Distance between centres");
-    if ((params.priceMin !== undefined || params.priceMax !== undefined) && !params.currency) {
-      context.addIssue({ code: "custom", path: ["currency"], message: "Say which currency the price range is in (listings are not converted)." });
-    }
   });
+
+type FieldErrors = Record<string, string[]>;
+
+// Checks across fields, on the fields that parsed (each field is parsed on its own, so that one bad
+// field does not hide the others' messages).
+function crossFieldErrors(params: Partial<ListingSearchParams>): FieldErrors {
+  const errors: FieldErrors = {};
+  const ordered = (low: number | undefined, high: number | undefined, key: string, what: string) => {
+    if (low !== undefined && high !== undefined && low > high) (errors[key] ??= []).push(`${what}: the upper limit is below the lower one.`);
+  };
+  ordered(params.priceMin, params.priceMax, "priceMax", "Price");
+  ordered(params.swingMin, params.swingMax, "swingMax", "Swing");
+  ordered(params.swingMinIn, params.swingMaxIn, "swingMaxIn", "Swing");
+  ordered(params.centresMin, params.centresMax, "centresMax", "Distance between centres");
+  ordered(params.centresMinIn, params.centresMaxIn, "centresMaxIn", "Distance between centres");
+  if ((params.priceMin !== undefined || params.priceMax !== undefined) && !params.currency) {
+    (errors.currency ??= []).push("Say which currency the price range is in (listings are not converted).");
+  }
+  return errors;
+}
 
 export type ListingSearchParams = z.output<typeof listingSearchParamsSchema>;
 
@@ -183,14 +190,17 @@ export type ParsedSearchParams =
 
 /** Validates the parameters; on failure, the messages per parameter name. */
 export function parseListingSearchParams(params: URLSearchParams): ParsedSearchParams {
-  const parsed = listingSearchParamsSchema.safeParse(paramsObject(params));
-  if (!parsed.success) {
-    const errors: Record<string, string[]> = {};
-    for (const issue of parsed.error.issues) {
-      const key = String(issue.path[0] ?? "query");
-      (errors[key] ??= []).push(issue.message);
-    }
-    return { success: false, errors };
+  const raw = paramsObject(params);
+  const shape = listingSearchParamsSchema.shape;
+  const values: Record<string, unknown> = {};
+  const errors: FieldErrors = {};
+  for (const key of Object.keys(shape) as (keyof typeof shape)[]) {
+    const parsed = shape[key].safeParse(raw[key]);
+    if (parsed.success) values[key] = parsed.data;
+    else errors[key] = parsed.error.issues.map((issue) => issue.message);
   }
-  return { success: true, query: queryFromParams(parsed.data), units: parsed.data.units };
+  for (const [key, messages] of Object.entries(crossFieldErrors(values as Partial<ListingSearchParams>))) (errors[key] ??= []).push(...messages);
+  if (Object.keys(errors).length) return { success: false, errors };
+  const parsed = listingSearchParamsSchema.parse(raw);
+  return { success: true, query: queryFromParams(parsed), units: parsed.units };
 }

@@ -15,8 +15,10 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
-  const form = await request.formData();
-  const token = String(form.get("token") ?? new URL(request.url).searchParams.get("token") ?? "");
+  // The page's button sends the token in the form; a mail client's one-click POST keeps it in the address.
+  const hasForm = /^(application\/x-www-form-urlencoded|multipart\/form-data)/.test(request.headers.get("content-type") ?? "");
+  const fromForm = hasForm ? (await request.formData()).get("token") : null;
+  const token = typeof fromForm === "string" && fromForm ? fromForm : (new URL(request.url).searchParams.get("token") ?? "");
   return { stopped: await unsubscribeWithToken(context.get(databaseContext), token) };
 }
 
