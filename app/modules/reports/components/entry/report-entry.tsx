@@ -357,7 +357,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
         </aside>
       </div>
 
-      <div className="fixed inset-x-0 bottom-0 z-20 border-t border-ink-200 bg-white/95 px-4 py-2 backdrop-blur lg:hidden">
+      <div className="fixed inset-x-0 bottom-0 z-20 border-t border-ink-200 bg-white/95 px-4 py-2 backdrop-blur lg:hidden" data-testid="preview-bar">
         <div className="mx-auto flex max-w-6xl items-center gap-3">
           {score ? <GradeMark grade={score.grade} size="sm" /> : null}
           <div className="min-w-0 flex-1 text-sm">

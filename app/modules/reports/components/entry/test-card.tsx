@@ -1,7 +1,7 @@
 // One test of the profile: what it measures, a reading form that fits its kind, the instrument, a set-up
 // photo, notes, and the live verdict from the engine as the readings go in.
 import { useId, useState, type ReactNode } from "react";
-import { Badge, Button, cx } from "~/components/ui";
+import { Badge, Button, cx, SelectField, TextAreaField } from "~/components/ui";
 import { KINDS_FOR_METHOD, toMetric, type MeasurementKind, type ProfileTest } from "~/geometry";
 import { DIRECTION_LABELS, formatDeviation, formatRatio } from "../../format";
 import { emptyTestEntry, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestPreview } from "../../form";
@@ -313,23 +313,22 @@ function ReadingsFields({ test, entry, change, units, errors }: { test: ProfileT
       return (
         <div className="space-y-3">
           {entry.kind === "profile" && test.method === "straightness" ? (
-            <label className="block text-sm font-semibold text-ink-800">
-              Reference line
-              <select
-                className="mt-1 block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base sm:w-72"
-                value={entry.reference}
-                onChange={(event) =>
-                  change((draft) => {
-                    draft.reference = event.target.value as TestEntry["reference"];
-                  })
-                }
-              >
-                <option value="">Profile's choice ({test.reference ?? "end-points"})</option>
-                <option value="end-points">End points</option>
-                <option value="least-squares">Least squares</option>
-                <option value="minimum-zone">Minimum zone</option>
-              </select>
-            </label>
+            <SelectField
+              label="Reference line"
+              className="sm:w-72"
+              value={entry.reference}
+              options={[
+                { value: "", label: `Profile's choice (${test.reference ?? "end-points"})` },
+                { value: "end-points", label: "End points" },
+                { value: "least-squares", label: "Least squares" },
+                { value: "minimum-zone", label: "Minimum zone" },
+              ]}
+              onChange={(event) =>
+                change((draft) => {
+                  draft.reference = event.target.value as TestEntry["reference"];
+                })
+              }
+            />
           ) : null}
           <StationTable entry={entry} change={change} units={units} errors={errors} readingUnit={entry.kind === "level" ? "µm/m" : labels.reading} />
         </div>
@@ -497,27 +496,21 @@ export function TestCard({
         <LiveVerdict preview={preview} units={units} />
         {metric && result && (metric.kind === "profile" || metric.kind === "mandrel") ? <TestPlot measurement={metric} result={result} units={units} /> : null}
         <div className="grid gap-3 sm:grid-cols-2">
-          <label className="block text-sm font-semibold text-ink-800">
-            Instrument
-            <select
-              className="mt-1 block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base"
-              value={current.instrumentId}
-              onChange={(event) =>
-                onChange((draft) => {
-                  draft.instrumentId = event.target.value;
-                })
-              }
-            >
-              <option value="">Choose…</option>
-              {instruments.map((instrument, i) => (
-                <option key={instrument.id} value={instrument.id}>
-                  {i + 1}. {instrument.description || instrument.kind.replace("-", " ")}
-                  {instrument.resolution ? ` (${instrument.resolution} ${instrument.kind.includes("level") ? "µm/m" : labels.resolution})` : ""}
-                </option>
-              ))}
-            </select>
-            {errors.instrumentId ? <span className="mt-1 block text-sm font-medium text-beyond">{errors.instrumentId.join(" ")}</span> : null}
-          </label>
+          <SelectField
+            label="Instrument"
+            value={current.instrumentId}
+            placeholder="Choose…"
+            errors={errors.instrumentId}
+            options={instruments.map((instrument, i) => ({
+              value: instrument.id,
+              label: `${i + 1}. ${instrument.description || instrument.kind.replace("-", " ")}${instrument.resolution ? ` (${instrument.resolution} ${instrument.kind.includes("level") ? "µm/m" : labels.resolution})` : ""}`,
+            }))}
+            onChange={(event) =>
+              onChange((draft) => {
+                draft.instrumentId = event.target.value;
+              })
+            }
+          />
           <ReadingInput
             label="Resolution for this test (if not the instrument's)"
             unit={current.kind === "level" ? "µm/m" : labels.resolution}
@@ -532,18 +525,17 @@ export function TestCard({
           />
         </div>
         <SetupPhoto testCode={test.code} photo={photo} photosUrl={photosUrl} onChange={onPhoto} error={errors.photoId?.join(" ")} disabled={disabled} />
-        <label className="block text-sm font-semibold text-ink-800">
-          Notes on this test
-          <textarea
-            className="mt-1 block min-h-16 w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base"
-            value={current.notes}
-            onChange={(event) =>
-              onChange((draft) => {
-                draft.notes = event.target.value;
-              })
-            }
-          />
-        </label>
+        <TextAreaField
+          label="Notes on this test"
+          rows={2}
+          className="[&_textarea]:min-h-16"
+          value={current.notes}
+          onChange={(event) =>
+            onChange((draft) => {
+              draft.notes = event.target.value;
+            })
+          }
+        />
         {entry ? (
           <button type="button" className="text-sm font-semibold text-ink-500 underline underline-offset-2 hover:text-beyond" onClick={onClear}>
             Clear this test's readings
