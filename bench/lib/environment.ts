@@ -1,0 +1,99 @@
+// A bench run's own world, like `npm test`'s: a throwaway PostgreSQL cluster and the stand-ins on free
+// ports, the production build in build-test/bench-<id>, served on 127.0.0.1. `stopBenchEnvironment()`
+// (or Ctrl-C) stops all of it and removes the cluster's and the build's folders.
+import { spawn, type ChildProcess } from "node:child_process";
+import { createWriteStream, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { buildIfNeeded } from "../../scripts/lib/build.ts";
+import { runMigrations } from "../../scripts/lib/migrate.ts";
+import { log } from "../../scripts/lib/output.ts";
+import { freePort } from "../../scripts/lib/ports.ts";
+import { startCluster } from "../../scripts/lib/postgres.ts";
+import { onStop, stopAll, stopOnSignals, waitForHttp } from "../../scripts/lib/processes.ts";
+import { standInEnvironment, startStandIns, type StandIn } from "../../scripts/lib/stand-ins.ts";
+
+const root = path.resolve(import.meta.dirname, "../..");
+
+export type BenchEnvironment = {
+  workDir: string;
+  databaseUrl: string;
+  /** The environment that points app code at this run's database and stand-ins. */
+  appEnvironment: Record<string, string>;
+  standIns: StandIn[];
+  buildDirectory: string;
+  buildMs: number;
+};
+
+/** The cluster, migrations and stand-ins; also sets this process's env so app modules imported afterwards use them. */
+export async function startBenchServices(): Promise<BenchEnvironment> {
+  stopOnSignals();
+  const workDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-bench-"));
+  onStop(() => rmSync(workDir, { recursive: true, force: true }));
+
+  const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_bench" });
+  onStop(() => cluster.stop());
+  await runMigrations(cluster.url);
+
+  // The app's origin is fixed before the stand-ins start (they are told where it lives).
+  const appPort = await freePort();
+  const appOrigin = `http://127.0.0.1:${appPort}`;
+  const standIns = await startStandIns({ dataDir: workDir, appOrigin });
+  for (const standIn of standIns) onStop(() => standIn.stop());
+
+  const appEnvironment: Record<string, string> = {
+    ...standInEnvironment(standIns),
+    DATABASE_URL: cluster.url,
+    APP_ORIGIN: appOrigin,
+    PORT: String(appPort),
+  };
+  Object.assign(process.env, appEnvironment);
+  const buildDirectory = `build-test/bench-${path.basename(workDir).replace(/^tenthmark-bench-/, "")}`;
+  return { workDir, databaseUrl: cluster.url, appEnvironment, standIns, buildDirectory, buildMs: 0 };
+}
+
+/** Builds the production bundle into the run's own folder (removed at the end). */
+export function buildForBench(environment: BenchEnvironment) {
+  onStop(() => rmSync(path.join(root, environment.buildDirectory), { recursive: true, force: true }));
+  const started = performance.now();
+  buildIfNeeded(environment.buildDirectory, true);
+  environment.buildMs = performance.now() - started;
+}
+
+export type RunningApp = { origin: string; child: ChildProcess; logFile: string; logText: () => string };
+
+/**
+ * Serves the build with react-router-serve on 127.0.0.1, web only (JOB_WORKERS=false: the bench indexes
+ * itself and wants no start-up re-index running under the load). Its output goes to a log file.
+ */
+export async function startBenchApp(environment: BenchEnvironment): Promise<RunningApp> {
+  const logFile = path.join(environment.workDir, "app.log");
+  const output = createWriteStream(logFile);
+  const child = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [`${environment.buildDirectory}/server/index.js`], {
+    cwd: root,
+    env: { ...process.env, ...environment.appEnvironment, NODE_ENV: "production", HOST: "127.0.0.1", JOB_WORKERS: "false" },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  child.stdout.pipe(output);
+  child.stderr.pipe(output);
+  onStop(
+    () =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null || child.signalCode !== null) return resolve();
+        const timer = setTimeout(() => child.kill("SIGKILL"), 5_000);
+        child.once("exit", () => {
+          clearTimeout(timer);
+          resolve();
+        });
+        child.kill("SIGTERM");
+      }),
+  );
+  const origin = environment.appEnvironment.APP_ORIGIN!;
+  await waitForHttp(`${origin}/api/health`);
+  log("bench", `production build served at ${origin}`);
+  return { origin, child, logFile, logText: () => readFileSync(logFile, "utf8") };
+}
+
+export async function stopBenchEnvironment() {
+  await stopAll();
+}
