@@ -84,8 +84,19 @@ async function seedDemoInspectionsPart() {
   log("postgres", written ? `demo inspector profiles and bookings written (${written} bookings)` : "demo inspections already there");
 }
 
+async function seedDemoReportsPart() {
+  const { seedDemoReports } = await import("../../app/modules/reports/demo.server.ts");
+  const person = async (key: DemoAccountKey) => {
+    const account = demoAccounts.find((candidate) => candidate.key === key)!;
+    return { id: await demoAccountId(key), email: account.email, name: account.name };
+  };
+  const written = await seedDemoReports({ inspector: await person("inspector"), buyer: await person("buyer") });
+  log("postgres", written ? `demo accuracy reports signed (${written})` : "demo reports already there");
+}
+
 export async function seedDemoDataIfEmpty(_databaseUrl: string) {
   await seedDemoAccounts();
   await seedDemoListingsPart();
   await seedDemoInspectionsPart();
+  await seedDemoReportsPart();
 }

@@ -4,7 +4,7 @@ import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
 import { KEY_FIGURE_LABELS, reportAge, type KeyFigureKey } from "./content";
-import { DIRECTION_LABELS, formatDeviationBoth, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING } from "./format";
+import { DIRECTION_LABELS, formatDeviationBoth, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
 import type { PublicReport } from "./service.server";
 
@@ -166,7 +166,8 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
       { label: "Verdict", width: 50 },
     ],
     content.score.results.map((result) => {
-      const signed = result.direction.allowed !== "any";
+      const signed = isSignedValue(result.method);
+      const observed = observedLabel(result.direction.observed);
       const unit = result.unit;
       return {
         cells: [
@@ -174,7 +175,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
           formatDeviationBoth(result.value, { signed, unit }),
           `${formatDeviationBoth(result.tolerance, { unit })}${result.measuringLength ? ` over ${Math.round(result.measuringLength * 10) / 10} mm` : ""}`,
           formatRatio(result.ratio),
-          `${DIRECTION_LABELS[result.direction.allowed]}; read ${result.direction.observed}${result.direction.pass ? "" : ` — fails by ${formatDeviationBoth(result.direction.against)}`}`,
+          `${DIRECTION_LABELS[result.direction.allowed]}${observed && result.direction.allowed !== "any" ? `; read ${observed}` : ""}${result.direction.pass ? "" : ` — ${formatDeviationBoth(result.direction.against)} the wrong way`}`,
           result.pass ? "within" : "beyond",
         ],
         colour: [ink, ink, ink, ink, result.direction.pass ? ink : beyond, result.pass ? within : beyond],

@@ -63,3 +63,15 @@ export const DIRECTION_LABELS: Record<string, string> = {
   convex: "convex only",
   concave: "concave only",
 };
+
+/** Methods whose value carries a sign (a lean or a height difference); the others are widths or ranges. */
+export function isSignedValue(method: string): boolean {
+  return ["mandrel-inclination", "near-far", "centre-height", "squareness"].includes(method);
+}
+
+/** What the readings showed, in words, for the results table. */
+export function observedLabel(observed: string): string | null {
+  if (observed === "not-applicable") return null;
+  if (observed === "none") return "level";
+  return observed;
+}

@@ -89,7 +89,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           <div className="mt-4 flex flex-wrap items-center gap-3">
             <p className="text-2xl font-extrabold text-ink-900 tabular">{formatMoney(listing.priceMinor, listing.currency)}</p>
             <Badge>{labelOf(machineConditions, listing.condition)}</Badge>
-            <Badge tone="caution">Not yet verified</Badge>
+            {loaderData.accuracy ? <Badge tone="within">Verified · grade {loaderData.accuracy.grade}</Badge> : <Badge tone="caution">Not yet verified</Badge>}
             {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
           </div>
           <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>

@@ -33,9 +33,9 @@ export function gradeMeaning(grade: string) {
   return GRADE_MEANING[grade] ?? "";
 }
 
-export function KeyFigureList({ figures, units, className }: { figures: KeyFigures; units: DisplayUnits; className?: string }) {
+export function KeyFigureList({ figures, units, columns = 2, className }: { figures: KeyFigures; units: DisplayUnits; columns?: 1 | 2; className?: string }) {
   return (
-    <dl className={cx("grid grid-cols-1 gap-x-6 gap-y-1.5 text-sm sm:grid-cols-2", className)} data-testid="key-figures">
+    <dl className={cx("grid grid-cols-1 gap-x-6 gap-y-1.5 text-sm", columns === 2 && "sm:grid-cols-2", className)} data-testid="key-figures">
       {(Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).map((name) => {
         const value = figures[name];
         return (

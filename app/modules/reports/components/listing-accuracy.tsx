@@ -21,7 +21,7 @@ export function VerifiedAccuracyPanel({ report, units, now, bookingLink }: { rep
             <p className="text-ink-600">{gradeMeaning(report.grade)}</p>
           </div>
         </div>
-        <KeyFigureList figures={report.keyFigures} units={units} className="sm:grid-cols-1" />
+        <KeyFigureList figures={report.keyFigures} units={units} columns={1} />
         <p className={cx(age.expired ? "font-semibold text-caution" : "text-ink-600")}>
           Measured {formatReportDate(report.measuredOn)} ({age.label}) by {report.inspectorName}
           {age.expired ? ". Accuracy changes with use: a new check is advised." : "."}

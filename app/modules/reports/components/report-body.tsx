@@ -4,7 +4,7 @@ import { Badge, Card, CardBody, CardHeader, Table, Td, Th, Tr, cx } from "~/comp
 import type { TestResult } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
 import { reportAge, type ReportContent } from "../content";
-import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate } from "../format";
+import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, isSignedValue, observedLabel } from "../format";
 import { GradeMark, gradeMeaning, KeyFigureList, RatioBar, VerdictBadge } from "./grade";
 import { TestPlot } from "./plots";
 
@@ -86,8 +86,8 @@ export function ConditionsAndInstruments({ content, units }: { content: ReportCo
 
 function directionText(result: TestResult, units: DisplayUnits) {
   const allowed = DIRECTION_LABELS[result.direction.allowed] ?? result.direction.allowed;
-  if (result.direction.allowed === "any") return allowed;
-  const observed = result.direction.observed === "none" ? "level" : result.direction.observed;
+  const observed = observedLabel(result.direction.observed);
+  if (result.direction.allowed === "any" || !observed) return allowed;
   if (result.direction.pass) return `${allowed}; read ${observed}`;
   return `${allowed}; read ${observed}, ${formatDeviation(result.direction.against, units)} the wrong way`;
 }
@@ -115,7 +115,7 @@ export function ResultsTable({ content, units }: { content: ReportContent; units
                 {result.required ? "" : " · optional"}
               </p>
             </Td>
-            <Td className="text-right font-semibold whitespace-nowrap tabular">{formatDeviation(result.value, units, { signed: result.direction.allowed !== "any", unit: result.unit })}</Td>
+            <Td className="text-right font-semibold whitespace-nowrap tabular">{formatDeviation(result.value, units, { signed: isSignedValue(result.method), unit: result.unit })}</Td>
             <Td className="text-right whitespace-nowrap tabular">
               {formatDeviation(result.tolerance, units, { unit: result.unit })}
               {result.measuringLength ? <span className="block text-xs text-ink-500">over {units === "inch" ? `${(result.measuringLength / 25.4).toFixed(1)} in` : `${Math.round(result.measuringLength)} mm`}</span> : null}

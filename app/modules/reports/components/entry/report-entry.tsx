@@ -395,7 +395,7 @@ function GradePreview({ score, preview, units }: { score: ReportScore | null; pr
             </p>
           </div>
         </div>
-        <KeyFigureList figures={score.keyFigures} units={units} className="sm:grid-cols-1" />
+        <KeyFigureList figures={score.keyFigures} units={units} columns={1} />
         <ol className="space-y-1 text-sm">
           {preview.tests.map(({ test, result, check }) => (
             <li key={test.code}>

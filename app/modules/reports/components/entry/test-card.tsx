@@ -3,7 +3,7 @@
 import { useId, useState, type ReactNode } from "react";
 import { Badge, Button, cx, SelectField, TextAreaField } from "~/components/ui";
 import { KINDS_FOR_METHOD, toMetric, type MeasurementKind, type ProfileTest } from "~/geometry";
-import { DIRECTION_LABELS, formatDeviation, formatRatio } from "../../format";
+import { DIRECTION_LABELS, formatDeviation, formatRatio, isSignedValue } from "../../format";
 import { emptyTestEntry, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestPreview } from "../../form";
 import { RatioBar } from "../grade";
 import { TestPlot } from "../plots";
@@ -379,7 +379,7 @@ function LiveVerdict({ preview, units }: { preview: TestPreview; units: EntryUni
     if (check.state === "incomplete") return <p className="text-sm text-ink-500">{check.errors.entry?.[0] ?? "Not complete yet."}</p>;
     return null;
   }
-  const signed = result.direction.allowed !== "any";
+  const signed = isSignedValue(result.method);
   return (
     <div className={cx("space-y-2 rounded-(--radius-control) border p-3", result.pass ? "border-within/30 bg-within-soft/50" : "border-beyond/30 bg-beyond-soft/60")} data-testid="live-verdict" data-pass={String(result.pass)}>
       <div className="flex flex-wrap items-center justify-between gap-2">
