@@ -293,7 +293,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               </nav>
             ) : null}
 
-            {search ? <SaveSearch account={account} queryString={search.queryString} summary={search.summary} /> : null}
+            {search ? <SaveSearch key={search.queryString} account={account} queryString={search.queryString} summary={search.summary} /> : null}
           </section>
         </div>
       </form>
@@ -308,7 +308,6 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
   const fetcher = useFetcher<SaveReply>();
   const [name, setName] = useState(summary);
   const location = useLocation();
-  useEffect(() => setName(summary), [summary]);
   const here = `/machines${location.search}`;
   const saved = fetcher.data?.saved;
   return (
