@@ -21,6 +21,9 @@ const brass = "#9a6512";
 const within = "#1d7a4a";
 const beyond = "#b3261e";
 
+// The embedded Manrope subset is Latin; signs it lacks are written out.
+const printable = (text: string) => text.replace(/≤/g, "up to").replace(/≥/g, "at least");
+
 const SIGNED_FIGURES = new Set<KeyFigureKey>(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight"]);
 
 export async function renderCertificate(report: PublicReport, now = new Date()): Promise<Buffer> {
@@ -56,7 +59,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
       ensureSpace(16);
       const y = doc.y;
       doc.font("bold").fontSize(9).fillColor(muted).text(term, left, y, { width: 150 });
-      doc.font("regular").fontSize(9).fillColor(ink).text(value, left + 160, y, { width: width - 160 });
+      doc.font("regular").fontSize(9).fillColor(ink).text(printable(value), left + 160, y, { width: width - 160 });
       doc.moveDown(0.25);
     }
   };
@@ -75,14 +78,14 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
       doc.moveTo(left, doc.y).lineTo(left + width, doc.y).strokeColor(rule).lineWidth(0.5).stroke();
     };
     draw(columns.map((column) => column.label), "bold");
-    for (const row of rows) draw(row.cells, "regular", row.colour);
+    for (const row of rows) draw(row.cells.map(printable), "regular", row.colour);
   };
 
   // Title block
   doc.font("bold").fontSize(20).fillColor(ink).text("Tenth", left, 48, { continued: true }).fillColor(brass).text("mark");
   doc.font("regular").fontSize(10).fillColor(muted).text("Geometric accuracy certificate", left);
   doc.moveDown(0.6);
-  doc.font("bold").fontSize(16).fillColor(ink).text(content.machine.title, left);
+  doc.font("bold").fontSize(16).fillColor(ink).text(printable(content.machine.title), left);
   doc.font("regular").fontSize(9).fillColor(muted).text(`Report ${report.id} · revision ${content.revision} · ${report.status === "superseded" ? "SUPERSEDED" : "signed"}`);
   if (report.status === "superseded") {
     doc.moveDown(0.4).font("bold").fontSize(10).fillColor(beyond).text(`This revision is superseded${report.supersededBy ? ` by revision ${report.supersededBy.revision}` : ""}; read the current one before relying on it.`);
@@ -187,7 +190,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   }
   if (content.notes) {
     heading("Inspector's notes");
-    doc.font("regular").fontSize(9).fillColor(ink).text(content.notes, left, doc.y, { width });
+    doc.font("regular").fontSize(9).fillColor(ink).text(printable(content.notes), left, doc.y, { width });
   }
 
   heading("Safety");

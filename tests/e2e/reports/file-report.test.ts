@@ -25,7 +25,7 @@ async function screenshots(page: Page, name: string) {
   for (const [label, size] of Object.entries(widths)) {
     await page.setViewportSize(size);
     await page.waitForTimeout(150);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: label !== "desktop" ? false : true });
+    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
   }
   await page.setViewportSize(original);
 }
