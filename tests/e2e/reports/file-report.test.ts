@@ -96,7 +96,8 @@ describe("filing an accuracy report on a tablet", () => {
 
     // Submit: the server scores; review; sign.
     await Promise.all([reopened.waitForURL((url) => url.pathname === `${entryPath}/review`), reopened.getByRole("button", { name: "Submit for review" }).click()]);
-    await expect(reopened.getByLabel("Grade C").first().isVisible()).resolves.toBe(true);
+    await reopened.getByRole("heading", { name: "Sign the report" }).waitFor();
+    await reopened.getByLabel("Grade C").first().waitFor();
     await expect(reopened.locator('[data-code="L-SP-PAR-H"]').textContent()).resolves.toMatch(/Wrong way/);
     await screenshots(reopened, "review");
     await reopened.getByLabel(/I took these readings/).check();
@@ -105,7 +106,7 @@ describe("filing an accuracy report on a tablet", () => {
     const reportPath = new URL(reopened.url()).pathname;
     const hash = (await reopened.getByTestId("content-hash").textContent())!.trim();
     expect(hash).toMatch(/^[0-9a-f]{64}$/);
-    await expect(reopened.getByText("Hash verified").isVisible()).resolves.toBe(true);
+    await reopened.getByText("Hash verified").waitFor();
     await expect(reopened.locator('[data-plot="L-BED-V"] svg').count()).resolves.toBe(1);
     await expect(reopened.locator('[data-plot="L-SP-PAR-V"] svg').count()).resolves.toBe(1);
     await screenshots(reopened, "report");
