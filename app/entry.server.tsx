@@ -5,16 +5,28 @@ import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import type { EntryContext } from "react-router";
+import type { EntryContext, HandleDataRequestFunction, RouterContextProvider } from "react-router";
 import { ServerRouter } from "react-router";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
+import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
+import { NonceProvider } from "~/modules/security/nonce";
 
 // Once per process, when the server bundle is first loaded. A database that is down is retried inside.
 void startJobWorkers();
 
 export const streamTimeout = 5_000;
 
-export default function handleRequest(request: Request, responseStatusCode: number, responseHeaders: Headers, routerContext: EntryContext) {
+export default function handleRequest(
+  request: Request,
+  responseStatusCode: number,
+  responseHeaders: Headers,
+  routerContext: EntryContext,
+  loadContext: RouterContextProvider,
+) {
+  // The root middleware made this request's nonce; a page rendered without it (none known) gets its own.
+  const nonce = loadContext.get(cspNonceContext) ?? createNonce();
+  applySecurityHeaders(responseHeaders, nonce);
+
   // https://httpwg.org/specs/rfc9110.html#HEAD
   if (request.method.toUpperCase() === "HEAD") {
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
@@ -28,7 +40,13 @@ export default function handleRequest(request: Request, responseStatusCode: numb
 
     let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
 
-    const { pipe, abort } = renderToPipeableStream(<ServerRouter context={routerContext} url={request.url} />, {
+    const app = (
+      <NonceProvider value={nonce}>
+        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+      </NonceProvider>
+    );
+    const { pipe, abort } = renderToPipeableStream(app, {
+      nonce,
       [readyOption]() {
         shellRendered = true;
         const body = new PassThrough({
@@ -54,3 +72,8 @@ export default function handleRequest(request: Request, responseStatusCode: numb
     });
   });
 }
+
+// Client-side navigations fetch `.data`: the same headers as a page, whatever the route answered.
+export const handleDataRequest: HandleDataRequestFunction = (response, { context }) => {
+  return withSecurityHeaders(response, (context as RouterContextProvider).get(cspNonceContext) ?? createNonce());
+};

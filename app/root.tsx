@@ -1,3 +1,4 @@
+import "~/modules/security/zod-without-eval";
 import { isRouteErrorResponse, Link, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
@@ -6,8 +7,11 @@ import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
 import { ToastProvider } from "~/components/ui";
 import { databaseMiddleware } from "~/db/middleware.server";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
+import { securityMiddleware } from "~/modules/security/middleware.server";
+import { useNonce } from "~/modules/security/nonce";
 
-export const middleware: Route.MiddlewareFunction[] = [databaseMiddleware];
+// Security first: a refused cross-origin post never reaches the database.
+export const middleware: Route.MiddlewareFunction[] = [securityMiddleware, databaseMiddleware];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const signedIn = await getOptionalUser(request);
@@ -32,6 +36,7 @@ export const meta: Route.MetaFunction = () => [
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const data = useRouteLoaderData<typeof loader>("root");
+  const nonce = useNonce();
   return (
     <html lang="en">
       <head>
@@ -53,8 +58,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
           </main>
           <SiteFooter />
         </ToastProvider>
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   );

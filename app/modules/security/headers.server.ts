@@ -1,0 +1,87 @@
+// The security headers every response carries: one policy for the whole app, built from the environment
+// so that the same code allows the local stand-ins or S3 and Stripe themselves.
+import { randomBytes } from "node:crypto";
+import { createContext } from "react-router";
+import { env, type Environment } from "~/env.server";
+
+/** The nonce of this request's Content-Security-Policy, set by the root middleware. */
+export const cspNonceContext = createContext<string | null>(null);
+
+export function createNonce(): string {
+  return randomBytes(18).toString("base64");
+}
+
+/** The origin of the hosted checkout page a booking redirects to: Stripe's, or the payments stand-in's. */
+export function checkoutOrigin(settings: Pick<Environment, "STRIPE_API_HOST" | "STRIPE_API_PORT" | "STRIPE_API_PROTOCOL"> = env()): string {
+  if (!settings.STRIPE_API_HOST) return "https://checkout.stripe.com";
+  const protocol = settings.STRIPE_API_PROTOCOL ?? "https";
+  const port = settings.STRIPE_API_PORT ? `:${settings.STRIPE_API_PORT}` : "";
+  return new URL(`${protocol}://${settings.STRIPE_API_HOST}${port}`).origin;
+}
+
+type PolicySettings = Pick<Environment, "S3_ENDPOINT" | "STRIPE_API_HOST" | "STRIPE_API_PORT" | "STRIPE_API_PROTOCOL">;
+
+export function contentSecurityPolicy(nonce: string, settings: PolicySettings = env()): string {
+  // The browser PUTs photos and documents straight to the bucket with presigned URLs (path-style).
+  const storage = new URL(settings.S3_ENDPOINT).origin;
+  const directives: Record<string, string[]> = {
+    "default-src": ["'self'"],
+    // React Router's hydration and scroll scripts, and React's streaming scripts, are inline: nonce them.
+    "script-src": ["'self'", `'nonce-${nonce}'`],
+    // Server-rendered style attributes (grade bars, plot keys, upload progress) and the style elements
+    // Radix's dialog and select add at run time cannot carry a nonce.
+    "style-src": ["'self'", "'unsafe-inline'"],
+    "img-src": ["'self'", "data:", "blob:"],
+    "font-src": ["'self'", "data:"],
+    "connect-src": ["'self'", storage],
+    // A booking form without JavaScript is answered with a redirect to the hosted checkout page.
+    "form-action": ["'self'", checkoutOrigin(settings)],
+    "frame-ancestors": ["'none'"],
+    "base-uri": ["'self'"],
+    "object-src": ["'none'"],
+  };
+  return Object.entries(directives)
+    .map(([name, sources]) => `${name} ${sources.join(" ")}`)
+    .join("; ");
+}
+
+// Nothing in the app uses these; a page that is ever framed or scripted by someone else gets none of them.
+const permissionsPolicy = [
+  "camera=()",
+  "microphone=()",
+  "geolocation=()",
+  "payment=()",
+  "usb=()",
+  "serial=()",
+  "bluetooth=()",
+  "magnetometer=()",
+  "gyroscope=()",
+  "accelerometer=()",
+].join(", ");
+
+export function securityHeaders(nonce: string, settings?: PolicySettings): Record<string, string> {
+  return {
+    "Content-Security-Policy": contentSecurityPolicy(nonce, settings),
+    "X-Content-Type-Options": "nosniff",
+    "Referrer-Policy": "strict-origin-when-cross-origin",
+    "X-Frame-Options": "DENY",
+    "Permissions-Policy": permissionsPolicy,
+  };
+}
+
+/** Sets the headers on `headers` (a route's own Content-Security-Policy is replaced: there is one policy). */
+export function applySecurityHeaders(headers: Headers, nonce: string): void {
+  for (const [name, value] of Object.entries(securityHeaders(nonce))) headers.set(name, value);
+}
+
+/** The response with the headers; a response whose headers are immutable (e.g. a proxied fetch) is copied. */
+export function withSecurityHeaders(response: Response, nonce: string): Response {
+  try {
+    applySecurityHeaders(response.headers, nonce);
+    return response;
+  } catch {
+    const copy = new Response(response.body, response);
+    applySecurityHeaders(copy.headers, nonce);
+    return copy;
+  }
+}
