@@ -94,6 +94,48 @@ function directionText(result: TestResult, units: DisplayUnits) {
 
 export function ResultsTable({ content, units }: { content: ReportContent; units: DisplayUnits }) {
   return (
+    <>
+      <ResultsList content={content} units={units} />
+      <div className="hidden md:block">
+        <ResultsGrid content={content} units={units} />
+      </div>
+    </>
+  );
+}
+
+/** On a phone: one block per test instead of a table too wide to read. */
+function ResultsList({ content, units }: { content: ReportContent; units: DisplayUnits }) {
+  return (
+    <ul className="divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white md:hidden">
+      {content.score.results.map((result) => (
+        <li key={result.code} className="space-y-2 px-4 py-3" data-result-item={result.code}>
+          <div className="flex items-start justify-between gap-3">
+            <div>
+              <p className="font-semibold text-ink-900">{result.title}</p>
+              <p className="text-xs text-ink-500">
+                {result.code}
+                {result.required ? "" : " · optional"}
+              </p>
+            </div>
+            <VerdictBadge result={result} />
+          </div>
+          <p className="text-sm text-ink-800 tabular">
+            <span className="font-semibold">{formatDeviation(result.value, units, { signed: isSignedValue(result.method), unit: result.unit })}</span>
+            <span className="text-ink-500"> of </span>
+            {formatDeviation(result.tolerance, units, { unit: result.unit })}
+            {result.measuringLength ? <span className="text-ink-500"> over {units === "inch" ? `${(result.measuringLength / 25.4).toFixed(1)} in` : `${Math.round(result.measuringLength)} mm`}</span> : null}
+            <span className="text-ink-500"> · ratio {formatRatio(result.ratio)}</span>
+          </p>
+          <RatioBar ratio={result.ratio} pass={result.pass} />
+          <p className={cx("text-sm", result.direction.pass ? "text-ink-600" : "font-semibold text-beyond")}>{directionText(result, units)}</p>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+function ResultsGrid({ content, units }: { content: ReportContent; units: DisplayUnits }) {
+  return (
     <Table caption="Results per test" data-testid="results-table">
       <thead>
         <tr>

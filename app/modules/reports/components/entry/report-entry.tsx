@@ -244,7 +244,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
               <CardHeader title="Instruments" description={`Resolution is the smallest step the instrument reads (${labels.resolution}; µm/m for levels).`} />
               <CardBody className="space-y-4">
                 {form.instruments.map((instrument, i) => (
-                  <div key={instrument.id} className="grid gap-3 rounded-(--radius-control) border border-ink-200 p-3 sm:grid-cols-[1.2fr_1.5fr_0.8fr_1fr_auto] sm:items-end" data-instrument={i}>
+                  <div key={instrument.id} className="grid gap-3 rounded-(--radius-control) border border-ink-200 p-3 sm:grid-cols-2 sm:items-end" data-instrument={i}>
                     <SelectField
                       label={`${i + 1}. Kind`}
                       value={instrument.kind}
@@ -266,8 +266,8 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                       errors={instrument.calibrationDue && form.measuredOn && instrument.calibrationDue < form.measuredOn ? ["Overdue on the date of the tests."] : null}
                       onChange={(event) => change((draft) => void (draft.instruments[i]!.calibrationDue = event.target.value))}
                     />
-                    <Button variant="quiet" size="sm" aria-label={`Remove instrument ${i + 1}`} onClick={() => change((draft) => void draft.instruments.splice(i, 1))}>
-                      Remove
+                    <Button variant="quiet" size="sm" className="justify-self-start sm:col-span-2" aria-label={`Remove instrument ${i + 1}`} onClick={() => change((draft) => void draft.instruments.splice(i, 1))}>
+                      Remove this instrument
                     </Button>
                   </div>
                 ))}
