@@ -22,22 +22,30 @@ async function main() {
   const dataDir = path.resolve(root, process.env.TENTHMARK_DATA_DIR ?? ".data");
   mkdirSync(dataDir, { recursive: true });
 
-  const cluster = await startCluster({
-    dataDir: path.join(dataDir, "postgres"),
-    port: Number(process.env.TENTHMARK_PG_PORT ?? 54329),
-    database: "tenthmark",
-  });
-  onStop(() => cluster.stop());
-  const databaseUrl = process.env.DATABASE_URL ?? cluster.url;
+  // A DATABASE_URL in the environment (or .env) means a PostgreSQL of your own: no local cluster then.
+  let databaseUrl = process.env.DATABASE_URL;
+  if (!databaseUrl) {
+    const cluster = await startCluster({
+      dataDir: path.join(dataDir, "postgres"),
+      port: Number(process.env.TENTHMARK_PG_PORT ?? 54329),
+      database: "tenthmark",
+    });
+    onStop(() => cluster.stop());
+    databaseUrl = cluster.url;
+  }
   log("postgres", `ready at ${databaseUrl}`);
   await runMigrations(databaseUrl);
 
   // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).
   const standIns = await startStandIns({ dataDir, appOrigin, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
   for (const standIn of standIns) onStop(() => standIn.stop());
+  // What the environment (or .env) sets wins over a stand-in: that is how a hosted service is chosen.
+  const standInSettings = Object.fromEntries(
+    Object.entries(standInEnvironment(standIns)).filter(([key]) => !process.env[key]),
+  );
   const environment = {
     ...process.env,
-    ...standInEnvironment(standIns),
+    ...standInSettings,
     NODE_ENV: "production",
     DATABASE_URL: databaseUrl,
     APP_ORIGIN: appOrigin,
