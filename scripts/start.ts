@@ -41,7 +41,7 @@ async function main() {
   for (const standIn of standIns) onStop(() => standIn.stop());
   // What the environment (or .env) sets wins over a stand-in: that is how a hosted service is chosen.
   const standInSettings = Object.fromEntries(
-    Object.entries(standInEnvironment(standIns)).filter(([key]) => !process.env[key]),
+    Object.entries(standInEnvironment(standIns)).filter(([key]) => process.env[key] === undefined),
   );
   const environment = {
     ...process.env,
