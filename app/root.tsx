@@ -4,7 +4,6 @@ import type { Route } from "./+types/root";
 import "./app.css";
 import { SiteFooter } from "~/components/layout/site-footer";
 import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
-import { ToastProvider } from "~/components/ui";
 import { databaseMiddleware } from "~/db/middleware.server";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { securityMiddleware } from "~/modules/security/middleware.server";
@@ -51,13 +50,11 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-4 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
           Skip to content
         </a>
-        <ToastProvider>
-          <SiteHeader user={data?.user ?? null} />
-          <main id="main" className="flex-1">
-            {children}
-          </main>
-          <SiteFooter />
-        </ToastProvider>
+        <SiteHeader user={data?.user ?? null} />
+        <main id="main" className="flex-1">
+          {children}
+        </main>
+        <SiteFooter />
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />
       </body>

@@ -4,7 +4,7 @@ import path from "node:path";
 import { log } from "./output.ts";
 
 const root = path.resolve(import.meta.dirname, "../..");
-const inputs = ["app", "public", "package-lock.json", "vite.config.ts", "react-router.config.ts", "tsconfig.json"];
+const inputs = ["app", "search", "public", "package-lock.json", "vite.config.ts", "react-router.config.ts", "tsconfig.json"];
 
 function newestMtime(target: string): number {
   if (!existsSync(target)) return 0;
