@@ -9,7 +9,8 @@ import os from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import { log } from "../scripts/lib/output.ts";
-import { buildForBench, startBenchApp, startBenchServices, stopBenchEnvironment, type RunningApp } from "./lib/environment.ts";
+import { freePort } from "../scripts/lib/ports.ts";
+import { buildForBench, startBenchApp, startBenchServices, stopBenchApp, stopBenchEnvironment, waitForSearchToSettle, type RunningApp } from "./lib/environment.ts";
 import { runLoad, type LoadOutcome } from "./lib/load.ts";
 import { measurePages, type PageOutcome } from "./lib/pages.ts";
 import { measurePhotoPipeline, type PhotoOutcome } from "./lib/photo.ts";
@@ -40,7 +41,18 @@ export const BUDGETS = {
 const SEARCH_QUERY = "category=centre_lathe&category=toolroom_lathe&verified=1&runoutMax=5&sort=best-accuracy";
 
 type Target = { key: string; name: string; path: string; route: string };
-type LoadRow = { key: string; name: string; path: string; state: "measured" | "not built yet" | "failed"; note?: string; outcome?: LoadOutcome; fallbacks?: number };
+type LoadRow = {
+  key: string;
+  name: string;
+  path: string;
+  state: "measured" | "not built yet" | "failed";
+  note?: string;
+  outcome?: LoadOutcome;
+  /** Requests the app answered from PostgreSQL because the index did not answer in time (from its log). */
+  fallbacks?: number;
+  /** How long the search stand-in took after the run to finish the searches the app had given up on. */
+  settleMs?: number;
+};
 
 export type SystemBenchResult = {
   benchmark: "system";
@@ -50,7 +62,7 @@ export type SystemBenchResult = {
   timingsMs: { build: number; seed: SeedResult["timingsMs"]; indexing: number; total: number };
   seed: Omit<SeedResult, "timingsMs">;
   indexing: { indexed: number; removed: number; batchSize: number; ms: number };
-  search: { totalHits: number | null; sourceBefore: string | null; sourceAfter: string | null };
+  search: { totalHits: number | null; sourceBefore: string | null; sourceAfter: string | null; standInMsPerSearch: number | null };
   load: LoadRow[];
   pages: (PageOutcome | { name: string; path: string; state: "not built yet" })[];
   scoring: ScoringBenchResult | null;
@@ -107,6 +119,23 @@ function countFallbacks(app: RunningApp): number {
   return (app.logText().match(/\[search\] answering from PostgreSQL/g) ?? []).length;
 }
 
+/** One search of the bench's query straight against the stand-in, with nothing else running (median of 5, ms). */
+async function timeStandInSearch(appOrigin: string): Promise<number> {
+  void appOrigin;
+  const { createListingSearch } = await import("../app/modules/search/search.server.ts");
+  const { parseListingSearchParams } = await import("../app/modules/search/search-params.server.ts");
+  const parsed = parseListingSearchParams(new URLSearchParams(SEARCH_QUERY));
+  if (!parsed.success) throw new Error(`the bench's search query is not valid: ${JSON.stringify(parsed.errors)}`);
+  const search = createListingSearch({ host: process.env.MEILISEARCH_HOST!, apiKey: process.env.MEILISEARCH_API_KEY!, searchTimeoutMs: 60_000 });
+  const samples: number[] = [];
+  for (let i = 0; i < 5; i++) {
+    const started = performance.now();
+    await search.searchListings(parsed.query);
+    samples.push(performance.now() - started);
+  }
+  return samples.sort((a, b) => a - b)[2]!;
+}
+
 async function scoringResult(): Promise<ScoringBenchResult> {
   // `npm run bench` runs bench/scoring.ts just before this file: use its fresh result rather than run it twice.
   const file = path.join(resultsFolder, "scoring.json");
@@ -151,7 +180,7 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     timingsMs: { build: 0, seed: { accounts: 0, listings: 0, photos: 0, reports: 0, analyze: 0, total: 0 }, indexing: 0, total: 0 },
     seed: { listings: 0, published: 0, reports: 0, photoSets: 0, dealers: 0, sample: { slug: "", listingId: "", reportId: "" } },
     indexing: { indexed: 0, removed: 0, batchSize: 5_000, ms: 0 },
-    search: { totalHits: null, sourceBefore: null, sourceAfter: null },
+    search: { totalHits: null, sourceBefore: null, sourceAfter: null, standInMsPerSearch: null },
     load: [],
     pages: [],
     scoring: null,
@@ -229,9 +258,28 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
       const outcome = await runLoad({ url: `${app.origin}${target.path}`, connections: config.connections, seconds: config.seconds, warmupSeconds: config.warmupSeconds, maxRequests: config.maxRequestsPerRun });
       const row: LoadRow = { key: target.key, name: target.name, path: target.path, state: "measured", outcome, fallbacks: countFallbacks(app) - before };
       if (outcome.non2xx || outcome.errors || outcome.timeouts) row.note = `${outcome.non2xx} non-2xx, ${outcome.errors} errors, ${outcome.timeouts} timeouts`;
+      row.settleMs = await waitForSearchToSettle(process.env.MEILISEARCH_HOST!);
       result.load.push(row);
     }
-    result.load.sort((a, b) => targets.findIndex((t) => t.key === a.key) - targets.findIndex((t) => t.key === b.key));
+    if (ready.some((target) => target.key === "searchApi")) {
+      result.search.standInMsPerSearch = await timeStandInSearch(app.origin);
+      // The same search API with the index out of reach, so that every search runs in PostgreSQL: the
+      // product's own path, apart from the stand-in's speed.
+      const databaseApp = await startBenchApp(environment, { name: "app-database", port: await freePort(), env: { MEILISEARCH_HOST: `http://127.0.0.1:${await freePort()}` } });
+      const target = targets.find((candidate) => candidate.key === "searchApi")!;
+      const check = await getStatus(`${databaseApp.origin}${target.path}`);
+      const source = check.status === 200 ? (JSON.parse(check.body) as { source: string }).source : `answered ${check.status}`;
+      if (source !== "database") result.errors.push(`the search API with the index unreachable answered from ${source}`);
+      for (let i = 0; i < 5; i++) await getStatus(`${databaseApp.origin}${target.path}`);
+      log("bench", `load: search API from PostgreSQL for ${config.seconds} s with ${config.connections} connections`);
+      const outcome = await runLoad({ url: `${databaseApp.origin}${target.path}`, connections: config.connections, seconds: config.seconds, warmupSeconds: config.warmupSeconds, maxRequests: config.maxRequestsPerRun });
+      const row: LoadRow = { key: "searchApiDatabase", name: "search API, PostgreSQL path (index unreachable)", path: target.path, state: "measured", outcome };
+      if (outcome.non2xx || outcome.errors || outcome.timeouts) row.note = `${outcome.non2xx} non-2xx, ${outcome.errors} errors, ${outcome.timeouts} timeouts`;
+      result.load.push(row);
+      await stopBenchApp(databaseApp);
+    }
+    const order = [...targets.map((target) => target.key), "searchApiDatabase"];
+    result.load.sort((a, b) => order.indexOf(a.key) - order.indexOf(b.key));
     if (ready.some((target) => target.key === "searchApi")) {
       const after = await getStatus(`${app.origin}/api/v1/listings?${SEARCH_QUERY}`);
       result.search.sourceAfter = after.status === 200 ? (JSON.parse(after.body) as { source: string }).source : `answered ${after.status}`;
@@ -314,6 +362,20 @@ export function formatTable(result: SystemBenchResult): string {
     `${result.indexing.indexed.toLocaleString("en")} documents in batches of ${result.indexing.batchSize.toLocaleString("en")}`,
     `${s(result.indexing.ms)} (${((result.indexing.indexed / result.indexing.ms) * 1000).toFixed(0)} documents/s, through reindexAllListings)`,
   ]);
+  if (result.search.sourceBefore !== null) {
+    rows.push([
+      "search API answer",
+      `${result.search.totalHits ?? "?"} hits; answered from ${result.search.sourceBefore} before the load, ${result.search.sourceAfter ?? "?"} after`,
+      `/api/v1/listings?${SEARCH_QUERY}`,
+    ]);
+  }
+  if (result.search.standInMsPerSearch !== null) {
+    rows.push([
+      "search stand-in, one search",
+      `${ms(result.search.standInMsPerSearch)} median of 5, nothing else running`,
+      `the bench's query straight to the stand-in; the app waits ${process.env.MEILISEARCH_SEARCH_TIMEOUT_MS ?? 800} ms (MEILISEARCH_SEARCH_TIMEOUT_MS) before PostgreSQL`,
+    ]);
+  }
   const ceiling = loadOf(result, "ceiling");
   for (const row of result.load) {
     if (row.state !== "measured" || !row.outcome) {
@@ -327,7 +389,7 @@ export function formatTable(result: SystemBenchResult): string {
       `${o.requestsPerSecond.toFixed(0)} req/s · p50 ${ms(o.latencyMs.p50)} · p95 ${ms(o.latencyMs.p95)} · p99 ${ms(o.latencyMs.p99)}`,
       row.key === "ceiling"
         ? `${o.requests.toLocaleString("en")} requests${row.note ? `; ${row.note}` : ""}`
-        : `vs ceiling: req/s ${ratio(o.requestsPerSecond, ceiling?.requestsPerSecond)} · p50 ${ratio(o.latencyMs.p50, ceiling?.latencyMs.p50)} · p95 ${ratio(o.latencyMs.p95, ceiling?.latencyMs.p95)} · p99 ${ratio(o.latencyMs.p99, ceiling?.latencyMs.p99)}${row.note ? `; ${row.note}` : ""}${row.fallbacks ? `; ${row.fallbacks} answered from PostgreSQL` : ""}`,
+        : `vs ceiling: req/s ${ratio(o.requestsPerSecond, ceiling?.requestsPerSecond)} · p50 ${ratio(o.latencyMs.p50, ceiling?.latencyMs.p50)} · p95 ${ratio(o.latencyMs.p95, ceiling?.latencyMs.p95)} · p99 ${ratio(o.latencyMs.p99, ceiling?.latencyMs.p99)}${row.note ? `; ${row.note}` : ""}${row.fallbacks ? `; ${row.fallbacks} fell back to PostgreSQL` : ""}${row.settleMs && row.settleMs > 1000 ? `; stand-in busy ${s(row.settleMs)} after` : ""}`,
     ]);
   }
   for (const page of result.pages) {

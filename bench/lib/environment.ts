@@ -66,12 +66,27 @@ export type RunningApp = { origin: string; child: ChildProcess; logFile: string;
  * Serves the build with react-router-serve on 127.0.0.1, web only (JOB_WORKERS=false: the bench indexes
  * itself and wants no start-up re-index running under the load). Its output goes to a log file.
  */
-export async function startBenchApp(environment: BenchEnvironment): Promise<RunningApp> {
-  const logFile = path.join(environment.workDir, "app.log");
+export async function startBenchApp(
+  environment: BenchEnvironment,
+  options: { name?: string; port?: number; env?: Record<string, string> } = {},
+): Promise<RunningApp> {
+  const name = options.name ?? "app";
+  const logFile = path.join(environment.workDir, `${name}.log`);
   const output = createWriteStream(logFile);
+  const origin = options.port ? `http://127.0.0.1:${options.port}` : environment.appEnvironment.APP_ORIGIN!;
+  const port = options.port ? String(options.port) : environment.appEnvironment.PORT!;
   const child = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [`${environment.buildDirectory}/server/index.js`], {
     cwd: root,
-    env: { ...process.env, ...environment.appEnvironment, NODE_ENV: "production", HOST: "127.0.0.1", JOB_WORKERS: "false" },
+    env: {
+      ...process.env,
+      ...environment.appEnvironment,
+      ...options.env,
+      APP_ORIGIN: origin,
+      PORT: port,
+      NODE_ENV: "production",
+      HOST: "127.0.0.1",
+      JOB_WORKERS: "false",
+    },
     stdio: ["ignore", "pipe", "pipe"],
   });
   child.stdout.pipe(output);
@@ -88,10 +103,40 @@ export async function startBenchApp(environment: BenchEnvironment): Promise<Runn
         child.kill("SIGTERM");
       }),
   );
-  const origin = environment.appEnvironment.APP_ORIGIN!;
   await waitForHttp(`${origin}/api/health`);
-  log("bench", `production build served at ${origin}`);
+  log("bench", `production build served at ${origin} (${name})`);
   return { origin, child, logFile, logText: () => readFileSync(logFile, "utf8") };
+}
+
+/**
+ * Stops one app server started by startBenchApp (the others keep running). react-router-serve closes its
+ * port on SIGTERM but the process lives on while the job queue's timers run, hence SIGKILL after 5 s.
+ */
+export function stopBenchApp(app: RunningApp): Promise<void> {
+  return new Promise((resolve) => {
+    if (app.child.exitCode !== null || app.child.signalCode !== null) return resolve();
+    const timer = setTimeout(() => app.child.kill("SIGKILL"), 5_000);
+    app.child.once("exit", () => {
+      clearTimeout(timer);
+      resolve();
+    });
+    app.child.kill("SIGTERM");
+  });
+}
+
+/**
+ * Waits until the search stand-in (which runs in this process) answers its health check within 100 ms:
+ * searches the app gave up on are still computed there, and must not spill into the next load run.
+ */
+export async function waitForSearchToSettle(host: string, timeoutMs = 120_000): Promise<number> {
+  const started = performance.now();
+  while (performance.now() - started < timeoutMs) {
+    const asked = performance.now();
+    await fetch(`${host}/health`).catch(() => null);
+    if (performance.now() - asked < 100) return performance.now() - started;
+    await new Promise((resolve) => setTimeout(resolve, 250));
+  }
+  throw new Error(`the search stand-in was still busy ${timeoutMs / 1000} s after the load stopped`);
 }
 
 export async function stopBenchEnvironment() {

@@ -149,7 +149,9 @@ function isoDate(date: Date) {
 export async function seedBenchData(databaseUrl: string, options: SeedOptions): Promise<SeedResult> {
   const started = performance.now();
   const random = seededRandom(options.seed);
-  const now = Date.UTC(2026, 4, 1, 9, 0, 0);
+  // Dates count back from today (09:00 UTC), so that every seeded report is within its 12 months.
+  const today = new Date();
+  const now = Date.UTC(today.getUTCFullYear(), today.getUTCMonth(), today.getUTCDate(), 9);
   const nowDate = new Date(now);
   const client = new pg.Client({ connectionString: databaseUrl });
   await client.connect();
