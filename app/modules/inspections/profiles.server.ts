@@ -174,9 +174,10 @@ export async function getOwnProfile(db: Executor, userId: string) {
       id: inspectorSlots.id,
       startsAt: inspectorSlots.startsAt,
       endsAt: inspectorSlots.endsAt,
-      booked: sql<boolean>`exists (select 1 from ${bookings} where ${bookings.inspectorId} = ${inspectorSlots.inspectorId}
+      // Drizzle leaves a one-table select's own columns unqualified, which inside the subquery would name the booking's: qualify them.
+      booked: sql<boolean>`exists (select 1 from ${bookings} where ${bookings.inspectorId} = ${inspectorSlots}.${sql.identifier(inspectorSlots.inspectorId.name)}
         and ${bookings.status} in ${activeStatuses}
-        and ${bookings.period} && tstzrange(${inspectorSlots.startsAt}, ${inspectorSlots.endsAt}, '[)'))`,
+        and ${bookings.period} && tstzrange(${inspectorSlots}.${sql.identifier(inspectorSlots.startsAt.name)}, ${inspectorSlots}.${sql.identifier(inspectorSlots.endsAt.name)}, '[)'))`,
     })
     .from(inspectorSlots)
     .where(and(eq(inspectorSlots.inspectorId, userId), gt(inspectorSlots.endsAt, new Date())))
