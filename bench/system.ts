@@ -4,7 +4,7 @@
 // bench/scoring.ts); a 24-megapixel photo through the image pipeline. Budgets are checked and printed;
 // missing one is reported, not a failure. `npx tsx bench/system.ts` runs it alone. See docs/benchmarks.md.
 import { execFileSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
+import { copyFileSync, existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
@@ -73,7 +73,10 @@ export type SystemBenchResult = {
 
 function commitOf(): string | null {
   try {
-    return execFileSync("git", ["rev-parse", "--short", "HEAD"], { cwd: root, encoding: "utf8" }).trim();
+    const commit = execFileSync("git", ["rev-parse", "--short", "HEAD"], { cwd: root, encoding: "utf8" }).trim();
+    // The build is of the working tree: say so when app/ holds changes not committed yet.
+    const changed = execFileSync("git", ["status", "--porcelain", "--", "app"], { cwd: root, encoding: "utf8" }).trim();
+    return changed ? `${commit} + uncommitted changes in app/` : commit;
   } catch {
     return null;
   }
@@ -189,8 +192,10 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     errors: [],
   };
 
+  let workDir: string | null = null;
   try {
     const environment = await startBenchServices();
+    workDir = environment.workDir;
     buildForBench(environment);
     result.timingsMs.build = environment.buildMs;
 
@@ -244,6 +249,7 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
       { name: "home page", path: "/", route: "" },
       ...targets.filter((target) => ["searchPage", "listingPage", "reportPage"].includes(target.key)),
     ];
+    log("bench", `Chromium: JavaScript and LCP of ${pageTargets.length} pages, ${config.pageLoads} cold loads each`);
     const measurable = pageTargets.filter((page) => page.route === "" || ready.some((target) => target.path === page.path));
     const measured = await measurePages(app.origin, measurable, config.pageLoads);
     for (const page of pageTargets) {
@@ -286,6 +292,12 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     }
   } finally {
     result.machine.loadAverageEnd = os.loadavg().map((value) => Math.round(value * 100) / 100);
+    // The app servers' logs outlive the run's folder: they name the cause of any 500 under load.
+    mkdirSync(resultsFolder, { recursive: true });
+    for (const name of ["app", "app-database"]) {
+      const file = workDir ? path.join(workDir, `${name}.log`) : null;
+      if (file && existsSync(file)) copyFileSync(file, path.join(resultsFolder, `system-${name}.log`));
+    }
     await stopBenchEnvironment();
   }
 
