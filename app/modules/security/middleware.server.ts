@@ -1,30 +1,64 @@
 import { data, type MiddlewareFunction } from "react-router";
+import { DOCUMENT_MAX_BYTES } from "~/modules/files/limits";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "./headers.server";
-import { crossOriginRefusal, type OriginRefusal } from "./origin.server";
+import { crossOriginRefusal } from "./origin.server";
+
+/** The largest body any route takes (an inspector's certificate PDF, as a form), with room for the form around it. */
+export const MAX_BODY_BYTES = DOCUMENT_MAX_BYTES + 1024 * 1024;
 
 /**
- * First in the root's chain: gives the request its CSP nonce, refuses a cross-origin change before any
- * loader or action runs, and puts the security headers on whatever answer comes back.
+ * First in the root's chain: gives the request its CSP nonce, refuses a cross-origin change or an oversized
+ * body before any loader or action runs, turns an unreadable form into a 400, and puts the security
+ * headers on whatever answer comes back.
  */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   const nonce = createNonce();
   context.set(cspNonceContext, nonce);
   const refusal = crossOriginRefusal(request);
-  // Thrown, so a page request shows the refusal in the site's error page and an API caller gets it as is.
-  if (refusal) {
-    // A client-side navigation's `.data` request carries the refusal as route error data.
-    if (new URL(request.url).pathname.endsWith(".data")) throw data(refusal.message, { status: 403 });
-    throw refusalResponse(request, refusal, nonce);
+  if (refusal) throw problem(request, nonce, 403, { error: "cross_origin_request", reason: refusal.reason, message: refusal.message });
+  if (Number(request.headers.get("content-length") ?? 0) > MAX_BODY_BYTES) {
+    throw problem(request, nonce, 413, { error: "body_too_large", message: `This request is larger than the ${Math.round(MAX_BODY_BYTES / 1024 / 1024)} MB the site accepts.` });
   }
+  const unreadable = await unreadableForm(request);
+  if (unreadable) throw problem(request, nonce, unreadable.status, { error: "unreadable_form", message: unreadable.message });
   return withSecurityHeaders(await next(), nonce);
 };
 
-function refusalResponse(request: Request, refusal: OriginRefusal, nonce: string): Response {
+const FORM_TYPES = /^\s*(application\/x-www-form-urlencoded|multipart\/form-data)\b/i;
+/** Routes whose bodies are JSON (or Stripe's raw event), not forms: they read and answer for their bodies themselves. */
+const takesOtherBodies = [/^\/api\//, /^\/inspector\/bookings\/[^/]+\/report\/draft$/];
+
+/**
+ * Page actions read their form with `request.formData()`, which throws on a body that is not one (JSON,
+ * plain text, a multipart body without or with the wrong boundary). That is the sender's mistake: say so
+ * with a 415 or 400 before the action runs, instead of a 500 from inside it.
+ */
+async function unreadableForm(request: Request): Promise<{ status: number; message: string } | null> {
+  if (!["POST", "PUT", "PATCH", "DELETE"].includes(request.method.toUpperCase())) return null;
+  const pathname = new URL(request.url).pathname.replace(/\.data$/, "");
+  if (takesOtherBodies.some((pattern) => pattern.test(pathname))) return null;
+  if (!FORM_TYPES.test(request.headers.get("content-type") ?? "")) {
+    return { status: 415, message: "Send this form as application/x-www-form-urlencoded or multipart/form-data, as the page does." };
+  }
+  try {
+    await request.clone().formData();
+    return null;
+  } catch {
+    return { status: 400, message: "The form in this request could not be read. Reload the page and send it again." };
+  }
+}
+
+/**
+ * Thrown, so that a page request shows the message in the site's error page, a client-side navigation gets
+ * it as route error data, and an API caller gets JSON as it is.
+ */
+function problem(request: Request, nonce: string, status: number, body: { error: string; message: string; reason?: string }) {
   const url = new URL(request.url);
-  const wantsJson = url.pathname.startsWith("/api/") || /application\/json/.test(request.headers.get("accept") ?? "");
+  if (url.pathname.endsWith(".data")) return data(body.message, { status });
+  const wantsJson = url.pathname.startsWith("/api/") || !/text\/html/.test(request.headers.get("accept") ?? "");
   const response = wantsJson
-    ? Response.json({ error: "cross_origin_request", reason: refusal.reason, message: refusal.message }, { status: 403 })
-    : new Response(refusal.message, { status: 403, headers: { "content-type": "text/plain; charset=utf-8" } });
+    ? Response.json(body, { status })
+    : new Response(body.message, { status, headers: { "content-type": "text/plain; charset=utf-8" } });
   applySecurityHeaders(response.headers, nonce);
   return response;
 }

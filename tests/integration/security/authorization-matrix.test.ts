@@ -242,7 +242,7 @@ const table: Record<string, RouteRow> = {
       { intent: "save", body: () => ({ form: { intent: "save", name: "Matrix search", queryString: "q=lathe" } }), expect: by({ visitor: "sign-in", rest: 200 }) },
       {
         intent: "delete the buyer's saved search",
-        params: async (role) => (role === "buyer" ? { savedSearchId: (await db.insert(savedSearches).values({ userId: fx.people.buyer.id, name: "Spare", queryString: "" }).returning())[0]!.id } : {}),
+        params: async (role): Promise<Params> => (role === "buyer" ? { savedSearchId: (await db.insert(savedSearches).values({ userId: fx.people.buyer.id, name: "Spare", queryString: "" }).returning())[0]!.id } : {}),
         body: (_role, params) => ({ form: { intent: "delete", savedSearchId: params.savedSearchId ?? fx.savedSearchId } }),
         expect: by({ visitor: "sign-in", buyer: 200, rest: 404 }),
         unchanged: (params) => rowsOf.savedSearch(params.savedSearchId ?? fx.savedSearchId),
@@ -371,7 +371,7 @@ const table: Record<string, RouteRow> = {
     actions: [
       {
         intent: "cancel",
-        params: async (role) => (role === "buyer" ? { bookingId: await heldBookingOfBuyer() } : {}),
+        params: async (role): Promise<Params> => (role === "buyer" ? { bookingId: await heldBookingOfBuyer() } : {}),
         body: () => ({ form: { reason: "Matrix check" } }),
         expect: by({ visitor: "sign-in", buyer: 200, rest: 404 }),
         unchanged: () => rowsOf.booking(fx.bookingId),
@@ -387,7 +387,7 @@ const table: Record<string, RouteRow> = {
     actions: [
       {
         intent: "leave checkout",
-        params: async (role) => (role === "buyer" ? { bookingId: await heldBookingOfBuyer() } : {}),
+        params: async (role): Promise<Params> => (role === "buyer" ? { bookingId: await heldBookingOfBuyer() } : {}),
         body: () => ({ form: {} }),
         // Seller A, inspector A and staff may see the booking but are not its buyer.
         expect: by({ visitor: "sign-in", buyer: "→/machines/", sellerA: 404, inspectorA: 404, admin: 404, rest: 403 }),

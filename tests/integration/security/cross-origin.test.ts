@@ -46,7 +46,7 @@ describe("a form posted from another website", () => {
   });
 
   it("is refused with Origin: null, with a foreign Referer and no Origin, and on a client-side navigation's .data request", async () => {
-    for (const headers of [{ origin: "null" }, { referer: `${elsewhere}/offer` }]) {
+    for (const headers of [{ origin: "null" }, { referer: `${elsewhere}/offer` }] as Array<Record<string, string>>) {
       const response = await post("/account", { cookie: buyerCookie, ...headers });
       expect(response.status, JSON.stringify(headers)).toBe(403);
       expect(await response.text()).toMatch(refusedFromElsewhere);
@@ -116,7 +116,7 @@ describe("a form posted with neither Origin nor Referer", () => {
 describe("a form posted from our own pages", () => {
   it("goes through with our Origin, its 127.0.0.1 twin, or only a Referer of ours", async () => {
     const twin = testAppOrigin.replace("localhost", "127.0.0.1");
-    for (const headers of [{ origin: testAppOrigin }, { origin: twin }, { referer: `${testAppOrigin}/account` }]) {
+    for (const headers of [{ origin: testAppOrigin }, { origin: twin }, { referer: `${testAppOrigin}/account` }] as Array<Record<string, string>>) {
       const person = await createTestUser();
       const cookie = await signInCookie(person.email, person.password);
       const response = await post("/account", { cookie, ...headers });
