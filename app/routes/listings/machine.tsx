@@ -40,7 +40,10 @@ export async function action({ request, context }: Route.ActionArgs) {
     const sender = await requireVerifiedUser(request);
     const submission = parseWithZod(formData, { schema: inquiryFormSchema });
     const listingId = z.uuid().safeParse(formData.get("listingId"));
-    if (submission.status !== "success" || !listingId.success) return data({ inquiry: submission.reply(), sent: false }, { status: 422 });
+    if (submission.status !== "success" || !listingId.success) {
+      const formErrors = listingId.success ? undefined : ["This question names no listing. Reload the page and ask again."];
+      return data({ inquiry: submission.reply({ formErrors }), sent: false }, { status: 422 });
+    }
     try {
       await sendInquiry(db, sender, listingId.data, submission.value);
     } catch (error) {
