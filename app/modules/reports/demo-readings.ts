@@ -1,0 +1,256 @@
+// Invented readings for the demo reports: for each test of a profile, indicator readings that give a chosen
+// ratio of value to tolerance, quantised to the instrument's resolution, with a seeded jitter so that no two
+// machines read alike. Pure: the seed and the unit tests both use it, and both check the grade it scores to.
+import {
+  getProfile,
+  KINDS_FOR_METHOD,
+  scoreReport,
+  toleranceAt,
+  toMetric,
+  type Grade,
+  type ProfileTest,
+  type ReportMeasurements,
+  type ReportScore,
+  type TestMeasurement,
+  type ToleranceProfile,
+} from "~/geometry";
+import type { EntryUnits, TestEntry } from "./form";
+
+const MICROMETRES_PER_INCH = 25_400;
+const MILLIMETRES_PER_INCH = 25.4;
+
+/** A small seeded generator (mulberry32), so the demo reads the same on every fresh start. */
+export function seededRandom(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
+  };
+}
+
+export type DemoMachine = {
+  profileKey: string;
+  units: EntryUnits;
+  /** Carriage travel read for the bed and carriage tests, in the entry's length unit (mm or in). */
+  travel: number;
+  /** Cross-slide travel read for squareness, in the entry's length unit. */
+  crossTravel: number;
+  /** The indicator's smallest step, in the entry's reading unit (µm or in). */
+  indicatorResolution: number;
+  /** The level's smallest step, µm/m. */
+  levelResolution: number;
+  /** The step of the bed's height profile, when finer than the indicator's (worked out from the level). */
+  bedResolution?: number;
+  /** Ratios (value / tolerance) for the rest of the tests are drawn from this band. */
+  band: [number, number];
+  /**
+   * Chosen ratios per test code. Negative means the wrong way: a mandrel or sleeve leaning against its allowed
+   * direction, a centre low, a cross-slide convex, a bed dipped (concave) where it may only be convex.
+   */
+  ratios?: Record<string, number>;
+  /** Required tests that could not be read (the report is then incomplete). */
+  omit?: string[];
+  /** Optional tests that were read as well. */
+  optional?: string[];
+  seed: number;
+};
+
+export type DemoReadings = {
+  profile: ToleranceProfile;
+  /** In the entry's units, as the inspector typed them (the engine's types). */
+  measurements: Record<string, TestMeasurement>;
+};
+
+type Scale = { reading: number; station: number };
+
+function scaleOf(units: EntryUnits): Scale {
+  // µm per reading unit and mm per station unit.
+  return units === "inch" ? { reading: MICROMETRES_PER_INCH, station: MILLIMETRES_PER_INCH } : { reading: 1, station: 1 };
+}
+
+/** Readings for every test the machine's plan names, in the entry's units. */
+export function demoReadings(machine: DemoMachine): DemoReadings {
+  const profile = getProfile(machine.profileKey, 1);
+  if (!profile) throw new Error(`demo readings: no profile ${machine.profileKey}`);
+  const random = seededRandom(machine.seed);
+  const between = (low: number, high: number) => low + (high - low) * random();
+  const whole = (low: number, high: number) => Math.floor(between(low, high + 1));
+  const scale = scaleOf(machine.units);
+  const step = machine.indicatorResolution;
+  const stepUm = step * scale.reading;
+  // Readings are whole counts of the indicator's step, written in the entry's unit.
+  const reading = (counts: number) => round(counts * step);
+  const countsFor = (micrometres: number) => Math.round(micrometres / stepUm);
+  const stations = (travel: number, intervals: number) => Array.from({ length: intervals + 1 }, (_, i) => round((travel * i) / intervals));
+
+  const measurements: Record<string, TestMeasurement> = {};
+  const wanted = profile.tests.filter((test) => (test.required ? !machine.omit?.includes(test.code) : machine.optional?.includes(test.code)));
+  for (const test of wanted) {
+    const ratio = machine.ratios?.[test.code] ?? between(...machine.band);
+    const kind = KINDS_FOR_METHOD[test.method];
+    const lengthMm = (travel: number) => travel * scale.station;
+    switch (test.method) {
+      case "run-out": {
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const value = Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        const zero = -whole(0, Math.ceil(value / 2));
+        if (kind.includes("sweep") && (test.code === "L-SP-NOSE" || test.code === "L-P-ROUND" || test.code === "L-FP-CAM")) {
+          // Eight positions round one revolution: a once-per-turn wave, its high and low point read exactly.
+          const phase = whole(0, 7);
+          const readings = Array.from({ length: 8 }, (_, i) => {
+            const at = (i - phase + 8) % 8;
+            if (at === 0) return value;
+            if (at === 4) return 0;
+            return Math.min(value, Math.max(0, Math.round((value / 2) * (1 + Math.cos((Math.PI * at) / 4)) + between(-0.4, 0.4))));
+          });
+          measurements[test.code] = { kind: "sweep", readings: readings.map((counts) => reading(counts + zero)) };
+        } else {
+          measurements[test.code] = { kind: "extremes", max: reading(value + zero), min: reading(zero) };
+        }
+        break;
+      }
+      case "straightness": {
+        const travel = machine.travel;
+        const bedStep = machine.bedResolution ?? step;
+        const bedStepUm = bedStep * scale.reading;
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel));
+        const xs = stations(travel, 10);
+        // A straight line the level would show anyway (the bed is never set dead level), plus the shape.
+        const tiltUmPerMm = between(-0.012, 0.012);
+        const height = Math.max(1, Math.round((Math.abs(ratio) * tolerance) / bedStepUm) - 1);
+        const sign = test.direction.allowed === "convex" ? Math.sign(ratio) || 1 : random() < 0.5 ? -1 : 1;
+        const points = xs.map((x, i) => {
+          const s = i / (xs.length - 1);
+          // Convex: a crown in the middle. A negative ratio: a dip worn in the first third, near the chuck.
+          const shape = sign > 0 ? 4 * s * (1 - s) : -Math.exp(-(((s - 0.3) / 0.16) ** 2));
+          const jitter = i === 0 || i === xs.length - 1 ? 0 : sign > 0 ? whole(0, 1) : -whole(0, 1);
+          const tiltCounts = (tiltUmPerMm * x * scale.station) / bedStepUm;
+          return { station: x, reading: round((Math.round(tiltCounts) + Math.round(height * shape) + jitter) * bedStep) };
+        });
+        measurements[test.code] = { kind: "profile", points };
+        break;
+      }
+      case "range-along": {
+        // The top slide is read over its own short travel (about 100 mm, 4 in).
+        const travel = test.code === "L-TOP-PAR" ? (machine.units === "inch" ? 4 : 100) : machine.travel;
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal);
+        const value = Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        const xs = stations(travel, 4);
+        const points = xs.map((x, i) => ({ station: x, reading: reading(i === xs.length - 1 ? value : Math.round((value * i) / (xs.length - 1))) }));
+        measurements[test.code] = { kind: "profile", points };
+        break;
+      }
+      case "squareness": {
+        const travel = machine.crossTravel;
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal);
+        const value = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        const xs = stations(travel, 6);
+        // A straight travel, off square by `value` over its length; the least-squares slope reads it back.
+        const points = xs.map((x, i) => ({ station: x, reading: reading(Math.round((value * i) / (xs.length - 1))) }));
+        measurements[test.code] = { kind: "profile", points };
+        break;
+      }
+      case "level-range": {
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const levelStep = machine.levelResolution;
+        const value = Math.max(1, Math.round((Math.abs(ratio) * tolerance) / levelStep));
+        const xs = stations(machine.travel, 4);
+        const base = whole(-8, 8);
+        const order = [0, Math.round(value * 0.4), value, Math.round(value * 0.7), Math.round(value * 0.2)];
+        const points = xs.map((x, i) => ({ station: x, reading: round((base + order[i]!) * levelStep) }));
+        measurements[test.code] = { kind: "level", points };
+        break;
+      }
+      case "mandrel-inclination": {
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const lean = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        // The mandrel's own run-out shows at 0° and 180° and cancels in the mean (GEOMETRY.md).
+        const nearRunOut = whole(1, 2);
+        const farRunOut = nearRunOut + whole(0, 2);
+        const zero = whole(-3, 3);
+        measurements[test.code] = {
+          kind: "mandrel",
+          near: { at0: reading(zero + nearRunOut), at180: reading(zero - nearRunOut) },
+          far: { at0: reading(zero + lean + farRunOut), at180: reading(zero + lean - farRunOut) },
+        };
+        break;
+      }
+      case "near-far": {
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const lean = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        const zero = whole(-2, 2);
+        measurements[test.code] = { kind: "near-far", near: reading(zero), far: reading(zero + lean) };
+        break;
+      }
+      case "centre-height": {
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const rise = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
+        const zero = whole(-2, 2);
+        measurements[test.code] = { kind: "centre-height", headstockEnd: reading(zero), tailstockEnd: reading(zero + rise) };
+        break;
+      }
+    }
+  }
+  return { profile, measurements };
+}
+
+function round(value: number) {
+  // Clear of float noise (0.00002 × 3 = 0.00006000000000000001), to the tenth decimal.
+  return Math.round(value * 1e10) / 1e10;
+}
+
+/** What the server will score: the readings in the engine's units, with each instrument's resolution. */
+export function scoreDemoReadings(
+  readings: DemoReadings,
+  machine: Pick<DemoMachine, "units" | "indicatorResolution" | "levelResolution" | "bedResolution">,
+  conditions: ReportMeasurements["conditions"],
+): ReportScore {
+  const tests: Record<string, TestMeasurement> = {};
+  for (const [code, measurement] of Object.entries(readings.measurements)) {
+    const resolution = measurement.kind === "level" ? machine.levelResolution : code === "L-BED-V" ? (machine.bedResolution ?? machine.indicatorResolution) : machine.indicatorResolution;
+    tests[code] = { ...measurement, resolution };
+  }
+  return scoreReport(readings.profile, toMetric({ tests, conditions }, machine.units));
+}
+
+/** Throws unless the readings score to the grade the demo says they do. */
+export function expectDemoGrade(label: string, score: ReportScore, grade: Grade) {
+  if (score.grade !== grade) {
+    const worst = score.results.map((result) => `${result.code} ${result.ratio.toFixed(2)}${result.pass ? "" : " out"}`).join(", ");
+    throw new Error(`demo report ${label} scores ${score.grade}, not ${grade} (${worst}; missing ${score.missing.join(", ") || "none"})`);
+  }
+}
+
+const text = (value: number) => String(value);
+
+/** One measurement as the entry form holds it: strings, in the entry's units. */
+export function entryOf(measurement: TestMeasurement, instrumentId: string, notes = ""): Partial<TestEntry> & Pick<TestEntry, "kind"> {
+  const base = { instrumentId, notes };
+  switch (measurement.kind) {
+    case "sweep":
+      return { ...base, kind: "sweep", readings: measurement.readings.map(text) };
+    case "extremes":
+      return { ...base, kind: "extremes", max: text(measurement.max), min: text(measurement.min) };
+    case "profile":
+    case "level":
+      return { ...base, kind: measurement.kind, points: measurement.points.map((point) => ({ station: text(point.station), reading: text(point.reading) })) };
+    case "mandrel":
+      return {
+        ...base,
+        kind: "mandrel",
+        near0: text(measurement.near.at0),
+        near180: text(measurement.near.at180),
+        far0: text(measurement.far.at0),
+        far180: text(measurement.far.at180),
+      };
+    case "near-far":
+      return { ...base, kind: "near-far", near: text(measurement.near), far: text(measurement.far) };
+    case "centre-height":
+      return { ...base, kind: "centre-height", headstockEnd: text(measurement.headstockEnd), tailstockEnd: text(measurement.tailstockEnd) };
+  }
+}
+
+export type { ProfileTest };
