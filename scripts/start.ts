@@ -62,9 +62,12 @@ async function main() {
 
   log("app", `Tenthmark is running at ${appOrigin}`);
   const signIns = demoSignIns();
-  if (signIns.length) {
+  const printed = signIns.filter((signIn) => signIn.printed);
+  if (printed.length) {
     log("app", "Demo sign-ins:");
-    for (const signIn of signIns) log("app", `  ${signIn.role.padEnd(10)} ${signIn.email.padEnd(34)} ${signIn.password}`);
+    for (const signIn of printed) log("app", `  ${signIn.role.padEnd(16)} ${signIn.email.padEnd(34)} ${signIn.password}`);
+    const more = signIns.length - printed.length;
+    if (more) log("app", `  …and ${more} more (other dealers, a private seller, inspectors, buyers): see "Demo sign-ins" in README.md`);
   }
   for (const standIn of standIns) for (const [key, value] of Object.entries(standIn.env)) if (/URL$/.test(key)) log(standIn.name, `${key}=${value}`);
   log("app", "Press Ctrl-C to stop.");

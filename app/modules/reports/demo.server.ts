@@ -1,139 +1,92 @@
-// Demo accuracy reports for `npm start`: an invented scenario. Three demo lathes are booked, paid on the
-// payments stand-in and accepted through the inspections module, then filed and signed through this
-// module, so every row is what the product itself would write. Readings are invented.
-import { subDays, subMonths } from "date-fns";
-import { and, eq, inArray } from "drizzle-orm";
-import type Stripe from "stripe";
-import { getDatabase } from "~/db/client.server";
-import { env } from "~/env.server";
+// Demo accuracy reports for `npm start`: an invented scenario. Fifteen demo machines are booked, paid on the
+// payments stand-in and accepted through the inspections module, then filed and signed through this module,
+// so every row is what the product itself would write. Readings are invented (see demo-readings.ts), and
+// each set is scored by the engine before filing: a plan that does not score to its grade stops the seed.
+import { addDays, addHours, addMinutes } from "date-fns";
+import { and, eq } from "drizzle-orm";
+import { getDatabase, type Database } from "~/db/client.server";
+import type { Grade } from "~/geometry";
 import type { SessionUser } from "~/modules/accounts/guards.server";
-import { acceptBooking, createBooking } from "~/modules/inspections/bookings.server";
-import { freeSlots } from "~/modules/inspections/profiles.server";
-import { bookings } from "~/modules/inspections/schema";
-import { handleStripeEvent } from "~/modules/inspections/webhook.server";
+import { acceptBooking, payInspector } from "~/modules/inspections/bookings.server";
+import { backdateBooking, bookDemoInspection, scenarioToday, type DemoPerson } from "~/modules/inspections/demo.server";
+import type { DemoInspectorKey } from "./demo-plans";
 import { listings } from "~/modules/listings/schema";
-import type { ReportForm } from "./form";
+import { demoReportPlans, formFor, type DemoBookerKey, type DemoReportPlan } from "./demo-plans";
+import { expectDemoGrade } from "./demo-readings";
 import { reports } from "./schema";
-import { signReport, submitReport } from "./service.server";
+import { signReport, startCorrection, submitReport } from "./service.server";
 
-type Person = { id: string; email: string; name: string };
-type Rows = Array<[number, number]>;
+const asInspector = (person: DemoPerson): SessionUser => ({
+  id: person.id,
+  email: person.email,
+  name: person.name,
+  emailVerified: true,
+  roles: ["inspector"],
+  displayUnits: "mm",
+  inspectorStatus: "certified",
+});
 
-const points = (rows: Rows) => rows.map(([station, reading]) => ({ station: String(station), reading: String(reading) }));
+/** Files and signs one plan's report (and its correction), from booking to payout; returns the booking. */
+async function fileDemoReport(db: Database, plan: DemoReportPlan, people: { inspectors: Record<DemoInspectorKey, DemoPerson>; bookers: Record<DemoBookerKey, DemoPerson> }, now: Date) {
+  const today = scenarioToday(now);
+  const [listing] = await db.select({ slug: listings.slug }).from(listings).where(and(eq(listings.model, plan.model), eq(listings.status, "published")));
+  if (!listing) throw new Error(`demo report: no published listing ${plan.model}`);
+  const inspector = people.inspectors[plan.inspector];
+  const visit = addHours(addDays(today, -plan.measuredDaysAgo), 7);
+  const requested = addHours(addDays(visit, -(6 + (plan.seed % 7))), 3);
+  const paid = addMinutes(requested, 6 + (plan.seed % 20));
+  const accepted = addHours(requested, 18 + (plan.seed % 9));
+  const signed = plan.fresh ? now : addHours(visit, 8);
 
-function readings(grade: "A" | "C" | "D", travel: number) {
-  const step = travel / 4;
-  const along = (values: number[]): Rows => values.map((value, i) => [Math.round(step * i), value]);
-  const common = {
-    "L-BED-X": { kind: "level", points: points([[0, 10], [Math.round(travel / 2), 20], [travel, 24]]), instrumentId: "i2" },
-    "L-CAR-H": { kind: "profile", points: points(along([0, 2, 3, 1, 0])), instrumentId: "i1" },
-    "L-SP-CTR": { kind: "extremes", max: "5", min: "0", instrumentId: "i1" },
-    "L-TS-SLV-V": { kind: "near-far", near: "0", far: "6", instrumentId: "i1" },
-    "L-TS-SLV-H": { kind: "near-far", near: "0", far: "4", instrumentId: "i1" },
-    "L-TS-TAP-V": { kind: "near-far", near: "0", far: "12", instrumentId: "i1" },
-    "L-TS-TAP-H": { kind: "near-far", near: "0", far: "10", instrumentId: "i1" },
-    "L-CTR-HT": { kind: "centre-height", headstockEnd: "0", tailstockEnd: "15", instrumentId: "i1" },
-    "L-XS-SQ": { kind: "profile", points: points([[0, 0], [100, 1], [200, 2], [300, 3]]), instrumentId: "i1" },
+  const bookingId = await bookDemoInspection(db, { booker: people.bookers[plan.booker], listingSlug: listing.slug, inspectorId: inspector.id, startsAt: visit, requestedAt: requested });
+  await acceptBooking(db, inspector, bookingId);
+  const user = asInspector(inspector);
+
+  const file = async (ratios: Record<string, number> | undefined, grade: Grade, notes: string, at: Date, label: string) => {
+    const { form, score } = formFor(plan, ratios, visit, notes);
+    expectDemoGrade(label, score, grade);
+    const submitted = await submitReport(db, user, bookingId, { form }, at);
+    if (!submitted.ok) throw new Error(`demo report ${label} was refused: ${JSON.stringify(submitted.errors)}`);
+    const [stored] = await db.select({ grade: reports.grade }).from(reports).where(eq(reports.id, submitted.reportId));
+    if (stored?.grade !== grade) throw new Error(`demo report ${label}: the server scored ${stored?.grade}, the plan says ${grade}`);
+    await signReport(db, user, bookingId, submitted.reportId, at);
+    return submitted.reportId;
   };
-  if (grade === "A") {
-    return {
-      ...common,
-      "L-BED-V": { kind: "profile", points: points(along([0, 2, 4, 3, 0])), instrumentId: "i1" },
-      "L-SP-SLIP": { kind: "extremes", max: "3", min: "0", instrumentId: "i1" },
-      "L-SP-NOSE": { kind: "sweep", readings: ["0", "2", "3", "1", "0", "1", "2", "1"], instrumentId: "i1" },
-      "L-SP-TAP-N": { kind: "extremes", max: "4", min: "0", instrumentId: "i1" },
-      "L-SP-TAP-F": { kind: "extremes", max: "7", min: "0", instrumentId: "i1" },
-      "L-SP-PAR-V": { kind: "mandrel", near0: "2", near180: "-2", far0: "14", far180: "4", instrumentId: "i1" },
-      "L-SP-PAR-H": { kind: "mandrel", near0: "1", near180: "-1", far0: "6", far180: "2", instrumentId: "i1" },
-      "L-P-ROUND": { kind: "sweep", readings: ["0", "1", "3", "2", "1", "0"], instrumentId: "i1" },
-    };
+
+  if (plan.correction) {
+    const first = await file(plan.correction.firstRatios, plan.correction.firstGrade, plan.correction.firstNotes, signed, `${plan.model} (revision 1)`);
+    await startCorrection(db, user, first);
+    await file(undefined, plan.grade, plan.notes, addDays(signed, plan.correction.daysLater), `${plan.model} (revision 2)`);
+  } else {
+    await file(undefined, plan.grade, plan.notes, signed, plan.model);
   }
-  if (grade === "C") {
-    return {
-      ...common,
-      "L-BED-V": { kind: "profile", points: points(along([0, 4, 7, 5, 0])), instrumentId: "i1" },
-      "L-SP-SLIP": { kind: "extremes", max: "5", min: "0", instrumentId: "i1" },
-      "L-SP-NOSE": { kind: "sweep", readings: ["0", "3", "6", "4", "1", "2"], instrumentId: "i1" },
-      "L-SP-TAP-N": { kind: "extremes", max: "6", min: "0", instrumentId: "i1" },
-      "L-SP-TAP-F": { kind: "extremes", max: "12", min: "0", instrumentId: "i1" },
-      "L-SP-PAR-V": { kind: "mandrel", near0: "0", near180: "0", far0: "16", far180: "8", instrumentId: "i1" },
-      // The free end leans 3 µm away from the tool: a direction failure, however small.
-      "L-SP-PAR-H": { kind: "mandrel", near0: "1", near180: "-1", far0: "-2", far180: "-4", instrumentId: "i1" },
-    };
+
+  // The payout the queue would record at once; the fresh report's is left to the app's worker, so that one
+  // booking shows "report filed" until the server has started.
+  const byEvent: Record<string, Date> = { report_filed: signed };
+  if (!plan.fresh) {
+    await payInspector(db, bookingId);
+    byEvent.payout_recorded = addMinutes(signed, 2);
   }
-  return {
-    ...common,
-    "L-BED-V": { kind: "profile", points: points(along([0, 12, 24, 30, 8])), instrumentId: "i1" },
-    "L-SP-SLIP": { kind: "extremes", max: "14", min: "0", instrumentId: "i1" },
-    "L-SP-NOSE": { kind: "sweep", readings: ["0", "6", "14", "18", "9", "3"], instrumentId: "i1" },
-    "L-SP-TAP-N": { kind: "extremes", max: "12", min: "0", instrumentId: "i1" },
-    "L-SP-TAP-F": { kind: "extremes", max: "26", min: "0", instrumentId: "i1" },
-    "L-SP-PAR-V": { kind: "mandrel", near0: "0", near180: "0", far0: "-8", far180: "-12", instrumentId: "i1" },
-    "L-SP-PAR-H": { kind: "mandrel", near0: "0", near180: "0", far0: "9", far180: "5", instrumentId: "i1" },
-  };
+  await backdateBooking(db, bookingId, { requested, paid, accepted, ended: plan.fresh ? signed : addMinutes(signed, 2), byEvent });
+  return bookingId;
 }
 
-const plans = [
-  { model: "KD 320", grade: "A" as const, measured: (now: Date) => subDays(now, 20), notes: "Reground bed and new spindle bearings show: every test well inside tolerance." },
-  { model: "Series 14 x 40", grade: "C" as const, measured: (now: Date) => subMonths(now, 2), notes: "Headstock sits slightly twisted on the bed: the spindle axis leans away from the tool. Shimming the headstock would correct it." },
-  { model: "OL 400", grade: "D" as const, measured: (now: Date) => subMonths(now, 14), notes: "Worn spindle bearings and a dipped bed near the chuck. Sold as is; priced for a rebuild." },
-];
-
-/** Pays a demo booking on the stand-in and applies the checkout event at once (the app is not serving yet). */
-async function payOnStandIn(sessionId: string, email: string) {
-  const standIn = env().STRIPE_STAND_IN_URL;
-  if (!standIn) return false;
-  const paid = await fetch(`${standIn}/__stand-in/sessions/${sessionId}/pay`, {
-    method: "POST",
-    headers: { "content-type": "application/json" },
-    body: JSON.stringify({ card_number: "4242 4242 4242 4242", expiry: "12/34", cvc: "123", email }),
-  });
-  if (!paid.ok) return false;
-  const events = (await (await fetch(`${standIn}/v1/events?limit=100`, { headers: { authorization: `Bearer ${env().STRIPE_SECRET_KEY}` } })).json()) as { data: Stripe.Event[] };
-  const completed = events.data.find((event) => event.type === "checkout.session.completed" && (event.data.object as { id: string }).id === sessionId);
-  if (completed) await handleStripeEvent(getDatabase(), completed);
-  return Boolean(completed);
-}
-
-/** Signed demo reports across grades (A, C, and an expired D) for three demo lathes; 0 when reports exist already. */
-export async function seedDemoReports({ inspector, buyer }: { inspector: Person; buyer: Person }) {
+/**
+ * Signed demo reports across every grade, one corrected, one past its 12 months, for fifteen demo lathes.
+ * `which` picks the archive (signed in the past) or the fresh one (signed now, after the saved searches).
+ */
+export async function seedDemoReports(
+  people: { inspectors: Record<DemoInspectorKey, DemoPerson>; bookers: Record<DemoBookerKey, DemoPerson> },
+  which: "archive" | "fresh",
+  now = new Date(),
+) {
   const db = getDatabase();
-  const [existing] = await db.select({ id: reports.id }).from(reports).limit(1);
-  if (existing) return 0;
-  const candidates = await db
-    .select()
-    .from(listings)
-    .where(and(eq(listings.status, "published"), inArray(listings.model, plans.map((plan) => plan.model))));
-  const asInspector = { id: inspector.id, email: inspector.email, name: inspector.name, emailVerified: true, roles: ["inspector"], displayUnits: "mm", inspectorStatus: "certified" } as SessionUser;
-  let signed = 0;
-  for (const plan of plans) {
-    const listing = candidates.find((candidate) => candidate.model === plan.model);
-    const [slot] = await freeSlots(db, inspector.id);
-    if (!listing || !slot) continue;
-    const { bookingId } = await createBooking(db, { booker: buyer, listingSlug: listing.slug, inspectorId: inspector.id, slotId: slot.id });
-    const [booking] = await db.select({ sessionId: bookings.checkoutSessionId }).from(bookings).where(eq(bookings.id, bookingId));
-    if (!booking?.sessionId || !(await payOnStandIn(booking.sessionId, buyer.email))) continue;
-    await acceptBooking(db, inspector, bookingId);
-    const measured = plan.measured(new Date());
-    const travel = listing.distanceBetweenCentresMm && listing.distanceBetweenCentresMm <= 1500 ? Math.floor(listing.distanceBetweenCentresMm / 100) * 100 : 1000;
-    const form = {
-      units: "mm",
-      profile: { key: "centre-lathe-normal", version: 1, reason: "" },
-      measuredOn: measured.toISOString().slice(0, 10),
-      conditions: { ambientTemperatureC: "19.5", warmUpMinutes: "40", levelled: "yes", notes: "Machine levelled on its own feet before the tests." },
-      instruments: [
-        { id: "i1", kind: "lever-indicator", description: "Orvik lever indicator, 0.001 mm", resolution: "1", calibrationDue: "2031-03-01" },
-        { id: "i2", kind: "electronic-level", description: "Quellmark electronic level, 1 µm/m", resolution: "1", calibrationDue: "2031-03-01" },
-        { id: "i3", kind: "test-mandrel", description: "300 mm test mandrel, MT5", resolution: "", calibrationDue: "" },
-      ],
-      tests: readings(plan.grade, travel),
-      notes: plan.notes,
-      safetyAcknowledged: true,
-    } satisfies Omit<ReportForm, "tests"> & { tests: Record<string, Record<string, unknown>> };
-    const submitted = await submitReport(db, asInspector, bookingId, { form }, measured);
-    if (!submitted.ok) throw new Error(`demo report for ${plan.model} was refused: ${JSON.stringify(submitted.errors)}`);
-    await signReport(db, asInspector, bookingId, submitted.reportId, measured);
-    signed += 1;
+  let filed = 0;
+  for (const plan of demoReportPlans) {
+    if (Boolean(plan.fresh) !== (which === "fresh")) continue;
+    await fileDemoReport(db, plan, people, now);
+    filed += 1;
   }
-  return signed;
+  return filed;
 }
