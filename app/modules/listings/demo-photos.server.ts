@@ -146,6 +146,38 @@ const crops = [
   { left: 300, top: 150, width: 1000, height: 750 },
 ];
 
+// The seed draws dozens of photos from a handful of scenes: each scene is rasterised once, and the grain of
+// each (small) size made once. Large sizes are not kept, so a benchmark's 24-megapixel photo costs nothing after.
+const scenes = new Map<string, Promise<Buffer>>();
+const grains = new Map<string, Promise<Buffer>>();
+const CACHED_GRAIN_PIXELS = 2_000_000;
+
+function sceneOf(drawing: MachineDrawing, paint: MachinePaint) {
+  const key = `${drawing}:${paint.body}:${paint.shade}:${paint.wall}`;
+  let scene = scenes.get(key);
+  if (!scene) {
+    scene = sharp(Buffer.from(drawings[drawing](paint, 1600, 1200))).png({ compressionLevel: 1 }).toBuffer();
+    scenes.set(key, scene);
+  }
+  return scene;
+}
+
+function grainOf(width: number, height: number) {
+  // Film grain, so the photo has the texture (and the size) of a real one.
+  const make = () =>
+    sharp({ create: { width, height, channels: 3, background: "#808080", noise: { type: "gaussian", mean: 128, sigma: 18 } } })
+      .png({ compressionLevel: 1 })
+      .toBuffer();
+  if (width * height > CACHED_GRAIN_PIXELS) return make();
+  const key = `${width}x${height}`;
+  let grain = grains.get(key);
+  if (!grain) {
+    grain = make();
+    grains.set(key, grain);
+  }
+  return grain;
+}
+
 /** A JPEG of an invented machine of the given kind; `view` 1 to 3 are closer crops. */
 export async function drawMachinePhoto({
   drawing = "lathe",
@@ -154,12 +186,8 @@ export async function drawMachinePhoto({
   width = 1600,
   height = 1200,
 }: { drawing?: MachineDrawing; paint?: MachinePaint; view?: number; width?: number; height?: number } = {}) {
-  const full = await sharp(Buffer.from(drawings[drawing](paint, 1600, 1200))).png().toBuffer();
+  const [full, grain] = await Promise.all([sceneOf(drawing, paint), grainOf(width, height)]);
   const crop = crops[view % crops.length];
-  // Film grain, so the photo has the texture (and the size) of a real one.
-  const grain = await sharp({ create: { width, height, channels: 3, background: "#808080", noise: { type: "gaussian", mean: 128, sigma: 18 } } })
-    .png()
-    .toBuffer();
   return sharp(full)
     .extract(crop)
     .resize(width, height)

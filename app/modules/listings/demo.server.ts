@@ -374,8 +374,8 @@ function photoVariants(drawing: MachineDrawing, paint: number, view: number) {
   const key = `${drawing}:${paint}:${view}`;
   let variants = drawn.get(key);
   if (!variants) {
-    // 1200 × 900 is enough for the large view and keeps the seed quick on a small machine.
-    variants = drawMachinePhoto({ drawing, paint: paints[paint % paints.length], view, width: 1200, height: 900 }).then(makePhotoVariants);
+    // 1024 × 768 is enough for the large view and keeps the seed quick on a small machine.
+    variants = drawMachinePhoto({ drawing, paint: paints[paint % paints.length], view, width: 1024, height: 768 }).then(makePhotoVariants);
     drawn.set(key, variants);
   }
   return variants;
