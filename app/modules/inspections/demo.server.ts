@@ -209,7 +209,9 @@ export async function seedDemoInspections(inspectors: Record<DemoInspectorKey, D
   made.push(declined.bookingId);
 
   // Cancelled by the buyer two days before an accepted visit: half the fee back (the short-notice rule).
-  const visit = addHours(addDays(today, -12), 7);
+  let visitDay = addDays(today, -12);
+  while (visitDay.getUTCDay() === 0 || visitDay.getUTCDay() === 6) visitDay = addDays(visitDay, -1);
+  const visit = addHours(visitDay, 7);
   const requested = addHours(addDays(today, -26), 10);
   const cancelledId = await bookDemoInspection(db, { booker: buyer, listingSlug: await slugOf(db, "SG 824"), inspectorId: inspectors.renner.id, startsAt: visit, requestedAt: requested });
   await acceptBooking(db, inspectors.renner, cancelledId);

@@ -39,14 +39,13 @@ const instrumentSets: Record<InstrumentSet, { units: EntryUnits; indicator: numb
     units: "mm",
     indicator: 1,
     level: 2,
-    // A 1 µm indicator is too coarse for the bed's 7.5 µm local tolerance by the ten-to-one rule; the heights
-    // worked out from the level's readings at 100 mm steps come to 0.5 µm.
+    // A 1 µm indicator is too coarse for the bed's 7.5 µm local tolerance by the ten-to-one rule; the bed is
+    // read with the level, whose 2 µm/m at 100 mm steps gives heights to 0.2 µm, entered to 0.5 µm.
     bed: 0.5,
     list: (due) => [
       { id: "i1", kind: "lever-indicator", description: "Orvik lever indicator, 0.001 mm", resolution: "1", calibrationDue: due },
       { id: "i2", kind: "electronic-level", description: "Quellmark electronic level, 2 µm/m", resolution: "2", calibrationDue: due },
       { id: "i3", kind: "test-mandrel", description: "Test mandrel, 300 mm, in the spindle's taper", resolution: "", calibrationDue: "" },
-      { id: "i4", kind: "other", description: "Bed heights worked out from the electronic level's readings, 0.5 µm", resolution: "0.5", calibrationDue: due },
     ],
   },
   precision: {
@@ -111,7 +110,7 @@ export const demoReportPlans: DemoReportPlan[] = [
   },
   {
     model: "CL-410 Gap", grade: "B", inspector: "beckstrand", booker: "rafe", measuredDaysAgo: 118, instruments: "metric", seed: 410,
-    machine: { travel: 1500, crossTravel: 200, band: B, ratios: { "L-CTR-HT": 0.8, "L-TS-TAP-V": 0.72 } },
+    machine: { travel: 1500, crossTravel: 200, band: B, ratios: { "L-CTR-HT": 0.8, "L-TS-TAP-V": 0.72, "L-SP-NOSE": 0.5 } },
     conditions: workshop("18.0", "60", "Tested with the gap piece fitted."),
     notes: "Good headstock and bed. The tailstock sits high by most of its tolerance; still inside, and it errs the right way.",
   },
@@ -130,13 +129,13 @@ export const demoReportPlans: DemoReportPlan[] = [
   },
   {
     model: "Series 13 x 30", grade: "B", inspector: "renner", booker: "dealer", measuredDaysAgo: 150, instruments: "metric", seed: 1330,
-    machine: { travel: 700, crossTravel: 150, band: B, ratios: { "L-SP-SLIP": 0.7, "L-XS-SQ": 0.8 } },
+    machine: { travel: 700, crossTravel: 150, band: B, ratios: { "L-SP-SLIP": 0.7, "L-XS-SQ": 0.8, "L-SP-NOSE": 0.45 } },
     conditions: workshop("18.5", "40", "After the dealer's reconditioning, before delivery to the showroom."),
     notes: "Within tolerance throughout. Axial slip and the cross-slide's squareness are the figures to watch.",
   },
   {
     model: "FO 460", grade: "C", inspector: "mirelle", booker: "greta", measuredDaysAgo: 41, instruments: "metric", seed: 460,
-    machine: { travel: 1500, crossTravel: 225, band: [0.2, 0.7], ratios: { "L-BED-V": 1.3, "L-CAR-H": 1.15 } },
+    machine: { travel: 1500, crossTravel: 225, band: [0.2, 0.7], ratios: { "L-BED-V": 1.3, "L-CAR-H": 1.15, "L-SP-NOSE": 0.6 } },
     conditions: workshop("16.5", "30", "Railway workshop, large hall; tests in the morning before the doors were opened."),
     notes: "Spindle and tailstock good. The bed is worn beyond tolerance in both planes, by up to a third: fine for large work, not for fine fits.",
   },
@@ -148,7 +147,7 @@ export const demoReportPlans: DemoReportPlan[] = [
   },
   {
     model: "VH 6 Toolroom", grade: "B", inspector: "beckstrand", booker: "hollerbeck", measuredDaysAgo: 96, instruments: "precision", seed: 6,
-    machine: { travel: 600, crossTravel: 125, band: B, ratios: { "L-SP-PAR-V": 0.8, "L-SP-TAP-F": 0.7 } },
+    machine: { travel: 600, crossTravel: 125, band: B, ratios: { "L-SP-PAR-V": 0.8, "L-SP-TAP-F": 0.7, "L-SP-NOSE": 0.6 } },
     conditions: workshop("20.5", "50", "Measured to the precision class."),
     notes: "Within the precision-class tolerances on every test; the spindle axis rises a little more than the others would suggest.",
   },
@@ -166,7 +165,7 @@ export const demoReportPlans: DemoReportPlan[] = [
   },
   {
     model: "TC-6 Slant", grade: "B", inspector: "mirelle", booker: "rafe", measuredDaysAgo: 52, instruments: "metric", seed: 6060,
-    machine: { travel: 600, crossTravel: 150, band: B, ratios: { "L-SP-PAR-H": 0.7 } },
+    machine: { travel: 600, crossTravel: 150, band: B, ratios: { "L-SP-PAR-H": 0.7, "L-SP-NOSE": 0.55 } },
     conditions: workshop("21.5", "60", "Spindle warmed at 1500 rpm for an hour; indicator carried on the turret."),
     profileReason: "No profile covers CNC lathes yet. Checked against the centre-lathe normal class as the nearest, with the turret carrying the indicator and the programmable tailstock in place of the manual one.",
     notes: "Inside the centre-lathe normal class throughout. For a CNC lathe that is a floor, not a target.",
@@ -202,7 +201,11 @@ export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | u
   const tests = Object.fromEntries(
     Object.entries(readings.measurements).map(([code, measurement]) => [
       code,
-      entryOf(measurement, measurement.kind === "level" ? "i2" : code === "L-BED-V" && set.bed ? "i4" : "i1", ratios ? "" : (plan.testNotes?.[code] ?? "")),
+      {
+        ...entryOf(measurement, measurement.kind === "level" || (code === "L-BED-V" && set.bed) ? "i2" : "i1", ratios ? "" : (plan.testNotes?.[code] ?? "")),
+        // The bed's heights come from the level: their step is given on the test, as the form allows.
+        ...(code === "L-BED-V" && set.bed ? { resolution: String(set.bed) } : {}),
+      },
     ]),
   );
   const form = {

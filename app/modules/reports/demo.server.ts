@@ -32,11 +32,15 @@ async function fileDemoReport(db: Database, plan: DemoReportPlan, people: { insp
   const [listing] = await db.select({ slug: listings.slug }).from(listings).where(and(eq(listings.model, plan.model), eq(listings.status, "published")));
   if (!listing) throw new Error(`demo report: no published listing ${plan.model}`);
   const inspector = people.inspectors[plan.inspector];
-  const visit = addHours(addDays(today, -plan.measuredDaysAgo), 7);
+  // Visits fall on weekdays, in the morning or the afternoon slot.
+  let day = addDays(today, -plan.measuredDaysAgo);
+  while (day.getUTCDay() === 0 || day.getUTCDay() === 6) day = addDays(day, -1);
+  const visit = addHours(day, Math.floor(plan.seed / 3) % 2 ? 12 : 7);
   const requested = addHours(addDays(visit, -(6 + (plan.seed % 7))), 3);
   const paid = addMinutes(requested, 6 + (plan.seed % 20));
   const accepted = addHours(requested, 18 + (plan.seed % 9));
-  const signed = plan.fresh ? now : addHours(visit, 8);
+  // The fresh report is signed as it is filed, after the saved searches it must alert.
+  const signed = plan.fresh ? new Date() : addHours(visit, 8);
 
   const bookingId = await bookDemoInspection(db, { booker: people.bookers[plan.booker], listingSlug: listing.slug, inspectorId: inspector.id, startsAt: visit, requestedAt: requested });
   await acceptBooking(db, inspector, bookingId);
