@@ -37,6 +37,8 @@ async function unreadableForm(request: Request): Promise<{ status: number; messa
   if (!["POST", "PUT", "PATCH", "DELETE"].includes(request.method.toUpperCase())) return null;
   const pathname = new URL(request.url).pathname.replace(/\.data$/, "");
   if (takesOtherBodies.some((pattern) => pattern.test(pathname))) return null;
+  // An empty POST (e.g. a button that sends nothing) is left to the action, which may not read a body at all.
+  if (request.headers.get("content-length") === "0") return null;
   if (!FORM_TYPES.test(request.headers.get("content-type") ?? "")) {
     return { status: 415, message: "Send this form as application/x-www-form-urlencoded or multipart/form-data, as the page does." };
   }

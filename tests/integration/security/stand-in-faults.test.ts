@@ -3,6 +3,8 @@
 // told, that nothing half-written is left, and that the work completes once the service is back.
 import { spawn, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
+import { mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
 import path from "node:path";
 import { and, eq, inArray } from "drizzle-orm";
 import pg from "pg";
@@ -10,6 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
 import { bookings } from "~/modules/inspections/schema";
 import { listingPhotos, listings } from "~/modules/listings/schema";
+import { startSearchStandIn } from "../../../search/stand-in/index.ts";
 import { freePort } from "../../../scripts/lib/ports.ts";
 import { waitForHttp } from "../../../scripts/lib/processes.ts";
 import { createTestUser, type TestUser } from "../../support/accounts";
@@ -26,12 +29,17 @@ const queueSchema = `pgboss_faults_${randomUUID().slice(0, 8)}`;
 let app: ChildProcess | undefined;
 let origin: string;
 let proxies: Record<"files" | "payments" | "search" | "mail", FaultProxy>;
+// A search stand-in of this test's own: this server's start-up re-index and index updates must not race the
+// shared index that other tests (saved-search alerts) watch.
+const searchDataDir = mkdtempSync(path.join(os.tmpdir(), "faults-search-"));
+let search: Awaited<ReturnType<typeof startSearchStandIn>> | undefined;
 
 beforeAll(async () => {
+  search = await startSearchStandIn({ port: await freePort(), dataDir: searchDataDir });
   proxies = {
     files: await startFaultProxy(process.env.S3_ENDPOINT!),
     payments: await startFaultProxy(`http://127.0.0.1:${process.env.STRIPE_API_PORT}`),
-    search: await startFaultProxy(process.env.MEILISEARCH_HOST!),
+    search: await startFaultProxy(search.env.MEILISEARCH_HOST),
     mail: await startFaultProxy(`http://${process.env.POSTMARK_API_HOST}`),
   };
   const port = await freePort();
@@ -61,6 +69,8 @@ beforeAll(async () => {
 afterAll(async () => {
   app?.kill("SIGTERM");
   await Promise.all(Object.values(proxies ?? {}).map((proxy) => proxy.stop()));
+  await search?.stop();
+  rmSync(searchDataDir, { recursive: true, force: true });
   const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
   await client.connect();
   await client.query(`drop schema if exists "${queueSchema}" cascade`);
