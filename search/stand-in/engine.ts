@@ -4,18 +4,9 @@
 import { mkdir, readFile, rename, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { ApiError, indexNotFound, type ApiErrorBody } from "./errors.ts";
-import {
-  attributePosition,
-  conditionsOf,
-  evaluateFilter,
-  FilterShapeError,
-  FilterSyntaxError,
-  leafValues,
-  lookUp,
-  parseFilter,
-  type FilterNode,
-} from "./filter.ts";
+import { attributePosition, conditionsOf, evaluateFilter, FilterShapeError, FilterSyntaxError, parseFilter, type FilterNode } from "./filter.ts";
 import { applySettingsPatch, attributeMatches, defaultSettings, filterablePatterns } from "./index-settings.ts";
+import { DocumentTable, type Bitset, type SortRule } from "./table.ts";
 import { TextIndex, type TypoSettings } from "./text-index.ts";
 
 type Document = Record<string, unknown>;
@@ -28,6 +19,8 @@ type IndexState = {
   settings: Record<string, unknown>;
   documents: Map<string, Document>;
   text: TextIndex;
+  /** The documents' columns for searching, built on the first search after a change (null until then). */
+  table: DocumentTable | null;
 };
 
 export type TaskStatus = "enqueued" | "processing" | "succeeded" | "failed" | "canceled";
@@ -55,7 +48,7 @@ type Work = (task: TaskView) => void;
 type Snapshot = {
   version: 1;
   nextTaskUid: number;
-  indexes: Array<Omit<IndexState, "documents" | "text"> & { documents: Document[] }>;
+  indexes: Array<Omit<IndexState, "documents" | "text" | "table"> & { documents: Document[] }>;
   tasks: TaskView[];
 };
 
@@ -114,6 +107,7 @@ export class SearchEngine {
       settings,
       documents,
       text: new TextIndex(["*"], typoSettings(settings), () => documents.entries()),
+      table: null,
     };
     return state;
   }
@@ -213,7 +207,7 @@ export class SearchEngine {
     const snapshot: Snapshot = {
       version: 1,
       nextTaskUid: this.nextTaskUid,
-      indexes: [...this.indexes.values()].map(({ documents, text: _text, ...rest }) => ({ ...rest, documents: [...documents.values()] })),
+      indexes: [...this.indexes.values()].map(({ documents, text: _text, table: _table, ...rest }) => ({ ...rest, documents: [...documents.values()] })),
       tasks: this.tasks,
     };
     const text = JSON.stringify(snapshot);
@@ -355,6 +349,7 @@ export class SearchEngine {
         state.documents.set(id, next);
         state.text.upsert(id, next, existing !== undefined);
       }
+      state.table = null;
       state.updatedAt = new Date().toISOString();
       task.details.indexedDocuments = prepared.length;
     });
@@ -386,6 +381,7 @@ export class SearchEngine {
           deleted += 1;
         }
       }
+      state.table = null;
       state.updatedAt = new Date().toISOString();
       task.details.deletedDocuments = deleted;
     });
@@ -406,6 +402,7 @@ export class SearchEngine {
           deleted += 1;
         }
       }
+      state.table = null;
       state.updatedAt = new Date().toISOString();
       task.details.deletedDocuments = deleted;
     });
@@ -417,6 +414,7 @@ export class SearchEngine {
       task.details.deletedDocuments = state.documents.size;
       state.documents.clear();
       state.text.invalidate();
+      state.table = null;
       state.updatedAt = new Date().toISOString();
     });
   }
@@ -444,32 +442,43 @@ export class SearchEngine {
     }
   }
 
-  search(uid: string, request: SearchRequest) {
+  private tableOf(state: IndexState): DocumentTable {
+    state.table ??= new DocumentTable(state.documents.entries());
+    return state.table;
+  }
+
+  /**
+   * One search. `memo` (per index) lets the searches of one multi-search share the document sets of
+   * the conditions they have in common.
+   */
+  search(uid: string, request: SearchRequest, memo?: Map<string, Bitset>) {
     const started = performance.now();
     const state = this.requireIndex(uid);
     const filter = this.parseIndexFilter(state, request.filter, "invalid_search_filter");
     const sortRules = parseSort(state, request.sort);
     const facets = facetAttributes(state, request.facets);
+    const table = this.tableOf(state);
+    const allowed = filter ? table.match(filter, memo) : null;
 
     const query = request.q ?? "";
-    let candidates: Array<[string, Document]>;
+    let matches: number[];
     if (query.trim() === "") {
-      candidates = [...state.documents.entries()];
+      matches = allowed ? allowed.members() : Array.from({ length: table.size }, (_, n) => n);
     } else {
-      candidates = state.text.search(query, request.matchingStrategy).flatMap((id) => {
-        const document = state.documents.get(id);
-        return document ? [[id, document] as [string, Document]] : [];
-      });
+      matches = [];
+      for (const id of state.text.search(query, request.matchingStrategy)) {
+        const n = table.numberOfKey(id);
+        if (n !== undefined && (!allowed || allowed.has(n))) matches.push(n);
+      }
     }
-    let matches = filter ? candidates.filter(([, document]) => evaluateFilter(filter, document)) : candidates;
     // Sort first; the relevance order (or insertion order) of the candidates breaks ties, since sort is stable.
-    if (sortRules.length) matches = [...matches].sort(([, a], [, b]) => compareBySort(a, b, sortRules));
+    if (sortRules.length) matches = table.sort(matches, sortRules);
 
     const maxTotalHits = (state.settings.pagination as { maxTotalHits: number }).maxTotalHits;
-    const reachable = matches.slice(0, maxTotalHits);
+    const reachable = matches.length > maxTotalHits ? matches.slice(0, maxTotalHits) : matches;
     const pageMode = request.page !== undefined || request.hitsPerPage !== undefined;
     const response: Record<string, unknown> = {};
-    let hits: Array<[string, Document]>;
+    let hits: number[];
     if (pageMode) {
       const page = request.page ?? 1;
       const hitsPerPage = request.hitsPerPage ?? 20;
@@ -483,18 +492,45 @@ export class SearchEngine {
     }
 
     const result: Record<string, unknown> = {
-      hits: hits.map(([, document]) => pickAttributes(document, request.attributesToRetrieve, state.settings)),
+      // Not copied: the server serializes the answer at once, and nothing here changes a stored document.
+      hits: hits.map((n) => pickAttributes(table.documents[n]!, request.attributesToRetrieve, state.settings, { copy: false })),
       query,
       processingTimeMs: 0,
       ...response,
     };
     if (facets) {
       const maxValues = (state.settings.faceting as { maxValuesPerFacet: number }).maxValuesPerFacet;
-      Object.assign(result, facetSummary(matches.map(([, document]) => document), facets, maxValues));
+      Object.assign(result, table.facetSummary(matches, facets, maxValues));
     }
     result.processingTimeMs = Math.round(performance.now() - started);
     return result;
   }
+
+  /**
+   * Several searches in one request, answered in order as `{ results: [{ indexUid, …search }] }`. Stops
+   * early when `gone()` says the client has left. A failing query fails the whole request, naming it.
+   */
+  multiSearch(queries: Array<{ indexUid: string; request: SearchRequest }>, gone: () => boolean = () => false) {
+    const memos = new Map<string, Map<string, Bitset>>();
+    const results: Record<string, unknown>[] = [];
+    for (const [position, { indexUid, request }] of queries.entries()) {
+      if (gone()) throw new ClientGoneError();
+      let memo = memos.get(indexUid);
+      if (!memo) memos.set(indexUid, (memo = new Map()));
+      try {
+        results.push({ indexUid, ...this.search(indexUid, request, memo) });
+      } catch (error) {
+        if (error instanceof ApiError) throw new ApiError(error.status, error.code, `Inside \`.queries[${position}]\`: ${error.message}`, error.type);
+        throw error;
+      }
+    }
+    return { results };
+  }
+}
+
+/** The client closed its connection before its searches ran: nothing is computed or sent. */
+export class ClientGoneError extends Error {
+  override name = "ClientGoneError";
 }
 
 // ------------------------------------------------------------------------------------------------------
@@ -556,10 +592,10 @@ function displayedAllows(attribute: string, settings: Record<string, unknown>): 
 }
 
 /** A copy of the document holding only the requested (and displayed) attributes; dotted paths reach into objects. */
-export function pickAttributes(document: Document, attributes: string[] | null, settings: Record<string, unknown>): Document {
+export function pickAttributes(document: Document, attributes: string[] | null, settings: Record<string, unknown>, { copy = true } = {}): Document {
   const displayed = settings.displayedAttributes as string[];
   const wanted = !attributes || attributes.includes("*") ? (displayed.includes("*") ? null : displayed) : attributes.filter((attribute) => displayedAllows(attribute, settings));
-  if (wanted === null) return structuredClone(document);
+  if (wanted === null) return copy ? structuredClone(document) : document;
   const picked: Document = {};
   for (const attribute of wanted) copyPath(document, attribute, picked);
   return picked;
@@ -584,7 +620,6 @@ function copyPath(source: Document, attribute: string, target: Document) {
   }
 }
 
-type SortRule = { attribute: string; descending: boolean };
 
 function parseSort(state: IndexState, sort: string[] | null): SortRule[] {
   if (!sort) return [];
@@ -602,27 +637,6 @@ function parseSort(state: IndexState, sort: string[] | null): SortRule[] {
   });
 }
 
-/** Numbers sort before strings, and documents without the attribute come last in either direction. */
-function sortKey(document: Document, rule: SortRule): { group: number; value: number | string } {
-  const leaves = leafValues(lookUp(document, rule.attribute));
-  const numbers = leaves.filter((leaf): leaf is number => typeof leaf === "number");
-  if (numbers.length) return { group: 0, value: rule.descending ? Math.max(...numbers) : Math.min(...numbers) };
-  const strings = leaves.filter((leaf): leaf is string => typeof leaf === "string").map((leaf) => leaf.toLowerCase()).sort();
-  if (strings.length) return { group: 1, value: rule.descending ? strings.at(-1)! : strings[0]! };
-  return { group: 2, value: 0 };
-}
-
-function compareBySort(a: Document, b: Document, rules: SortRule[]): number {
-  for (const rule of rules) {
-    const [left, right] = [sortKey(a, rule), sortKey(b, rule)];
-    if (left.group !== right.group) return left.group - right.group;
-    if (left.group === 2 || left.value === right.value) continue;
-    const ascending = left.value < right.value ? -1 : 1;
-    return rule.descending ? -ascending : ascending;
-  }
-  return 0;
-}
-
 function facetAttributes(state: IndexState, facets: string[] | null): string[] | null {
   if (!facets) return null;
   const patterns = filterablePatterns(state.settings);
@@ -633,38 +647,6 @@ function facetAttributes(state: IndexState, facets: string[] | null): string[] |
     }
   }
   return facets;
-}
-
-function facetSummary(documents: Document[], facets: string[], maxValues: number) {
-  const facetDistribution: Record<string, Record<string, number>> = {};
-  const facetStats: Record<string, { min: number; max: number }> = {};
-  for (const facet of facets) {
-    // Values are counted case-insensitively and shown as first met, as the engine does.
-    const counts = new Map<string, { label: string; count: number }>();
-    let min = Infinity;
-    let max = -Infinity;
-    for (const document of documents) {
-      const seen = new Set<string>();
-      for (const leaf of leafValues(lookUp(document, facet))) {
-        if (typeof leaf === "number") {
-          min = Math.min(min, leaf);
-          max = Math.max(max, leaf);
-        }
-        if (typeof leaf !== "number" && typeof leaf !== "string" && typeof leaf !== "boolean") continue;
-        const label = String(leaf);
-        const key = typeof leaf === "string" ? leaf.trim().toLowerCase() : label;
-        if (seen.has(key)) continue;
-        seen.add(key);
-        const entry = counts.get(key) ?? { label, count: 0 };
-        entry.count += 1;
-        counts.set(key, entry);
-      }
-    }
-    const sorted = [...counts.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).slice(0, maxValues);
-    facetDistribution[facet] = Object.fromEntries(sorted.map(([, { label, count }]) => [label, count]));
-    if (min !== Infinity) facetStats[facet] = { min, max };
-  }
-  return { facetDistribution, facetStats };
 }
 
 function integerParameter(query: URLSearchParams, name: string, fallback: number, code: string): number {

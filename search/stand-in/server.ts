@@ -3,7 +3,7 @@
 import http from "node:http";
 import path from "node:path";
 import { ApiError, badRequest } from "./errors.ts";
-import { SearchEngine, type SearchRequest } from "./engine.ts";
+import { ClientGoneError, SearchEngine, type SearchRequest } from "./engine.ts";
 import { settingRoutes } from "./index-settings.ts";
 
 /** The key `npm start` and the tests use unless told otherwise; the app's default matches it. */
@@ -27,9 +27,12 @@ export async function startSearchStandIn({ port, dataDir, masterKey = DEFAULT_SE
   let latencyMs = 0;
 
   const server = http.createServer((request, response) => {
-    handle(engine, masterKey, request, () => latencyMs, (ms) => (latencyMs = ms))
+    // A client that gave up (the app's search timeout) has closed its socket: its searches are not run.
+    const gone = () => request.socket.destroyed || response.destroyed;
+    handle(engine, masterKey, request, () => latencyMs, (ms) => (latencyMs = ms), gone)
       .then(({ status, body }) => send(response, status, body))
       .catch((error: unknown) => {
+        if (error instanceof ClientGoneError) return;
         const apiError = error instanceof ApiError ? error : new ApiError(500, "internal", error instanceof Error ? error.message : String(error), "internal");
         send(response, apiError.status, apiError.toJSON());
       });
@@ -76,6 +79,7 @@ async function handle(
   request: http.IncomingMessage,
   latency: () => number,
   setLatency: (ms: number) => void,
+  gone: () => boolean,
 ): Promise<Reply> {
   const url = new URL(request.url ?? "/", "http://127.0.0.1");
   const method = request.method ?? "GET";
@@ -101,6 +105,10 @@ async function handle(
     return ok({ commitSha: "tenthmark-stand-in", commitDate: "1970-01-01T00:00:00Z", pkgVersion: "1.0.0-stand-in" });
   }
   if (root === "stats" && segments.length === 1 && method === "GET") return ok(engine.allStats());
+  if (root === "multi-search" && segments.length === 1) {
+    if (method !== "POST") throw methodNotAllowed(method, url.pathname);
+    return ok(engine.multiSearch(multiSearchQueries(objectBody(body)), gone));
+  }
   if (root === "tasks") {
     if (segments.length === 1 && method === "GET") return ok(engine.listTasks(url.searchParams));
     if (segments.length === 2 && method === "GET") {
@@ -128,6 +136,7 @@ async function handle(
     }
     if (section === "stats" && rest.length === 0 && method === "GET") return ok(engine.stats(engine.requireIndex(uid)));
     if (section === "search" && rest.length === 0) {
+      if (gone()) throw new ClientGoneError();
       if (method === "POST") return ok(engine.search(uid, searchRequest(objectBody(body))));
       if (method === "GET") return ok(engine.search(uid, searchRequest(searchQueryToBody(url.searchParams))));
       throw methodNotAllowed(method, url.pathname);
@@ -341,6 +350,30 @@ function searchRequest(body: Record<string, unknown>): SearchRequest {
     attributesToRetrieve: stringArray(body.attributesToRetrieve, "attributesToRetrieve", "invalid_search_attributes_to_retrieve"),
     matchingStrategy,
   };
+}
+
+/** `POST /multi-search`: `{ queries: [{ indexUid, …search parameters }] }`; federated search is not offered. */
+function multiSearchQueries(body: Record<string, unknown>): Array<{ indexUid: string; request: SearchRequest }> {
+  if (body.federation !== undefined && body.federation !== null) {
+    throw new ApiError(400, "invalid_multi_search_federation", "The search stand-in does not offer federated multi-search: leave out `federation`.");
+  }
+  for (const key of Object.keys(body)) {
+    if (key !== "queries" && key !== "federation") throw badRequest(`Unknown field \`${key}\`: expected one of \`queries\`, \`federation\``);
+  }
+  if (!Array.isArray(body.queries)) throw new ApiError(400, "missing_multi_search_queries", "Missing field `queries`: expected an array of searches.");
+  return body.queries.map((query: unknown, position) => {
+    if (query === null || typeof query !== "object" || Array.isArray(query)) {
+      throw badRequest(`Inside \`.queries[${position}]\`: Invalid value type: expected an object.`);
+    }
+    const { indexUid, federationOptions: _federationOptions, ...parameters } = query as Record<string, unknown>;
+    if (indexUid === undefined) throw new ApiError(400, "missing_index_uid", `Inside \`.queries[${position}]\`: Missing field \`indexUid\`.`);
+    try {
+      return { indexUid: validIndexUid(indexUid), request: searchRequest(parameters) };
+    } catch (error) {
+      if (error instanceof ApiError) throw new ApiError(error.status, error.code, `Inside \`.queries[${position}]\`: ${error.message}`, error.type);
+      throw error;
+    }
+  });
 }
 
 /** The GET form of search carries lists comma-separated and numbers as text. */
