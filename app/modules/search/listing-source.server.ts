@@ -48,24 +48,15 @@ function currentReports(db: Database) {
     .as("current_report");
 }
 
-function coverPhotos(db: Database) {
-  return db
-    .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
-    .from(listingPhotos)
-    .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
-    .as("cover");
-}
+// The listing's cover: its first photo. As a correlated subquery it is one lookup on (listing_id, position)
+// per row returned, and after ORDER BY … LIMIT only for the rows of the page.
+const coverKey = sql<string | null>`(select ${listingPhotos.thumbnailKey} from ${listingPhotos} where ${listingPhotos.listingId} = ${listings.id} order by ${listingPhotos.position}, ${listingPhotos.createdAt} limit 1)`;
 
-type Joined = {
-  current: ReturnType<typeof currentReports>;
-  cover: ReturnType<typeof coverPhotos>;
-};
-
-function joinedSelection({ current, cover }: Joined) {
+function joinedSelection(current: ReturnType<typeof currentReports>) {
   return {
     listing: listings,
     sellerName: user.name,
-    coverKey: cover.thumbnailKey,
+    coverKey,
     reportId: current.id,
     grade: current.grade,
     keyFigures: current.keyFigures,
@@ -138,13 +129,12 @@ function toSource(row: JoinedRow): SourceListing {
 export async function loadSearchableListings(db: Database, ids: string[]): Promise<Map<string, SourceListing>> {
   const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
   if (!valid.length) return new Map();
-  const joined = { current: currentReports(db), cover: coverPhotos(db) };
+  const current = currentReports(db);
   const rows = await db
-    .select(joinedSelection(joined))
+    .select(joinedSelection(current))
     .from(listings)
     .innerJoin(user, eq(user.id, listings.sellerId))
-    .leftJoin(joined.current, eq(joined.current.listingId, listings.id))
-    .leftJoin(joined.cover, eq(joined.cover.listingId, listings.id))
+    .leftJoin(current, eq(current.listingId, listings.id))
     .where(inArray(listings.id, valid));
   return new Map(rows.map((row) => [row.listing.id, toSource(row)]));
 }
@@ -249,65 +239,94 @@ const facetColumns = (current: ReturnType<typeof currentReports>): Record<Listin
   country: sql`${listings.country}`,
 });
 
+/** Whether only listings with a current report can match (then the report is joined, not left-joined). */
+function needsReport(query: ListingSearchQuery): boolean {
+  return Boolean(
+    query.grades?.length ||
+      query.verifiedOnly ||
+      query.maxReportAgeDays !== undefined ||
+      accuracyLimits.some((key) => query[key] !== undefined && query[key] !== null),
+  );
+}
+
+const accuracyLimits = ["maxSpindleRunoutUm", "maxAxialSlipUm", "maxSpindleParallelismUm", "maxCentreHeightUm", "maxBedStraightnessUm"] as const;
+
+/** The bit GROUPING() sets for each facet's row (1 = aggregated away; first argument highest), and the total's. */
+const facetGroupings: Record<ListingFacet, number> = { category: 0b0111, grade: 0b1011, verified: 0b1101, country: 0b1110 };
+const totalGrouping = 0b1111;
+
 /**
  * The buyer's search run against PostgreSQL: the same filters, sorts, page and facet counts as the index,
- * with plain word matching instead of the index's ranking and typo tolerance.
+ * with plain word matching instead of the index's ranking and typo tolerance. Two queries: the page (the
+ * cover photo looked up for its rows only), and the total with every facet's counts in one grouped pass;
+ * a search for counts alone (`hitsPerPage: 0`) runs the second only.
  */
 export async function searchListingsInDatabase(db: Database, query: ListingSearchQuery, now: Date = new Date()): Promise<ListingSearchResult> {
   const started = performance.now();
   const hitsPerPage = query.hitsPerPage ?? 20;
   const page = query.page ?? 1;
-  const joined = { current: currentReports(db), cover: coverPhotos(db) };
-  const where = conditionsFor(query, joined.current, now);
-  const { current, cover } = joined;
+  const current = currentReports(db);
+  const where = conditionsFor(query, current, now);
+  const reportJoin = needsReport(query) ? "inner" : "left";
+  const hasWords = Boolean(query.text?.trim());
   const columns = facetColumns(current);
   const facetNames = Object.keys(columns) as ListingFacet[];
-  const [rows, [{ total }], ...facetRows] = await Promise.all([
-    db
-      .select(joinedSelection(joined))
+
+  const pageRows = async (): Promise<JoinedRow[]> => {
+    if (hitsPerPage === 0) return [];
+    const base = db
+      .select(joinedSelection(current))
       .from(listings)
       .innerJoin(user, eq(user.id, listings.sellerId))
-      .leftJoin(current, eq(current.listingId, listings.id))
-      .leftJoin(cover, eq(cover.listingId, listings.id))
+      .$dynamic();
+    const joined = reportJoin === "inner" ? base.innerJoin(current, eq(current.listingId, listings.id)) : base.leftJoin(current, eq(current.listingId, listings.id));
+    return joined
       .where(where)
       .orderBy(...orderFor(query, current))
       .limit(hitsPerPage)
-      .offset((page - 1) * hitsPerPage),
-    db
-      .select({ total: count() })
+      .offset((page - 1) * hitsPerPage);
+  };
+  const facetRows = async () => {
+    const base = db
+      .select({
+        grouping: sql<number>`grouping(${columns.category}, ${columns.grade}, ${columns.verified}, ${columns.country})`.mapWith(Number),
+        category: columns.category,
+        grade: columns.grade,
+        verified: columns.verified,
+        country: columns.country,
+        count: count(),
+      })
       .from(listings)
-      .innerJoin(user, eq(user.id, listings.sellerId))
-      .leftJoin(current, eq(current.listingId, listings.id))
-      .where(where),
-    ...facetNames.map((facet) =>
-      db
-        .select({ value: columns[facet], count: count() })
-        .from(listings)
-        .innerJoin(user, eq(user.id, listings.sellerId))
-        .leftJoin(current, eq(current.listingId, listings.id))
-        .where(where)
-        .groupBy(columns[facet]),
-    ),
-  ]);
-  const facets = Object.fromEntries(
-    facetNames.map((facet, position) => [
-      facet,
-      Object.fromEntries(
-        facetRows[position]!
-          .filter((row) => row.value !== null && row.value !== undefined)
-          .map((row) => [String(row.value), Number(row.count)]),
-      ),
-    ]),
-  ) as ListingSearchResult["facets"];
+      .$dynamic();
+    // The seller's name is only read by word matching.
+    const withSeller = hasWords ? base.innerJoin(user, eq(user.id, listings.sellerId)) : base;
+    const joined = reportJoin === "inner" ? withSeller.innerJoin(current, eq(current.listingId, listings.id)) : withSeller.leftJoin(current, eq(current.listingId, listings.id));
+    return joined
+      .where(where)
+      .groupBy(sql`grouping sets ((${columns.category}), (${columns.grade}), (${columns.verified}), (${columns.country}), ())`);
+  };
+  const [rows, grouped] = await Promise.all([pageRows(), facetRows()]);
+
+  const facets = Object.fromEntries(facetNames.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
+  let total = 0;
+  for (const row of grouped) {
+    if (row.grouping === totalGrouping) {
+      total = Number(row.count);
+      continue;
+    }
+    const facet = facetNames.find((name) => facetGroupings[name] === row.grouping);
+    const value = facet ? row[facet] : null;
+    if (facet && value !== null && value !== undefined) facets[facet][String(value)] = Number(row.count);
+  }
   return {
     hits: rows.map((row) => {
       const source = toSource(row);
       return listingToSearchDocument(source.listing, source.report) satisfies ListingSearchDocument;
     }),
-    totalHits: Number(total),
+    totalHits: total,
     page,
     hitsPerPage,
-    totalPages: Math.ceil(Number(total) / hitsPerPage),
+    totalPages: hitsPerPage === 0 ? 0 : Math.ceil(total / hitsPerPage),
     facets,
     processingTimeMs: Math.round(performance.now() - started),
   };

@@ -8,6 +8,9 @@ import {
   MeilisearchRequestError,
   MeilisearchTaskTimeOutError,
   type EnqueuedTaskPromise,
+  type MultiSearchParams,
+  type MultiSearchQuery,
+  type SearchResponse,
   type Task,
 } from "meilisearch";
 import { env } from "~/env.server";
@@ -107,29 +110,56 @@ export function createListingSearch(connection: SearchConnection) {
     },
 
     async searchListings(query: ListingSearchQuery, now: Date = new Date()): Promise<ListingSearchResult> {
-      const hitsPerPage = query.hitsPerPage ?? 20;
-      const page = query.page ?? 1;
+      const response = await callService(
+        "Searching listings",
+        () => index.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
+        connection.searchTimeoutMs,
+      );
+      return toResult(response);
+    },
+
+    /**
+     * Several searches in one request to the service (its multi-search), answered in order: one round
+     * trip, and one timeout for all of them.
+     */
+    async searchListingsTogether(queries: ListingSearchQuery[], now: Date = new Date()): Promise<ListingSearchResult[]> {
+      if (queries.length === 0) return [];
+      if (queries.length === 1) return [await this.searchListings(queries[0]!, now)];
       const response = await callService(
         "Searching listings",
         () =>
-          index.search(
-            query.text?.trim() || null,
-            { filter: listingFilter(query, now), sort: listingSortRules(query.sort), facets: [...LISTING_FACETS], page, hitsPerPage },
+          client.multiSearch<MultiSearchParams, ListingSearchDocument>(
+            { queries: queries.map((query): MultiSearchQuery => ({ indexUid: LISTINGS_INDEX_UID, ...searchParameters(query, now) })) },
             { signal: AbortSignal.timeout(connection.searchTimeoutMs) },
           ),
         connection.searchTimeoutMs,
       );
-      const distribution = response.facetDistribution ?? {};
-      return {
-        hits: response.hits as ListingSearchDocument[],
-        totalHits: response.totalHits,
-        page: response.page,
-        hitsPerPage: response.hitsPerPage,
-        totalPages: response.totalPages,
-        facets: Object.fromEntries(LISTING_FACETS.map((facet) => [facet, distribution[facet] ?? {}])) as ListingSearchResult["facets"],
-        processingTimeMs: response.processingTimeMs,
-      };
+      return response.results.map(toResult);
     },
+  };
+}
+
+function searchParameters(query: ListingSearchQuery, now: Date) {
+  return {
+    q: query.text?.trim() || null,
+    filter: listingFilter(query, now),
+    sort: listingSortRules(query.sort),
+    facets: [...LISTING_FACETS],
+    page: query.page ?? 1,
+    hitsPerPage: query.hitsPerPage ?? 20,
+  };
+}
+
+function toResult(response: SearchResponse<ListingSearchDocument>): ListingSearchResult {
+  const distribution = response.facetDistribution ?? {};
+  return {
+    hits: response.hits as ListingSearchDocument[],
+    totalHits: response.totalHits ?? 0,
+    page: response.page ?? 1,
+    hitsPerPage: response.hitsPerPage ?? 0,
+    totalPages: response.totalPages ?? 0,
+    facets: Object.fromEntries(LISTING_FACETS.map((facet) => [facet, distribution[facet] ?? {}])) as ListingSearchResult["facets"],
+    processingTimeMs: response.processingTimeMs,
   };
 }
 

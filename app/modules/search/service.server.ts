@@ -133,13 +133,27 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
       }
       return searchListingsInDatabase(db, query, now);
     },
+    /** Several searches at once: one request to the index, or each in PostgreSQL. */
+    async findAll(queries: ListingSearchQuery[]): Promise<ListingSearchResult[]> {
+      if (source === "index") {
+        try {
+          return await search.searchListingsTogether(queries, now);
+        } catch (error) {
+          if (!(error instanceof SearchUnavailableError)) throw error;
+          console.warn(`[search] answering from PostgreSQL: ${error.message}`);
+          source = "database";
+        }
+      }
+      return Promise.all(queries.map((query) => searchListingsInDatabase(db, query, now)));
+    },
   };
 }
 
 export type ListingFinder = ReturnType<typeof createListingFinder>;
 
+/** The same search for its total and facet counts alone (no hits). */
 function countOnly(query: ListingSearchQuery): ListingSearchQuery {
-  return { ...query, page: 1, hitsPerPage: 1 };
+  return { ...query, page: 1, hitsPerPage: 0 };
 }
 
 type Relaxation = { filter: string; relaxed: ListingSearchQuery; text: string };
@@ -189,11 +203,13 @@ function describeEmpty(query: ListingSearchQuery, units: DisplayUnits): string {
 
 async function widenSuggestions(finder: ListingFinder, query: ListingSearchQuery, units: DisplayUnits): Promise<WidenSuggestion[]> {
   const { dropped, widened } = relaxations(query, units);
-  const count = async (candidate: Relaxation) => ({ candidate, count: (await finder.find(countOnly(candidate.relaxed))).totalHits });
-  const [droppedCounts, widenedCounts] = await Promise.all([
-    Promise.all(dropped.map(count)),
-    Promise.all([...widened.values()].map((ladder) => Promise.all(ladder.map(count)))),
-  ]);
+  const ladders = [...widened.values()];
+  const candidates = [...dropped, ...ladders.flat()];
+  const results = await finder.findAll(candidates.map((candidate) => countOnly(candidate.relaxed)));
+  const counted = candidates.map((candidate, position) => ({ candidate, count: results[position]!.totalHits }));
+  const droppedCounts = counted.slice(0, dropped.length);
+  let next = dropped.length;
+  const widenedCounts = ladders.map((ladder) => counted.slice(next, (next += ladder.length)));
   const suggestions: WidenSuggestion[] = [];
   // For an accuracy limit, the tightest wider limit that finds something says most.
   for (const ladder of widenedCounts) {
@@ -228,27 +244,32 @@ export async function searchMachines(
 ): Promise<MachineSearch> {
   const units = options.units ?? "mm";
   const finder = createListingFinder(db, options);
-  const result = await finder.find(query);
-  const [categoryFacets, gradeFacets, verifiedFacets] = await Promise.all([
-    query.categories?.length ? finder.find(countOnly({ ...query, categories: undefined })).then((other) => other.facets.category) : result.facets.category,
-    query.grades?.length ? finder.find(countOnly({ ...query, grades: undefined })).then((other) => other.facets.grade) : result.facets.grade,
-    query.verifiedOnly ? finder.find(countOnly({ ...query, verifiedOnly: undefined })).then((other) => other.facets.verified) : result.facets.verified,
-  ]);
-  const empty = result.totalHits === 0;
+  // The page, and for each facet that is filtered on the same search without that filter: one request.
+  const facetSearches: Array<{ facet: "category" | "grade" | "verified"; query: ListingSearchQuery }> = [];
+  if (query.categories?.length) facetSearches.push({ facet: "category", query: countOnly({ ...query, categories: undefined }) });
+  if (query.grades?.length) facetSearches.push({ facet: "grade", query: countOnly({ ...query, grades: undefined }) });
+  if (query.verifiedOnly) facetSearches.push({ facet: "verified", query: countOnly({ ...query, verifiedOnly: undefined }) });
+  const [result, ...others] = await finder.findAll([query, ...facetSearches.map((search) => search.query)]);
+  const facetsWithout = (facet: "category" | "grade" | "verified") => {
+    const position = facetSearches.findIndex((search) => search.facet === facet);
+    return (position < 0 ? result! : others[position]!).facets[facet];
+  };
+  const [categoryFacets, gradeFacets, verifiedFacets] = [facetsWithout("category"), facetsWithout("grade"), facetsWithout("verified")];
+  const empty = result!.totalHits === 0;
   const suggestions = empty ? await widenSuggestions(finder, query, units) : [];
   return {
     source: finder.source,
     notice: finder.source === "database" ? INCOMPLETE_NOTICE : null,
-    hits: result.hits.map(toHit),
-    totalHits: result.totalHits,
-    page: result.page,
-    totalPages: result.totalPages,
-    hitsPerPage: result.hitsPerPage,
+    hits: result!.hits.map(toHit),
+    totalHits: result!.totalHits,
+    page: result!.page,
+    totalPages: result!.totalPages,
+    hitsPerPage: result!.hitsPerPage,
     facets: {
       category: categoryFacets,
       grade: gradeFacets,
       verified: verifiedFacets.true ?? 0,
-      country: result.facets.country,
+      country: result!.facets.country,
     },
     emptyBecause: empty ? describeEmpty(query, units) : null,
     suggestions,

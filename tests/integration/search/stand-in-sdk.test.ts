@@ -220,6 +220,30 @@ describe("search stand-in through the meilisearch SDK", () => {
     expect(ids(offset.hits)).toEqual(["lathe-5", "mill-1"]);
   });
 
+  it("answers a multi-search with each search's own answer, in order, and names a failing one", async () => {
+    const searches = [
+      { filter: "status = published AND verified = true", facets: ["grade"], sort: ["priceMinor:asc"], page: 1, hitsPerPage: 2 },
+      { filter: "status = published", facets: ["verified"], page: 1, hitsPerPage: 0 },
+      { q: "brenna", facets: ["category"] },
+    ];
+    const together = await client.multiSearch({ queries: searches.map((search) => ({ indexUid: LISTINGS_INDEX_UID, ...search })) });
+    expect(together.results.map((result) => result.indexUid)).toEqual([LISTINGS_INDEX_UID, LISTINGS_INDEX_UID, LISTINGS_INDEX_UID]);
+    for (const [position, { q, ...parameters }] of searches.entries()) {
+      const alone = await listings.search(q ?? null, parameters);
+      const { indexUid: _indexUid, processingTimeMs: _together, ...answer } = together.results[position]!;
+      const { processingTimeMs: _alone, ...expected } = alone;
+      expect(answer).toEqual(expected);
+    }
+    expect(together.results[1]).toMatchObject({ hits: [], totalHits: 5, facetDistribution: { verified: { false: 2, true: 3 } } });
+
+    const failing = await apiError(
+      client.multiSearch({ queries: [{ indexUid: LISTINGS_INDEX_UID }, { indexUid: LISTINGS_INDEX_UID, filter: "make = Orvik" }] }),
+    );
+    expect(failing.response.status).toBe(400);
+    expect(failing.cause?.code).toBe("invalid_search_filter");
+    expect(failing.cause?.message).toMatch(/^Inside `\.queries\[1\]`: .*Attribute `make` is not filterable/);
+  });
+
   it("answers a bad filter with invalid_search_filter naming the position", async () => {
     const syntax = await apiError(listings.search("", { filter: "spindleRunoutUm <= " }));
     expect(syntax.response.status).toBe(400);
@@ -338,6 +362,13 @@ describe("search module", () => {
     expect(paged).toMatchObject({ totalHits: 5, totalPages: 3, page: 2 });
     expect(paged.facets.category).toEqual({ centre_lathe: 3, milling_machine: 1, toolroom_lathe: 1 });
 
+    const queries = [{ verifiedOnly: true, sort: "best-accuracy" as const }, { page: 1, hitsPerPage: 0 }, { text: "brenna" }];
+    const together = await listingSearch.searchListingsTogether(queries);
+    const alone = await Promise.all(queries.map((query) => listingSearch.searchListings(query)));
+    const withoutTime = ({ processingTimeMs: _time, ...result }: { processingTimeMs: number }) => result;
+    expect(together.map(withoutTime)).toEqual(alone.map(withoutTime));
+    expect(together[1]).toMatchObject({ hits: [], totalHits: 5, totalPages: 0 });
+
     await listingSearch.removeListing("lathe-3");
     expect(ids((await listingSearch.searchListings({ text: "brenna" })).hits)).toEqual(["lathe-2"]);
     expect((await listingSearch.indexedListingIds()).sort()).toEqual(["lathe-1", "lathe-2", "lathe-4", "lathe-5", "mill-1"]);
@@ -358,6 +389,8 @@ describe("search module", () => {
       expect((error as SearchUnavailableError).reason).toBe("timeout");
       expect(elapsed).toBeGreaterThanOrEqual(searchTimeoutMs - 20);
       expect(elapsed).toBeLessThan(1_500);
+      const together = await search().searchListingsTogether([{}, { verifiedOnly: true }]).catch((caught: unknown) => caught);
+      expect((together as SearchUnavailableError).reason).toBe("timeout");
     } finally {
       moduleStandIn.setLatency(0);
     }
