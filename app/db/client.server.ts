@@ -12,13 +12,21 @@ export function getDatabase(): Database {
   if (!database) {
     const pool = new pg.Pool({
       connectionString: env().DATABASE_URL,
-      max: 10,
-      // A stopped database must fail a request quickly, not hang it.
-      connectionTimeoutMillis: 2_000,
+      max: 16,
+      // Under load a request waits its turn for a connection rather than failing; a stopped database
+      // still fails at once (connection refused), and the health probe has its own 2 s limit.
+      connectionTimeoutMillis: 10_000,
     });
     // An idle client losing its connection (database restarted) must not crash the server.
     pool.on("error", () => {});
     database = drizzle(pool, { schema }) as Database;
   }
   return database;
+}
+
+/** Closes the pool (server shutdown); the next getDatabase() opens a new one. */
+export async function closeDatabase(): Promise<void> {
+  const current = database;
+  database = undefined;
+  await current?.$client.end();
 }

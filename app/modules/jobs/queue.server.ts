@@ -24,9 +24,10 @@ export function getQueue(): Promise<PgBoss> {
       connectionString: env().DATABASE_URL,
       schema: env().JOB_QUEUE_SCHEMA,
       max: 4,
-      // Maintenance and cron belong to the app servers; a test process only sends (and maybe works).
-      supervise: env().NODE_ENV !== "test",
-      schedule: env().NODE_ENV !== "test",
+      // Maintenance and cron belong to the app servers that run workers; a test process or a web-only
+      // server (JOB_WORKERS=false) only sends, with no timers polling the database.
+      supervise: env().NODE_ENV !== "test" && env().JOB_WORKERS,
+      schedule: env().NODE_ENV !== "test" && env().JOB_WORKERS,
       ...defaultRetries,
     });
     // pg-boss reports lost connections here; they are retried by its own loop and must not crash the server.
@@ -117,8 +118,8 @@ export async function startWorkers(): Promise<void> {
   }
 }
 
-/** Stops the queue of this process (tests, shutdown), letting running jobs finish. */
-export async function stopQueue(): Promise<void> {
+/** Stops the queue of this process (tests, shutdown), letting running jobs finish for up to `timeoutMs`. */
+export async function stopQueue({ timeoutMs = 10_000 }: { timeoutMs?: number } = {}): Promise<void> {
   clearTimeout(retryTimer);
   started = false;
   const current = starting;
@@ -127,6 +128,6 @@ export async function stopQueue(): Promise<void> {
   for (const worker of workers.values()) worker.attached = false;
   if (current) {
     const boss = await current.catch(() => undefined);
-    await boss?.stop({ graceful: true, wait: true, timeout: 10_000 });
+    await boss?.stop({ graceful: true, wait: true, timeout: timeoutMs });
   }
 }

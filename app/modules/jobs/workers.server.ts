@@ -5,7 +5,8 @@ import { getDatabase } from "~/db/client.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
 import { declareSearchWorkers } from "~/modules/search/indexing.server";
-import { startWorkers } from "./queue.server";
+import { closeDatabase } from "~/db/client.server";
+import { startWorkers, stopQueue } from "./queue.server";
 
 let declared = false;
 
@@ -17,9 +18,45 @@ export function declareJobWorkers() {
   declareSearchWorkers(getDatabase);
 }
 
-/** Declares and starts the workers, unless JOB_WORKERS=false. */
+/** Declares and starts the workers, unless JOB_WORKERS=false; stops them cleanly on SIGTERM or SIGINT. */
 export async function startJobWorkers() {
   declareJobWorkers();
+  stopOnSignals();
   if (!env().JOB_WORKERS) return;
   await startWorkers();
+}
+
+// How long a running job may take to finish when the server is told to stop, and how long the process
+// may then take to end by itself before it is ended.
+const jobGraceMs = 5_000;
+const exitGraceMs = 10_000;
+
+let signalsHandled = false;
+let stopping: Promise<void> | undefined;
+
+/**
+ * The HTTP server (react-router-serve) closes its port on SIGTERM/SIGINT; this stops the job queue (running
+ * jobs may finish within a short grace) and closes the database pool, so that nothing keeps the process
+ * alive and it ends by itself.
+ */
+function stopOnSignals() {
+  if (signalsHandled) return;
+  signalsHandled = true;
+  for (const signal of ["SIGTERM", "SIGINT"] as const) {
+    process.once(signal, () => {
+      stopping ??= (async () => {
+        try {
+          await stopQueue({ timeoutMs: jobGraceMs });
+          await closeDatabase();
+        } catch (error) {
+          console.warn(`[jobs] stopping on ${signal}: ${error instanceof Error ? error.message : String(error)}`);
+        }
+        // A stray handle (a client that never hangs up) must not keep a stopped server alive.
+        setTimeout(() => {
+          console.warn(`[jobs] the process had not ended ${exitGraceMs / 1000} s after ${signal}; ending it`);
+          process.exit(0);
+        }, exitGraceMs).unref();
+      })();
+    });
+  }
 }
