@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { Link, NavLink } from "react-router";
-import { ButtonLink, cx } from "~/components/ui";
+import { ButtonLink } from "~/components/ui/button";
+import { cx } from "~/components/ui/cx";
 import type { Role } from "~/modules/accounts/validation";
 import { NameMark } from "./name-mark";
 

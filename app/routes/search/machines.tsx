@@ -1,6 +1,8 @@
 import { useEffect, useRef, useState } from "react";
 import { Link, useFetcher, useLocation, useSearchParams, type ShouldRevalidateFunctionArgs } from "react-router";
-import { Button, ButtonLink, Card, cx } from "~/components/ui";
+import { Button, ButtonLink } from "~/components/ui/button";
+import { Card } from "~/components/ui/card";
+import { cx } from "~/components/ui/cx";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { FilterPanel } from "~/modules/search/components/filter-panel";

@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
-import { Button, cx } from "~/components/ui";
+import { Button } from "~/components/ui/button";
+import { cx } from "~/components/ui/cx";
 import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
 import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
 import { accuracyFilters, deviationUnitLabel } from "../figures";

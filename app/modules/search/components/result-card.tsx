@@ -1,5 +1,7 @@
 import { Link } from "react-router";
-import { Badge, Card, cx } from "~/components/ui";
+import { Badge } from "~/components/ui/badge";
+import { Card } from "~/components/ui/card";
+import { cx } from "~/components/ui/cx";
 import { countryName, labelOf, machineConditions } from "~/modules/listings/catalogue";
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
 import { formatDeviation } from "../figures";
