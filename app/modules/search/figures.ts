@@ -5,8 +5,13 @@ import type { DisplayUnits } from "~/modules/units/format";
 
 export const deviationUnitLabel = (units: DisplayUnits) => (units === "inch" ? "in" : "µm");
 
+// One formatter per precision: building an Intl.NumberFormat costs far more than using one.
+const formatters = new Map<number, Intl.NumberFormat>();
+
 function trimmed(value: number, digits: number) {
-  return new Intl.NumberFormat("en", { maximumFractionDigits: digits, minimumFractionDigits: 0, useGrouping: false }).format(value);
+  let formatter = formatters.get(digits);
+  if (!formatter) formatters.set(digits, (formatter = new Intl.NumberFormat("en", { maximumFractionDigits: digits, minimumFractionDigits: 0, useGrouping: false })));
+  return formatter.format(value);
 }
 
 /** The number a form field shows for a limit held in µm. */

@@ -10,3 +10,6 @@ if (typeof document !== "undefined") {
   const scope = globalThis as WithZodConfig;
   scope.__zod_globalConfig = Object.assign(scope.__zod_globalConfig ?? {}, { jitless: true });
 }
+
+// A module (imported for its effect), not a script.
+export {};

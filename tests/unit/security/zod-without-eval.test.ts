@@ -4,8 +4,7 @@
 // (v4/core/core.js `globalConfig`, v4/core/schemas.js `$ZodObject`), read in node_modules.
 import { afterEach, describe, expect, it, vi } from "vitest";
 
-type WithZodConfig = typeof globalThis & { __zod_globalConfig?: Record<string, unknown>; document?: unknown };
-const scope = globalThis as WithZodConfig;
+const scope = globalThis as unknown as { document?: unknown; __zod_globalConfig?: Record<string, unknown> };
 
 // zod itself stays loaded between tests (as in a page): its shared settings object is reset instead.
 afterEach(() => {
