@@ -3,7 +3,7 @@
 // told, that nothing half-written is left, and that the work completes once the service is back.
 import { spawn, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
-import { mkdtempSync, rmSync } from "node:fs";
+import { mkdtempSync, openSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { and, eq, inArray } from "drizzle-orm";
@@ -33,6 +33,7 @@ let proxies: Record<"files" | "payments" | "search" | "mail", FaultProxy>;
 // shared index that other tests (saved-search alerts) watch.
 const searchDataDir = mkdtempSync(path.join(os.tmpdir(), "faults-search-"));
 let search: Awaited<ReturnType<typeof startSearchStandIn>> | undefined;
+const appLog = path.join(os.tmpdir(), `tenthmark-faults-app-${randomUUID().slice(0, 8)}.log`);
 
 beforeAll(async () => {
   search = await startSearchStandIn({ port: await freePort(), dataDir: searchDataDir });
@@ -61,7 +62,8 @@ beforeAll(async () => {
       // A queue of its own, so that the main app server's workers (which reach the stand-ins directly) take none of its jobs.
       JOB_QUEUE_SCHEMA: queueSchema,
     },
-    stdio: "ignore",
+    // Its log, to read when a case fails: in the test run's work folder.
+    stdio: ["ignore", openSync(appLog, "a"), openSync(appLog, "a")],
   });
   await waitForHttp(`http://127.0.0.1:${port}/api/health`);
 }, 60_000);
