@@ -47,10 +47,29 @@ export function configureQueue(name: string, settings: Omit<PgBoss.Queue, "name"
   queueSettings.set(name, settings);
 }
 
+// Creating a queue adds a partition to pg-boss's job table; two creations at once can deadlock in
+// PostgreSQL, so this process creates its queues one after another and retries one that lost a deadlock
+// to another process.
+let creationChain: Promise<unknown> = Promise.resolve();
+
+async function createQueueOnce(boss: PgBoss, name: string) {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await boss.createQueue(name, { ...defaultRetries, ...queueSettings.get(name), name });
+      return;
+    } catch (error) {
+      const deadlock = (error as { code?: string })?.code === "40P01" || /deadlock/i.test(String(error));
+      if (!deadlock || attempt >= 5) throw error;
+      await new Promise((resolve) => setTimeout(resolve, 50 * attempt + Math.random() * 100));
+    }
+  }
+}
+
 async function ensureQueue(boss: PgBoss, name: string) {
   let created = createdQueues.get(name);
   if (!created) {
-    created = boss.createQueue(name, { ...defaultRetries, ...queueSettings.get(name), name });
+    created = creationChain.then(() => createQueueOnce(boss, name));
+    creationChain = created.catch(() => {});
     createdQueues.set(name, created);
     created.catch(() => createdQueues.delete(name));
   }
@@ -82,14 +101,20 @@ export function registerWorker<Data extends object>(name: string, handler: JobHa
 
 let started = false;
 
+// pg-boss 10 runs one job at a time per `work` call and waits for the polling interval between fetches, so a
+// queue gets a few pollers: a burst of mail (a demo start, a busy hour) then goes out several a second.
+const pollersPerQueue = 3;
+
 async function attach(worker: Worker) {
   if (worker.attached) return;
   const boss = await getQueue();
   await ensureQueue(boss, worker.name);
   worker.attached = true;
-  await boss.work<any>(worker.name, { pollingIntervalSeconds: 1, batchSize: 1 }, async (jobs) => {
-    for (const job of jobs) await workers.get(worker.name)!.handler(job.data, job);
-  });
+  for (let poller = 0; poller < pollersPerQueue; poller++) {
+    await boss.work<any>(worker.name, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async (jobs) => {
+      for (const job of jobs) await workers.get(worker.name)!.handler(job.data, job);
+    });
+  }
 }
 
 function reportStartFailure(error: unknown) {

@@ -118,9 +118,14 @@ describe("the dealer's story", () => {
     await shoot(page, "dashboard-desktop");
 
     // Buyers find it on the browse page, newest first, and open the public page.
-    await page.goto("/machines");
+    // The search index is updated through the job queue a moment after publishing (other tests keep the
+    // queue busy meanwhile): reload the browse page as a person would, for up to half a minute.
     const card = page.getByRole("link", { name: new RegExp(`Halvorsen ${model}`) }).first();
-    await card.waitFor();
+    for (const deadline = Date.now() + 30_000; ; ) {
+      await page.goto("/machines");
+      if (await card.waitFor({ timeout: 3_000 }).then(() => true, () => false)) break;
+      if (Date.now() > deadline) throw new Error(`Halvorsen ${model} did not appear on /machines within 30 s of publishing`);
+    }
     await shoot(page, "browse-desktop");
     await card.click();
     await page.waitForURL((url) => url.pathname.startsWith("/machines/halvorsen-ml-"));
