@@ -1,7 +1,10 @@
 // Accuracy figures as buyers read and type them: µm for millimetre users, inches for inch users (a dial
 // indicator in inch reads to 0.0001 in, "a tenth"). Stored and searched in µm. Pure: server and browser.
-import { inchesToMicrometres, micrometresToInches } from "~/geometry/units";
 import type { DisplayUnits } from "~/modules/units/format";
+
+// 1 in = 25 400 µm exactly (as ~/geometry/units); plain arithmetic here, so that the search page's script
+// does not load the engine's unit checks for numbers the form has already read.
+const MICROMETRES_PER_INCH = 25_400;
 
 export const deviationUnitLabel = (units: DisplayUnits) => (units === "inch" ? "in" : "µm");
 
@@ -16,19 +19,19 @@ function trimmed(value: number, digits: number) {
 
 /** The number a form field shows for a limit held in µm. */
 export function deviationInputValue(micrometres: number, units: DisplayUnits): string {
-  return units === "inch" ? trimmed(micrometresToInches(micrometres), 6) : trimmed(micrometres, 3);
+  return units === "inch" ? trimmed(micrometres / MICROMETRES_PER_INCH, 6) : trimmed(micrometres, 3);
 }
 
 /** "4 µm" or "0.00016 in". */
 export function formatDeviation(micrometres: number, units: DisplayUnits): string {
-  return units === "inch" ? `${trimmed(micrometresToInches(micrometres), 5)} in` : `${trimmed(micrometres, 1)} µm`;
+  return units === "inch" ? `${trimmed(micrometres / MICROMETRES_PER_INCH, 5)} in` : `${trimmed(micrometres, 1)} µm`;
 }
 
 /** A typed limit in the user's units to µm (to 0.001 µm); undefined when blank or not a positive number. */
 export function deviationFromInput(text: string, units: DisplayUnits): number | undefined {
   const value = Number(text.trim().replace(",", "."));
   if (!text.trim() || !Number.isFinite(value) || value <= 0) return undefined;
-  const micrometres = units === "inch" ? inchesToMicrometres(value) : value;
+  const micrometres = units === "inch" ? value * MICROMETRES_PER_INCH : value;
   return Math.round(micrometres * 1000) / 1000;
 }
 
@@ -38,15 +41,15 @@ const inchSteps = [0.0001, 0.0002, 0.0003, 0.0004, 0.0005, 0.0006, 0.0008, 0.001
 
 /** The next few round limits above `micrometres`, in µm, as the user would type them. */
 export function widerLimits(micrometres: number, units: DisplayUnits, howMany = 4): number[] {
-  const steps = units === "inch" ? inchSteps.map((inches) => Math.round(inchesToMicrometres(inches) * 1000) / 1000) : micrometreSteps;
+  const steps = units === "inch" ? inchSteps.map((inches) => Math.round(inches * MICROMETRES_PER_INCH * 1000) / 1000) : micrometreSteps;
   return steps.filter((step) => step > micrometres + 1e-9).slice(0, howMany);
 }
 
 export const accuracyFilters = [
-  { key: "maxSpindleRunoutUm", param: "runoutMax", label: "Spindle run-out", hint: "Total indicator reading at the spindle nose" },
-  { key: "maxAxialSlipUm", param: "axialSlipMax", label: "Axial slip", hint: "End float of the spindle" },
-  { key: "maxSpindleParallelismUm", param: "parallelismMax", label: "Spindle-axis parallelism", hint: "Test mandrel, both planes" },
-  { key: "maxCentreHeightUm", param: "centreHeightMax", label: "Centre height difference", hint: "Tailstock centre against headstock" },
+  { key: "maxSpindleRunoutUm", param: "runoutMax", label: "Spindle run-out" },
+  { key: "maxAxialSlipUm", param: "axialSlipMax", label: "Axial slip" },
+  { key: "maxSpindleParallelismUm", param: "parallelismMax", label: "Spindle-axis parallelism" },
+  { key: "maxCentreHeightUm", param: "centreHeightMax", label: "Centre height difference" },
 ] as const;
 
 export type AccuracyFilterKey = (typeof accuracyFilters)[number]["key"];

@@ -1,8 +1,7 @@
 // The search page's form state: what each field shows, in the reader's units, read from the address and
 // written back to it in µm and mm. No validation library here (the server validates every parameter): this
 // runs in the browser on every change and must stay small.
-import { inchesToMillimetres, millimetresToInches } from "~/geometry/units";
-import type { DisplayUnits } from "~/modules/units/format";
+import { lengthFromMillimetres, lengthToMillimetres, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
 import { accuracyFilters, deviationFromInput, deviationInputValue } from "../figures";
 
 export type SearchDraft = {
@@ -37,17 +36,12 @@ function positive(text: string | null): number | undefined {
   return Number.isFinite(value) && value >= 0 ? value : undefined;
 }
 
-function trimmedNumber(value: number, digits: number) {
-  return String(Math.round(value * 10 ** digits) / 10 ** digits);
-}
-
 /** The form as the address describes it (the `…In` twins are read too, as a form without JavaScript sends them). */
 export function draftFromParams(params: URLSearchParams, units: DisplayUnits): SearchDraft {
   const length = (key: (typeof lengthKeys)[number]) => {
     const inches = positive(params.get(`${key}In`));
-    const mm = inches !== undefined ? inchesToMillimetres(inches) : positive(params.get(key));
-    if (mm === undefined) return "";
-    return units === "inch" ? trimmedNumber(millimetresToInches(mm), 3) : trimmedNumber(mm, 1);
+    const mm = inches !== undefined ? inches * MILLIMETRES_PER_INCH : positive(params.get(key));
+    return mm === undefined ? "" : String(lengthFromMillimetres(mm, units));
   };
   const deviation = (key: string) => {
     const inches = positive(params.get(`${key}In`));
@@ -94,7 +88,7 @@ export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSea
   for (const key of lengthKeys) {
     const value = positive(draft[key].replace(",", "."));
     if (value === undefined) continue;
-    put(key, units === "inch" ? trimmedNumber(inchesToMillimetres(value), 2) : trimmedNumber(value, 2));
+    put(key, lengthToMillimetres(value, units));
   }
   for (const key of deviationKeys) put(key, deviationFromInput(draft[key], units));
   put("reportAgeMax", draft.reportAgeMax);
