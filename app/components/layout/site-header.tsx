@@ -29,7 +29,7 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
         <Link to="/" aria-label="Tenthmark home" className="shrink-0">
           <NameMark />
         </Link>
-        <nav aria-label="Main" className="hidden flex-1 items-center gap-1 md:flex">
+        <nav aria-label="Main" className="hidden flex-1 items-center gap-1 lg:flex">
           {navigation.map((item) => (
             <NavLink
               key={item.to}
@@ -45,12 +45,12 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
             </NavLink>
           ))}
         </nav>
-        <div className="ml-auto hidden items-center gap-2 md:flex" data-slot="account">
+        <div className="ml-auto hidden items-center gap-2 lg:flex" data-slot="account">
           <AccountSlot user={user} />
         </div>
         <button
           type="button"
-          className="ml-auto rounded-(--radius-control) p-2 text-ink-700 hover:bg-ink-100 md:hidden"
+          className="ml-auto rounded-(--radius-control) p-2 text-ink-700 hover:bg-ink-100 lg:hidden"
           aria-expanded={menuOpen}
           aria-controls="mobile-navigation"
           onClick={() => setMenuOpen((open) => !open)}
@@ -62,7 +62,7 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
         </button>
       </div>
       {menuOpen ? (
-        <nav id="mobile-navigation" aria-label="Main" className="border-t border-ink-200 bg-paper px-4 pb-4 md:hidden">
+        <nav id="mobile-navigation" aria-label="Main" className="border-t border-ink-200 bg-paper px-4 pb-4 lg:hidden">
           <ul className="flex flex-col py-2">
             {navigation.map((item) => (
               <li key={item.to}>
