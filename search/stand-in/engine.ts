@@ -597,7 +597,17 @@ export function pickAttributes(document: Document, attributes: string[] | null, 
   const wanted = !attributes || attributes.includes("*") ? (displayed.includes("*") ? null : displayed) : attributes.filter((attribute) => displayedAllows(attribute, settings));
   if (wanted === null) return copy ? structuredClone(document) : document;
   const picked: Document = {};
-  for (const attribute of wanted) copyPath(document, attribute, picked);
+  for (const attribute of wanted) {
+    // A plain top-level name (the common case) is one look-up; a number, string or null needs no clone.
+    if (!attribute.includes(".")) {
+      if (Object.hasOwn(document, attribute)) {
+        const value = document[attribute];
+        picked[attribute] = value !== null && typeof value === "object" ? structuredClone(value) : value;
+      }
+    } else {
+      copyPath(document, attribute, picked);
+    }
+  }
   return picked;
 }
 

@@ -49,13 +49,29 @@ export type SearchConnection = {
 export const LISTING_FACETS = ["category", "grade", "verified", "country"] as const;
 export type ListingFacet = (typeof LISTING_FACETS)[number];
 
+/**
+ * The attributes a result is built from (`toHit` in service.server.ts, the saved-search alert's match):
+ * the index sends these alone, not the description, seller and the other fields only search on.
+ */
+export const LISTING_HIT_ATTRIBUTES = [
+  "id", "slug", "status", "category", "categoryLabel", "condition", "title", "year", "swingMm", "betweenCentresMm",
+  "priceMinor", "currency", "city", "region", "country", "photoUrl", "publishedAt", "verified", "reportId", "grade",
+  "reportDate", "spindleRunoutUm", "axialSlipUm", "spindleParallelismVerticalUm", "spindleParallelismHorizontalUm",
+  "centreHeightUm", "bedStraightnessUm",
+] as const satisfies readonly (keyof ListingSearchDocument)[];
+
+export type ListingSearchHit = Pick<ListingSearchDocument, (typeof LISTING_HIT_ATTRIBUTES)[number]>;
+
+/** A search and the facets to count for it (all four unless said; none for a total alone). */
+export type ListingSearchRequest = ListingSearchQuery & { facets?: readonly ListingFacet[] };
+
 export type ListingSearchResult = {
-  hits: ListingSearchDocument[];
+  hits: ListingSearchHit[];
   totalHits: number;
   page: number;
   hitsPerPage: number;
   totalPages: number;
-  /** Counts per value over all matching listings, e.g. `{ grade: { A: 3, B: 5 } }`. */
+  /** Counts per value over all matching listings, e.g. `{ grade: { A: 3, B: 5 } }`; `{}` for a facet not asked for. */
   facets: Record<ListingFacet, Record<string, number>>;
   processingTimeMs: number;
 };
@@ -109,7 +125,7 @@ export function createListingSearch(connection: SearchConnection) {
       }
     },
 
-    async searchListings(query: ListingSearchQuery, now: Date = new Date()): Promise<ListingSearchResult> {
+    async searchListings(query: ListingSearchRequest, now: Date = new Date()): Promise<ListingSearchResult> {
       const response = await callService(
         "Searching listings",
         () => index.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
@@ -122,7 +138,7 @@ export function createListingSearch(connection: SearchConnection) {
      * Several searches in one request to the service (its multi-search), answered in order: one round
      * trip, and one timeout for all of them.
      */
-    async searchListingsTogether(queries: ListingSearchQuery[], now: Date = new Date()): Promise<ListingSearchResult[]> {
+    async searchListingsTogether(queries: ListingSearchRequest[], now: Date = new Date()): Promise<ListingSearchResult[]> {
       if (queries.length === 0) return [];
       if (queries.length === 1) return [await this.searchListings(queries[0]!, now)];
       const response = await callService(
@@ -139,21 +155,24 @@ export function createListingSearch(connection: SearchConnection) {
   };
 }
 
-function searchParameters(query: ListingSearchQuery, now: Date) {
+function searchParameters(query: ListingSearchRequest, now: Date) {
+  const hitsPerPage = query.hitsPerPage ?? 20;
+  const facets = query.facets ?? LISTING_FACETS;
   return {
     q: query.text?.trim() || null,
     filter: listingFilter(query, now),
-    sort: listingSortRules(query.sort),
-    facets: [...LISTING_FACETS],
+    // A count alone needs no order and no attributes.
+    ...(hitsPerPage > 0 ? { sort: listingSortRules(query.sort), attributesToRetrieve: [...LISTING_HIT_ATTRIBUTES] } : {}),
+    ...(facets.length ? { facets: [...facets] } : {}),
     page: query.page ?? 1,
-    hitsPerPage: query.hitsPerPage ?? 20,
+    hitsPerPage,
   };
 }
 
 function toResult(response: SearchResponse<ListingSearchDocument>): ListingSearchResult {
   const distribution = response.facetDistribution ?? {};
   return {
-    hits: response.hits as ListingSearchDocument[],
+    hits: response.hits as ListingSearchHit[],
     totalHits: response.totalHits ?? 0,
     page: response.page ?? 1,
     hitsPerPage: response.hitsPerPage ?? 0,
@@ -221,4 +240,4 @@ export function listingSearch(): ListingSearch {
 export const applyIndexSettings = () => listingSearch().applyIndexSettings();
 export const indexListings = (documents: ListingSearchDocument[]) => listingSearch().indexListings(documents);
 export const removeListing = (id: string) => listingSearch().removeListing(id);
-export const searchListings = (query: ListingSearchQuery, now?: Date) => listingSearch().searchListings(query, now);
+export const searchListings = (query: ListingSearchRequest, now?: Date) => listingSearch().searchListings(query, now);

@@ -4,12 +4,20 @@
 import type { Database } from "~/db/client.server";
 import type { DisplayUnits } from "~/modules/units/format";
 import { formatLength, formatMoney } from "~/modules/units/format";
-import type { ListingSearchDocument } from "../../../search/document.ts";
 import type { ListingSearchQuery } from "../../../search/query.ts";
 import { describeSearch } from "./describe";
 import { accuracyFilters, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
 import { searchListingsInDatabase } from "./listing-source.server";
-import { listingSearch, SearchUnavailableError, type ListingSearch, type ListingSearchResult } from "./search.server";
+import {
+  LISTING_FACETS,
+  listingSearch,
+  SearchUnavailableError,
+  type ListingFacet,
+  type ListingSearch,
+  type ListingSearchHit,
+  type ListingSearchRequest,
+  type ListingSearchResult,
+} from "./search.server";
 import { paramsFromQuery } from "./search-params.server";
 
 export type ResultSource = "index" | "database";
@@ -71,7 +79,7 @@ export type MachineSearch = {
 
 export const INCOMPLETE_NOTICE = "Results may be incomplete: the search service is not answering, so these come straight from our database, with simpler word matching.";
 
-function toHit(document: ListingSearchDocument): ListingHit {
+function toHit(document: ListingSearchHit): ListingHit {
   const reportDate = document.reportDate === null ? null : new Date(document.reportDate * 1000).toISOString().slice(0, 10);
   return {
     id: document.id,
@@ -121,7 +129,7 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
     get source() {
       return source;
     },
-    async find(query: ListingSearchQuery): Promise<ListingSearchResult> {
+    async find(query: ListingSearchRequest): Promise<ListingSearchResult> {
       if (source === "index") {
         try {
           return await search.searchListings(query, now);
@@ -134,7 +142,7 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
       return searchListingsInDatabase(db, query, now);
     },
     /** Several searches at once: one request to the index, or each in PostgreSQL. */
-    async findAll(queries: ListingSearchQuery[]): Promise<ListingSearchResult[]> {
+    async findAll(queries: ListingSearchRequest[]): Promise<ListingSearchResult[]> {
       if (source === "index") {
         try {
           return await search.searchListingsTogether(queries, now);
@@ -151,9 +159,9 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
 
 export type ListingFinder = ReturnType<typeof createListingFinder>;
 
-/** The same search for its total and facet counts alone (no hits). */
-function countOnly(query: ListingSearchQuery): ListingSearchQuery {
-  return { ...query, page: 1, hitsPerPage: 0 };
+/** The same search for its total alone, and the counts of `facets` if any (no hits). */
+function countOnly(query: ListingSearchQuery, facets: readonly ListingFacet[] = []): ListingSearchRequest {
+  return { ...query, page: 1, hitsPerPage: 0, facets };
 }
 
 type Relaxation = { filter: string; relaxed: ListingSearchQuery; text: string };
@@ -245,11 +253,13 @@ export async function searchMachines(
   const units = options.units ?? "mm";
   const finder = createListingFinder(db, options);
   // The page, and for each facet that is filtered on the same search without that filter: one request.
-  const facetSearches: Array<{ facet: "category" | "grade" | "verified"; query: ListingSearchQuery }> = [];
-  if (query.categories?.length) facetSearches.push({ facet: "category", query: countOnly({ ...query, categories: undefined }) });
-  if (query.grades?.length) facetSearches.push({ facet: "grade", query: countOnly({ ...query, grades: undefined }) });
-  if (query.verifiedOnly) facetSearches.push({ facet: "verified", query: countOnly({ ...query, verifiedOnly: undefined }) });
-  const [result, ...others] = await finder.findAll([query, ...facetSearches.map((search) => search.query)]);
+  // Each search counts only the facets taken from it.
+  const facetSearches: Array<{ facet: "category" | "grade" | "verified"; query: ListingSearchRequest }> = [];
+  if (query.categories?.length) facetSearches.push({ facet: "category", query: countOnly({ ...query, categories: undefined }, ["category"]) });
+  if (query.grades?.length) facetSearches.push({ facet: "grade", query: countOnly({ ...query, grades: undefined }, ["grade"]) });
+  if (query.verifiedOnly) facetSearches.push({ facet: "verified", query: countOnly({ ...query, verifiedOnly: undefined }, ["verified"]) });
+  const pageFacets = LISTING_FACETS.filter((facet) => !facetSearches.some((search) => search.facet === facet));
+  const [result, ...others] = await finder.findAll([{ ...query, facets: pageFacets }, ...facetSearches.map((search) => search.query)]);
   const facetsWithout = (facet: "category" | "grade" | "verified") => {
     const position = facetSearches.findIndex((search) => search.facet === facet);
     return (position < 0 ? result! : others[position]!).facets[facet];

@@ -189,7 +189,7 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
   for (const { search, email, units, occasion } of owed.values()) {
     const query = queryOf(search.queryString);
     if (!query) continue;
-    const match = await finder.find({ ...query, ids: [listing.id], page: 1, hitsPerPage: 1 });
+    const match = await finder.find({ ...query, ids: [listing.id], page: 1, hitsPerPage: 1, facets: [] });
     if (match.totalHits === 0) continue;
     const origin = env().APP_ORIGIN;
     const message = await renderEmail(
