@@ -13,7 +13,12 @@ import { uploadStepSchema } from "./upload-requests";
 
 export async function handleUploadStep(db: Database, actor: SessionUser, listingId: string, kind: "photo" | "document", form: FormData) {
   const step = uploadStepSchema.safeParse(Object.fromEntries(form));
-  if (!step.success) return Response.json({ error: "This upload request is incomplete. Reload the page and try again." }, { status: 400 });
+  if (!step.success) {
+    // An empty file is the seller's to fix; anything else wrong here means the page is stale or tampered with.
+    const emptyFile = step.error.issues.find((issue) => issue.path[0] === "size" && issue.code === "too_small");
+    if (emptyFile) return Response.json({ error: emptyFile.message }, { status: 422 });
+    return Response.json({ error: "This upload request is incomplete. Reload the page and try again." }, { status: 400 });
+  }
   try {
     if (step.data.intent === "presign") {
       const file = { fileName: step.data.fileName, size: step.data.size, contentType: step.data.contentType };

@@ -5,7 +5,7 @@ export const uploadStepSchema = z.discriminatedUnion("intent", [
   z.object({
     intent: z.literal("presign"),
     fileName: z.string().trim().min(1).max(255),
-    size: z.coerce.number().int().nonnegative(),
+    size: z.coerce.number().int().positive({ error: "The file is empty: choose a file with something in it." }),
     contentType: z.string().max(100),
   }),
   z.object({

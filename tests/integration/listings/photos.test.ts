@@ -47,6 +47,12 @@ describe("hostile files sent as listing photos", () => {
     const svg = await postForm(`/sell/listings/${listingId}/photos`, cookie, { intent: "presign", fileName: "a.svg", size: "300", contentType: "image/svg+xml" });
     expect(svg.status).toBe(422);
     expect((await svg.json()).error).toMatch(/not a JPEG, PNG or WebP photo/);
+    // An empty file, photo or document, is refused before any upload address is handed out.
+    for (const [kind, fileName, contentType] of [["photos", "empty.jpg", "image/jpeg"], ["documents", "empty.pdf", "application/pdf"]]) {
+      const empty = await postForm(`/sell/listings/${listingId}/${kind}`, cookie, { intent: "presign", fileName, size: "0", contentType });
+      expect(empty.status).toBe(422);
+      expect((await empty.json()).error).toMatch(/The file is empty/);
+    }
     await expectNothingLeft(listingId);
   });
 
