@@ -13,7 +13,8 @@ import { acceptedBooking, completeForm, inspectorCookie, submitOverHttp } from "
 
 const db = getDatabase();
 // 401: a sign-in that names no account; 409: a state that forbids the step; 415: a body that is not a form.
-const ACCEPTED = new Set([400, 401, 403, 404, 405, 409, 413, 415, 422]);
+// 429 too: repeated wrong passwords for one address are refused by the sign-in limit, with its message.
+const ACCEPTED = new Set([400, 401, 403, 404, 405, 409, 413, 415, 422, 429]);
 const RUNS = Number(process.env.BAD_INPUT_RUNS ?? 12);
 
 type Person = "visitor" | "buyer" | "seller" | "inspector" | "admin";
