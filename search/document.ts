@@ -46,29 +46,10 @@ export type SearchableReport = {
   keyFigures: KeyFigures;
 };
 
-export type ListingSearchDocument = {
-  id: string;
-  slug: string;
-  status: string;
-  category: string;
-  categoryLabel: string;
-  condition: string;
-  make: string;
-  model: string;
+/** The listing's own fields as the index holds them (dates as epoch seconds), plus its report's figures. */
+export type ListingSearchDocument = Omit<SearchableListing, "publishedAt"> & {
   title: string;
-  year: number | null;
-  description: string;
-  swingMm: number | null;
-  betweenCentresMm: number | null;
-  spindleBoreMm: number | null;
-  priceMinor: number | null;
-  currency: string | null;
-  city: string | null;
-  region: string | null;
-  country: string;
-  sellerName: string;
   publishedAt: number | null;
-  photoUrl: string | null;
   verified: boolean;
   reportId: string | null;
   grade: Grade | null;
