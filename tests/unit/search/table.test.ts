@@ -5,7 +5,8 @@
 // case-insensitively, shown as first met) — source: the engine's sorting and faceting reference, from memory.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { evaluateFilter, leafValues, lookUp, type ComparisonOperator, type FilterNode } from "../../../search/stand-in/filter.ts";
+import { filterExpressionArbitrary } from "../../support/filter-arbitraries";
+import { evaluateFilter, leafValues, lookUp, type FilterNode } from "../../../search/stand-in/filter.ts";
 import { DocumentTable, type SortRule } from "../../../search/stand-in/table.ts";
 
 type Document = Record<string, unknown>;
@@ -31,24 +32,7 @@ const documentArbitrary = fc.record(
 const documentsArbitrary = fc.array(documentArbitrary, { minLength: 0, maxLength: 40 });
 
 const attribute = fc.constantFrom(...attributes);
-const value = fc.constantFrom(...valuePool);
-const condition: fc.Arbitrary<FilterNode> = fc.oneof(
-  fc.record({ kind: fc.constant("comparison" as const), attribute, operator: fc.constantFrom<ComparisonOperator>("=", "!=", ">", ">=", "<", "<="), value }),
-  fc.record({ kind: fc.constant("range" as const), attribute, from: value, to: value }),
-  fc.record({ kind: fc.constant("in" as const), attribute, values: fc.array(value, { maxLength: 3 }), negated: fc.boolean() }),
-  fc.record({ kind: fc.constant("exists" as const), attribute, negated: fc.boolean() }),
-  fc.record({ kind: fc.constant("isNull" as const), attribute, negated: fc.boolean() }),
-  fc.record({ kind: fc.constant("isEmpty" as const), attribute, negated: fc.boolean() }),
-);
-const { expression } = fc.letrec<{ expression: FilterNode }>((tie) => ({
-  expression: fc.oneof(
-    { depthSize: "small", withCrossShrink: true },
-    condition,
-    fc.record({ kind: fc.constant("not" as const), operand: tie("expression") }),
-    fc.record({ kind: fc.constant("and" as const), operands: fc.array(tie("expression"), { minLength: 2, maxLength: 3 }) }),
-    fc.record({ kind: fc.constant("or" as const), operands: fc.array(tie("expression"), { minLength: 2, maxLength: 3 }) }),
-  ),
-}));
+const expression = filterExpressionArbitrary(attributes, valuePool);
 
 const tableOf = (documents: Document[]) => new DocumentTable(documents.map((document, n) => [`d${n}`, document] as [string, Document]));
 
