@@ -1,8 +1,8 @@
 import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link, useActionData, useNavigation } from "react-router";
-import { Button, TextField } from "~/components/ui";
-import { AuthCard, FormMessage } from "~/modules/accounts/components/auth-card";
+import { Button } from "~/components/ui";
+import { AuthCard, EmailAddressField, FormMessage } from "~/modules/accounts/components/auth-card";
 import { failureReply, invalidReply } from "~/modules/accounts/forms.server";
 import { requestPasswordReset } from "~/modules/accounts/service.server";
 import { forgotPasswordSchema } from "~/modules/accounts/validation";
@@ -48,17 +48,7 @@ export default function ForgotPassword() {
       ) : (
         <Form method="post" {...getFormProps(form)} className="space-y-5">
           {form.errors?.length ? <FormMessage>{form.errors.join(" ")}</FormMessage> : null}
-          <TextField
-            label="E-mail address"
-            type="email"
-            autoComplete="email"
-            inputMode="email"
-            name={fields.email.name}
-            key={fields.email.key}
-            defaultValue={fields.email.initialValue}
-            errors={fields.email.errors}
-            required
-          />
+          <EmailAddressField field={fields.email} />
           <Button type="submit" size="lg" disabled={busy} className="w-full sm:w-auto">
             {busy ? "Sending…" : "Send me a link"}
           </Button>

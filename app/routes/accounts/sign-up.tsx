@@ -2,7 +2,7 @@ import { getFormProps, useForm } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link, redirect, useActionData, useLoaderData, useNavigation } from "react-router";
 import { Button, TextField } from "~/components/ui";
-import { AuthCard, FormMessage } from "~/modules/accounts/components/auth-card";
+import { AuthCard, EmailAddressField, FormMessage } from "~/modules/accounts/components/auth-card";
 import { failureReply, invalidReply } from "~/modules/accounts/forms.server";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { signUp } from "~/modules/accounts/service.server";
@@ -105,17 +105,7 @@ export default function SignUp() {
           errors={fields.name.errors}
           required
         />
-        <TextField
-          label="E-mail address"
-          type="email"
-          autoComplete="email"
-          inputMode="email"
-          name={fields.email.name}
-          key={fields.email.key}
-          defaultValue={fields.email.initialValue}
-          errors={fields.email.errors}
-          required
-        />
+        <EmailAddressField field={fields.email} />
         <TextField
           label="Password"
           type="password"

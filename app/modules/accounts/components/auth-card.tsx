@@ -1,5 +1,6 @@
+import type { FieldMetadata } from "@conform-to/react";
 import type { ReactNode } from "react";
-import { Card } from "~/components/ui";
+import { Card, TextField } from "~/components/ui";
 
 /** The frame of the sign-in, sign-up and password pages: one centred card with a title. */
 export function AuthCard({ title, lead, children, footer, wide }: { title: string; lead?: ReactNode; children: ReactNode; footer?: ReactNode; wide?: boolean }) {
@@ -26,5 +27,22 @@ export function FormMessage({ tone = "beyond", children, id }: { tone?: "beyond"
     <div id={id} role={tone === "beyond" ? "alert" : "status"} className={`rounded-(--radius-control) border px-3 py-2.5 text-sm font-semibold ${tones[tone]}`}>
       {children}
     </div>
+  );
+}
+
+/** The e-mail address field of the sign-in, sign-up and forgotten-password forms, wired to its Conform field. */
+export function EmailAddressField({ field }: { field: FieldMetadata<string> }) {
+  return (
+    <TextField
+      label="E-mail address"
+      type="email"
+      autoComplete="email"
+      inputMode="email"
+      name={field.name}
+      key={field.key}
+      defaultValue={field.initialValue}
+      errors={field.errors}
+      required
+    />
   );
 }
