@@ -249,6 +249,17 @@ export async function listSellerListings(db: Database, seller: SessionUser) {
 
 const uploadKeyPattern = (listingId: string) => new RegExp(`^uploads/${listingId}/[0-9a-f-]{36}$`);
 
+/** Refuses a file whose declared size is over the limit, before any upload address is handed out. */
+function refuseOversized(file: UploadRequest, maxBytes: number) {
+  if (file.size > maxBytes) throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(maxBytes)} limit.`);
+}
+
+/** A fresh upload key of the shape `uploadKeyPattern` accepts, and its presigned PUT address. */
+async function presignListingUpload(listingId: string, contentType: string) {
+  const uploadKey = `uploads/${listingId}/${randomUUID()}`;
+  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType }), contentType };
+}
+
 export type UploadRequest = { fileName: string; size: number; contentType: string };
 
 /** A presigned URL for one photo; the browser PUTs the file there, then calls `confirmPhotoUpload`. */
@@ -257,13 +268,10 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
   if (!(PHOTO_TYPES as readonly string[]).includes(file.contentType)) {
     throw new RejectedFileError(`${file.fileName} is not a JPEG, PNG or WebP photo.`);
   }
-  if (file.size > PHOTO_MAX_BYTES) {
-    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(PHOTO_MAX_BYTES)} limit.`);
-  }
+  refuseOversized(file, PHOTO_MAX_BYTES);
   const [{ photos }] = await db.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
   if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
-  const uploadKey = `uploads/${listing.id}/${randomUUID()}`;
-  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType }), contentType: file.contentType };
+  return presignListingUpload(listing.id, file.contentType);
 }
 
 /** Checks the uploaded object by its content and keeps its variants; a rejected file leaves nothing behind. */
@@ -337,13 +345,10 @@ export async function deletePhoto(db: Database, actor: SessionUser, listingId: s
 export async function startDocumentUpload(db: Database, actor: SessionUser, listingId: string, file: UploadRequest) {
   const listing = await managedListing(db, actor, listingId);
   if (!(DOCUMENT_TYPES as readonly string[]).includes(file.contentType)) throw new RejectedFileError(`${file.fileName} is not a PDF.`);
-  if (file.size > DOCUMENT_MAX_BYTES) {
-    throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(DOCUMENT_MAX_BYTES)} limit.`);
-  }
+  refuseOversized(file, DOCUMENT_MAX_BYTES);
   const [{ documents }] = await db.select({ documents: count() }).from(listingDocuments).where(eq(listingDocuments.listingId, listing.id));
   if (documents >= DOCUMENTS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${DOCUMENTS_PER_LISTING} documents; delete one first.`);
-  const uploadKey = `uploads/${listing.id}/${randomUUID()}`;
-  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType }), contentType: file.contentType };
+  return presignListingUpload(listing.id, file.contentType);
 }
 
 export async function confirmDocumentUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {
