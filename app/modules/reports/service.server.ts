@@ -237,14 +237,20 @@ async function upsertDraft(tx: Transaction, inspectorId: string, bookingId: stri
  * Stores the inspector's form as typed. The shape must be right (profile, test codes, kinds, field sizes);
  * half-typed readings are kept and their problems returned as `issues`. Refused once the report is signed.
  */
+/** Locks the booking's draft, refuses a locked entry (signed, or not the inspector's to file), and stores the form. */
+async function storeOpenDraft(tx: Transaction, inspector: SessionUser, bookingId: string, form: ReportForm) {
+  const draft = await draftOf(tx, bookingId, true);
+  const found = await bookingOfInspector(tx, inspector, bookingId);
+  const mode = await entryMode(tx, found, draft);
+  if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
+  const saved = await upsertDraft(tx, inspector.id, bookingId, form);
+  return { found, mode, saved };
+}
+
 export async function saveDraft(db: Database, inspector: SessionUser, bookingId: string, body: unknown) {
   const form = parseDraftBody(body);
   return db.transaction(async (tx) => {
-    const draft = await draftOf(tx, bookingId, true);
-    const found = await bookingOfInspector(tx, inspector, bookingId);
-    const mode = await entryMode(tx, found, draft);
-    if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
-    const saved = await upsertDraft(tx, inspector.id, bookingId, form);
+    const { saved } = await storeOpenDraft(tx, inspector, bookingId, form);
     return { version: saved.version, savedAt: saved.updatedAt.toISOString(), issues: draftIssues(form) };
   });
 }
@@ -386,11 +392,7 @@ function buildContent(
 export async function submitReport(db: Database, inspector: SessionUser, bookingId: string, body: unknown, now = new Date()) {
   const form = parseDraftBody(body);
   return db.transaction(async (tx) => {
-    const draft = await draftOf(tx, bookingId, true);
-    const found = await bookingOfInspector(tx, inspector, bookingId);
-    const mode = await entryMode(tx, found, draft);
-    if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
-    const saved = await upsertDraft(tx, inspector.id, bookingId, form);
+    const { found, mode, saved } = await storeOpenDraft(tx, inspector, bookingId, form);
     const [existing] = await tx
       .select({ id: reports.id })
       .from(reports)
