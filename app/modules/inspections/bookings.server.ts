@@ -8,7 +8,7 @@ import { user, userRole } from "~/modules/accounts/schema";
 import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
 import { listings } from "~/modules/listings/schema";
 import { createCheckoutSession, expireCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
-import { BookingRuleError, DEADLOCK_DETECTED, isExclusionViolation, SlotTakenError, sqlStateOf } from "./errors";
+import { BookingRuleError, isExclusionViolation, SlotTakenError } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
 import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
 import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule } from "./rules";
@@ -121,8 +121,12 @@ export async function createBooking(
   await releaseLapsedCheckouts(db, inspector.id, now);
 
   const { platformFeeMinor, inspectorShareMinor } = splitFee(fee.amountMinor);
-  const hold = () =>
-    db.transaction(async (tx) => {
+  let booking: Booking;
+  try {
+    booking = await db.transaction(async (tx) => {
+      // Holds for one inspector take turns. Concurrent inserts checked by one exclusion constraint can
+      // otherwise deadlock on each other's speculative rows; in turn, each loser meets the constraint cleanly.
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`booking-holds:${inspector.id}`}))`);
       const [created] = await tx
         .insert(bookings)
         .values({
@@ -143,16 +147,9 @@ export async function createBooking(
       await logBookingEvent(tx, created!.id, { kind: "requested", actorId: input.booker.id, note: "Slot held while the buyer pays." });
       return created!;
     });
-  let booking: Booking | undefined;
-  for (let attempt = 1; !booking; attempt++) {
-    try {
-      booking = await hold();
-    } catch (error) {
-      if (isExclusionViolation(error, "bookings_no_overlap_per_inspector")) throw new SlotTakenError();
-      // Two holds racing for one time can deadlock on the constraint's check; trying again gives a clear answer.
-      if (sqlStateOf(error) === DEADLOCK_DETECTED && attempt < 4) continue;
-      throw error;
-    }
+  } catch (error) {
+    if (isExclusionViolation(error, "bookings_no_overlap_per_inspector")) throw new SlotTakenError();
+    throw error;
   }
 
   const origin = env().APP_ORIGIN;

@@ -23,16 +23,6 @@ export class BookingRuleError extends Error {
 /** PostgreSQL's SQLSTATE for an exclusion-constraint violation. */
 export const EXCLUSION_VIOLATION = "23P01";
 
-/** SQLSTATE of a deadlock: concurrent inserts checking one exclusion constraint can wait on each other. */
-export const DEADLOCK_DETECTED = "40P01";
-
-export function sqlStateOf(error: unknown): string | undefined {
-  for (let current = error as { code?: string; cause?: unknown } | undefined; current; current = current.cause as typeof current) {
-    if (typeof current.code === "string") return current.code;
-  }
-  return undefined;
-}
-
 export function isExclusionViolation(error: unknown, constraint?: string): boolean {
   // Drizzle wraps the driver's error; the SQLSTATE is on the error or its cause.
   for (let current = error as { code?: string; constraint?: string; cause?: unknown } | undefined; current; current = current.cause as typeof current) {
