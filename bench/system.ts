@@ -38,7 +38,7 @@ export const BUDGETS = {
 } as const;
 
 // A buyer's search: verified centre and toolroom lathes with spindle run-out ≤ 5 µm, best accuracy first.
-const SEARCH_QUERY = "category=centre_lathe&category=toolroom_lathe&verified=1&runoutMax=5&sort=best-accuracy";
+export const SEARCH_QUERY = "category=centre_lathe&category=toolroom_lathe&verified=1&runoutMax=5&sort=best-accuracy";
 
 type Target = { key: string; name: string; path: string; route: string };
 type LoadRow = {
@@ -87,7 +87,7 @@ function routeDeclared(route: string): boolean {
   return readFileSync(path.join(root, "app/routes.ts"), "utf8").includes(`route("${route}"`);
 }
 
-async function indexListings(databaseUrl: string, batchSize: number) {
+export async function indexListings(databaseUrl: string, batchSize: number) {
   const { reindexAllListings } = await import("../app/modules/search/indexing.server.ts");
   const { createListingSearch } = await import("../app/modules/search/search.server.ts");
   const { getDatabase } = await import("../app/db/client.server.ts");

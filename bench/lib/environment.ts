@@ -68,14 +68,16 @@ export type RunningApp = { origin: string; child: ChildProcess; logFile: string;
  */
 export async function startBenchApp(
   environment: BenchEnvironment,
-  options: { name?: string; port?: number; env?: Record<string, string> } = {},
+  options: { name?: string; port?: number; env?: Record<string, string>; nodeFlags?: string[] } = {},
 ): Promise<RunningApp> {
   const name = options.name ?? "app";
   const logFile = path.join(environment.workDir, `${name}.log`);
   const output = createWriteStream(logFile);
   const origin = options.port ? `http://127.0.0.1:${options.port}` : environment.appEnvironment.APP_ORIGIN!;
   const port = options.port ? String(options.port) : environment.appEnvironment.PORT!;
-  const child = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [`${environment.buildDirectory}/server/index.js`], {
+  // Node itself runs react-router-serve's script, so that flags such as --cpu-prof (refused in NODE_OPTIONS) can be given.
+  const serve = path.join(root, "node_modules/@react-router/serve/bin.js");
+  const child = spawn(process.execPath, [...(options.nodeFlags ?? []), serve, `${environment.buildDirectory}/server/index.js`], {
     cwd: root,
     env: {
       ...process.env,
