@@ -6,6 +6,7 @@
 import { mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { Session } from "node:inspector/promises";
 import path from "node:path";
+import { pathToFileURL } from "node:url";
 import { log } from "../scripts/lib/output.ts";
 import { buildForBench, startBenchApp, startBenchServices, stopBenchApp, stopBenchEnvironment } from "./lib/environment.ts";
 import { runLoad } from "./lib/load.ts";
@@ -74,4 +75,5 @@ async function main() {
   if (!files.length) console.log(`no profile was written to ${profileDir} (the app did not exit cleanly)`);
 }
 
-await main();
+// Run only when called itself: `npm run bench` imports every module of this folder to find its benchmarks.
+if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) await main();

@@ -471,25 +471,27 @@ export class SearchEngine {
         if (n !== undefined && (!allowed || allowed.has(n))) matches.push(n);
       }
     }
-    // Sort first; the relevance order (or insertion order) of the candidates breaks ties, since sort is stable.
-    if (sortRules.length) matches = table.sort(matches, sortRules);
-
     const maxTotalHits = (state.settings.pagination as { maxTotalHits: number }).maxTotalHits;
-    const reachable = matches.length > maxTotalHits ? matches.slice(0, maxTotalHits) : matches;
+    const reachable = Math.min(matches.length, maxTotalHits);
     const pageMode = request.page !== undefined || request.hitsPerPage !== undefined;
     const response: Record<string, unknown> = {};
-    let hits: number[];
+    let [start, end] = [0, 0];
     if (pageMode) {
       const page = request.page ?? 1;
       const hitsPerPage = request.hitsPerPage ?? 20;
-      hits = hitsPerPage === 0 ? [] : reachable.slice((page - 1) * hitsPerPage, page * hitsPerPage);
-      Object.assign(response, { hitsPerPage, page, totalPages: hitsPerPage === 0 ? 0 : Math.ceil(reachable.length / hitsPerPage), totalHits: reachable.length });
+      [start, end] = hitsPerPage === 0 ? [0, 0] : [(page - 1) * hitsPerPage, page * hitsPerPage];
+      Object.assign(response, { hitsPerPage, page, totalPages: hitsPerPage === 0 ? 0 : Math.ceil(reachable / hitsPerPage), totalHits: reachable });
     } else {
       const offset = request.offset ?? 0;
       const limit = request.limit ?? 20;
-      hits = reachable.slice(offset, offset + limit);
-      Object.assign(response, { limit, offset, estimatedTotalHits: reachable.length });
+      [start, end] = [offset, offset + limit];
+      Object.assign(response, { limit, offset, estimatedTotalHits: reachable });
     }
+    end = Math.min(end, reachable);
+    // Only the page's part of the order is needed; the relevance order (or insertion order) of the
+    // candidates breaks ties, since the sort is stable.
+    const ordered = sortRules.length && end > start ? table.sort(matches, sortRules, end) : matches;
+    const hits = end > start ? ordered.slice(start, end) : [];
 
     const result: Record<string, unknown> = {
       // Not copied: the server serializes the answer at once, and nothing here changes a stored document.

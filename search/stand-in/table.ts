@@ -463,8 +463,11 @@ export class DocumentTable {
     }
   }
 
-  /** Sorts document numbers by the rules, keeping the given order among equals (the sort is stable). */
-  sort(numbers: number[], rules: SortRule[]): number[] {
+  /**
+   * Sorts document numbers by the rules, keeping the given order among equals (the sort is stable). With
+   * `limit`, only the first `limit` of that order are returned: a page needs its top, not the whole order.
+   */
+  sort(numbers: number[], rules: SortRule[], limit = numbers.length): number[] {
     const columns = rules.map((rule) => this.column(rule.attribute).sortRanks(rule.descending));
     // The rules' ranks folded into one number with the position as the last digit: a typed-array sort.
     let span = numbers.length;
@@ -476,13 +479,14 @@ export class DocumentTable {
         for (const { ranks, top } of columns) key = key * (top + 1) + ranks[numbers[i]!]!;
         keys[i] = key * numbers.length + i;
       }
-      keys.sort();
-      return Array.from(keys, (key) => numbers[key % numbers.length]!);
+      const first = smallestSorted(keys, limit);
+      return Array.from(first, (key) => numbers[key % numbers.length]!);
     }
-    return [...numbers].sort((a, b) => {
+    const sorted = [...numbers].sort((a, b) => {
       for (const { ranks } of columns) if (ranks[a] !== ranks[b]) return ranks[a]! - ranks[b]!;
       return 0;
     });
+    return limit < sorted.length ? sorted.slice(0, limit) : sorted;
   }
 
   /** Facet counts (values case-insensitive, shown as first met in `numbers`' order) and numeric ranges. */
@@ -515,4 +519,32 @@ export class DocumentTable {
     }
     return { facetDistribution, facetStats };
   }
+}
+
+/**
+ * The `limit` smallest of distinct keys, ascending. A page of 20 out of thousands keeps a max-heap of 20
+ * (n log k) instead of sorting all n; near the whole array a plain sort is quicker.
+ */
+export function smallestSorted(keys: Float64Array, limit: number): Float64Array {
+  const k = Math.max(0, Math.min(limit, keys.length));
+  if (k * 4 >= keys.length) return keys.sort().subarray(0, k);
+  const heap = keys.slice(0, k);
+  const siftDown = (start: number) => {
+    for (let parent = start; ; ) {
+      const left = 2 * parent + 1;
+      if (left >= k) return;
+      const child = left + 1 < k && heap[left + 1]! > heap[left]! ? left + 1 : left;
+      if (heap[child]! <= heap[parent]!) return;
+      [heap[parent], heap[child]] = [heap[child]!, heap[parent]!];
+      parent = child;
+    }
+  };
+  for (let i = (k >> 1) - 1; i >= 0; i -= 1) siftDown(i);
+  for (let i = k; i < keys.length; i += 1) {
+    if (keys[i]! < heap[0]!) {
+      heap[0] = keys[i]!;
+      siftDown(0);
+    }
+  }
+  return heap.sort();
 }

@@ -82,6 +82,9 @@ export function createListingSearch(connection: SearchConnection) {
   const writeTimeoutMs = connection.writeTimeoutMs ?? 10_000;
   const client = new Meilisearch({ host: connection.host, apiKey: connection.apiKey, timeout: writeTimeoutMs });
   const index = client.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
+  // Searches carry their own AbortSignal.timeout; a second client spares each one the SDK's extra timer.
+  const searchClient = new Meilisearch({ host: connection.host, apiKey: connection.apiKey });
+  const searchIndex = searchClient.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
 
   /** Sends an index update and waits until the service has processed it. */
   async function update(what: string, send: () => EnqueuedTaskPromise): Promise<Task> {
@@ -128,7 +131,7 @@ export function createListingSearch(connection: SearchConnection) {
     async searchListings(query: ListingSearchRequest, now: Date = new Date()): Promise<ListingSearchResult> {
       const response = await callService(
         "Searching listings",
-        () => index.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
+        () => searchIndex.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
         connection.searchTimeoutMs,
       );
       return toResult(response);
@@ -144,7 +147,7 @@ export function createListingSearch(connection: SearchConnection) {
       const response = await callService(
         "Searching listings",
         () =>
-          client.multiSearch<MultiSearchParams, ListingSearchDocument>(
+          searchClient.multiSearch<MultiSearchParams, ListingSearchDocument>(
             { queries: queries.map((query): MultiSearchQuery => ({ indexUid: LISTINGS_INDEX_UID, ...searchParameters(query, now) })) },
             { signal: AbortSignal.timeout(connection.searchTimeoutMs) },
           ),

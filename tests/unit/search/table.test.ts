@@ -7,7 +7,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { filterExpressionArbitrary } from "../../support/filter-arbitraries";
 import { evaluateFilter, leafValues, lookUp, type FilterNode } from "../../../search/stand-in/filter.ts";
-import { DocumentTable, type SortRule } from "../../../search/stand-in/table.ts";
+import { DocumentTable, smallestSorted, type SortRule } from "../../../search/stand-in/table.ts";
 
 type Document = Record<string, unknown>;
 
@@ -123,6 +123,28 @@ describe("the stand-in's column store", () => {
         const candidates = documents.map((_, n) => n).filter(() => keep.next().value);
         const expected = [...candidates].sort((a, b) => referenceCompare(documents[a]!, documents[b]!, rules));
         expect(table.sort(candidates, rules)).toEqual(expected);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it("gives the first `limit` of that order when asked for a page's top only", () => {
+    fc.assert(
+      fc.property(fc.array(sortRule, { minLength: 1, maxLength: 3 }), documentsArbitrary, fc.infiniteStream(fc.boolean()), fc.nat({ max: 40 }), (rules, documents, keep, limit) => {
+        const table = tableOf(documents);
+        const candidates = documents.map((_, n) => n).filter(() => keep.next().value);
+        const expected = [...candidates].sort((a, b) => referenceCompare(documents[a]!, documents[b]!, rules)).slice(0, limit);
+        expect(table.sort(candidates, rules, limit)).toEqual(expected);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it("picks the smallest keys like a full sort, for every limit", () => {
+    fc.assert(
+      fc.property(fc.uniqueArray(fc.integer({ min: 0, max: 2 ** 40 }), { maxLength: 200 }), fc.nat({ max: 220 }), (values, limit) => {
+        const expected = [...values].sort((a, b) => a - b).slice(0, limit);
+        expect(Array.from(smallestSorted(Float64Array.from(values), limit))).toEqual(expected);
       }),
       { numRuns: 500 },
     );
