@@ -1,5 +1,5 @@
-import { lazy, Suspense, useEffect, useRef, useState } from "react";
-import { Link, useLocation, useSearchParams, type ShouldRevalidateFunctionArgs } from "react-router";
+import { useEffect, useRef, useState } from "react";
+import { Link, useFetcher, useLocation, useSearchParams, type ShouldRevalidateFunctionArgs } from "react-router";
 import { Button, ButtonLink } from "~/components/ui/button";
 import { Card } from "~/components/ui/card";
 import { cx } from "~/components/ui/cx";
@@ -303,13 +303,15 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
   );
 }
 
-// Only confirmed accounts can save a search: its form is a chunk of its own, fetched when one is shown.
-const SaveSearchForm = lazy(() => import("~/modules/search/components/save-search-form"));
+type SaveReply = { saved?: { id: string; name: string }; errors?: Record<string, string[]> };
 
 /** Save the current search with e-mail alerts: signed-in, confirmed accounts only. */
 function SaveSearch({ account, queryString, summary }: { account: { verified: boolean } | null; queryString: string; summary: string }) {
+  const fetcher = useFetcher<SaveReply>();
+  const [name, setName] = useState(summary);
   const location = useLocation();
   const here = `/machines${location.search}`;
+  const saved = fetcher.data?.saved;
   return (
     <div className="mt-10 rounded-(--radius-panel) border border-ink-200 bg-white p-5" data-testid="save-search">
       <h2 className="text-base font-bold text-ink-900">Hear about new matches</h2>
@@ -327,10 +329,38 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
           </Link>{" "}
           to save searches with alerts.
         </p>
+      ) : saved ? (
+        <p className="mt-1 text-sm text-ink-700" role="status">
+          Saved as “{saved.name}”. We will e-mail you when a machine matching it is listed or verified.{" "}
+          <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
+            Your saved searches
+          </Link>
+        </p>
       ) : (
-        <Suspense fallback={<p className="mt-3 text-sm text-ink-500">Loading the form…</p>}>
-          <SaveSearchForm queryString={queryString} summary={summary} />
-        </Suspense>
+        <div className="mt-3 flex flex-col gap-2 sm:flex-row sm:items-start">
+          <label className="min-w-0 flex-1">
+            <span className="sr-only">Name of the saved search</span>
+            <input
+              value={name}
+              onChange={(event) => setName(event.target.value)}
+              maxLength={120}
+              className="block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+              aria-label="Name of the saved search"
+            />
+            {fetcher.data?.errors ? (
+              <span className="mt-1 block text-sm font-medium text-beyond" role="alert">
+                {Object.values(fetcher.data.errors).flat().join(" ")}
+              </span>
+            ) : null}
+          </label>
+          <Button
+            variant="secondary"
+            disabled={fetcher.state !== "idle"}
+            onClick={() => fetcher.submit({ intent: "save", name, queryString }, { method: "post", action: "/account/saved-searches" })}
+          >
+            {fetcher.state !== "idle" ? "Saving…" : "Save this search"}
+          </Button>
+        </div>
       )}
     </div>
   );
