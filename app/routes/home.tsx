@@ -104,7 +104,7 @@ export default function Home() {
       </section>
 
       <section className="mx-auto max-w-6xl px-4 pt-14 sm:px-6">
-        <div className="rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
+        <div className="rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
           <p className="font-bold text-caution">Safety</p>
           <p className="mt-1">
             Testing a machine means working beside rotating spindles and chucks, heavy test mandrels and faceplates.

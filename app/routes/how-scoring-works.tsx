@@ -53,7 +53,7 @@ export default function HowScoringWorks() {
           </div>
         ))}
       </Card>
-      <div className="mt-10 rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
+      <div className="mt-10 rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
         <p className="font-bold text-caution">Before any test</p>
         <p className="mt-1">
           Take the chuck key out, keep gloves, loose sleeves and hair away from rotating parts, keep guards in place,

@@ -36,7 +36,7 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
               to={item.to}
               className={({ isActive }) =>
                 cx(
-                  "rounded-(--radius-control) px-3 py-2 text-sm font-semibold",
+                  "rounded-control px-3 py-2 text-sm font-semibold",
                   isActive ? "bg-ink-100 text-ink-900" : "text-ink-600 hover:text-ink-900",
                 )
               }
@@ -50,7 +50,7 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
         </div>
         <button
           type="button"
-          className="ml-auto rounded-(--radius-control) p-2 text-ink-700 hover:bg-ink-100 lg:hidden"
+          className="ml-auto rounded-control p-2 text-ink-700 hover:bg-ink-100 lg:hidden"
           aria-expanded={menuOpen}
           aria-controls="mobile-navigation"
           onClick={() => setMenuOpen((open) => !open)}
@@ -107,7 +107,7 @@ function AccountSlot({ user }: { user: HeaderUser }) {
       // <details> opens and closes without JavaScript; the links close it by navigating away.
       <details className="group relative">
         <summary
-          className="flex h-8 max-w-52 cursor-pointer list-none items-center gap-1.5 rounded-(--radius-control) px-3 text-sm font-semibold text-ink-800 hover:bg-ink-100 [&::-webkit-details-marker]:hidden"
+          className="flex h-8 max-w-52 cursor-pointer list-none items-center gap-1.5 rounded-control px-3 text-sm font-semibold text-ink-800 hover:bg-ink-100 [&::-webkit-details-marker]:hidden"
           title={user.email}
         >
           <span className="min-w-0 truncate">{user.name}</span>
@@ -115,7 +115,7 @@ function AccountSlot({ user }: { user: HeaderUser }) {
             <path d="M2.5 4.5 6 8l3.5-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
           </svg>
         </summary>
-        <div className="absolute right-0 z-40 mt-2 w-64 rounded-(--radius-panel) border border-ink-200 bg-white py-1.5 shadow-lg">
+        <div className="absolute right-0 z-40 mt-2 w-64 rounded-panel border border-ink-200 bg-white py-1.5 shadow-lg">
           <p className="truncate px-4 py-1.5 text-xs text-ink-500">{user.email}</p>
           <ul>
             {personalLinks(user).map((link) => (

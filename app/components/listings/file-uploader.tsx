@@ -79,7 +79,7 @@ export function FileUploader({ endpoint, accept, maxBytes, limitText, label, mul
   return (
     <div className="space-y-3">
       <label
-        className="flex cursor-pointer flex-col items-center justify-center gap-1 rounded-(--radius-panel) border-2 border-dashed border-ink-300 bg-ink-50 px-4 py-6 text-center hover:border-brass-400 hover:bg-brass-100/40"
+        className="flex cursor-pointer flex-col items-center justify-center gap-1 rounded-panel border-2 border-dashed border-ink-300 bg-ink-50 px-4 py-6 text-center hover:border-brass-400 hover:bg-brass-100/40"
       >
         <span className="text-sm font-bold text-ink-900">{label}</span>
         <span className="text-sm text-ink-500">{limitText}</span>
@@ -99,7 +99,7 @@ export function FileUploader({ endpoint, accept, maxBytes, limitText, label, mul
       {uploads.length ? (
         <ul className="space-y-2" aria-label="Uploads">
           {uploads.map((upload) => (
-            <li key={upload.id} className="rounded-(--radius-control) border border-ink-200 bg-white px-3 py-2" data-upload-state={upload.state}>
+            <li key={upload.id} className="rounded-control border border-ink-200 bg-white px-3 py-2" data-upload-state={upload.state}>
               <div className="flex items-baseline justify-between gap-3 text-sm">
                 <span className="truncate font-semibold text-ink-800">{upload.name}</span>
                 <span className={cx("shrink-0 tabular", upload.state === "rejected" ? "text-beyond" : "text-ink-500")}>

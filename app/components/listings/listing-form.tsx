@@ -3,9 +3,29 @@ import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
 import type { ReactNode } from "react";
 import { Form, useNavigation } from "react-router";
 import { Button, Card, CardBody, CardHeader, SelectField, TextAreaField, TextField } from "~/components/ui";
-import { countryOptions, machineCategories, machineConditions, spindleNoseSuggestions } from "~/modules/listings/catalogue";
+import { countryOptions, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { listingFormSchema } from "~/modules/listings/validation";
-import { currencies, lengthUnitLabel, powerUnitLabel, weightUnitLabel, type DisplayUnits } from "~/modules/units/format";
+import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
+import { powerUnitLabel, weightUnitLabel } from "~/modules/units/weight-power";
+
+// Spindle nose forms sellers most often name; the field stays free text for anything else.
+const spindleNoseSuggestions = [
+  "D1-3 camlock",
+  "D1-4 camlock",
+  "D1-5 camlock",
+  "D1-6 camlock",
+  "D1-8 camlock",
+  "A1-5",
+  "A1-6",
+  "A2-5",
+  "A2-6",
+  "A2-8",
+  "L0 long taper",
+  "L1 long taper",
+  "Threaded 1½\"-8",
+  "Threaded 2¼\"-8",
+  "Morse taper 5 bore",
+] as const;
 
 type Props = {
   units: DisplayUnits;
@@ -41,7 +61,7 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
     <Form method="post" {...getFormProps(form)} className="space-y-6">
       <input type="hidden" name="units" value={units} />
       {form.errors?.length ? (
-        <p role="alert" className="rounded-(--radius-control) bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
+        <p role="alert" className="rounded-control bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
           {form.errors.join(" ")}
         </p>
       ) : null}
@@ -50,7 +70,13 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
         <CardHeader title="The machine" description="What it is, who made it, and when." />
         <CardBody className="grid gap-5 sm:grid-cols-2">
           <SelectField label="Kind of machine" options={machineCategories} placeholder="Choose…" {...field("category")} />
-          <SelectField label="Condition" options={machineConditions} placeholder="Choose…" {...field("condition")} />
+          <SelectField
+            label="Condition"
+            hint="Reconditioned: rebuilt or overhauled, with the work described. Used: in working order, as taken out of production. As is: sold without promises, for repair or parts."
+            options={machineConditions}
+            placeholder="Choose…"
+            {...field("condition")}
+          />
           <TextField label="Make" autoComplete="off" {...field("make")} />
           <TextField label="Model" autoComplete="off" {...field("model")} />
           <TextField label="Year of manufacture" hint="Optional" inputMode="numeric" autoComplete="off" {...field("year")} />

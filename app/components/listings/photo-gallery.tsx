@@ -7,12 +7,12 @@ type Photo = { id: string; thumbnailUrl: string; largeUrl: string; width: number
 export function PhotoGallery({ photos, title }: { photos: Photo[]; title: string }) {
   const [selected, setSelected] = useState(0);
   if (!photos.length) {
-    return <div className="flex aspect-[4/3] items-center justify-center rounded-(--radius-panel) bg-ink-100 text-ink-500">No photos yet</div>;
+    return <div className="flex aspect-[4/3] items-center justify-center rounded-panel bg-ink-100 text-ink-500">No photos yet</div>;
   }
   const current = photos[Math.min(selected, photos.length - 1)];
   return (
     <div className="space-y-3">
-      <div className="overflow-hidden rounded-(--radius-panel) border border-ink-200 bg-ink-950">
+      <div className="overflow-hidden rounded-panel border border-ink-200 bg-ink-950">
         <img
           src={current.largeUrl}
           alt={`${title}, photo ${selected + 1} of ${photos.length}`}
@@ -34,7 +34,7 @@ export function PhotoGallery({ photos, title }: { photos: Photo[]; title: string
                 aria-label={`Show photo ${index + 1}`}
                 aria-current={index === selected ? "true" : undefined}
                 className={cx(
-                  "block overflow-hidden rounded-(--radius-control) ring-2 ring-offset-1",
+                  "block overflow-hidden rounded-control ring-2 ring-offset-1",
                   index === selected ? "ring-brass-500" : "ring-transparent hover:ring-ink-300",
                 )}
               >

@@ -104,7 +104,7 @@ export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
             value={search}
             onChange={(event) => setSearch(event.target.value)}
             placeholder="Make, model or town"
-            className="mt-1.5 block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
+            className="mt-1.5 block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
           />
         </label>
         <label className="block text-sm font-semibold text-ink-800 sm:w-52">
@@ -112,7 +112,7 @@ export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
           <select
             value={status}
             onChange={(event) => setStatus(event.target.value)}
-            className="mt-1.5 block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base text-ink-900 shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+            className="mt-1.5 block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base text-ink-900 shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
           >
             <option value="">All statuses</option>
             {listingStatuses.map((option) => (

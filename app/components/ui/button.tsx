@@ -6,7 +6,7 @@ type Variant = "primary" | "secondary" | "quiet" | "danger";
 type Size = "sm" | "md" | "lg";
 
 const base =
-  "inline-flex items-center justify-center gap-2 rounded-(--radius-control) font-semibold transition-colors disabled:cursor-not-allowed disabled:opacity-55 whitespace-nowrap";
+  "inline-flex items-center justify-center gap-2 rounded-control font-semibold transition-colors disabled:cursor-not-allowed disabled:opacity-55 whitespace-nowrap";
 const variants: Record<Variant, string> = {
   primary: "bg-ink-900 text-white hover:bg-ink-700 shadow-sm",
   secondary: "bg-white text-ink-900 ring-1 ring-inset ring-ink-300 hover:bg-ink-50",

@@ -4,7 +4,7 @@ import { cx } from "./cx";
 export function Card({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
   return (
     <div
-      className={cx("rounded-(--radius-panel) border border-ink-200 bg-white shadow-(--shadow-panel)", className)}
+      className={cx("rounded-panel border border-ink-200 bg-white shadow-panel", className)}
       {...props}
     />
   );

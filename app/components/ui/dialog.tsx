@@ -22,7 +22,7 @@ export function Dialog({
       {trigger ? <RadixDialog.Trigger asChild>{trigger}</RadixDialog.Trigger> : null}
       <RadixDialog.Portal>
         <RadixDialog.Overlay className="fixed inset-0 z-40 bg-ink-950/40" />
-        <RadixDialog.Content className="fixed left-1/2 top-1/2 z-50 w-[min(92vw,32rem)] -translate-x-1/2 -translate-y-1/2 rounded-(--radius-panel) bg-white p-6 shadow-xl focus:outline-none">
+        <RadixDialog.Content className="fixed left-1/2 top-1/2 z-50 w-[min(92vw,32rem)] -translate-x-1/2 -translate-y-1/2 rounded-panel bg-white p-6 shadow-xl focus:outline-none">
           <RadixDialog.Title className="text-lg font-bold text-ink-900">{title}</RadixDialog.Title>
           {description ? (
             <RadixDialog.Description className="mt-1 text-sm text-ink-600">{description}</RadixDialog.Description>

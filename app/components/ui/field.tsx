@@ -2,7 +2,7 @@ import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttribu
 import { cx } from "./cx";
 
 const control =
-  "block w-full rounded-(--radius-control) border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400 disabled:bg-ink-50";
+  "block w-full rounded-control border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400 disabled:bg-ink-50";
 
 function controlClasses(invalid: boolean) {
   return cx(control, invalid ? "border-beyond" : "border-ink-300");

@@ -4,7 +4,7 @@ import { cx } from "./cx";
 /** A table that scrolls sideways on a phone instead of squeezing its columns. */
 export function Table({ className, caption, children, ...props }: HTMLAttributes<HTMLTableElement> & { caption?: string }) {
   return (
-    <div className="overflow-x-auto rounded-(--radius-panel) border border-ink-200 bg-white">
+    <div className="overflow-x-auto rounded-panel border border-ink-200 bg-white">
       <table className={cx("min-w-full divide-y divide-ink-200 text-sm", className)} {...props}>
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         {children}

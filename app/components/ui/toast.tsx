@@ -24,7 +24,7 @@ export function ToastProvider({ children }: { children: ReactNode }) {
               if (!open) setMessages((current) => current.filter((m) => m.id !== message.id));
             }}
             className={cx(
-              "rounded-(--radius-panel) border bg-white p-4 shadow-lg",
+              "rounded-panel border bg-white p-4 shadow-lg",
               message.tone === "error" ? "border-beyond" : message.tone === "success" ? "border-within" : "border-ink-200",
             )}
           >

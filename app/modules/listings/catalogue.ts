@@ -11,9 +11,9 @@ export const machineCategories = [
 export type MachineCategory = (typeof machineCategories)[number]["value"];
 
 export const machineConditions = [
-  { value: "reconditioned", label: "Reconditioned", hint: "Rebuilt or overhauled, with the work described" },
-  { value: "used", label: "Used", hint: "In working order, as taken out of production" },
-  { value: "as_is", label: "As is", hint: "Sold without promises, for repair or parts" },
+  { value: "reconditioned", label: "Reconditioned" },
+  { value: "used", label: "Used" },
+  { value: "as_is", label: "As is" },
 ] as const;
 export type MachineCondition = (typeof machineConditions)[number]["value"];
 
@@ -24,25 +24,6 @@ export const listingStatuses = [
   { value: "withdrawn", label: "Withdrawn" },
 ] as const;
 export type ListingStatus = (typeof listingStatuses)[number]["value"];
-
-// Spindle nose forms sellers most often name; the field stays free text for anything else.
-export const spindleNoseSuggestions = [
-  "D1-3 camlock",
-  "D1-4 camlock",
-  "D1-5 camlock",
-  "D1-6 camlock",
-  "D1-8 camlock",
-  "A1-5",
-  "A1-6",
-  "A2-5",
-  "A2-6",
-  "A2-8",
-  "L0 long taper",
-  "L1 long taper",
-  "Threaded 1½\"-8",
-  "Threaded 2¼\"-8",
-  "Morse taper 5 bore",
-] as const;
 
 // ISO 3166-1 alpha-2 codes; names come from the browser's or server's own locale data.
 export const countryCodes = [

@@ -1,11 +1,6 @@
 // A stored listing as the form's starting values, in the reader's units. Pure: the edit page uses it.
-import {
-  fromMinorUnits,
-  lengthFromMillimetres,
-  powerFromKilowatts,
-  weightFromKilograms,
-  type DisplayUnits,
-} from "~/modules/units/format";
+import { fromMinorUnits, lengthFromMillimetres, type DisplayUnits } from "~/modules/units/format";
+import { powerFromKilowatts, weightFromKilograms } from "~/modules/units/weight-power";
 
 type StoredListing = {
   category: string;

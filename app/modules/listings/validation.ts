@@ -1,15 +1,7 @@
 // One zod schema per listing form, used by Conform in the browser (live errors) and on the server (the truth).
 import { z } from "zod";
-import {
-  currencies,
-  KILOGRAMS_PER_POUND,
-  KILOWATTS_PER_HORSEPOWER,
-  lengthUnitLabel,
-  MILLIMETRES_PER_INCH,
-  powerUnitLabel,
-  weightUnitLabel,
-  type DisplayUnits,
-} from "~/modules/units/format";
+import { currencies, lengthUnitLabel, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
+import { KILOGRAMS_PER_POUND, KILOWATTS_PER_HORSEPOWER, powerUnitLabel, weightUnitLabel } from "~/modules/units/weight-power";
 import { countryCodes, machineCategories, machineConditions } from "./catalogue";
 
 const categoryValues = machineCategories.map((c) => c.value) as [string, ...string[]];

@@ -1,6 +1,6 @@
 // Accuracy figures as buyers read and type them: µm for millimetre users, inches for inch users (a dial
 // indicator in inch reads to 0.0001 in, "a tenth"). Stored and searched in µm. Pure: server and browser.
-import type { DisplayUnits } from "~/modules/units/format";
+import { formatDecimal, type DisplayUnits } from "~/modules/units/format";
 
 // 1 in = 25 400 µm exactly (as ~/geometry/units); plain arithmetic here, so that the search page's script
 // does not load the engine's unit checks for numbers the form has already read.
@@ -8,23 +8,14 @@ const MICROMETRES_PER_INCH = 25_400;
 
 export const deviationUnitLabel = (units: DisplayUnits) => (units === "inch" ? "in" : "µm");
 
-// One formatter per precision: building an Intl.NumberFormat costs far more than using one.
-const formatters = new Map<number, Intl.NumberFormat>();
-
-function trimmed(value: number, digits: number) {
-  let formatter = formatters.get(digits);
-  if (!formatter) formatters.set(digits, (formatter = new Intl.NumberFormat("en", { maximumFractionDigits: digits, minimumFractionDigits: 0, useGrouping: false })));
-  return formatter.format(value);
-}
-
 /** The number a form field shows for a limit held in µm. */
 export function deviationInputValue(micrometres: number, units: DisplayUnits): string {
-  return units === "inch" ? trimmed(micrometres / MICROMETRES_PER_INCH, 6) : trimmed(micrometres, 3);
+  return units === "inch" ? formatDecimal(micrometres / MICROMETRES_PER_INCH, 6, false) : formatDecimal(micrometres, 3, false);
 }
 
 /** "4 µm" or "0.00016 in". */
 export function formatDeviation(micrometres: number, units: DisplayUnits): string {
-  return units === "inch" ? `${trimmed(micrometres / MICROMETRES_PER_INCH, 5)} in` : `${trimmed(micrometres, 1)} µm`;
+  return units === "inch" ? `${formatDecimal(micrometres / MICROMETRES_PER_INCH, 5, false)} in` : `${formatDecimal(micrometres, 1, false)} µm`;
 }
 
 /** A typed limit in the user's units to µm (to 0.001 µm); undefined when blank or not a positive number. */

@@ -126,7 +126,7 @@ export default function InspectorApplication() {
                   <legend className="text-sm font-semibold text-ink-800">Machines you inspect</legend>
                   <div className="mt-2 grid gap-2 sm:grid-cols-2">
                     {INSPECTION_CATEGORIES.map((category) => (
-                      <label key={category.value} className="flex cursor-pointer items-center gap-3 rounded-(--radius-control) border border-ink-200 bg-white px-3 py-2.5 has-[:checked]:border-ink-900 has-[:checked]:bg-ink-50">
+                      <label key={category.value} className="flex cursor-pointer items-center gap-3 rounded-control border border-ink-200 bg-white px-3 py-2.5 has-[:checked]:border-ink-900 has-[:checked]:bg-ink-50">
                         <input
                           type="checkbox"
                           name={fields.categories.name}
@@ -152,7 +152,7 @@ export default function InspectorApplication() {
           ) : null}
         </div>
 
-        <aside className="h-fit rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
+        <aside className="h-fit rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
           <p className="font-bold text-caution">Working safely at the machine</p>
           <ul className="mt-2 list-disc space-y-1.5 pl-4">
             <li>Take the chuck key out; no gloves, loose sleeves or hair near rotating spindles and chucks; guards in place.</li>

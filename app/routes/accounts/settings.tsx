@@ -117,7 +117,7 @@ export default function AccountSettings() {
                   ].map((option) => (
                     <label
                       key={option.value}
-                      className="flex cursor-pointer items-start gap-3 rounded-(--radius-control) border border-ink-200 bg-white p-3 hover:border-ink-400 has-[:checked]:border-ink-900 has-[:checked]:bg-ink-50"
+                      className="flex cursor-pointer items-start gap-3 rounded-control border border-ink-200 bg-white p-3 hover:border-ink-400 has-[:checked]:border-ink-900 has-[:checked]:bg-ink-50"
                     >
                       <input
                         type="radio"

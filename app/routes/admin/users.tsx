@@ -51,7 +51,7 @@ export default function AdminUsers() {
             name="q"
             type="search"
             defaultValue={query.q ?? ""}
-            className="block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+            className="block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
           />
         </div>
         <SelectField label="Role" name="role" defaultValue={query.role ?? ""} placeholder="Any role" options={ROLES.map((role) => ({ value: role, label: role }))} className="sm:w-48" />

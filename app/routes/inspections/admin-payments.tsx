@@ -118,8 +118,8 @@ export default function AdminPayments() {
                       <Form method="post" className="space-y-1.5">
                         <input type="hidden" name="bookingId" value={booking.id} />
                         <div className="flex flex-col gap-1.5">
-                          <input name="amount" aria-label={`Amount to refund for ${booking.reference}`} defaultValue={(refundable / 100).toFixed(2)} inputMode="decimal" className="w-24 rounded-(--radius-control) border border-ink-300 px-2 py-1 text-sm tabular" />
-                          <input name="reason" aria-label={`Reason for the refund of ${booking.reference}`} placeholder="Reason" className="w-full rounded-(--radius-control) border border-ink-300 px-2 py-1 text-sm" />
+                          <input name="amount" aria-label={`Amount to refund for ${booking.reference}`} defaultValue={(refundable / 100).toFixed(2)} inputMode="decimal" className="w-24 rounded-control border border-ink-300 px-2 py-1 text-sm tabular" />
+                          <input name="reason" aria-label={`Reason for the refund of ${booking.reference}`} placeholder="Reason" className="w-full rounded-control border border-ink-300 px-2 py-1 text-sm" />
                         </div>
                         <Button type="submit" size="sm" variant="secondary" disabled={busy}>
                           Refund

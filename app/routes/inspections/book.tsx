@@ -84,7 +84,7 @@ export default function BookInspection() {
         <Form method="post" className="mt-8 grid gap-8 lg:grid-cols-[1fr_22rem]">
           <div className="space-y-6">
             {errors.form ? (
-              <p role="alert" className="rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
+              <p role="alert" className="rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
                 {errors.form.join(" ")}
               </p>
             ) : null}
@@ -96,7 +96,7 @@ export default function BookInspection() {
                   <label
                     key={inspector.id}
                     className={cx(
-                      "block cursor-pointer rounded-(--radius-panel) border bg-white p-4 shadow-(--shadow-panel)",
+                      "block cursor-pointer rounded-panel border bg-white p-4 shadow-panel",
                       chosen === inspector.id ? "border-ink-900 ring-2 ring-ink-900" : "border-ink-200 hover:border-ink-400",
                     )}
                   >
@@ -123,7 +123,7 @@ export default function BookInspection() {
             <fieldset>
               <legend className="text-lg font-bold text-ink-900">2. Choose a slot</legend>
               {errors.slotId ? (
-                <p role="alert" className="mt-2 rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-3 py-2 text-sm font-medium text-beyond">
+                <p role="alert" className="mt-2 rounded-control border border-beyond/30 bg-beyond-soft px-3 py-2 text-sm font-medium text-beyond">
                   {errors.slotId.join(" ")}
                 </p>
               ) : null}
@@ -134,7 +134,7 @@ export default function BookInspection() {
               ) : (
                 <div className="mt-3 grid gap-2 sm:grid-cols-2">
                   {chosenInspector.slots.map((slot) => (
-                    <label key={slot.id} className="flex cursor-pointer items-center gap-3 rounded-(--radius-control) border border-ink-200 bg-white px-3 py-2.5 text-sm has-[:checked]:border-ink-900 has-[:checked]:ring-1 has-[:checked]:ring-ink-900">
+                    <label key={slot.id} className="flex cursor-pointer items-center gap-3 rounded-control border border-ink-200 bg-white px-3 py-2.5 text-sm has-[:checked]:border-ink-900 has-[:checked]:ring-1 has-[:checked]:ring-ink-900">
                       <input type="radio" name="slotId" value={slot.id} className="accent-ink-900" required />
                       <SlotTime startsAt={slot.startsAt} endsAt={slot.endsAt} />
                     </label>

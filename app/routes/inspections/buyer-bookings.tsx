@@ -35,7 +35,7 @@ export default function BuyerBookings() {
           <ul className="mt-6 space-y-3 sm:hidden">
             {bookings.map(({ booking, listing, inspectorName }) => (
               <li key={booking.id}>
-                <Link to={`/bookings/${booking.id}`} className="block rounded-(--radius-panel) border border-ink-200 bg-white p-4 shadow-(--shadow-panel)">
+                <Link to={`/bookings/${booking.id}`} className="block rounded-panel border border-ink-200 bg-white p-4 shadow-panel">
                   <div className="flex items-start justify-between gap-2">
                     <p className="font-bold text-ink-900">
                       {listing.make} {listing.model}

@@ -51,7 +51,7 @@ export default function CheckoutCancelled() {
           </p>
           <div className="flex flex-col justify-center gap-3 sm:flex-row">
             {booking.checkoutUrl ? (
-              <a href={booking.checkoutUrl} className="inline-flex h-10 items-center justify-center rounded-(--radius-control) bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700">
+              <a href={booking.checkoutUrl} className="inline-flex h-10 items-center justify-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700">
                 Return to payment
               </a>
             ) : null}

@@ -54,12 +54,12 @@ export default function InspectorBooking() {
         {answerable ? "Inspection request" : "Inspection"}: {detail.listing.make} {detail.listing.model}
       </h1>
       {actionData?.done === "accept" ? (
-        <p role="status" className="mt-4 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
+        <p role="status" className="mt-4 rounded-control border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
           Accepted. The buyer and the seller have been told.
         </p>
       ) : null}
       {actionData?.done === "decline" ? (
-        <p role="status" className="mt-4 rounded-(--radius-control) border border-ink-200 bg-ink-50 px-4 py-3 text-sm font-semibold text-ink-800">
+        <p role="status" className="mt-4 rounded-control border border-ink-200 bg-ink-50 px-4 py-3 text-sm font-semibold text-ink-800">
           Declined. The buyer is refunded in full and has been told.
         </p>
       ) : null}

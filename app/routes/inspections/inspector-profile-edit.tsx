@@ -98,12 +98,12 @@ export default function InspectorProfileEdit() {
         </div>
       </div>
       {actionData?.message ? (
-        <p role="status" className="mt-4 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
+        <p role="status" className="mt-4 rounded-control border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
           {actionData.message}
         </p>
       ) : null}
       {fromApplication ? (
-        <p className="mt-4 rounded-(--radius-control) border border-brass-200 bg-brass-100 px-4 py-3 text-sm text-ink-800">
+        <p className="mt-4 rounded-control border border-brass-200 bg-brass-100 px-4 py-3 text-sm text-ink-800">
           Filled in from your approved application. Add a headline, a few words about yourself and your fees, then save.
         </p>
       ) : null}
@@ -132,7 +132,7 @@ export default function InspectorProfileEdit() {
               <fieldset>
                 <legend className="text-sm font-semibold text-ink-800">Machines you inspect, and your fee for each</legend>
                 {profileErrors.categories ? <p role="alert" className="mt-1 text-sm font-medium text-beyond">{profileErrors.categories.join(" ")}</p> : null}
-                <div className="mt-2 divide-y divide-ink-100 rounded-(--radius-control) border border-ink-200">
+                <div className="mt-2 divide-y divide-ink-100 rounded-control border border-ink-200">
                   {inspectionCategories.map((category) => (
                     <div key={category} className="flex flex-col gap-2 px-3 py-2.5 sm:flex-row sm:items-center sm:justify-between">
                       <CheckboxField label={categoryLabel(category)} name="categories" value={category} defaultChecked={served.has(category)} />
@@ -147,7 +147,7 @@ export default function InspectorProfileEdit() {
                           placeholder="Fee, e.g. 380"
                           defaultValue={feeOf(category)}
                           aria-invalid={profileErrors[`fee.${category}`] ? true : undefined}
-                          className="block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-1.5 text-base tabular focus:outline-none focus:ring-2 focus:ring-brass-400"
+                          className="block w-full rounded-control border border-ink-300 bg-white px-3 py-1.5 text-base tabular focus:outline-none focus:ring-2 focus:ring-brass-400"
                         />
                         {profileErrors[`fee.${category}`] ? <p className="mt-1 text-xs font-medium text-beyond">{profileErrors[`fee.${category}`]!.join(" ")}</p> : null}
                       </div>

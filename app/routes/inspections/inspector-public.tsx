@@ -55,7 +55,7 @@ export default function InspectorProfile() {
               ) : (
                 <ul className="grid gap-2 text-sm sm:grid-cols-2">
                   {slots.map((slot) => (
-                    <li key={slot.id} className="rounded-(--radius-control) border border-ink-200 px-3 py-2">
+                    <li key={slot.id} className="rounded-control border border-ink-200 px-3 py-2">
                       <SlotTime startsAt={slot.startsAt} endsAt={slot.endsAt} />
                     </li>
                   ))}

@@ -55,7 +55,7 @@ export default function Inspectors() {
         <ul className="mt-6 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
           {inspectors.map((inspector) => (
             <li key={inspector.id}>
-              <Link to={`/inspectors/${inspector.id}`} className="flex h-full flex-col rounded-(--radius-panel) border border-ink-200 bg-white p-5 shadow-(--shadow-panel) hover:border-ink-400">
+              <Link to={`/inspectors/${inspector.id}`} className="flex h-full flex-col rounded-panel border border-ink-200 bg-white p-5 shadow-panel hover:border-ink-400">
                 <div className="flex items-start justify-between gap-2">
                   <p className="text-lg font-bold text-ink-900">{inspector.name}</p>
                   <Badge tone="within">Certified</Badge>

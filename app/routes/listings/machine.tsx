@@ -12,7 +12,8 @@ import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/mod
 import { inquiryFormSchema } from "~/modules/listings/validation";
 import { VerifiedAccuracyPanel } from "~/modules/reports/components/listing-accuracy";
 import { currentReportForListing, type ListingReportSummary } from "~/modules/reports/service.server";
-import { formatLength, formatMoney, formatPower, formatWeight, type DisplayUnits } from "~/modules/units/format";
+import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
+import { formatPower, formatWeight } from "~/modules/units/weight-power";
 import type { Route } from "./+types/machine";
 
 export const meta: Route.MetaFunction = ({ data }) =>
@@ -65,7 +66,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
       {isManager && listing.status !== "published" ? (
-        <p className="mb-6 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
+        <p className="mb-6 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
           {listing.status === "sold" ? "This listing is sold." : "Preview: only you can see this page until the listing is published."}{" "}
           <Link to={`/sell/listings/${listing.id}`} className="font-semibold underline underline-offset-2">
             Edit the listing
@@ -129,7 +130,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
               <h2 id="documents" className="text-xl font-bold text-ink-900">
                 Documents
               </h2>
-              <ul className="mt-3 divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white">
+              <ul className="mt-3 divide-y divide-ink-100 rounded-panel border border-ink-200 bg-white">
                 {documents.map((document) => (
                   <li key={document.id} className="flex items-center justify-between gap-3 px-4 py-3 text-sm">
                     <a href={document.url} target="_blank" rel="noreferrer" className="font-semibold text-ink-900 underline underline-offset-2">
@@ -171,7 +172,7 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
     ["Condition", labelOf(machineConditions, listing.condition)],
   ];
   return (
-    <dl className="mt-3 divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white text-sm">
+    <dl className="mt-3 divide-y divide-ink-100 rounded-panel border border-ink-200 bg-white text-sm">
       {rows.map(([term, value]) => (
         <div key={term} className="grid grid-cols-[11rem_1fr] gap-4 px-4 py-2.5 sm:grid-cols-[14rem_1fr]">
           <dt className="font-semibold text-ink-600">{term}</dt>
@@ -251,7 +252,7 @@ function InquiryForm({ listingId }: { listingId: string }) {
     <Form method="post" {...getFormProps(form)} className="space-y-4" preventScrollReset>
       <input type="hidden" name="listingId" value={listingId} />
       {actionData?.sent ? (
-        <p role="status" className="rounded-(--radius-control) bg-within-soft px-3 py-2 text-sm font-medium text-within">
+        <p role="status" className="rounded-control bg-within-soft px-3 py-2 text-sm font-medium text-within">
           Sent. The seller has your message and your e-mail address.
         </p>
       ) : null}
@@ -278,7 +279,7 @@ function InquiryForm({ listingId }: { listingId: string }) {
 
 function SafetyNote() {
   return (
-    <aside className="rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800" aria-label="Safety and compliance">
+    <aside className="rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800" aria-label="Safety and compliance">
       <p className="font-bold text-caution">Safety and compliance</p>
       <p className="mt-1">
         Have the machine rigged and moved by qualified riggers, and connected by a licensed electrician. Guarding and safety rules for used

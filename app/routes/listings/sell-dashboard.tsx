@@ -30,12 +30,12 @@ export default function SellDashboard({ loaderData }: Route.ComponentProps) {
         </ButtonLink>
       </div>
       {notice === "deleted" ? (
-        <p role="status" className="mt-6 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-medium text-within">
+        <p role="status" className="mt-6 rounded-control border border-within/30 bg-within-soft px-4 py-3 text-sm font-medium text-within">
           The draft and its files were deleted.
         </p>
       ) : null}
       {!seller.emailVerified ? (
-        <p className="mt-6 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
+        <p className="mt-6 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
           Confirm your e-mail address (see the link we sent you) before you create or change a listing.
         </p>
       ) : null}

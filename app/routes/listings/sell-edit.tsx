@@ -116,12 +116,12 @@ export default function EditListing({ loaderData, actionData }: Route.ComponentP
       </div>
 
       {noticeText ? (
-        <p role="status" className="mt-4 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-medium text-within">
+        <p role="status" className="mt-4 rounded-control border border-within/30 bg-within-soft px-4 py-3 text-sm font-medium text-within">
           {noticeText}
         </p>
       ) : null}
       {actionData?.problem ? (
-        <p role="alert" className="mt-4 rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
+        <p role="alert" className="mt-4 rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm font-medium text-beyond">
           {actionData.problem}
         </p>
       ) : null}
@@ -178,7 +178,7 @@ export default function EditListing({ loaderData, actionData }: Route.ComponentP
               {photos.length ? (
                 <ol className="grid grid-cols-2 gap-4 sm:grid-cols-3" aria-label="Photos in gallery order">
                   {photos.map((photo, index) => (
-                    <li key={photo.id} className="overflow-hidden rounded-(--radius-control) border border-ink-200 bg-white">
+                    <li key={photo.id} className="overflow-hidden rounded-control border border-ink-200 bg-white">
                       <div className="relative">
                         <img src={photo.thumbnailUrl} alt={`Photo ${index + 1}: ${photo.originalName}`} className="aspect-[4/3] w-full object-cover" width={480} height={360} />
                         {index === 0 ? (

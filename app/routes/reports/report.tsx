@@ -55,12 +55,12 @@ export default function ReportPage() {
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
       {search.get("signed") ? (
-        <p role="status" className="mb-6 rounded-(--radius-control) border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
+        <p role="status" className="mb-6 rounded-control border border-within/30 bg-within-soft px-4 py-3 text-sm font-semibold text-within">
           Signed and published. {search.get("mail") === "failed" ? "The e-mails to the buyer and seller could not be queued; tell them yourself." : "The buyer and the seller have been e-mailed."}
         </p>
       ) : null}
       {report.status === "superseded" ? (
-        <p role="alert" className="mb-6 rounded-(--radius-control) border border-caution/40 bg-caution-soft px-4 py-3 text-sm font-semibold text-caution" data-testid="superseded-banner">
+        <p role="alert" className="mb-6 rounded-control border border-caution/40 bg-caution-soft px-4 py-3 text-sm font-semibold text-caution" data-testid="superseded-banner">
           Superseded: a later revision corrects this report.{" "}
           {report.supersededBy ? (
             <Link to={`/reports/${report.supersededBy.id}`} className="underline underline-offset-2">
@@ -86,19 +86,19 @@ export default function ReportPage() {
         </div>
         <div className="flex flex-wrap items-center gap-2">
           <Badge tone={report.status === "signed" ? "within" : "caution"}>{report.status === "signed" ? "Signed" : "Superseded"}</Badge>
-          <div className="inline-flex rounded-(--radius-control) ring-1 ring-ink-300" aria-label="Units">
+          <div className="inline-flex rounded-control ring-1 ring-ink-300" aria-label="Units">
             {(["mm", "inch"] as const).map((option) => (
               <Link
                 key={option}
                 to={`?units=${option}`}
                 preventScrollReset
-                className={`px-3 py-1.5 text-sm font-semibold first:rounded-l-(--radius-control) last:rounded-r-(--radius-control) ${units === option ? "bg-ink-900 text-white" : "bg-white text-ink-700"}`}
+                className={`px-3 py-1.5 text-sm font-semibold first:rounded-l-control last:rounded-r-control ${units === option ? "bg-ink-900 text-white" : "bg-white text-ink-700"}`}
               >
                 {option === "mm" ? "µm" : "in"}
               </Link>
             ))}
           </div>
-          <a href={`/reports/${report.id}/certificate.pdf`} className="inline-flex h-10 items-center rounded-(--radius-control) bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700" download>
+          <a href={`/reports/${report.id}/certificate.pdf`} className="inline-flex h-10 items-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700" download>
             Download the certificate (PDF)
           </a>
         </div>

@@ -65,7 +65,7 @@ export default function ReviewPage() {
         Scored by the server against {content.profile.title} (v{content.profile.version}). Once signed, the report cannot be changed; a correction makes a new revision.
       </p>
       {review.stale ? (
-        <p role="alert" className="mt-4 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm font-semibold text-caution">
+        <p role="alert" className="mt-4 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm font-semibold text-caution">
           The readings changed after this result was scored. Go back and submit them again before signing.
         </p>
       ) : null}

@@ -147,7 +147,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               value={draft.q}
               onChange={(event) => change("q", event.target.value, false)}
               placeholder="Make, model, town… e.g. toolroom D1-4"
-              className="block h-12 w-full rounded-(--radius-control) border border-ink-300 bg-white px-4 text-base shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
+              className="block h-12 w-full rounded-control border border-ink-300 bg-white px-4 text-base shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
             />
           </label>
           <Button type="submit" size="lg">
@@ -159,7 +159,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
           <aside aria-label="Filters">
             <button
               type="button"
-              className="flex w-full items-center justify-between rounded-(--radius-control) border border-ink-300 bg-white px-4 py-3 text-sm font-semibold text-ink-900 lg:hidden"
+              className="flex w-full items-center justify-between rounded-control border border-ink-300 bg-white px-4 py-3 text-sm font-semibold text-ink-900 lg:hidden"
               aria-expanded={filtersOpen}
               aria-controls="search-filters"
               onClick={() => setFiltersOpen((open) => !open)}
@@ -186,12 +186,12 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
 
           <section aria-label="Results" ref={resultsRef} aria-busy={loading} className={cx("min-w-0 transition-opacity", loading && "opacity-60")}>
             {search?.notice ? (
-              <p role="status" className="mb-4 rounded-(--radius-control) border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800" data-testid="search-notice">
+              <p role="status" className="mb-4 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800" data-testid="search-notice">
                 {search.notice}
               </p>
             ) : null}
             {answer.failed ? (
-              <p role="alert" className="mb-4 flex flex-wrap items-center gap-3 rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-ink-800">
+              <p role="alert" className="mb-4 flex flex-wrap items-center gap-3 rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-ink-800">
                 The results could not be loaded. Check your connection and try again.
                 <Button size="sm" variant="secondary" onClick={() => setAttempt((count) => count + 1)}>
                   Try again
@@ -210,7 +210,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                   name="sort"
                   value={draft.sort || (draft.q ? "relevance" : "newest")}
                   onChange={(event) => change("sort", event.target.value, true)}
-                  className="rounded-(--radius-control) border border-ink-300 bg-white py-1.5 pl-2 pr-8 text-sm"
+                  className="rounded-control border border-ink-300 bg-white py-1.5 pl-2 pr-8 text-sm"
                 >
                   {draft.q ? <option value="relevance">Best match</option> : null}
                   {sorts.map((sort) => (
@@ -268,7 +268,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             {search && search.totalPages > 1 ? (
               <nav aria-label="Pages" className="mt-8 flex flex-wrap items-center justify-center gap-2">
                 {search.page > 1 ? (
-                  <Link to={pageLink(search.page - 1)} rel="prev" className="rounded-(--radius-control) px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={pageLink(search.page - 1)} rel="prev" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
                     ← Previous
                   </Link>
                 ) : null}
@@ -280,7 +280,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                       to={pageLink(page)}
                       aria-current={page === search.page ? "page" : undefined}
                       className={cx(
-                        "min-w-10 rounded-(--radius-control) px-3 py-2 text-center text-sm font-semibold tabular",
+                        "min-w-10 rounded-control px-3 py-2 text-center text-sm font-semibold tabular",
                         page === search.page ? "bg-ink-900 text-white" : "text-ink-700 hover:bg-ink-100",
                       )}
                     >
@@ -288,7 +288,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                     </Link>
                   ))}
                 {search.page < search.totalPages ? (
-                  <Link to={pageLink(search.page + 1)} rel="next" className="rounded-(--radius-control) px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={pageLink(search.page + 1)} rel="next" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
                     Next →
                   </Link>
                 ) : null}
@@ -313,7 +313,7 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
   const here = `/machines${location.search}`;
   const saved = fetcher.data?.saved;
   return (
-    <div className="mt-10 rounded-(--radius-panel) border border-ink-200 bg-white p-5" data-testid="save-search">
+    <div className="mt-10 rounded-panel border border-ink-200 bg-white p-5" data-testid="save-search">
       <h2 className="text-base font-bold text-ink-900">Hear about new matches</h2>
       {!account ? (
         <p className="mt-1 text-sm text-ink-600">
@@ -339,12 +339,11 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
       ) : (
         <div className="mt-3 flex flex-col gap-2 sm:flex-row sm:items-start">
           <label className="min-w-0 flex-1">
-            <span className="sr-only">Name of the saved search</span>
             <input
               value={name}
               onChange={(event) => setName(event.target.value)}
               maxLength={120}
-              className="block w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+              className="block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
               aria-label="Name of the saved search"
             />
             {fetcher.data?.errors ? (

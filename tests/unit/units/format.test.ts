@@ -1,14 +1,6 @@
 import { describe, expect, it } from "vitest";
-import {
-  formatLength,
-  formatMoney,
-  formatPower,
-  formatWeight,
-  lengthToMillimetres,
-  powerToKilowatts,
-  toMinorUnits,
-  weightToKilograms,
-} from "~/modules/units/format";
+import { formatLength, formatMoney, lengthToMillimetres, toMinorUnits } from "~/modules/units/format";
+import { formatPower, formatWeight, powerToKilowatts, weightToKilograms } from "~/modules/units/weight-power";
 
 describe("display units", () => {
   it("shows millimetres as stored and inches at 25.4 mm each (NIST SP 811: 1 in = 25.4 mm exactly)", () => {

@@ -24,7 +24,7 @@ export function FormMessage({ tone = "beyond", children, id }: { tone?: "beyond"
     caution: "border-caution/30 bg-caution-soft text-caution",
   } as const;
   return (
-    <div id={id} role={tone === "beyond" ? "alert" : "status"} className={`rounded-(--radius-control) border px-3 py-2.5 text-sm font-semibold ${tones[tone]}`}>
+    <div id={id} role={tone === "beyond" ? "alert" : "status"} className={`rounded-control border px-3 py-2.5 text-sm font-semibold ${tones[tone]}`}>
       {children}
     </div>
   );

@@ -39,7 +39,7 @@ export function RefundRules({ className }: { className?: string }) {
 /** The usual cautions wherever inspection work on a machine is described. */
 export function InspectionSafetyNotice({ compact = false }: { compact?: boolean }) {
   return (
-    <aside className="rounded-(--radius-panel) border border-caution/30 bg-caution-soft p-4 text-sm text-ink-800 sm:p-5" aria-label="Safety">
+    <aside className="rounded-panel border border-caution/30 bg-caution-soft p-4 text-sm text-ink-800 sm:p-5" aria-label="Safety">
       <p className="font-bold text-caution">Safety on site</p>
       <ul className={compact ? "mt-1 space-y-1" : "mt-2 list-disc space-y-1 pl-5"}>
         <li>Rotating spindles and chucks: chuck key out, no gloves, loose sleeves or hair near the work, guards in place.</li>

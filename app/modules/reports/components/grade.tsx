@@ -20,7 +20,7 @@ export function GradeMark({ grade, size = "md", className }: { grade: string; si
   const sizes = { sm: "size-8 text-base", md: "size-12 text-2xl", lg: "size-16 text-4xl" };
   return (
     <span
-      className={cx("inline-flex shrink-0 items-center justify-center rounded-(--radius-panel) font-extrabold", sizes[size], gradeTones[grade] ?? gradeTones.incomplete, className)}
+      className={cx("inline-flex shrink-0 items-center justify-center rounded-panel font-extrabold", sizes[size], gradeTones[grade] ?? gradeTones.incomplete, className)}
       aria-label={`Grade ${grade}`}
       data-grade={grade}
     >

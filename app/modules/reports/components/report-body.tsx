@@ -106,7 +106,7 @@ export function ResultsTable({ content, units }: { content: ReportContent; units
 /** On a phone: one block per test instead of a table too wide to read. */
 function ResultsList({ content, units }: { content: ReportContent; units: DisplayUnits }) {
   return (
-    <ul className="divide-y divide-ink-100 rounded-(--radius-panel) border border-ink-200 bg-white md:hidden">
+    <ul className="divide-y divide-ink-100 rounded-panel border border-ink-200 bg-white md:hidden">
       {content.score.results.map((result) => (
         <li key={result.code} className="space-y-2 px-4 py-3" data-result-item={result.code}>
           <div className="flex items-start justify-between gap-3">
@@ -199,7 +199,7 @@ export function TestDetails({ content, units, photoUrls }: { content: ReportCont
               {meta?.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{meta.notes}</p> : null}
               {photoUrls[code] ? (
                 <a href={photoUrls[code].large} target="_blank" rel="noreferrer" className="block">
-                  <img src={photoUrls[code].thumb} alt={`Set-up of ${code}`} className="h-36 w-auto rounded-(--radius-control) border border-ink-200 object-cover" loading="lazy" />
+                  <img src={photoUrls[code].thumb} alt={`Set-up of ${code}`} className="h-36 w-auto rounded-control border border-ink-200 object-cover" loading="lazy" />
                 </a>
               ) : null}
             </CardBody>

@@ -22,7 +22,7 @@ const reportAges = [
 ];
 
 const control =
-  "block w-full rounded-(--radius-control) border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400";
+  "block w-full rounded-control border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400";
 
 function invalid(errors: Record<string, string[]> | null, ...keys: string[]) {
   return keys.flatMap((key) => errors?.[key] ?? []);
@@ -62,9 +62,9 @@ export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, 
   const deviation = deviationUnitLabel(units);
   const toggle = (key: "category" | "grade", value: string, checked: boolean) =>
     onChange(key, checked ? [...draft[key], value] : draft[key].filter((item) => item !== value), true);
-  const numberInput = (key: DraftKey, label: string, placeholder: string, step: string) => (
-    <label className="block min-w-0 flex-1">
-      <span className="sr-only">{label}</span>
+  const numberInput = (key: DraftKey, label: string, placeholder: string, step: string) => {
+    const wrong = invalid(errors, key, `${key}In`).length > 0;
+    return (
       <input
         name={inputName(key, units)}
         type="number"
@@ -73,18 +73,18 @@ export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, 
         step={step}
         placeholder={placeholder}
         aria-label={label}
-        aria-invalid={invalid(errors, key, `${key}In`).length ? true : undefined}
-        className={cx(control, "tabular", invalid(errors, key, `${key}In`).length ? "border-beyond" : "border-ink-300")}
+        aria-invalid={wrong || undefined}
+        className={cx(control, "min-w-0 flex-1 tabular", wrong ? "border-beyond" : "border-ink-300")}
         value={draft[key] as string}
         onChange={(event) => onChange(key, event.target.value, false)}
         onBlur={onCommit}
       />
-    </label>
-  );
+    );
+  };
   return (
     <div className="space-y-4">
       <Group title="Verification">
-        <label className="flex cursor-pointer items-center justify-between gap-3 rounded-(--radius-control) bg-within-soft/60 px-3 py-2">
+        <label className="flex cursor-pointer items-center justify-between gap-3 rounded-control bg-within-soft/60 px-3 py-2">
           <span className="flex items-center gap-2 text-sm font-semibold text-ink-900">
             <input type="checkbox" name="verified" value="1" className="size-4 accent-ink-900" checked={draft.verified} onChange={(event) => onChange("verified", event.target.checked, true)} />
             Verified only
@@ -122,7 +122,7 @@ export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, 
             <label
               key={grade.value}
               className={cx(
-                "flex cursor-pointer flex-col items-center rounded-(--radius-control) border px-2 py-1.5 text-sm font-bold has-[:checked]:border-ink-900 has-[:checked]:bg-ink-900 has-[:checked]:text-white has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-brass-400",
+                "flex cursor-pointer flex-col items-center rounded-control border px-2 py-1.5 text-sm font-bold has-[:checked]:border-ink-900 has-[:checked]:bg-ink-900 has-[:checked]:text-white has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-brass-400",
                 "border-ink-300 text-ink-800",
               )}
             >

@@ -21,7 +21,7 @@ const gradeTones: Record<string, string> = {
 export function GradeChip({ grade, className }: { grade: string; className?: string }) {
   return (
     <span
-      className={cx("inline-flex size-10 shrink-0 items-center justify-center rounded-(--radius-control) text-xl font-extrabold", gradeTones[grade] ?? gradeTones.incomplete, className)}
+      className={cx("inline-flex size-10 shrink-0 items-center justify-center rounded-control text-xl font-extrabold", gradeTones[grade] ?? gradeTones.incomplete, className)}
       aria-label={grade === "incomplete" ? "Report incomplete" : `Grade ${grade}`}
       data-grade={grade}
     >
@@ -71,7 +71,7 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
           </div>
           {sizes.length ? <p className="text-sm text-ink-600 tabular">{sizes.join(" · ")}</p> : null}
           {shown.length ? (
-            <dl className="grid grid-cols-2 gap-x-3 gap-y-1 rounded-(--radius-control) bg-ink-50 px-3 py-2 text-xs" aria-label="Key figures of the current report">
+            <dl className="grid grid-cols-2 gap-x-3 gap-y-1 rounded-control bg-ink-50 px-3 py-2 text-xs" aria-label="Key figures of the current report">
               {shown.map((figure) => (
                 <div key={figure.label} className="flex flex-col">
                   <dt className="text-ink-500">{figure.label}</dt>

@@ -154,7 +154,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
             <Card>
               <CardHeader title="Tolerance profile" description="Suggested from the machine's category and size; change it if the machine calls for another." />
               <CardBody className="space-y-4">
-                <div className="rounded-(--radius-control) bg-ink-50 px-3 py-2 text-sm text-ink-700">
+                <div className="rounded-control bg-ink-50 px-3 py-2 text-sm text-ink-700">
                   <p>
                     <span className="font-semibold text-ink-900">Suggested: </span>
                     {suggested ? `${suggested.title} (v${suggested.version})` : "none"}
@@ -184,7 +184,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                 ) : null}
                 <div>
                   <p className="text-sm font-semibold text-ink-800">Readings entered in</p>
-                  <div className="mt-1 inline-flex rounded-(--radius-control) ring-1 ring-ink-300" role="radiogroup" aria-label="Units of the readings">
+                  <div className="mt-1 inline-flex rounded-control ring-1 ring-ink-300" role="radiogroup" aria-label="Units of the readings">
                     {(["mm", "inch"] as const).map((units) => (
                       <button
                         key={units}
@@ -193,7 +193,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                         aria-checked={form.units === units}
                         disabled={locked || (hasReadings(form) && form.units !== units)}
                         onClick={() => change((draft) => void (draft.units = units))}
-                        className={cx("px-4 py-2 text-sm font-semibold first:rounded-l-(--radius-control) last:rounded-r-(--radius-control) disabled:opacity-50", form.units === units ? "bg-ink-900 text-white" : "bg-white text-ink-700")}
+                        className={cx("px-4 py-2 text-sm font-semibold first:rounded-l-control last:rounded-r-control disabled:opacity-50", form.units === units ? "bg-ink-900 text-white" : "bg-white text-ink-700")}
                       >
                         {units === "mm" ? "mm and µm" : "inches"}
                       </button>
@@ -244,7 +244,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
               <CardHeader title="Instruments" description={`Resolution is the smallest step the instrument reads (${labels.resolution}; µm/m for levels).`} />
               <CardBody className="space-y-4">
                 {form.instruments.map((instrument, i) => (
-                  <div key={instrument.id} className="grid gap-3 rounded-(--radius-control) border border-ink-200 p-3 sm:grid-cols-2 sm:items-end" data-instrument={i}>
+                  <div key={instrument.id} className="grid gap-3 rounded-control border border-ink-200 p-3 sm:grid-cols-2 sm:items-end" data-instrument={i}>
                     <SelectField
                       label={`${i + 1}. Kind`}
                       value={instrument.kind}
@@ -329,7 +329,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
             <Form method="post" className="space-y-3" onSubmit={() => void flushNow()}>
               <input type="hidden" name="form" value={JSON.stringify(form)} />
               {Object.keys(errors).length ? (
-                <div role="alert" className="rounded-(--radius-control) border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-beyond">
+                <div role="alert" className="rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-beyond">
                   <p className="font-bold">The report cannot be submitted yet:</p>
                   <ul className="mt-1 list-disc pl-5">
                     {Object.entries(errors)

@@ -53,7 +53,7 @@ export function SetupPhoto({ testCode, photo, photosUrl, onChange, error, disabl
     <div className="space-y-2">
       <p className="text-sm font-semibold text-ink-800">Set-up photo</p>
       <div className="flex flex-wrap items-center gap-3">
-        {photo ? <img src={photo.thumbnailUrl} alt={`Set-up of ${testCode}`} className="h-20 w-28 rounded-(--radius-control) border border-ink-200 object-cover" /> : null}
+        {photo ? <img src={photo.thumbnailUrl} alt={`Set-up of ${testCode}`} className="h-20 w-28 rounded-control border border-ink-200 object-cover" /> : null}
         <input
           ref={input}
           type="file"

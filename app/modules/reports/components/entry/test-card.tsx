@@ -55,7 +55,7 @@ export function ReadingInput({
       </label>
       <div className="flex items-stretch">
         {signed ? (
-          <button type="button" onClick={flip} className="rounded-l-(--radius-control) border border-r-0 border-ink-300 bg-ink-50 px-2.5 text-base font-bold text-ink-700 hover:bg-ink-100" aria-label={`Change the sign of ${typeof label === "string" ? label : "this reading"}`} tabIndex={-1}>
+          <button type="button" onClick={flip} className="rounded-l-control border border-r-0 border-ink-300 bg-ink-50 px-2.5 text-base font-bold text-ink-700 hover:bg-ink-100" aria-label={`Change the sign of ${typeof label === "string" ? label : "this reading"}`} tabIndex={-1}>
             ±
           </button>
         ) : null}
@@ -70,11 +70,11 @@ export function ReadingInput({
           aria-describedby={invalid ? `${id}-error` : undefined}
           className={cx(
             "block w-full min-w-0 border bg-white px-3 py-2 text-base text-ink-900 tabular shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400",
-            signed ? "" : "rounded-l-(--radius-control)",
+            signed ? "" : "rounded-l-control",
             invalid ? "border-beyond" : "border-ink-300",
           )}
         />
-        <span className="inline-flex items-center rounded-r-(--radius-control) border border-l-0 border-ink-300 bg-ink-50 px-2 text-sm text-ink-500">{unit}</span>
+        <span className="inline-flex items-center rounded-r-control border border-l-0 border-ink-300 bg-ink-50 px-2 text-sm text-ink-500">{unit}</span>
       </div>
       {invalid ? (
         <p id={`${id}-error`} className="text-sm font-medium text-beyond" role="alert">
@@ -111,7 +111,7 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
   };
   return (
     <div className="space-y-2">
-      <div className="overflow-x-auto rounded-(--radius-control) border border-ink-200">
+      <div className="overflow-x-auto rounded-control border border-ink-200">
         <table className="min-w-full text-sm">
           <thead className="bg-ink-50 text-left text-xs font-bold uppercase tracking-wide text-ink-600">
             <tr>
@@ -161,7 +161,7 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
                 <td className="px-2 py-1.5 text-right">
                   <button
                     type="button"
-                    className="rounded-(--radius-control) px-2 py-1 text-lg text-ink-500 hover:bg-beyond-soft hover:text-beyond"
+                    className="rounded-control px-2 py-1 text-lg text-ink-500 hover:bg-beyond-soft hover:text-beyond"
                     aria-label={`Remove station ${i + 1}`}
                     onClick={() =>
                       change((draft) => {
@@ -195,11 +195,11 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
         </Button>
       </div>
       {paste !== null ? (
-        <div className="space-y-2 rounded-(--radius-control) border border-ink-200 bg-ink-50 p-3">
+        <div className="space-y-2 rounded-control border border-ink-200 bg-ink-50 p-3">
           <label className="block text-sm font-semibold text-ink-800">
             Two columns, station then reading; one row per line
             <textarea
-              className="mt-1 block min-h-28 w-full rounded-(--radius-control) border border-ink-300 bg-white px-3 py-2 font-mono text-sm"
+              className="mt-1 block min-h-28 w-full rounded-control border border-ink-300 bg-white px-3 py-2 font-mono text-sm"
               value={paste}
               placeholder={"0\t0\n100\t-4\n200\t2"}
               onChange={(event) => setPaste(event.target.value)}
@@ -337,12 +337,12 @@ function ReadingsFields({ test, entry, change, units, errors }: { test: ProfileT
       return (
         <div className="space-y-3">
           <div className="grid grid-cols-2 gap-3">
-            <fieldset className="space-y-2 rounded-(--radius-control) border border-ink-200 p-3">
+            <fieldset className="space-y-2 rounded-control border border-ink-200 p-3">
               <legend className="px-1 text-sm font-bold text-ink-800">Near the spindle nose</legend>
               {field("near0", "Near, spindle at 0°")}
               {field("near180", "Near, turned 180°")}
             </fieldset>
-            <fieldset className="space-y-2 rounded-(--radius-control) border border-ink-200 p-3">
+            <fieldset className="space-y-2 rounded-control border border-ink-200 p-3">
               <legend className="px-1 text-sm font-bold text-ink-800">At the far end</legend>
               {field("far0", "Far, spindle at 0°")}
               {field("far180", "Far, turned 180°")}
@@ -374,14 +374,14 @@ function ReadingsFields({ test, entry, change, units, errors }: { test: ProfileT
 
 function LiveVerdict({ preview, units }: { preview: TestPreview; units: EntryUnits }) {
   const { result, check, engineError } = preview;
-  if (engineError) return <p className="rounded-(--radius-control) bg-beyond-soft px-3 py-2 text-sm font-medium text-beyond">{engineError}</p>;
+  if (engineError) return <p className="rounded-control bg-beyond-soft px-3 py-2 text-sm font-medium text-beyond">{engineError}</p>;
   if (!result) {
     if (check.state === "incomplete") return <p className="text-sm text-ink-500">{check.errors.entry?.[0] ?? "Not complete yet."}</p>;
     return null;
   }
   const signed = isSignedValue(result.method);
   return (
-    <div className={cx("space-y-2 rounded-(--radius-control) border p-3", result.pass ? "border-within/30 bg-within-soft/50" : "border-beyond/30 bg-beyond-soft/60")} data-testid="live-verdict" data-pass={String(result.pass)}>
+    <div className={cx("space-y-2 rounded-control border p-3", result.pass ? "border-within/30 bg-within-soft/50" : "border-beyond/30 bg-beyond-soft/60")} data-testid="live-verdict" data-pass={String(result.pass)}>
       <div className="flex flex-wrap items-center justify-between gap-2">
         <p className="text-sm text-ink-800">
           <span className="font-bold tabular">{formatDeviation(result.value, units, { signed, unit: result.unit })}</span>
@@ -446,7 +446,7 @@ export function TestCard({
   const labels = unitLabels(units);
   const metric = preview.check.measurement ? toMetric({ tests: { [test.code]: preview.check.measurement } }, units).tests[test.code]! : null;
   return (
-    <article id={`test-${test.code}`} className="rounded-(--radius-panel) border border-ink-200 bg-white shadow-(--shadow-panel)" data-test-code={test.code}>
+    <article id={`test-${test.code}`} className="rounded-panel border border-ink-200 bg-white shadow-panel" data-test-code={test.code}>
       <header className="flex flex-wrap items-start justify-between gap-2 border-b border-ink-100 px-4 py-3 sm:px-5">
         <div className="min-w-0">
           <h3 className="text-base font-bold text-ink-900">
