@@ -1,5 +1,6 @@
 // The job queue: pg-boss on our PostgreSQL, in a schema of its own. A request enqueues and returns; the
 // workers (running inside the app server process) do the slow or unreliable part with retries.
+import { sql, type SQL } from "drizzle-orm";
 import PgBoss from "pg-boss";
 import { env } from "~/env.server";
 
@@ -76,11 +77,33 @@ async function ensureQueue(boss: PgBoss, name: string) {
   await created;
 }
 
-/** Puts a job on the named queue; resolves once it is stored in PostgreSQL. */
-export async function enqueue<Data extends object>(name: string, data: Data, options: JobOptions = {}): Promise<string | null> {
+/** What runs SQL for a Drizzle database or transaction: enough to let pg-boss write through it. */
+export type SqlRunner = { execute(query: SQL): Promise<{ rows: unknown[] }> };
+
+/**
+ * A Drizzle transaction as pg-boss's `db`: the job row is written on the transaction's connection, so it is
+ * stored if and only if the transaction commits. pg-boss sends numbered placeholders ($1, $2, …); each
+ * becomes a bound parameter of Drizzle's, never text in the statement.
+ */
+export function jobStoreWithin(runner: SqlRunner): PgBoss.Db {
+  return {
+    async executeSql(text, values) {
+      const chunks: SQL[] = text.split(/\$(\d+)/).map((part, index) => (index % 2 === 0 ? sql.raw(part) : sql`${sql.param(values[Number(part) - 1])}`));
+      const result = await runner.execute(sql.join(chunks));
+      return { rows: result.rows };
+    },
+  };
+}
+
+/**
+ * Puts a job on the named queue; resolves once it is stored in PostgreSQL. With `within`, the job is part
+ * of that transaction: it is stored, and later run, only if the transaction commits.
+ */
+export async function enqueue<Data extends object>(name: string, data: Data, options: JobOptions & { within?: SqlRunner } = {}): Promise<string | null> {
+  const { within, ...sendOptions } = options;
   const boss = await getQueue();
   await ensureQueue(boss, name);
-  return boss.send(name, data, options);
+  return boss.send(name, data, within ? { ...sendOptions, db: jobStoreWithin(within) } : sendOptions);
 }
 
 /**

@@ -485,8 +485,8 @@ export async function sendInquiry(db: Database, sender: SessionUser, listingId: 
   );
   await db.transaction(async (tx) => {
     await tx.insert(listingInquiries).values({ listingId: listing.id, senderId: sender.id, message: values.message, phone: values.phone || null });
-    // Queued inside the transaction: if the queue refuses, the inquiry is not stored as if it were sent.
-    await queueEmail({ to: seller.email, subject: `Question about your ${machine}`, ...email, tag: "listing-inquiry", replyTo: sender.email });
+    // Queued in the transaction: the inquiry is stored and its e-mail sent together, or neither.
+    await queueEmail({ to: seller.email, subject: `Question about your ${machine}`, ...email, tag: "listing-inquiry", replyTo: sender.email }, { within: tx });
   });
 }
 

@@ -3,7 +3,7 @@
 import { ServerClient } from "postmark";
 import { z } from "zod";
 import { env } from "~/env.server";
-import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
+import { enqueue, registerWorker, type SqlRunner } from "~/modules/jobs/queue.server";
 
 export const MAIL_QUEUE = "mail.send";
 
@@ -18,9 +18,12 @@ export const outgoingEmailSchema = z.object({
 
 export type OutgoingEmail = z.infer<typeof outgoingEmailSchema>;
 
-/** Enqueues a message for sending; never waits for the mail service. */
-export async function queueEmail(message: OutgoingEmail): Promise<void> {
-  await enqueue(MAIL_QUEUE, outgoingEmailSchema.parse(message));
+/**
+ * Enqueues a message for sending; never waits for the mail service. Inside a transaction, pass it as
+ * `within`: the message is then sent only if the transaction commits.
+ */
+export async function queueEmail(message: OutgoingEmail, options: { within?: SqlRunner } = {}): Promise<void> {
+  await enqueue(MAIL_QUEUE, outgoingEmailSchema.parse(message), options);
 }
 
 let client: ServerClient | undefined;

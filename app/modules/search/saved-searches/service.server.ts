@@ -221,13 +221,16 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
         .onConflictDoNothing()
         .returning({ occasion: savedSearchAlerts.occasion });
       if (!marked.some((row) => row.occasion === occasion)) return false;
-      // Queued inside the transaction: if the queue refuses, the alert is not marked as sent.
-      await queueEmail({
-        to: email,
-        subject: occasion === "verified" ? `Now verified: ${listing.make} ${listing.model} matches “${search.name}”` : `New match for “${search.name}”: ${listing.make} ${listing.model}`,
-        ...message,
-        tag: "saved-search-alert",
-      });
+      // Queued in the transaction: the alert is marked as sent and its e-mail queued together, or neither.
+      await queueEmail(
+        {
+          to: email,
+          subject: occasion === "verified" ? `Now verified: ${listing.make} ${listing.model} matches “${search.name}”` : `New match for “${search.name}”: ${listing.make} ${listing.model}`,
+          ...message,
+          tag: "saved-search-alert",
+        },
+        { within: tx },
+      );
       return true;
     });
     if (queued) sent += 1;
