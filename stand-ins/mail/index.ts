@@ -17,6 +17,8 @@ export type StoredMessage = {
   cc: string[];
   bcc: string[];
   replyTo: string | null;
+  /** Extra headers as Postmark takes them (`Headers: [{ Name, Value }]`). */
+  headers: Array<{ name: string; value: string }>;
   subject: string;
   html: string;
   text: string;
@@ -81,6 +83,12 @@ function acceptMessage(body: unknown, withTemplate: boolean): StoredMessage | Po
     cc,
     bcc,
     replyTo: typeof message.ReplyTo === "string" ? message.ReplyTo : null,
+    headers: Array.isArray(message.Headers)
+      ? message.Headers.flatMap((header: unknown) => {
+          const { Name, Value } = (header ?? {}) as { Name?: unknown; Value?: unknown };
+          return typeof Name === "string" && typeof Value === "string" ? [{ name: Name, value: Value }] : [];
+        })
+      : [],
     subject,
     html,
     text,

@@ -9,6 +9,7 @@ export type MailboxMessage = {
   text: string;
   tag: string | null;
   replyTo: string | null;
+  headers: Array<{ name: string; value: string }>;
 };
 
 function mailboxUrl(): string {

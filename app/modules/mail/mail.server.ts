@@ -14,6 +14,8 @@ export const outgoingEmailSchema = z.object({
   text: z.string().min(1),
   tag: z.string().max(100).optional(),
   replyTo: z.email().optional(),
+  /** Extra message headers, e.g. List-Unsubscribe (RFC 2369) and List-Unsubscribe-Post (RFC 8058). */
+  headers: z.array(z.object({ name: z.string().regex(/^[A-Za-z0-9-]+$/), value: z.string().max(2000) })).max(10).optional(),
 });
 
 export type OutgoingEmail = z.infer<typeof outgoingEmailSchema>;
@@ -48,6 +50,7 @@ export async function deliverEmail(message: OutgoingEmail): Promise<string> {
     TextBody: message.text,
     Tag: message.tag,
     ReplyTo: message.replyTo,
+    Headers: message.headers?.map((header) => ({ Name: header.name, Value: header.value })),
     MessageStream: "outbound",
   });
   return receipt.MessageID;

@@ -1,4 +1,4 @@
-import { Form, Link } from "react-router";
+import { data, Form, Link } from "react-router";
 import { Button, Card } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { savedSearchForToken, unsubscribeWithToken } from "~/modules/search/saved-searches/service.server";
@@ -11,7 +11,8 @@ export const meta: Route.MetaFunction = () => [{ title: "Stop saved-search alert
 export async function loader({ request, context }: Route.LoaderArgs) {
   const token = new URL(request.url).searchParams.get("token") ?? "";
   const found = await savedSearchForToken(context.get(databaseContext), token);
-  return { token, found: found ? { name: found.name, alertsEnabled: found.alertsEnabled } : null };
+  // A cut-short or forged link shows the page that says so, as a 404.
+  return data({ token, found: found ? { name: found.name, alertsEnabled: found.alertsEnabled } : null }, { status: found ? 200 : 404 });
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
@@ -19,7 +20,8 @@ export async function action({ request, context }: Route.ActionArgs) {
   const hasForm = /^(application\/x-www-form-urlencoded|multipart\/form-data)/.test(request.headers.get("content-type") ?? "");
   const fromForm = hasForm ? (await request.formData()).get("token") : null;
   const token = typeof fromForm === "string" && fromForm ? fromForm : (new URL(request.url).searchParams.get("token") ?? "");
-  return { stopped: await unsubscribeWithToken(context.get(databaseContext), token) };
+  const stopped = await unsubscribeWithToken(context.get(databaseContext), token);
+  return data({ stopped }, { status: stopped ? 200 : 404 });
 }
 
 export default function Unsubscribe({ loaderData, actionData }: Route.ComponentProps) {

@@ -45,6 +45,13 @@ describe("saved-search alerts", () => {
     // The buyer reads inches: 4 µm is 0.00016 in.
     expect(alert.text).toContain("Grade B · spindle run-out 0.00016 in");
     const unsubscribe = linkIn(alert, `${testAppOrigin}/saved-searches/unsubscribe?token=`);
+    // Mail clients' own unsubscribe: the same link as a header, with one-click POST (RFC 2369, RFC 8058).
+    expect(alert.headers).toEqual(
+      expect.arrayContaining([
+        { name: "List-Unsubscribe", value: `<${unsubscribe}>` },
+        { name: "List-Unsubscribe-Post", value: "List-Unsubscribe=One-Click" },
+      ]),
+    );
 
     // The listing is re-indexed again (e.g. an edit): no second e-mail.
     await queueListingIndexUpdate(booking.listing.id);
@@ -62,12 +69,20 @@ describe("saved-search alerts", () => {
     const [before] = await db.select().from(savedSearches).where(eq(savedSearches.id, wanted.id));
     expect(before!.alertsEnabled).toBe(true);
     const forged = await fetch(`${testAppOrigin}/saved-searches/unsubscribe?token=${wanted.id}.AAAA`, { method: "POST", headers: { origin: testAppOrigin } });
-    expect(forged.status).toBe(200);
+    expect(forged.status).toBe(404);
+    expect((await fetch(`${testAppOrigin}/saved-searches/unsubscribe?token=${wanted.id}.AAAA`)).status).toBe(404);
     expect((await db.select().from(savedSearches).where(eq(savedSearches.id, wanted.id)))[0]!.alertsEnabled).toBe(true);
     const body = new FormData();
     body.set("token", new URL(unsubscribe).searchParams.get("token")!);
     const stopped = await fetch(`${testAppOrigin}/saved-searches/unsubscribe`, { method: "POST", body, headers: { origin: testAppOrigin } });
     expect(stopped.status).toBe(200);
+    // A mail client's one-click POST: the token in the address, the RFC 8058 body, no Origin header.
+    await db.update(savedSearches).set({ alertsEnabled: true }).where(eq(savedSearches.id, wanted.id));
+    const oneClick = await fetch(unsubscribe, {
+      method: "POST",
+      body: new URLSearchParams({ "List-Unsubscribe": "One-Click" }),
+    });
+    expect(oneClick.status).toBe(200);
     expect((await db.select().from(savedSearches).where(eq(savedSearches.id, wanted.id)))[0]!.alertsEnabled).toBe(false);
   });
 });

@@ -256,9 +256,10 @@ const table: Record<string, RouteRow> = {
     ],
   },
   "saved-searches/unsubscribe": {
-    get: everyone(200),
+    // A forged token finds nothing: the page says the link does not work, as a 404.
+    get: everyone(404),
     query: "?token=forged",
-    actions: [{ intent: "forged token", body: () => ({ form: { token: `${fx.savedSearchId}.forged` } }), expect: everyone(200), unchanged: () => rowsOf.savedSearch(fx.savedSearchId) }],
+    actions: [{ intent: "forged token", body: () => ({ form: { token: `${fx.savedSearchId}.forged` } }), expect: everyone(404), unchanged: () => rowsOf.savedSearch(fx.savedSearchId) }],
   },
 
   // Listings

@@ -192,6 +192,7 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
     const match = await finder.find({ ...query, ids: [listing.id], page: 1, hitsPerPage: 1, facets: [] });
     if (match.totalHits === 0) continue;
     const origin = env().APP_ORIGIN;
+    const unsubscribeUrl = `${origin}/saved-searches/unsubscribe?token=${encodeURIComponent(unsubscribeToken(search.id))}`;
     const message = await renderEmail(
       SavedSearchAlertEmail({
         searchName: search.name,
@@ -204,7 +205,7 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
           listingUrl: `${origin}/machines/${listing.slug}`,
         },
         searchUrl: `${origin}/machines?${search.queryString}`,
-        unsubscribeUrl: `${origin}/saved-searches/unsubscribe?token=${encodeURIComponent(unsubscribeToken(search.id))}`,
+        unsubscribeUrl,
       }),
     );
     const queued = await db.transaction(async (tx) => {
@@ -228,6 +229,11 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
           subject: occasion === "verified" ? `Now verified: ${listing.make} ${listing.model} matches “${search.name}”` : `New match for “${search.name}”: ${listing.make} ${listing.model}`,
           ...message,
           tag: "saved-search-alert",
+          // Mail clients offer their own "unsubscribe" from these; the POST (RFC 8058) needs no page visit.
+          headers: [
+            { name: "List-Unsubscribe", value: `<${unsubscribeUrl}>` },
+            { name: "List-Unsubscribe-Post", value: "List-Unsubscribe=One-Click" },
+          ],
         },
         { within: tx },
       );
