@@ -5,8 +5,8 @@ import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import type { EntryContext, HandleDataRequestFunction, RouterContextProvider } from "react-router";
-import { ServerRouter } from "react-router";
+import type { EntryContext, HandleDataRequestFunction, HandleErrorFunction, RouterContextProvider } from "react-router";
+import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
@@ -15,6 +15,22 @@ import { NonceProvider } from "~/modules/security/nonce";
 void startJobWorkers();
 
 export const streamTimeout = 5_000;
+
+/**
+ * Errors React Router caught on the server. A request it answers with a 4xx itself (a GET to an
+ * action-only route, a POST where there is no action, an unknown address) is the caller's mistake: one
+ * line, no stack. Everything else is logged in full. Aborted requests (the client left) are not logged.
+ */
+export const handleError: HandleErrorFunction = (error, { request }) => {
+  if (request.signal.aborted) return;
+  if (isRouteErrorResponse(error) && error.status < 500) {
+    const inner = (error as { error?: unknown }).error;
+    const why = inner instanceof Error ? inner.message : error.statusText;
+    console.warn(`[http] ${error.status} ${request.method} ${new URL(request.url).pathname}: ${why}`);
+    return;
+  }
+  console.error(isRouteErrorResponse(error) && (error as { error?: unknown }).error ? (error as { error?: unknown }).error : error);
+};
 
 export default function handleRequest(
   request: Request,
