@@ -5,6 +5,7 @@ import { getDatabase } from "~/db/client.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
 import { declareSearchWorkers } from "~/modules/search/indexing.server";
+import { closeSearchConnections } from "~/modules/search/search-http.server";
 import { closeDatabase } from "~/db/client.server";
 import { startWorkers, stopQueue } from "./queue.server";
 
@@ -36,8 +37,8 @@ let stopping: Promise<void> | undefined;
 
 /**
  * The HTTP server (react-router-serve) closes its port on SIGTERM/SIGINT; this stops the job queue (running
- * jobs may finish within a short grace) and closes the database pool, so that nothing keeps the process
- * alive and it ends by itself.
+ * jobs may finish within a short grace), closes the database pool and the search service's kept-alive
+ * connections, so that nothing keeps the process alive and it ends by itself.
  */
 function stopOnSignals() {
   if (signalsHandled) return;
@@ -48,6 +49,7 @@ function stopOnSignals() {
         try {
           await stopQueue({ timeoutMs: jobGraceMs });
           await closeDatabase();
+          await closeSearchConnections();
         } catch (error) {
           console.warn(`[jobs] stopping on ${signal}: ${error instanceof Error ? error.message : String(error)}`);
         }

@@ -17,6 +17,7 @@ import { env } from "~/env.server";
 import type { ListingSearchDocument } from "../../../search/document.ts";
 import { listingFilter, listingSortRules, type ListingSearchQuery } from "../../../search/query.ts";
 import { LISTINGS_INDEX_UID, LISTINGS_PRIMARY_KEY, listingIndexSettings } from "../../../search/settings.ts";
+import { searchHttpClient } from "./search-http.server";
 
 export type SearchUnavailableReason = "unreachable" | "timeout" | "server-error" | "index-missing" | "rejected";
 
@@ -82,8 +83,9 @@ export function createListingSearch(connection: SearchConnection) {
   const writeTimeoutMs = connection.writeTimeoutMs ?? 10_000;
   const client = new Meilisearch({ host: connection.host, apiKey: connection.apiKey, timeout: writeTimeoutMs });
   const index = client.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
-  // Searches carry their own AbortSignal.timeout; a second client spares each one the SDK's extra timer.
-  const searchClient = new Meilisearch({ host: connection.host, apiKey: connection.apiKey });
+  // Searches carry their own AbortSignal.timeout and go through a lighter HTTP client (search-http.server.ts);
+  // a second SDK client spares each one the SDK's extra timer.
+  const searchClient = new Meilisearch({ host: connection.host, apiKey: connection.apiKey, httpClient: searchHttpClient });
   const searchIndex = searchClient.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
 
   /** Sends an index update and waits until the service has processed it. */
@@ -189,7 +191,9 @@ function toResult(response: SearchResponse<ListingSearchDocument>): ListingSearc
 async function callService<T>(what: string, call: () => Promise<T>, timeoutMs: number): Promise<T> {
   try {
     return await call();
-  } catch (error) {
+  } catch (caught) {
+    // An error status met by the search client reaches us wrapped by the SDK as a request error.
+    const error = caught instanceof MeilisearchRequestError && caught.cause instanceof MeilisearchApiError ? caught.cause : caught;
     throw asUnavailable(what, error, timeoutMs) ?? error;
   }
 }
