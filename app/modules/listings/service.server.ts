@@ -305,6 +305,7 @@ export async function confirmPhotoUpload(db: Database, actor: SessionUser, listi
         })
         .returning();
     });
+    await reindexIfListed(listing);
     return photoView(photo);
   } catch (error) {
     await deleteObjects([accepted.thumbnailKey, accepted.largeKey]);
@@ -331,6 +332,7 @@ export async function movePhoto(db: Database, actor: SessionUser, listingId: str
       await tx.update(listingPhotos).set({ position }).where(eq(listingPhotos.id, id));
     }
   });
+  await reindexIfListed(listing);
 }
 
 export async function deletePhoto(db: Database, actor: SessionUser, listingId: string, photoId: string) {
@@ -341,6 +343,12 @@ export async function deletePhoto(db: Database, actor: SessionUser, listingId: s
     .returning();
   if (!photo) notFound();
   await deleteObjects([photo.thumbnailKey, photo.largeKey]);
+  await reindexIfListed(listing);
+}
+
+/** Search results show a listed machine's cover photo: a change to its photos is a change to its index entry. */
+async function reindexIfListed(listing: { id: string; status: string }) {
+  if (listing.status !== "draft") await queueListingIndexUpdate(listing.id);
 }
 
 export async function startDocumentUpload(db: Database, actor: SessionUser, listingId: string, file: UploadRequest) {

@@ -4,6 +4,7 @@ import { PHOTO_MAX_BYTES } from "~/modules/files/limits";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
 import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg } from "../../support/images";
 import { createListingAs, listingRow, objectKeysUnder, photoRows, postForm, uploadFileAs } from "../../support/listings";
+import { getListingsApi, uniqueWord } from "../../support/search";
 
 let cookie: string;
 
@@ -115,6 +116,33 @@ describe("a real photo", () => {
     expect((await postForm(`/sell/listings/${listingId}`, cookie, { intent: "delete" })).status).toBe(302);
     expect(await listingRow(listingId)).toBeUndefined();
     await expectNothingLeft(listingId);
+  });
+
+  it("shows a published listing's new cover in search results", async () => {
+    const word = uniqueWord("cover");
+    const listingId = await createListingAs(cookie, { model: `ML ${word}` });
+    for (const tint of ["#aa3322", "#2233aa"]) {
+      expect((await uploadFileAs(cookie, listingId, "photos", { bytes: await jpegWithGps({ width: 640, height: 480, tint }), name: `${tint}.jpg`, type: "image/jpeg" })).status).toBe(200);
+    }
+    expect((await postForm(`/sell/listings/${listingId}`, cookie, { intent: "publish" })).status).toBe(302);
+    const photos = await photoRows(listingId);
+    const [first, second] = [...photos].sort((a, b) => a.position - b.position);
+    const photoInResults = async () => {
+      const body = (await (await getListingsApi(`q=${word}`)).json()) as { hits: Array<{ id: string; photoUrl: string | null }> };
+      return body.hits.find((hit) => hit.id === listingId)?.photoUrl ?? null;
+    };
+    const waitFor = async (photoId: string) => {
+      for (const deadline = Date.now() + 20_000; Date.now() < deadline; await new Promise((resolve) => setTimeout(resolve, 250))) {
+        if ((await photoInResults())?.includes(photoId)) return;
+      }
+      throw new Error(`search results never showed photo ${photoId}; last: ${await photoInResults()}`);
+    };
+    await waitFor(first!.id);
+
+    expect((await postForm(`/sell/listings/${listingId}`, cookie, { intent: "photo-cover", photoId: second!.id })).status).toBe(302);
+    await waitFor(second!.id);
+    expect((await postForm(`/sell/listings/${listingId}`, cookie, { intent: "photo-delete", photoId: second!.id })).status).toBe(302);
+    await waitFor(first!.id);
   });
 
   it("accepts a PDF document and refuses a photo sent as one", async () => {
