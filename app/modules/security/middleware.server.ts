@@ -7,8 +7,8 @@ import { crossOriginRefusal } from "./origin.server";
 export const MAX_BODY_BYTES = DOCUMENT_MAX_BYTES + 1024 * 1024;
 
 /**
- * First in the root's chain: gives the request its CSP nonce, refuses a cross-origin change or an oversized
- * body before any loader or action runs, turns an unreadable form into a 400, and puts the security
+ * First in the root's chain: gives the request its CSP nonce, refuses a cross-origin change, an oversized
+ * body or one of unknown length before any loader or action runs, turns an unreadable form into a 400, and puts the security
  * headers on whatever answer comes back.
  */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
@@ -18,6 +18,10 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
   if (refusal) throw problem(request, nonce, 403, { error: "cross_origin_request", reason: refusal.reason, message: refusal.message });
   if (Number(request.headers.get("content-length") ?? 0) > MAX_BODY_BYTES) {
     throw problem(request, nonce, 413, { error: "body_too_large", message: `This request is larger than the ${Math.round(MAX_BODY_BYTES / 1024 / 1024)} MB the site accepts.` });
+  }
+  // A body of unknown length (chunked) could grow past that limit unseen; pages and API clients send a length.
+  if (request.headers.has("transfer-encoding") && !request.headers.has("content-length")) {
+    throw problem(request, nonce, 411, { error: "length_required", message: "Send this request with a Content-Length header: bodies of unknown length are not accepted." });
   }
   const unreadable = await unreadableForm(request);
   if (unreadable) throw problem(request, nonce, unreadable.status, { error: "unreadable_form", message: unreadable.message });
