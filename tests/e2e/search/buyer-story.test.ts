@@ -177,6 +177,13 @@ describe("the buyer's story", () => {
     await page.getByLabel("Spindle run-out at most (in)").fill("0.0001");
     await page.getByLabel("Spindle run-out at most (in)").press("Enter");
     await page.getByRole("link", { name: "1 machine with spindle run-out ≤ 0.0002 in" }).waitFor();
+
+    // A limit the search cannot use is not dropped in silence: the message is at the field.
+    await page.getByLabel("Spindle run-out at most (in)").fill("0");
+    await page.getByLabel("Spindle run-out at most (in)").press("Enter");
+    const field = page.getByLabel("Spindle run-out at most (in)");
+    await expect.poll(() => field.getAttribute("aria-invalid")).toBe("true");
+    await expect(page.getByRole("alert").filter({ hasText: "Spindle run-out" }).first().textContent()).resolves.toMatch(/must be more than 0/);
     await context.close();
   });
 

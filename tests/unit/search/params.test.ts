@@ -74,6 +74,16 @@ describe("the search form in the reader's units", () => {
     const draft = { ...draftFromParams(new URLSearchParams(), "mm"), runoutMax: "5", verified: true, priceMax: "20000" };
     expect(paramsFromDraft(draft, "mm").toString()).toBe("verified=1&currency=EUR&priceMax=20000&runoutMax=5");
   });
+
+  it("sends a value it cannot use as typed, under the reader's own name, so that the server can say what is wrong", () => {
+    const blank = draftFromParams(new URLSearchParams(), "mm");
+    expect(paramsFromDraft({ ...blank, swingMin: "-5", runoutMax: "0" }, "mm").toString()).toBe("swingMin=-5&runoutMax=0");
+    expect(paramsFromDraft({ ...blank, centresMax: "long", runoutMax: "-0.0001" }, "inch").toString()).toBe("centresMaxIn=long&runoutMaxIn=-0.0001");
+    // And the server does refuse them, each at its field.
+    const refused = parseListingSearchParams(new URLSearchParams("swingMin=-5&runoutMax=0&centresMaxIn=long"));
+    expect(refused.success).toBe(false);
+    if (!refused.success) expect(Object.keys(refused.errors).sort()).toEqual(["centresMaxIn", "runoutMax", "swingMin"]);
+  });
 });
 
 describe("accuracy figures", () => {

@@ -71,7 +71,8 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
   };
 }
 
-/** The address for a form state: µm and mm, in one fixed order, without empty fields; page 1. */
+/** The address for a form state: µm and mm, in one fixed order, without empty fields; page 1. Values that are
+ * not usable numbers go as typed, for the server to refuse with a message. */
 export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSearchParams {
   const params = new URLSearchParams();
   const put = (key: string, value: string | number | undefined) => {
@@ -85,12 +86,17 @@ export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSea
   if (draft.priceMin.trim() || draft.priceMax.trim()) put("currency", draft.currency);
   put("priceMin", draft.priceMin);
   put("priceMax", draft.priceMax);
+  // A number the search cannot use is sent as typed: the server's answer says at the field what is wrong.
   for (const key of lengthKeys) {
     const value = positive(draft[key].replace(",", "."));
-    if (value === undefined) continue;
-    put(key, lengthToMillimetres(value, units));
+    if (value === undefined) put(inputName(key, units), draft[key]);
+    else put(key, lengthToMillimetres(value, units));
   }
-  for (const key of deviationKeys) put(key, deviationFromInput(draft[key], units));
+  for (const key of deviationKeys) {
+    const micrometres = deviationFromInput(draft[key], units);
+    if (micrometres === undefined) put(inputName(key, units), draft[key]);
+    else put(key, micrometres);
+  }
   put("reportAgeMax", draft.reportAgeMax);
   put("sort", draft.sort);
   return params;
