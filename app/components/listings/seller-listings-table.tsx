@@ -10,7 +10,8 @@ import {
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { Table, Td, Th, Tr, cx } from "~/components/ui";
-import { countryName, labelOf, listingStatuses, machineCategories } from "~/modules/listings/catalogue";
+import { countryName, labelOf, machineCategories } from "~/modules/listings/catalogue";
+import { listingStatuses } from "~/modules/listings/statuses";
 import { formatMoney } from "~/modules/units/format";
 import { StatusBadge } from "./status-badge";
 

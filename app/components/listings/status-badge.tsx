@@ -1,5 +1,6 @@
 import { Badge } from "~/components/ui";
-import { labelOf, listingStatuses } from "~/modules/listings/catalogue";
+import { labelOf } from "~/modules/listings/catalogue";
+import { listingStatuses } from "~/modules/listings/statuses";
 
 const tones = { draft: "neutral", published: "within", sold: "brass", withdrawn: "caution" } as const;
 

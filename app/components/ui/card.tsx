@@ -1,4 +1,4 @@
-import type { HTMLAttributes, ReactNode } from "react";
+import type { HTMLAttributes } from "react";
 import { cx } from "./cx";
 
 export function Card({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
@@ -8,20 +8,4 @@ export function Card({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
       {...props}
     />
   );
-}
-
-export function CardHeader({ title, description, action }: { title: ReactNode; description?: ReactNode; action?: ReactNode }) {
-  return (
-    <div className="flex flex-wrap items-start justify-between gap-3 border-b border-ink-100 px-5 py-4">
-      <div>
-        <h2 className="text-lg font-bold text-ink-900">{title}</h2>
-        {description ? <p className="mt-0.5 text-sm text-ink-500">{description}</p> : null}
-      </div>
-      {action}
-    </div>
-  );
-}
-
-export function CardBody({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
-  return <div className={cx("px-5 py-4", className)} {...props} />;
 }

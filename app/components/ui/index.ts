@@ -1,6 +1,7 @@
 export { Badge } from "./badge";
 export { Button, ButtonLink, buttonClasses } from "./button";
-export { Card, CardBody, CardHeader } from "./card";
+export { Card } from "./card";
+export { CardBody, CardHeader } from "./card-sections";
 export { cx } from "./cx";
 export { Dialog, DialogClose } from "./dialog";
 export { CheckboxField, FieldFrame, SelectField, TextAreaField, TextField } from "./field";

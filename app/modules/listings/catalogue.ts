@@ -17,14 +17,6 @@ export const machineConditions = [
 ] as const;
 export type MachineCondition = (typeof machineConditions)[number]["value"];
 
-export const listingStatuses = [
-  { value: "draft", label: "Draft" },
-  { value: "published", label: "Published" },
-  { value: "sold", label: "Sold" },
-  { value: "withdrawn", label: "Withdrawn" },
-] as const;
-export type ListingStatus = (typeof listingStatuses)[number]["value"];
-
 // ISO 3166-1 alpha-2 codes; names come from the browser's or server's own locale data.
 export const countryCodes = [
   "AT", "AU", "BE", "BG", "CA", "CH", "CZ", "DE", "DK", "EE", "ES", "FI", "FR", "GB", "GR", "HR", "HU", "IE",

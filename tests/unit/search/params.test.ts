@@ -79,6 +79,8 @@ describe("the search form in the reader's units", () => {
     const blank = draftFromParams(new URLSearchParams(), "mm");
     expect(paramsFromDraft({ ...blank, swingMin: "-5", runoutMax: "0" }, "mm").toString()).toBe("swingMin=-5&runoutMax=0");
     expect(paramsFromDraft({ ...blank, centresMax: "long", runoutMax: "-0.0001" }, "inch").toString()).toBe("centresMaxIn=long&runoutMaxIn=-0.0001");
+    // Read back from the address, they stay as typed, next to the message.
+    expect(draftFromParams(new URLSearchParams("swingMin=-5&runoutMaxIn=0"), "inch")).toMatchObject({ swingMin: "-5", runoutMax: "0" });
     // And the server does refuse them, each at its field.
     const refused = parseListingSearchParams(new URLSearchParams("swingMin=-5&runoutMax=0&centresMaxIn=long"));
     expect(refused.success).toBe(false);

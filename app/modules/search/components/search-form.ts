@@ -38,15 +38,17 @@ function positive(text: string | null): number | undefined {
 
 /** The form as the address describes it (the `…In` twins are read too, as a form without JavaScript sends them). */
 export function draftFromParams(params: URLSearchParams, units: DisplayUnits): SearchDraft {
+  // A value that is not a usable number stays as it was typed, next to the server's message about it.
+  const asTyped = (key: string) => params.get(`${key}In`) ?? params.get(key) ?? "";
   const length = (key: (typeof lengthKeys)[number]) => {
     const inches = positive(params.get(`${key}In`));
     const mm = inches !== undefined ? inches * MILLIMETRES_PER_INCH : positive(params.get(key));
-    return mm === undefined ? "" : String(lengthFromMillimetres(mm, units));
+    return mm === undefined ? asTyped(key) : String(lengthFromMillimetres(mm, units));
   };
   const deviation = (key: string) => {
     const inches = positive(params.get(`${key}In`));
     const um = inches !== undefined ? inches * 25_400 : positive(params.get(key));
-    return um === undefined || um === 0 ? "" : deviationInputValue(um, units);
+    return um === undefined || um === 0 ? asTyped(key) : deviationInputValue(um, units);
   };
   const list = (key: string) => params.getAll(key).flatMap((value) => value.split(",")).filter(Boolean);
   return {
