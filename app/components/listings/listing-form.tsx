@@ -72,7 +72,7 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
           <SelectField label="Kind of machine" options={machineCategories} placeholder="Choose…" {...field("category")} />
           <SelectField
             label="Condition"
-            hint="Reconditioned: rebuilt or overhauled, with the work described. Used: in working order, as taken out of production. As is: sold without promises, for repair or parts."
+            hint="Reconditioned: rebuilt, with the work described. Used: working, as taken out of production. As is: for repair or parts."
             options={machineConditions}
             placeholder="Choose…"
             {...field("condition")}
