@@ -3,6 +3,7 @@ import {
   DeleteObjectCommand,
   GetObjectCommand,
   HeadObjectCommand,
+  ListObjectsV2Command,
   NotFound,
   NoSuchKey,
   PutObjectCommand,
@@ -104,6 +105,18 @@ export async function writeObject({ key, body, contentType }: { key: string; bod
       }),
     ),
   );
+}
+
+/** Every object whose key starts with `prefix`, with when it was written (all pages of the listing). */
+export async function listObjects(prefix: string): Promise<Array<{ key: string; lastModified: Date | null }>> {
+  const found: Array<{ key: string; lastModified: Date | null }> = [];
+  let token: string | undefined;
+  do {
+    const page = await call(() => storage().send(new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix, ContinuationToken: token })));
+    for (const object of page.Contents ?? []) if (object.Key) found.push({ key: object.Key, lastModified: object.LastModified ?? null });
+    token = page.IsTruncated ? page.NextContinuationToken : undefined;
+  } while (token);
+  return found;
 }
 
 /** Deletes objects one by one: DeleteObjects' checksum rules differ between S3-speaking stores. Missing keys are fine. */

@@ -8,7 +8,7 @@ export type JobOptions = PgBoss.SendOptions;
 /** Handles one job's data; throwing fails the attempt, and pg-boss retries it later. */
 export type JobHandler<Data> = (data: Data, job: PgBoss.Job<Data>) => Promise<void>;
 
-type Worker = { name: string; handler: JobHandler<any>; attached: boolean };
+type Worker = { name: string; handler: JobHandler<any>; attached: boolean; cron?: string };
 
 // Defaults for every queue unless it says otherwise: a service that is down for hours still gets the work.
 const defaultRetries: PgBoss.RetryOptions = { retryLimit: 12, retryDelay: 2, retryBackoff: true };
@@ -110,14 +110,19 @@ export async function enqueue<Data extends object>(name: string, data: Data, opt
  * Declares the handler of a queue. Workers start with `startWorkers()` (the app server calls it at boot);
  * a worker declared after that starts at once.
  */
-export function registerWorker<Data extends object>(name: string, handler: JobHandler<Data>, queue?: Omit<PgBoss.Queue, "name">) {
+export function registerWorker<Data extends object>(
+  name: string,
+  handler: JobHandler<Data>,
+  queue?: Omit<PgBoss.Queue, "name">,
+  options: { /** Also run the job on this cron schedule (UTC), e.g. "23 * * * *" hourly. */ cron?: string } = {},
+) {
   if (queue) configureQueue(name, queue);
   const existing = workers.get(name);
   if (existing) {
     existing.handler = handler;
     return;
   }
-  const worker: Worker = { name, handler, attached: false };
+  const worker: Worker = { name, handler, attached: false, cron: options.cron };
   workers.set(name, worker);
   if (started) void attach(worker).catch(reportStartFailure);
 }
@@ -132,6 +137,8 @@ async function attach(worker: Worker) {
   if (worker.attached) return;
   const boss = await getQueue();
   await ensureQueue(boss, worker.name);
+  // pg-boss keeps one schedule per queue and fires it from the servers that run its cron (see getQueue).
+  if (worker.cron) await boss.schedule(worker.name, worker.cron, {}, { tz: "UTC" });
   worker.attached = true;
   for (let poller = 0; poller < pollersPerQueue; poller++) {
     await boss.work<any>(worker.name, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async (jobs) => {

@@ -2,6 +2,7 @@
 // (app/entry.server.tsx calls `startJobWorkers` once at boot). Add a domain's worker declaration here.
 import { env } from "~/env.server";
 import { getDatabase } from "~/db/client.server";
+import { declareFileWorkers } from "~/modules/files/abandoned-uploads.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
 import { declareSearchWorkers } from "~/modules/search/indexing.server";
@@ -15,6 +16,7 @@ export function declareJobWorkers() {
   if (declared) return;
   declared = true;
   declareMailWorker();
+  declareFileWorkers();
   declareInspectionWorkers(getDatabase);
   declareSearchWorkers(getDatabase);
 }
