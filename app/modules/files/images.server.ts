@@ -1,4 +1,5 @@
 // Checks uploaded files by their content and turns photos into the variants pages show.
+import { createHash } from "node:crypto";
 import sharp, { type Metadata } from "sharp";
 import { DOCUMENT_MAX_BYTES, formatBytes, PHOTO_MAX_BYTES, PHOTO_MAX_PIXELS } from "./limits";
 import { deleteObjects, readObject, statObject, writeObject } from "./storage.server";
@@ -94,13 +95,18 @@ export async function acceptUploadedPhoto({ uploadKey, destinationPrefix }: { up
     const variants = await makePhotoVariants(bytes);
     await writeObject({ key: keys.thumbnailKey, body: variants.thumbnail, contentType: "image/webp" });
     await writeObject({ key: keys.largeKey, body: variants.large, contentType: "image/webp" });
-    return { ...keys, width: variants.width, height: variants.height, bytes: bytes.length };
+    return { ...keys, width: variants.width, height: variants.height, bytes: bytes.length, largeSha256: sha256Hex(variants.large) };
   } catch (error) {
     await deleteObjects([keys.thumbnailKey, keys.largeKey]);
     throw error;
   } finally {
     await deleteObjects([uploadKey]);
   }
+}
+
+/** The SHA-256 of bytes as stored, in lower-case hex. */
+export function sha256Hex(bytes: Buffer): string {
+  return createHash("sha256").update(bytes).digest("hex");
 }
 
 /** Checks an uploaded PDF by its first bytes and moves it to `destinationKey`; the upload is deleted either way. */

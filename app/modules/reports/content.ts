@@ -48,7 +48,8 @@ export interface ReportContent {
     calibrationDue: string | null;
     calibrationOverdue: boolean;
   }>;
-  tests: Record<string, { instrumentId: string | null; notes: string; photo: { id: string; width: number; height: number } | null }>;
+  /** Per test; a set-up photo's `sha256` is that of its large variant as stored (absent for photos kept before it was recorded). */
+  tests: Record<string, { instrumentId: string | null; notes: string; photo: { id: string; width: number; height: number; sha256?: string } | null }>;
   /** The readings in the units they were typed in (stations mm or in; readings µm or in). */
   measurementsAsEntered: ReportMeasurements;
   /** The readings the engine scored: stations in mm, readings in µm (µm/m for levels). */

@@ -67,6 +67,7 @@ export async function confirmSetupPhotoUpload(db: Database, inspector: SessionUs
       largeKey: accepted.largeKey,
       width: accepted.width,
       height: accepted.height,
+      largeSha256: accepted.largeSha256,
     });
   } catch (error) {
     await deleteObjects([accepted.thumbnailKey, accepted.largeKey]);

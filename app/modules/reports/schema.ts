@@ -86,6 +86,8 @@ export const reportPhotos = pgTable(
     largeKey: text("large_key").notNull(),
     width: integer("width").notNull(),
     height: integer("height").notNull(),
+    // SHA-256 (hex) of the large variant as written: sealed into the report, so a swapped photo shows.
+    largeSha256: text("large_sha256"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [index("report_photos_booking_idx").on(table.bookingId, table.testCode)],

@@ -20,6 +20,8 @@ import {
   type TestMeasurement,
 } from "~/geometry";
 import type { SessionUser } from "~/modules/accounts/guards.server";
+import { sha256Hex } from "~/modules/files/images.server";
+import { readObject, StorageUnavailableError } from "~/modules/files/storage.server";
 import { recordReportFiled } from "~/modules/inspections/bookings.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
 import { getBookingForReport, type BookingForReport } from "~/modules/inspections/report-queries.server";
@@ -182,7 +184,7 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
 
 export async function photosOfBooking(db: Executor, bookingId: string) {
   const rows = await db.select().from(reportPhotos).where(eq(reportPhotos.bookingId, bookingId));
-  return rows.map((row) => ({ id: row.id, testCode: row.testCode, width: row.width, height: row.height, thumbnailUrl: setupPhotoUrl(row.id, "thumb") }));
+  return rows.map((row) => ({ id: row.id, testCode: row.testCode, width: row.width, height: row.height, largeSha256: row.largeSha256, thumbnailUrl: setupPhotoUrl(row.id, "thumb") }));
 }
 
 // ————— Drafts —————
@@ -296,7 +298,7 @@ function buildContent(
     if (entry.photoId) {
       const stored = photos.find((candidate) => candidate.id === entry.photoId && candidate.testCode === test.code);
       if (!stored) errors[`tests.${test.code}.photoId`] = ["The set-up photo is missing; upload it again or remove it."];
-      else photo = { id: stored.id, width: stored.width, height: stored.height };
+      else photo = { id: stored.id, width: stored.width, height: stored.height, ...(stored.largeSha256 ? { sha256: stored.largeSha256 } : {}) };
     }
     entered[test.code] = check.measurement;
     testMeta[test.code] = { instrumentId: entry.instrumentId || null, notes: entry.notes.trim(), photo };
@@ -571,6 +573,7 @@ export async function verifyReportHash(db: Database, hash: string) {
     match: true as const,
     hash,
     intact: sealHolds(report.canonicalJson, hash),
+    photos: await checkSealedPhotos(db, content),
     report: {
       id: report.id,
       status: report.status,
@@ -584,6 +587,30 @@ export async function verifyReportHash(db: Database, hash: string) {
       url: reportUrl(report.id),
     },
   };
+}
+
+/**
+ * The set-up photos sealed with a report, read back from storage and hashed again: `changed` lists those
+ * whose bytes no longer match (or that are gone). Photos kept before their digest was recorded are not
+ * counted. A storage outage leaves `checked` false rather than calling the photos changed.
+ */
+async function checkSealedPhotos(db: Database, content: ReportContent) {
+  const sealed = Object.values(content.tests).flatMap((test) => (test.photo?.sha256 ? [{ id: test.photo.id, sha256: test.photo.sha256 }] : []));
+  if (!sealed.length) return { sealed: 0, checked: true, changed: [] as string[] };
+  const rows = await db.select({ id: reportPhotos.id, largeKey: reportPhotos.largeKey }).from(reportPhotos).where(inArray(reportPhotos.id, sealed.map((photo) => photo.id)));
+  const keyOf = new Map(rows.map((row) => [row.id, row.largeKey]));
+  try {
+    const changed: string[] = [];
+    for (const photo of sealed) {
+      const key = keyOf.get(photo.id);
+      const bytes = key ? await readObject(key).catch((error: unknown) => (error instanceof StorageUnavailableError ? Promise.reject(error) : null)) : null;
+      if (!bytes || sha256Hex(bytes) !== photo.sha256) changed.push(photo.id);
+    }
+    return { sealed: sealed.length, checked: true, changed };
+  } catch (error) {
+    if (error instanceof StorageUnavailableError) return { sealed: sealed.length, checked: false, changed: [] as string[] };
+    throw error;
+  }
 }
 
 export type ListingReportSummary = {

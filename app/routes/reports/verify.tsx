@@ -43,6 +43,15 @@ export default function VerifyPage() {
                 <p className="text-sm text-ink-700">
                   Grade {result.report.grade} · measured {formatReportDate(result.report.measuredOn)} by {result.report.inspector} · signed {formatSignedAt(result.report.signedAt)} · revision {result.report.revision}
                 </p>
+                {result.photos.sealed ? (
+                  <p className={`text-sm ${result.photos.changed.length ? "font-semibold text-beyond" : "text-ink-700"}`} data-testid="photo-check">
+                    {!result.photos.checked
+                      ? `Its ${result.photos.sealed} set-up photo(s) could not be checked just now: file storage is not answering. Try again in a moment.`
+                      : result.photos.changed.length
+                        ? `${result.photos.changed.length} of its ${result.photos.sealed} set-up photo(s) no longer match what was signed.`
+                        : `Its ${result.photos.sealed} set-up photo(s) are as they were signed.`}
+                  </p>
+                ) : null}
                 <Link to={`/reports/${result.report.id}`} className="font-semibold text-ink-900 underline underline-offset-2">
                   Read the report
                 </Link>

@@ -1,7 +1,11 @@
 import { createHash } from "node:crypto";
+import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
+import { readObject, writeObject } from "~/modules/files/storage.server";
+import { reportPhotos } from "~/modules/reports/schema";
 import { testAppOrigin } from "../../support/accounts";
-import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
+import { jpegWithGps } from "../../support/images";
+import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
 
 describe("GET /api/v1/reports/verify", () => {
   it("says which signed report a hash belongs to", async () => {
@@ -43,3 +47,39 @@ describe("GET /api/v1/reports/verify", () => {
     expect((await fetch(`${testAppOrigin}/api/v1/reports/not-a-uuid`)).status).toBe(404);
   });
 });
+
+describe("the set-up photos sealed with a report", () => {
+  it("are checked again on verification: as signed, until the stored photo is swapped", async () => {
+    const booked = await acceptedBooking();
+    const cookie = await inspectorCookie(booked.inspector);
+    const photoId = await uploadSetupPhoto(cookie, booked.bookingId, "L-SP-NOSE", await jpegWithGps({ width: 800, height: 600, tint: "#3355aa" }));
+    const form = completeForm({ "L-SP-NOSE": { kind: "sweep", readings: ["0", "2", "4", "2"], instrumentId: "i1", photoId } });
+    const signed = await fileAndSign(cookie, booked.bookingId, form);
+
+    // The photo's digest is part of what was sealed: the SHA-256 of the large variant as stored.
+    const [photo] = await db.select().from(reportPhotos).where(eq(reportPhotos.id, photoId));
+    const stored = await readObject(photo!.largeKey);
+    const sealedPhoto = JSON.parse(signed.canonicalJson!).tests["L-SP-NOSE"].photo;
+    expect(sealedPhoto).toEqual({ id: photoId, width: photo!.width, height: photo!.height, sha256: createHash("sha256").update(stored).digest("hex") });
+
+    const verify = async () => (await (await fetch(`${testAppOrigin}/api/v1/reports/verify?hash=${signed.contentHash}`)).json()) as { intact: boolean; photos: unknown };
+    expect(await verify()).toMatchObject({ intact: true, photos: { sealed: 1, checked: true, changed: [] } });
+
+    // Someone with access to the bucket swaps the photo: the report's own hash still holds, the photo check does not.
+    await writeObject({ key: photo!.largeKey, body: await jpegWithGps({ width: 800, height: 600, tint: "#aa5533" }), contentType: "image/webp" });
+    expect(await verify()).toMatchObject({ intact: true, photos: { sealed: 1, checked: true, changed: [photoId] } });
+    const page = await (await fetch(`${testAppOrigin}/reports/verify?hash=${signed.contentHash}`)).text();
+    expect(page).toContain("1 of its 1 set-up photo(s) no longer match what was signed.");
+  });
+});
+
+async function uploadSetupPhoto(cookie: string, bookingId: string, testCode: string, bytes: Buffer): Promise<string> {
+  const endpoint = `${testAppOrigin}/inspector/bookings/${bookingId}/report/photos`;
+  const step = (fields: Record<string, string>) => fetch(endpoint, { method: "POST", body: new URLSearchParams(fields), headers: { cookie, origin: testAppOrigin } });
+  const ticket = (await (await step({ intent: "presign", testCode, fileName: "setup.jpg", size: String(bytes.length), contentType: "image/jpeg" })).json()) as { uploadUrl: string; uploadKey: string };
+  const put = await fetch(ticket.uploadUrl, { method: "PUT", body: new Uint8Array(bytes), headers: { "content-type": "image/jpeg" } });
+  expect(put.status).toBe(200);
+  const confirmed = await step({ intent: "confirm", testCode, uploadKey: ticket.uploadKey });
+  expect(confirmed.status).toBe(200);
+  return ((await confirmed.json()) as { photo: { id: string } }).photo.id;
+}

@@ -1,0 +1,1 @@
+ALTER TABLE "report_photos" ADD COLUMN "large_sha256" text;
