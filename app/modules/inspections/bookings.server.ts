@@ -194,7 +194,7 @@ function bookingSummaryQuery(db: Executor) {
   return db
     .select({
       booking: bookings,
-      listing: { slug: listings.slug, make: listings.make, model: listings.model, city: listings.city, country: listings.country, sellerId: listings.sellerId },
+      listing: { slug: listings.slug, make: listings.make, model: listings.model, city: listings.city, region: listings.region, country: listings.country, sellerId: listings.sellerId },
       inspectorName: inspectorUser.name,
       buyerName: buyerUser.name,
       buyerEmail: buyerUser.email,

@@ -1,6 +1,5 @@
 // E-mails about a booking: each change of status tells the people it concerns, through the mail queue.
 import { eq, inArray } from "drizzle-orm";
-import { format } from "date-fns";
 import { env } from "~/env.server";
 import { user } from "~/modules/accounts/schema";
 import { listings } from "~/modules/listings/schema";
@@ -8,6 +7,7 @@ import { queueEmail } from "~/modules/mail/mail.server";
 import { renderEmail } from "~/modules/mail/render.server";
 import { EmailAction, EmailHeading, EmailLayout, EmailParagraph } from "~/modules/mail/templates/layout";
 import { formatMoney } from "~/modules/units/format";
+import { formatVisit, formatVisitDate } from "./local-time";
 import type { Executor } from "./profiles.server";
 import { bookings } from "./schema";
 
@@ -24,11 +24,12 @@ export type BookingNotice =
 
 type Letter = { to: string; subject: string; heading: string; paragraphs: string[]; action?: { href: string; label: string }; reason: string };
 
-const when = (date: Date) => `${format(date, "EEEE d MMMM yyyy, HH:mm")} UTC`;
-
 export async function sendBookingNotice(db: Executor, bookingId: string, notice: BookingNotice) {
   const [row] = await db
-    .select({ booking: bookings, machine: { make: listings.make, model: listings.model, city: listings.city, sellerId: listings.sellerId, slug: listings.slug } })
+    .select({
+      booking: bookings,
+      machine: { make: listings.make, model: listings.model, city: listings.city, region: listings.region, country: listings.country, sellerId: listings.sellerId, slug: listings.slug },
+    })
     .from(bookings)
     .innerJoin(listings, eq(listings.id, bookings.listingId))
     .where(eq(bookings.id, bookingId));
@@ -46,7 +47,8 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
   const buyerLink = { href: `${origin}/bookings/${booking.id}`, label: "Open the booking" };
   const inspectorLink = { href: `${origin}/inspector/bookings/${booking.id}`, label: "Open the request" };
   const what = `${machine.make} ${machine.model} in ${machine.city}`;
-  const slot = when(booking.startsAt);
+  // The visit's time where the machine stands, with UTC beside it.
+  const slot = formatVisit(booking.startsAt, booking.endsAt, machine, "long");
   const fee = formatMoney(booking.feeMinor, booking.currency);
   const ref = booking.reference;
   const forBuyer = `You receive this because you booked inspection ${ref} on Tenthmark.`;
@@ -66,7 +68,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
       });
       letters.push({
         to: inspector.email,
-        subject: `New inspection request ${ref}: ${machine.make} ${machine.model}, ${format(booking.startsAt, "d MMM")}`,
+        subject: `New inspection request ${ref}: ${machine.make} ${machine.model}, ${formatVisitDate(booking.startsAt, machine)}`,
         heading: "A new inspection request",
         paragraphs: [`${buyer.name} booked and paid you (${fee}) to inspect the ${what} on ${slot}.`, "Please accept or decline it. Declining refunds the buyer in full."],
         action: { href: inspectorLink.href, label: "Accept or decline" },
@@ -76,7 +78,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
     case "accepted":
       letters.push({
         to: buyer.email,
-        subject: `Inspection ${ref} accepted for ${format(booking.startsAt, "d MMM yyyy")}`,
+        subject: `Inspection ${ref} accepted for ${formatVisitDate(booking.startsAt, machine)}`,
         heading: "Your inspection is scheduled",
         paragraphs: [`${inspector.name} accepted the inspection of the ${what} on ${slot}.`],
         action: buyerLink,
@@ -85,7 +87,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
       if (seller)
         letters.push({
           to: seller.email,
-          subject: `An inspector visits your ${machine.make} ${machine.model} on ${format(booking.startsAt, "d MMM yyyy")}`,
+          subject: `An inspector visits your ${machine.make} ${machine.model} on ${formatVisitDate(booking.startsAt, machine)}`,
           heading: "An inspection of your machine is scheduled",
           paragraphs: [
             `${inspector.name} will inspect the ${what} on ${slot}, booked by ${buyer.name}.`,

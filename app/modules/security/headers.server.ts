@@ -46,6 +46,7 @@ export function contentSecurityPolicy(nonce: string, settings: PolicySettings = 
 }
 
 // Nothing in the app uses these; a page that is ever framed or scripted by someone else gets none of them.
+// Only features Chromium knows: an unknown one (e.g. bluetooth) is a console warning on every page.
 const permissionsPolicy = [
   "camera=()",
   "microphone=()",
@@ -53,7 +54,6 @@ const permissionsPolicy = [
   "payment=()",
   "usb=()",
   "serial=()",
-  "bluetooth=()",
   "magnetometer=()",
   "gyroscope=()",
   "accelerometer=()",

@@ -136,7 +136,7 @@ export default function BookInspection() {
                   {chosenInspector.slots.map((slot) => (
                     <label key={slot.id} className="flex cursor-pointer items-center gap-3 rounded-control border border-ink-200 bg-white px-3 py-2.5 text-sm has-[:checked]:border-ink-900 has-[:checked]:ring-1 has-[:checked]:ring-ink-900">
                       <input type="radio" name="slotId" value={slot.id} className="accent-ink-900" required />
-                      <SlotTime startsAt={slot.startsAt} endsAt={slot.endsAt} />
+                      <SlotTime startsAt={slot.startsAt} endsAt={slot.endsAt} place={listing} />
                     </label>
                   ))}
                 </div>

@@ -43,7 +43,7 @@ export default function BuyerBookings() {
                     <BookingStatusBadge status={booking.status} />
                   </div>
                   <p className="mt-1 text-sm text-ink-600">
-                    <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} />
+                    <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />
                   </p>
                   <p className="text-sm text-ink-600">
                     {inspectorName} · {formatMoney(booking.feeMinor, booking.currency)} · {booking.reference}
@@ -74,7 +74,7 @@ export default function BuyerBookings() {
                       <div className="text-xs text-ink-500">{listing.city}</div>
                     </Td>
                     <Td>
-                      <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} />
+                      <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />
                     </Td>
                     <Td>{inspectorName}</Td>
                     <Td className="tabular">{formatMoney(booking.feeMinor, booking.currency)}</Td>

@@ -45,7 +45,7 @@ export default function CheckoutCancelled() {
           <p className="text-sm font-bold uppercase tracking-wide text-caution">Payment not completed</p>
           <h1 className="text-2xl font-extrabold text-ink-950">Nothing was charged</h1>
           <p className="text-ink-700">
-            The slot with {detail.inspectorName} on <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} /> stays held for you until{" "}
+            The slot with {detail.inspectorName} on <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={detail.listing} /> stays held for you until{" "}
             {booking.checkoutExpiresAt ? new Date(booking.checkoutExpiresAt).toISOString().slice(11, 16) + " UTC" : "the checkout lapses"}. Pay now, or let it
             go so someone else can book it.
           </p>

@@ -51,7 +51,7 @@ export default function CheckoutReturn() {
               <p className="text-sm font-bold uppercase tracking-wide text-within">Booking confirmed</p>
               <h1 className="text-2xl font-extrabold text-ink-950">Your inspection is booked and paid</h1>
               <p className="text-ink-700">
-                {detail.inspectorName} inspects the {detail.listing.make} {detail.listing.model} on <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} />.
+                {detail.inspectorName} inspects the {detail.listing.make} {detail.listing.model} on <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={detail.listing} />.
                 We received {formatMoney(booking.feeMinor, booking.currency)}. {booking.status === "paid" ? "The inspector has been told and will accept shortly; we e-mail you when they do." : "The inspector has accepted."}
               </p>
               <p className="font-mono text-sm text-ink-500">{booking.reference}</p>

@@ -30,7 +30,7 @@ function Section({ title, description, rows, empty }: { title: string; descripti
                     {listing.make} {listing.model} · {listing.city}
                   </p>
                   <p className="text-sm text-ink-600">
-                    <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} /> · for {buyerName}
+                    <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} /> · for {buyerName}
                   </p>
                 </div>
                 <div className="flex items-center gap-3">

@@ -20,7 +20,7 @@ type Detail = {
     declineReason: string | null;
     cancelReason: string | null;
   };
-  listing: { slug: string; make: string; model: string; city: string };
+  listing: { slug: string; make: string; model: string; city: string; country: string; region: string | null };
   inspectorName: string;
   buyerName: string;
   history: Array<{ id: string; kind: string; toStatus: BookingStatus | null; note: string | null; createdAt: string | Date }>;
@@ -63,7 +63,7 @@ export function BookingFacts({ detail, showSplit = false }: { detail: Detail; sh
         {listing.make} {listing.model}, {listing.city}
       </Link>,
     ],
-    ["When", <SlotTime key="when" startsAt={booking.startsAt} endsAt={booking.endsAt} />],
+    ["When", <SlotTime key="when" startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />],
     ["Inspector", detail.inspectorName],
     ["Booked by", detail.buyerName],
     ["Fee", <span key="fee" className="tabular">{formatMoney(booking.feeMinor, booking.currency)}</span>],

@@ -1,21 +1,27 @@
 // Pieces shared by the inspections pages: status badge, times, refund rules and the safety cautions.
 import { Badge } from "~/components/ui";
+import { formatVisit, visitParts, type MachinePlace } from "../local-time";
 import { bookingStatusLabels, bookingStatusTones, refundRulesText, type BookingStatus } from "../rules";
 
-// Times are shown in UTC on every page and e-mail, so that what the inspector offers is what the buyer sees.
-const dayFormat = new Intl.DateTimeFormat("en-GB", { weekday: "short", day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
-const timeFormat = new Intl.DateTimeFormat("en-GB", { hour: "2-digit", minute: "2-digit", timeZone: "UTC" });
-
-export function formatDay(date: Date | string) {
-  return dayFormat.format(new Date(date));
-}
-
+/** A slot as the inspector offered it, in UTC (their own profile and public page: no machine yet). */
 export function formatSlot(startsAt: Date | string, endsAt: Date | string) {
-  return `${formatDay(startsAt)}, ${timeFormat.format(new Date(startsAt))}–${timeFormat.format(new Date(endsAt))} UTC`;
+  return formatVisit(startsAt, endsAt);
 }
 
-export function SlotTime({ startsAt, endsAt }: { startsAt: Date | string; endsAt: Date | string }) {
-  return <time dateTime={new Date(startsAt).toISOString()}>{formatSlot(startsAt, endsAt)}</time>;
+/** A visit's time: at the machine's place when `place` is given and its zone is known, with UTC beside it. */
+export function SlotTime({ startsAt, endsAt, place }: { startsAt: Date | string; endsAt: Date | string; place?: MachinePlace | null }) {
+  const { zone, day, local, utc } = visitParts(startsAt, endsAt, place);
+  return (
+    <time dateTime={new Date(startsAt).toISOString()} title={zone ? `Local time: ${zone}` : undefined}>
+      {local ? (
+        <>
+          {day}, {local} <span className="whitespace-nowrap text-ink-500">({utc})</span>
+        </>
+      ) : (
+        `${day}, ${utc}`
+      )}
+    </time>
+  );
 }
 
 export function BookingStatusBadge({ status }: { status: BookingStatus }) {

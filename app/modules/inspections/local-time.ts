@@ -1,0 +1,65 @@
+// An on-site inspection happens where the machine stands, so pages and e-mails give the visit's time there,
+// with UTC beside it (what the inspector offered and what is stored). Countries that span several time
+// zones (Australia, Canada, the United States) get UTC alone: the listing does not say which zone.
+// Pure: shared by the server and the browser. Zones from the IANA time zone database.
+
+const singleZone: Record<string, string> = {
+  AT: "Europe/Vienna", BE: "Europe/Brussels", BG: "Europe/Sofia", CH: "Europe/Zurich", CZ: "Europe/Prague",
+  DE: "Europe/Berlin", DK: "Europe/Copenhagen", EE: "Europe/Tallinn", ES: "Europe/Madrid", FI: "Europe/Helsinki",
+  FR: "Europe/Paris", GB: "Europe/London", GR: "Europe/Athens", HR: "Europe/Zagreb", HU: "Europe/Budapest",
+  IE: "Europe/Dublin", IT: "Europe/Rome", LT: "Europe/Vilnius", LU: "Europe/Luxembourg", LV: "Europe/Riga",
+  NL: "Europe/Amsterdam", NO: "Europe/Oslo", NZ: "Pacific/Auckland", PL: "Europe/Warsaw", PT: "Europe/Lisbon",
+  RO: "Europe/Bucharest", SE: "Europe/Stockholm", SI: "Europe/Ljubljana", SK: "Europe/Bratislava",
+};
+
+export type MachinePlace = { country: string; region?: string | null };
+
+/** The machine's time zone, or null where its country's zone cannot be told from the listing. */
+export function machineTimeZone(place: MachinePlace): string | null {
+  // The islands keep other clocks than the mainland.
+  if (place.country === "ES" && /canar/i.test(place.region ?? "")) return "Atlantic/Canary";
+  if (place.country === "PT" && /a[çc]ores|azores/i.test(place.region ?? "")) return "Atlantic/Azores";
+  return singleZone[place.country] ?? null;
+}
+
+// Building an Intl.DateTimeFormat costs far more than using one: one per zone and style.
+const formats = new Map<string, Intl.DateTimeFormat>();
+function formatter(timeZone: string, style: "day" | "time" | "long-day" | "date") {
+  const key = `${timeZone} ${style}`;
+  let format = formats.get(key);
+  if (!format) {
+    const options: Intl.DateTimeFormatOptions =
+      style === "time"
+        ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" }
+        : style === "day"
+          ? { weekday: "short", day: "numeric", month: "short", year: "numeric" }
+          : style === "date"
+            ? { day: "numeric", month: "short", year: "numeric" }
+            : { weekday: "long", day: "numeric", month: "long", year: "numeric" };
+    formats.set(key, (format = new Intl.DateTimeFormat("en-GB", { ...options, timeZone })));
+  }
+  return format;
+}
+
+/** A visit's time in parts: the day and hours where the machine stands (null where its zone is unknown) and in UTC. */
+export function visitParts(startsAt: Date | string, endsAt: Date | string, place?: MachinePlace | null, style: "short" | "long" = "short") {
+  const [start, end] = [new Date(startsAt), new Date(endsAt)];
+  const dayStyle = style === "long" ? "long-day" : "day";
+  const zone = (place && machineTimeZone(place)) ?? null;
+  const hours = (timeZone: string) => `${formatter(timeZone, "time").format(start)}–${formatter(timeZone, "time").format(end)}`;
+  return { zone, day: formatter(zone ?? "UTC", dayStyle).format(start), local: zone ? `${hours(zone)} local time` : null, utc: `${hours("UTC")} UTC` };
+}
+
+/**
+ * A visit's time: "Tue, 2 Feb 2027, 09:00–13:00 local time (08:00–12:00 UTC)" where the machine's zone is
+ * known, "Tue, 2 Feb 2027, 08:00–12:00 UTC" otherwise. `style: "long"` writes the day out, for e-mails.
+ */
+export function formatVisit(startsAt: Date | string, endsAt: Date | string, place?: MachinePlace | null, style: "short" | "long" = "short") {
+  const { day, local, utc } = visitParts(startsAt, endsAt, place, style);
+  return local ? `${day}, ${local} (${utc})` : `${day}, ${utc}`;
+}
+
+/** The visit's day where the machine stands (UTC where its zone is unknown): "2 Feb 2027", for subject lines. */
+export function formatVisitDate(startsAt: Date | string, place?: MachinePlace | null) {
+  return formatter((place && machineTimeZone(place)) ?? "UTC", "date").format(new Date(startsAt));
+}
