@@ -23,13 +23,13 @@ export const streamTimeout = 5_000;
  */
 export const handleError: HandleErrorFunction = (error, { request }) => {
   if (request.signal.aborted) return;
+  // The router keeps the Error behind its own 4xx/5xx answers in `error` (not in the public type).
+  const inner = isRouteErrorResponse(error) ? (error as { error?: unknown }).error : undefined;
   if (isRouteErrorResponse(error) && error.status < 500) {
-    const inner = (error as { error?: unknown }).error;
-    const why = inner instanceof Error ? inner.message : error.statusText;
-    console.warn(`[http] ${error.status} ${request.method} ${new URL(request.url).pathname}: ${why}`);
+    console.warn(`[http] ${error.status} ${request.method} ${new URL(request.url).pathname}: ${inner instanceof Error ? inner.message : error.statusText}`);
     return;
   }
-  console.error(isRouteErrorResponse(error) && (error as { error?: unknown }).error ? (error as { error?: unknown }).error : error);
+  console.error(inner ?? error);
 };
 
 export default function handleRequest(

@@ -22,30 +22,30 @@ export function machineTimeZone(place: MachinePlace): string | null {
   return singleZone[place.country] ?? null;
 }
 
+const styles = {
+  time: { hour: "2-digit", minute: "2-digit", hourCycle: "h23" },
+  day: { weekday: "short", day: "numeric", month: "short", year: "numeric" },
+  "long-day": { weekday: "long", day: "numeric", month: "long", year: "numeric" },
+  date: { day: "numeric", month: "short", year: "numeric" },
+} satisfies Record<string, Intl.DateTimeFormatOptions>;
+
 // Building an Intl.DateTimeFormat costs far more than using one: one per zone and style.
 const formats = new Map<string, Intl.DateTimeFormat>();
-function formatter(timeZone: string, style: "day" | "time" | "long-day" | "date") {
+function formatter(timeZone: string, style: keyof typeof styles) {
   const key = `${timeZone} ${style}`;
   let format = formats.get(key);
-  if (!format) {
-    const options: Intl.DateTimeFormatOptions =
-      style === "time"
-        ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" }
-        : style === "day"
-          ? { weekday: "short", day: "numeric", month: "short", year: "numeric" }
-          : style === "date"
-            ? { day: "numeric", month: "short", year: "numeric" }
-            : { weekday: "long", day: "numeric", month: "long", year: "numeric" };
-    formats.set(key, (format = new Intl.DateTimeFormat("en-GB", { ...options, timeZone })));
-  }
+  if (!format) formats.set(key, (format = new Intl.DateTimeFormat("en-GB", { ...styles[style], timeZone })));
   return format;
 }
+
+/** The zone a visit's time is given in: the machine's where known, else UTC. */
+const zoneOf = (place?: MachinePlace | null) => (place && machineTimeZone(place)) ?? null;
 
 /** A visit's time in parts: the day and hours where the machine stands (null where its zone is unknown) and in UTC. */
 export function visitParts(startsAt: Date | string, endsAt: Date | string, place?: MachinePlace | null, style: "short" | "long" = "short") {
   const [start, end] = [new Date(startsAt), new Date(endsAt)];
   const dayStyle = style === "long" ? "long-day" : "day";
-  const zone = (place && machineTimeZone(place)) ?? null;
+  const zone = zoneOf(place);
   const hours = (timeZone: string) => `${formatter(timeZone, "time").format(start)}–${formatter(timeZone, "time").format(end)}`;
   return { zone, day: formatter(zone ?? "UTC", dayStyle).format(start), local: zone ? `${hours(zone)} local time` : null, utc: `${hours("UTC")} UTC` };
 }
@@ -61,5 +61,5 @@ export function formatVisit(startsAt: Date | string, endsAt: Date | string, plac
 
 /** The visit's day where the machine stands (UTC where its zone is unknown): "2 Feb 2027", for subject lines. */
 export function formatVisitDate(startsAt: Date | string, place?: MachinePlace | null) {
-  return formatter((place && machineTimeZone(place)) ?? "UTC", "date").format(new Date(startsAt));
+  return formatter(zoneOf(place) ?? "UTC", "date").format(new Date(startsAt));
 }

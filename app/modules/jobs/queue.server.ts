@@ -85,7 +85,7 @@ export type SqlRunner = { execute(query: SQL): Promise<{ rows: unknown[] }> };
  * stored if and only if the transaction commits. pg-boss sends numbered placeholders ($1, $2, …); each
  * becomes a bound parameter of Drizzle's, never text in the statement.
  */
-export function jobStoreWithin(runner: SqlRunner): PgBoss.Db {
+function jobStoreWithin(runner: SqlRunner): PgBoss.Db {
   return {
     async executeSql(text, values) {
       const chunks: SQL[] = text.split(/\$(\d+)/).map((part, index) => (index % 2 === 0 ? sql.raw(part) : sql`${sql.param(values[Number(part) - 1])}`));

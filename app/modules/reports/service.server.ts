@@ -599,18 +599,19 @@ async function checkSealedPhotos(db: Database, content: ReportContent) {
   if (!sealed.length) return { sealed: 0, checked: true, changed: [] as string[] };
   const rows = await db.select({ id: reportPhotos.id, largeKey: reportPhotos.largeKey }).from(reportPhotos).where(inArray(reportPhotos.id, sealed.map((photo) => photo.id)));
   const keyOf = new Map(rows.map((row) => [row.id, row.largeKey]));
-  try {
-    const changed: string[] = [];
-    for (const photo of sealed) {
-      const key = keyOf.get(photo.id);
-      const bytes = key ? await readObject(key).catch((error: unknown) => (error instanceof StorageUnavailableError ? Promise.reject(error) : null)) : null;
-      if (!bytes || sha256Hex(bytes) !== photo.sha256) changed.push(photo.id);
+  const changed: string[] = [];
+  for (const photo of sealed) {
+    const key = keyOf.get(photo.id);
+    let bytes: Buffer | null = null;
+    try {
+      if (key) bytes = await readObject(key);
+    } catch (error) {
+      if (error instanceof StorageUnavailableError) return { sealed: sealed.length, checked: false, changed: [] as string[] };
+      // Any other refusal (no such object, above all) means the sealed photo is not there as signed.
     }
-    return { sealed: sealed.length, checked: true, changed };
-  } catch (error) {
-    if (error instanceof StorageUnavailableError) return { sealed: sealed.length, checked: false, changed: [] as string[] };
-    throw error;
+    if (!bytes || sha256Hex(bytes) !== photo.sha256) changed.push(photo.id);
   }
+  return { sealed: sealed.length, checked: true, changed };
 }
 
 export type ListingReportSummary = {

@@ -8,8 +8,8 @@ export const MAX_BODY_BYTES = DOCUMENT_MAX_BYTES + 1024 * 1024;
 
 /**
  * First in the root's chain: gives the request its CSP nonce, refuses a cross-origin change, an oversized
- * body or one of unknown length before any loader or action runs, turns an unreadable form into a 400, and puts the security
- * headers on whatever answer comes back.
+ * body or one of unknown length before any loader or action runs, turns an unreadable form into a 400,
+ * and puts the security headers on whatever answer comes back.
  */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   const nonce = createNonce();

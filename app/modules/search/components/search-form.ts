@@ -88,7 +88,6 @@ export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSea
   if (draft.priceMin.trim() || draft.priceMax.trim()) put("currency", draft.currency);
   put("priceMin", draft.priceMin);
   put("priceMax", draft.priceMax);
-  // A number the search cannot use is sent as typed: the server's answer says at the field what is wrong.
   for (const key of lengthKeys) {
     const value = positive(draft[key].replace(",", "."));
     if (value === undefined) put(inputName(key, units), draft[key]);
