@@ -1,5 +1,4 @@
-import { Text } from "@react-email/components";
-import { EmailAction, EmailHeading, EmailLayout, EmailParagraph, emailColours } from "~/modules/mail/templates/layout";
+import { EmailAction, EmailHeading, EmailLayout, EmailPanel, EmailParagraph } from "~/modules/mail/templates/layout";
 
 export function InquiryEmail({
   sellerName,
@@ -29,20 +28,7 @@ export function InquiryEmail({
         {buyerName} ({buyerEmail}
         {phone ? `, ${phone}` : ""}) wrote:
       </EmailParagraph>
-      <Text
-        style={{
-          fontSize: 15,
-          lineHeight: "24px",
-          color: emailColours.ink900,
-          backgroundColor: emailColours.ink50,
-          borderLeft: `3px solid ${emailColours.brass400}`,
-          padding: "10px 14px",
-          whiteSpace: "pre-wrap",
-          margin: "0 0 14px",
-        }}
-      >
-        {message}
-      </Text>
+      <EmailPanel keepLineBreaks>{message}</EmailPanel>
       <EmailParagraph>Reply to this e-mail to answer; your reply goes straight to {buyerName}.</EmailParagraph>
       <EmailAction href={listingUrl}>Open the listing</EmailAction>
     </EmailLayout>

@@ -46,6 +46,26 @@ export function EmailParagraph({ children }: { children: ReactNode }) {
   return <Text style={{ fontSize: 15, lineHeight: "24px", color: emailColours.ink900, margin: "0 0 14px" }}>{children}</Text>;
 }
 
+/** A set-off block with the brass rule on its left: a quoted message, or the machine an alert is about. */
+export function EmailPanel({ children, keepLineBreaks = false }: { children: ReactNode; keepLineBreaks?: boolean }) {
+  return (
+    <Text
+      style={{
+        fontSize: 15,
+        lineHeight: "24px",
+        color: emailColours.ink900,
+        backgroundColor: emailColours.ink50,
+        borderLeft: `3px solid ${emailColours.brass400}`,
+        padding: "10px 14px",
+        ...(keepLineBreaks ? { whiteSpace: "pre-wrap" } : {}),
+        margin: "0 0 14px",
+      }}
+    >
+      {children}
+    </Text>
+  );
+}
+
 /** A call to action as a button, with the address written out below for clients that block links. */
 export function EmailAction({ href, children }: { href: string; children: ReactNode }) {
   return (

@@ -1,5 +1,4 @@
-import { Text } from "@react-email/components";
-import { EmailAction, EmailHeading, EmailLayout, EmailParagraph, emailColours } from "~/modules/mail/templates/layout";
+import { EmailAction, EmailHeading, EmailLayout, EmailPanel, EmailParagraph } from "~/modules/mail/templates/layout";
 
 export type AlertedMachine = {
   title: string;
@@ -35,24 +34,14 @@ export function SavedSearchAlertEmail({
           ? `An inspector has signed an accuracy report for this machine, and it now matches your saved search “${searchName}”.`
           : `This machine was just listed and matches your saved search “${searchName}”.`}
       </EmailParagraph>
-      <Text
-        style={{
-          fontSize: 15,
-          lineHeight: "24px",
-          color: emailColours.ink900,
-          backgroundColor: emailColours.ink50,
-          borderLeft: `3px solid ${emailColours.brass400}`,
-          padding: "10px 14px",
-          margin: "0 0 14px",
-        }}
-      >
+      <EmailPanel>
         <strong>{machine.title}</strong>
         <br />
         {machine.place}
         {machine.price ? ` · ${machine.price}` : ""}
         <br />
         {machine.accuracy ?? "Not yet verified"}
-      </Text>
+      </EmailPanel>
       <EmailAction href={machine.listingUrl}>Open the listing</EmailAction>
       <EmailParagraph>
         See everything that matches: {searchUrl}
