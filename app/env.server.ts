@@ -62,6 +62,16 @@ export const environmentSchema = z.object({
   MEILISEARCH_API_KEY: z.string().min(1, { error: "must be a Meilisearch API key with search and write rights" }).default("tenthmark-local-search-master-key"),
   // Milliseconds a search may take before the page answers from PostgreSQL instead.
   MEILISEARCH_SEARCH_TIMEOUT_MS: z.coerce.number().int().min(50).default(800),
+  // The Ed25519 private key that signs report credentials, as a Multikey (z3u2…). Required in production;
+  // `npm start` keeps one per data folder. `npm run signing-key -- rotate` replaces it.
+  REPORT_SIGNING_KEY: z.preprocess(
+    (value) => (value === "" ? undefined : value),
+    z.string().regex(/^z[1-9A-HJ-NP-Za-km-z]{40,60}$/, { error: "must be an Ed25519 private key as a Multikey (z3u2…); make one with `npm run signing-key -- new`" }).optional(),
+  ),
+}).superRefine((value, context) => {
+  if (value.NODE_ENV === "production" && !value.REPORT_SIGNING_KEY) {
+    context.addIssue({ code: "custom", path: ["REPORT_SIGNING_KEY"], message: "is required in production (the key that signs report credentials); make one with `npm run signing-key -- new`" });
+  }
 });
 
 export type Environment = z.infer<typeof environmentSchema>;

@@ -67,5 +67,7 @@ export default [
   route("api/v1/listings", "routes/search/api.listings.ts"),
   route("api/v1/reports/verify", "routes/api.v1.reports.verify.ts"),
   route("api/v1/reports/:reportId", "routes/api.v1.reports.report.ts"),
+  route("api/v1/reports/:reportId/credential", "routes/api.v1.reports.credential.ts"),
+  route(".well-known/did.json", "routes/well-known.did.ts"),
   route("api/webhooks/stripe", "routes/api.webhooks.stripe.ts"),
 ] satisfies RouteConfig;

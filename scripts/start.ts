@@ -9,6 +9,7 @@ import { isPortFree } from "./lib/ports.ts";
 import { startCluster } from "./lib/postgres.ts";
 import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
 import { seedDemoDataIfEmpty, demoSignIns } from "./lib/seed.ts";
+import { localSigningKey, registerKey } from "./lib/signing-key.ts";
 import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
@@ -35,6 +36,10 @@ async function main() {
   }
   log("postgres", `ready at ${databaseUrl}`);
   await runMigrations(databaseUrl);
+  // The data folder's report signing key (made once), unless the environment gives one; registered as current.
+  const signingKey = process.env.REPORT_SIGNING_KEY || localSigningKey(dataDir);
+  const registered = await registerKey(databaseUrl, signingKey);
+  if (registered.added) log("app", `report signing key ${registered.id} registered`);
 
   // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).
   const standIns = await startStandIns({ dataDir, appOrigin, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
@@ -48,6 +53,7 @@ async function main() {
     ...standInSettings,
     NODE_ENV: "production",
     DATABASE_URL: databaseUrl,
+    REPORT_SIGNING_KEY: signingKey,
     APP_ORIGIN: appOrigin,
     PORT: String(port),
     // Loopback only unless told otherwise (a deployment sets HOST=0.0.0.0 behind its proxy).

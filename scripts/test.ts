@@ -13,6 +13,8 @@ import { startCluster } from "./lib/postgres.ts";
 import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
 import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
 import { ensureChromium } from "./lib/chromium.ts";
+import { registerKey } from "./lib/signing-key.ts";
+import { newSigningKeyMultibase } from "../app/modules/reports/signing.server.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
 
@@ -24,6 +26,9 @@ async function main(): Promise<number> {
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_test" });
   onStop(() => cluster.stop());
   await runMigrations(cluster.url);
+  // A signing key of this run's own, registered as current.
+  const signingKey = newSigningKeyMultibase();
+  await registerKey(cluster.url, signingKey);
 
   const port = await freePort();
   const appOrigin = `http://localhost:${port}`;
@@ -34,6 +39,7 @@ async function main(): Promise<number> {
     ...process.env,
     ...standInEnvironment(standIns),
     DATABASE_URL: cluster.url,
+    REPORT_SIGNING_KEY: signingKey,
     APP_ORIGIN: appOrigin,
     TEST_APP_ORIGIN: appOrigin,
     TEST_WORK_DIR: workDir,

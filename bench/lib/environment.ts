@@ -12,6 +12,8 @@ import { freePort } from "../../scripts/lib/ports.ts";
 import { startCluster } from "../../scripts/lib/postgres.ts";
 import { onStop, stopAll, stopOnSignals, waitForHttp } from "../../scripts/lib/processes.ts";
 import { standInEnvironment, startStandIns, type StandIn } from "../../scripts/lib/stand-ins.ts";
+import { registerKey } from "../../scripts/lib/signing-key.ts";
+import { newSigningKeyMultibase } from "../../app/modules/reports/signing.server.ts";
 
 const root = path.resolve(import.meta.dirname, "../..");
 
@@ -34,6 +36,9 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_bench" });
   onStop(() => cluster.stop());
   await runMigrations(cluster.url);
+  // A signing key of the run's own, in use from 1970 so that the invented reports signed in the past fall inside it.
+  const signingKey = newSigningKeyMultibase();
+  await registerKey(cluster.url, signingKey, new Date(0));
 
   // The app's origin is fixed before the stand-ins start (they are told where it lives).
   const appPort = await freePort();
@@ -44,6 +49,7 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
   const appEnvironment: Record<string, string> = {
     ...standInEnvironment(standIns),
     DATABASE_URL: cluster.url,
+    REPORT_SIGNING_KEY: signingKey,
     APP_ORIGIN: appOrigin,
     PORT: String(appPort),
   };

@@ -45,6 +45,8 @@ export const reports = pgTable(
     /** SHA-256 of canonicalJson (UTF-8), lower-case hex. */
     contentHash: text("content_hash"),
     signedAt: timestamp("signed_at", { withTimezone: true }),
+    /** The W3C Verifiable Credential of the signed content with its eddsa-jcs-2022 proof, as JSON text. */
+    credential: text("credential"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
@@ -91,6 +93,20 @@ export const reportPhotos = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [index("report_photos_booking_idx").on(table.bookingId, table.testCode)],
+);
+
+// Every public key that has signed reports, with the period it signed in; `/.well-known/did.json` lists them
+// all, so a report signed before a key rotation still verifies. Written by the owner role only.
+export const reportSigningKeys = pgTable(
+  "report_signing_keys",
+  {
+    /** The DID URL fragment, e.g. key-2026-12-04-1a2b3c4d. */
+    id: text("id").primaryKey(),
+    publicKeyMultibase: text("public_key_multibase").notNull().unique(),
+    validFrom: timestamp("valid_from", { withTimezone: true }).notNull(),
+    validUntil: timestamp("valid_until", { withTimezone: true }),
+  },
+  (table) => [uniqueIndex("report_signing_keys_one_current_idx").on(sql`(true)`).where(sql`${table.validUntil} is null`)],
 );
 
 export type ReportRow = typeof reports.$inferSelect;

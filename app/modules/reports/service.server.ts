@@ -45,7 +45,9 @@ import { sendReportSignedNotices } from "./notices.server";
 import { SAFETY_CAUTIONS } from "./safety";
 import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
 import { reportUrl, verificationUrl } from "./links.server";
-import { HASH_PATTERN, sealContent, sealHolds } from "./seal.server";
+import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
+import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
+import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";
 
 /** An expected refusal: the route answers with `status` and shows `errors` at their fields. */
 export class ReportRuleError extends Error {
@@ -469,13 +471,15 @@ export async function signReport(db: Database, inspector: SessionUser, bookingId
     if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
     const content: ReportContent = { ...(report.content as ReportContent), signedAt: now.toISOString() };
     const { canonical, hash } = sealContent(content);
+    const credential = await issueCredential(tx, content, hash);
+    // The successor is signed first: the database lets a report become superseded only by a signed successor.
+    await tx
+      .update(reports)
+      .set({ status: "signed", canonicalJson: canonical, contentHash: hash, signedAt: now, content: JSON.parse(canonical), credential, updatedAt: now })
+      .where(eq(reports.id, report.id));
     if (mode.kind === "correction") {
       await tx.update(reports).set({ status: "superseded", updatedAt: now }).where(and(eq(reports.id, mode.corrects.id), eq(reports.status, "signed")));
     }
-    await tx
-      .update(reports)
-      .set({ status: "signed", canonicalJson: canonical, contentHash: hash, signedAt: now, content: JSON.parse(canonical), updatedAt: now })
-      .where(eq(reports.id, report.id));
     await tx.delete(reportDrafts).where(eq(reportDrafts.bookingId, bookingId));
     return { found, content, hash, correction: mode.kind === "correction" };
   });
@@ -484,6 +488,21 @@ export async function signReport(db: Database, inspector: SessionUser, bookingId
   await queueListingIndexUpdate(sealed.found.listing.id);
   const mailed = await sendReportSignedNotices(sealed.found, sealed.content, sealed.hash);
   return { reportId, contentHash: sealed.hash, mailed };
+}
+
+/**
+ * The signed content as a W3C Verifiable Credential with an eddsa-jcs-2022 proof made at the signing time,
+ * by the key in REPORT_SIGNING_KEY, which must be the registered current key (see `npm run signing-key`).
+ */
+async function issueCredential(tx: Executor, content: ReportContent, contentHash: string): Promise<string> {
+  const origin = env().APP_ORIGIN;
+  const key = reportSigningKey();
+  const fragment = await currentKeyFragment(tx, key.publicKeyMultibase);
+  if (!fragment) {
+    throw new SigningKeyError("The report signing key is not registered as the current key: run `npm run signing-key -- register` with the owner's database URL.");
+  }
+  const signed = await signCredential(buildReportCredential(content, contentHash, origin), key, `${didWebOf(origin)}#${fragment}`, content.signedAt!);
+  return canonicalJson(signed);
 }
 
 /** Opens a correction of a signed report: a new draft prefilled from the signed readings. */
@@ -531,6 +550,7 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     supersededBy: supersededBy ? { id: supersededBy.id, revision: supersededBy.revision } : null,
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
     isInspector: viewer?.id === report.inspectorId,
+    hasCredential: report.credential !== null,
     photoUrls: Object.fromEntries(
       Object.entries(content.tests)
         .filter(([, meta]) => meta.photo)
@@ -557,9 +577,23 @@ export async function reportForApi(db: Database, reportId: string) {
     contentHash: report.contentHash,
     hashAlgorithm: "SHA-256 of the RFC 8785 canonical JSON of `content`",
     intact: report.intact,
-    links: { page: `${origin}/reports/${report.id}`, certificate: `${origin}/reports/${report.id}/certificate.pdf`, verification: report.verificationUrl },
+    links: {
+      page: `${origin}/reports/${report.id}`,
+      certificate: `${origin}/reports/${report.id}/certificate.pdf`,
+      verification: report.verificationUrl,
+      credential: report.hasCredential ? credentialUrl(origin, report.id) : null,
+      issuerKeys: `${origin}/.well-known/did.json`,
+    },
     content: report.content,
   };
+}
+
+/** The stored credential text of a signed or superseded report; null for drafts, unknown ids and reports signed before credentials. */
+export async function reportCredential(db: Database, reportId: string): Promise<string | null> {
+  if (!z.uuid().safeParse(reportId).success) return null;
+  const [row] = await db.select({ status: reports.status, credential: reports.credential }).from(reports).where(eq(reports.id, reportId));
+  if (!row || row.status === "draft") return null;
+  return row.credential;
 }
 
 /** Whether a hash is that of a signed report (current or superseded), and which; the stored seal is re-checked. */

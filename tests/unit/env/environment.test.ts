@@ -31,3 +31,13 @@ describe("environment schema", () => {
     }
   });
 });
+
+describe("the report signing key", () => {
+  const base = { DATABASE_URL: "postgres://app@127.0.0.1:54329/tenthmark" };
+  it("is required in production, and must be an Ed25519 Multikey", () => {
+    expect(() => parseEnvironment({ ...base, NODE_ENV: "production" })).toThrow(/REPORT_SIGNING_KEY: is required in production/);
+    expect(() => parseEnvironment({ ...base, NODE_ENV: "production", REPORT_SIGNING_KEY: "secret" })).toThrow(/REPORT_SIGNING_KEY: must be an Ed25519 private key/);
+    expect(parseEnvironment({ ...base, NODE_ENV: "production", REPORT_SIGNING_KEY: "z3u2en7t5LR2WtQH5PfFqMqwVHBeXouLzo6haApm8XHqvjxq" }).REPORT_SIGNING_KEY).toMatch(/^z3u2/);
+    expect(parseEnvironment(base).REPORT_SIGNING_KEY).toBeUndefined();
+  });
+});
