@@ -127,7 +127,7 @@ function SampleReading() {
     { test: "Bed, vertical plane", value: "14 µm", tolerance: "20 µm", ratio: 0.7 },
   ];
   return (
-    <Card className="self-center p-5" aria-label="Example of scored readings">
+    <Card className="self-center p-5" role="figure" aria-label="Example of scored readings">
       <div className="flex items-baseline justify-between">
         <p className="text-sm font-bold text-ink-900">Example scored readings</p>
         <p className="text-xs text-ink-500">illustration</p>

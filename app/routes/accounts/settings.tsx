@@ -70,7 +70,7 @@ export default function AccountSettings() {
     <div className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
       <h1 className="text-3xl font-extrabold tracking-tight text-ink-950">Your account</h1>
       <p className="mt-1 break-words text-ink-600">{user.email}</p>
-      <div className="mt-4 flex flex-wrap gap-2" aria-label="Your roles">
+      <div className="mt-4 flex flex-wrap gap-2" role="group" aria-label="Your roles">
         {user.roles.map((role) => (
           <Badge key={role} tone={role === "admin" ? "brass" : role === "inspector" ? "within" : "neutral"}>
             {role === "inspector" ? "certified inspector" : role}

@@ -86,7 +86,7 @@ export default function ReportPage() {
         </div>
         <div className="flex flex-wrap items-center gap-2">
           <Badge tone={report.status === "signed" ? "within" : "caution"}>{report.status === "signed" ? "Signed" : "Superseded"}</Badge>
-          <div className="inline-flex rounded-control ring-1 ring-ink-300" aria-label="Units">
+          <div className="inline-flex rounded-control ring-1 ring-ink-300" role="group" aria-label="Units">
             {(["mm", "inch"] as const).map((option) => (
               <Link
                 key={option}

@@ -21,7 +21,8 @@ export function GradeMark({ grade, size = "md", className }: { grade: string; si
   return (
     <span
       className={cx("inline-flex shrink-0 items-center justify-center rounded-panel font-extrabold", sizes[size], gradeTones[grade] ?? gradeTones.incomplete, className)}
-      aria-label={`Grade ${grade}`}
+      role="img"
+      aria-label={grade === "incomplete" ? "Grade incomplete" : `Grade ${grade}`}
       data-grade={grade}
     >
       {grade === "incomplete" ? "–" : grade}

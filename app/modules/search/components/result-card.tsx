@@ -22,6 +22,7 @@ export function GradeChip({ grade, className }: { grade: string; className?: str
   return (
     <span
       className={cx("inline-flex size-10 shrink-0 items-center justify-center rounded-control text-xl font-extrabold", gradeTones[grade] ?? gradeTones.incomplete, className)}
+      role="img"
       aria-label={grade === "incomplete" ? "Report incomplete" : `Grade ${grade}`}
       data-grade={grade}
     >
@@ -51,8 +52,10 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
     : [];
   const ageDays = hit.report ? Math.floor((now - Date.parse(`${hit.report.measuredOn}T00:00:00Z`)) / 86_400_000) : null;
   return (
-    <Card className="flex h-full flex-col overflow-hidden" data-listing-id={hit.id}>
-      <Link to={hit.url} className="group flex flex-1 flex-col focus-visible:outline-offset-[-2px]" aria-label={`${hit.title}, ${hit.categoryLabel}`}>
+    // The title is the card's link, stretched over the card by its ::after, so that the link is named by the
+    // title alone while grade, figures, price and badges stay text that is read in order (not hidden behind a name).
+    <Card className="group relative flex h-full flex-col overflow-hidden" data-listing-id={hit.id}>
+      <div className="flex flex-1 flex-col">
         {hit.photoUrl ? (
           <img src={hit.photoUrl} alt="" className="aspect-[4/3] w-full object-cover" width={480} height={360} loading="lazy" />
         ) : (
@@ -65,7 +68,11 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
                 {hit.categoryLabel}
                 {hit.year ? ` · ${hit.year}` : ""}
               </p>
-              <h2 className="mt-1 text-lg font-bold leading-snug text-ink-900 group-hover:underline">{hit.title}</h2>
+              <h3 className="mt-1 text-lg font-bold leading-snug text-ink-900 group-hover:underline">
+                <Link to={hit.url} className="after:absolute after:inset-0">
+                  {hit.title}
+                </Link>
+              </h3>
             </div>
             {hit.grade ? <GradeChip grade={hit.grade} /> : null}
           </div>
@@ -99,9 +106,9 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
             </div>
           </div>
         </div>
-      </Link>
+      </div>
       {hit.report ? (
-        <Link to={`/reports/${hit.report.id}`} className="border-t border-ink-200 px-4 py-2.5 text-sm font-semibold text-ink-700 hover:bg-ink-50">
+        <Link to={`/reports/${hit.report.id}`} className="relative z-10 border-t border-ink-200 px-4 py-2.5 text-sm font-semibold text-ink-700 hover:bg-ink-50">
           Accuracy report of {hit.report.measuredOn} →
         </Link>
       ) : null}

@@ -266,8 +266,8 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                       errors={instrument.calibrationDue && form.measuredOn && instrument.calibrationDue < form.measuredOn ? ["Overdue on the date of the tests."] : null}
                       onChange={(event) => change((draft) => void (draft.instruments[i]!.calibrationDue = event.target.value))}
                     />
-                    <Button variant="quiet" size="sm" className="justify-self-start sm:col-span-2" aria-label={`Remove instrument ${i + 1}`} onClick={() => change((draft) => void draft.instruments.splice(i, 1))}>
-                      Remove this instrument
+                    <Button variant="quiet" size="sm" className="justify-self-start sm:col-span-2" onClick={() => change((draft) => void draft.instruments.splice(i, 1))}>
+                      Remove this instrument<span className="sr-only"> (instrument {i + 1})</span>
                     </Button>
                   </div>
                 ))}

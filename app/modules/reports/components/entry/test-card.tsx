@@ -55,7 +55,7 @@ export function ReadingInput({
       </label>
       <div className="flex items-stretch">
         {signed ? (
-          <button type="button" onClick={flip} className="rounded-l-control border border-r-0 border-ink-300 bg-ink-50 px-2.5 text-base font-bold text-ink-700 hover:bg-ink-100" aria-label={`Change the sign of ${typeof label === "string" ? label : "this reading"}`} tabIndex={-1}>
+          <button type="button" onClick={flip} className="rounded-l-control border border-r-0 border-ink-300 bg-ink-50 px-2.5 text-base font-bold text-ink-700 hover:bg-ink-100" aria-label={`± change the sign of ${typeof label === "string" ? label : "this reading"}`} tabIndex={-1}>
             ±
           </button>
         ) : null}
@@ -162,7 +162,7 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
                   <button
                     type="button"
                     className="rounded-control px-2 py-1 text-lg text-ink-500 hover:bg-beyond-soft hover:text-beyond"
-                    aria-label={`Remove station ${i + 1}`}
+                    aria-label={`× remove station ${i + 1}`}
                     onClick={() =>
                       change((draft) => {
                         draft.points.splice(i, 1);
