@@ -14,7 +14,7 @@ export default defineConfig({
           output: {
             codeSplitting: {
               groups: [
-                { name: "framework", test: /node_modules[\\/](react|react-dom|scheduler|react-router)[\\/]|rolldown[\\/]runtime|entry\.client|app[\\/](components[\\/]ui[\\/](button|card|badge|cx)|modules[\\/]units[\\/]format|modules[\\/]listings[\\/]catalogue)\.tsx?$/ },
+                { name: "framework", test: /node_modules[\\/](react|react-dom|scheduler|react-router)[\\/]|rolldown[\\/]runtime|entry\.client|app[\\/](components[\\/]layout[\\/]route-announcer|components[\\/]ui[\\/](button|card|badge|cx)|modules[\\/]units[\\/]format|modules[\\/]listings[\\/]catalogue)\.tsx?$/ },
               ],
             },
           },

@@ -2,6 +2,7 @@ import "~/modules/security/zod-without-eval";
 import { isRouteErrorResponse, Link, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
+import { RouteAnnouncer } from "~/components/layout/route-announcer";
 import { SiteFooter } from "~/components/layout/site-footer";
 import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
 import { databaseMiddleware } from "~/db/middleware.server";
@@ -47,7 +48,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="flex min-h-screen flex-col">
-        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-4 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">
+        <a href="#main" className="skip-link">
           Skip to content
         </a>
         <SiteHeader user={data?.user ?? null} />
@@ -55,6 +56,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
           {children}
         </main>
         <SiteFooter />
+        <RouteAnnouncer />
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />
       </body>

@@ -54,6 +54,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
   const [filtersOpen, setFiltersOpen] = useState(false);
   const [attempt, setAttempt] = useState(0);
   const resultsRef = useRef<HTMLDivElement>(null);
+  const resultsHeadingRef = useRef<HTMLHeadingElement>(null);
 
   // The address is the state: back, forward and shared links set the form from it.
   useEffect(() => {
@@ -118,6 +119,8 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
         onSubmit={(event) => {
           event.preventDefault();
           commit();
+          // Closing the drawer hides the button that had focus: carry focus on to what the filters changed.
+          if (filtersOpen) resultsHeadingRef.current?.focus();
           setFiltersOpen(false);
         }}
       >
@@ -200,10 +203,10 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             ) : null}
 
             <div className="flex flex-wrap items-center justify-between gap-3">
-              <p className="text-sm font-semibold text-ink-700" aria-live="polite" data-testid="result-count">
+              <h2 ref={resultsHeadingRef} tabIndex={-1} className="text-sm font-semibold text-ink-700" aria-live="polite" data-testid="result-count">
                 {search ? (search.totalHits === 1 ? "1 machine" : `${search.totalHits} machines`) : errors ? "Check the filters" : ""}
                 {search?.summary && search.summary !== "Every machine" ? <span className="font-normal text-ink-500"> · {search.summary}</span> : null}
-              </p>
+              </h2>
               <label className="flex items-center gap-2 text-sm text-ink-700">
                 Sort
                 <select
@@ -245,7 +248,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
 
             {search && !search.hits.length ? (
               <Card className="mt-4 p-6 sm:p-8" data-testid="empty-results">
-                <h2 className="text-lg font-bold text-ink-900">{search.emptyBecause ?? "No machines match this search"}.</h2>
+                <h3 className="text-lg font-bold text-ink-900">{search.emptyBecause ?? "No machines match this search"}.</h3>
                 {search.suggestions.length ? (
                   <>
                     <p className="mt-2 text-sm text-ink-600">Widen one filter:</p>
