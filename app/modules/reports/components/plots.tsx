@@ -8,14 +8,16 @@ const W = 640;
 const H = 240;
 const PAD = { left: 64, right: 16, top: 16, bottom: 40 };
 
+// The tokens of app/app.css, whose pairs are checked for contrast there.
 const colours = {
-  ink: "#17212b",
-  muted: "#667887",
-  grid: "#eaedf0",
-  brass: "#b97a17",
-  within: "#1d7a4a",
-  withinSoft: "#e3f3ea",
-  beyond: "#b3261e",
+  ink: "var(--color-ink-900)",
+  muted: "var(--color-ink-500)",
+  axis: "var(--color-ink-300)",
+  grid: "var(--color-ink-100)",
+  brass: "var(--color-brass-500)",
+  within: "var(--color-within)",
+  withinSoft: "var(--color-within-soft)",
+  beyond: "var(--color-beyond)",
 };
 
 function niceStep(span: number, count: number) {
@@ -45,12 +47,47 @@ function axisUnit(units: DisplayUnits, unit: "µm" | "µm/m" = "µm") {
 
 type Scale = (value: number) => number;
 
+/** The figures a plot draws, as a table: the plot's text alternative for anyone who cannot see it. */
+function PlotFigures({ title, columns, rows }: { title: string; columns: string[]; rows: (string | number)[][] }) {
+  return (
+    <details className="text-xs text-ink-600" data-testid="plot-figures">
+      <summary className="cursor-pointer font-semibold text-ink-700">Figures in this plot</summary>
+      <table className="mt-1 w-full text-left tabular">
+        <caption className="sr-only">Figures of the plot {title}</caption>
+        <thead>
+          <tr>
+            {columns.map((column) => (
+              <th key={column} scope="col" className="py-1 pr-3 font-semibold text-ink-700">
+                {column}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map(([head, ...cells], i) => (
+            <tr key={i} className="border-t border-ink-100">
+              <th scope="row" className="py-1 pr-3 font-normal">
+                {head}
+              </th>
+              {cells.map((cell, j) => (
+                <td key={j} className="py-1 pr-3">
+                  {cell}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </details>
+  );
+}
+
 function Frame({ x, y, xTicks, yTicks, xLabel, yLabel, xFormat, yFormat }: { x: Scale; y: Scale; xTicks: number[]; yTicks: number[]; xLabel: string; yLabel: string; xFormat: (v: number) => string; yFormat: (v: number) => string }) {
   return (
     <g fontSize="11" fill={colours.muted}>
       {yTicks.map((value) => (
         <g key={`y${value}`}>
-          <line x1={PAD.left} x2={W - PAD.right} y1={y(value)} y2={y(value)} stroke={value === 0 ? "#b6c0c8" : colours.grid} />
+          <line x1={PAD.left} x2={W - PAD.right} y1={y(value)} y2={y(value)} stroke={value === 0 ? colours.axis : colours.grid} />
           <text x={PAD.left - 6} y={y(value) + 4} textAnchor="end">
             {yFormat(value)}
           </text>
@@ -99,51 +136,59 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
   const y = linear(yDomain, [H - PAD.bottom, PAD.top]);
   const at = (station: number, offset: number) => `${x(station)},${y(line!.slope * station + line!.intercept + offset)}`;
   const stationFormat = (value: number) => (units === "inch" ? (value / 25.4).toFixed(1) : String(Math.round(value)));
+  const stationUnit = units === "inch" ? "in" : "mm";
   return (
-    <figure className="w-full">
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
-        <Frame
-          x={x}
-          y={y}
-          xTicks={ticks(xMin, xMax, 6)}
-          yTicks={ticks(yDomain[0], yDomain[1], 5)}
-          xLabel={`Station (${units === "inch" ? "in" : "mm"})`}
-          yLabel={`Reading (${axisUnit(units, result?.unit)})`}
-          xFormat={stationFormat}
-          yFormat={(value) => readingLabel(value, units, result?.unit)}
-        />
+    <>
+      <figure className="w-full">
+        <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
+          <Frame
+            x={x}
+            y={y}
+            xTicks={ticks(xMin, xMax, 6)}
+            yTicks={ticks(yDomain[0], yDomain[1], 5)}
+            xLabel={`Station (${units === "inch" ? "in" : "mm"})`}
+            yLabel={`Reading (${axisUnit(units, result?.unit)})`}
+            xFormat={stationFormat}
+            yFormat={(value) => readingLabel(value, units, result?.unit)}
+          />
+          {line ? (
+            <>
+              <polygon points={[at(xMin, tolerance / 2), at(xMax, tolerance / 2), at(xMax, -tolerance / 2), at(xMin, -tolerance / 2)].join(" ")} fill={colours.withinSoft} opacity="0.9" />
+              <line x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept)} y2={y(line.slope * xMax + line.intercept)} stroke={colours.brass} strokeWidth="1.5" />
+              {[result!.value / 2, -result!.value / 2].map((offset) => (
+                <line key={offset} x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept + offset)} y2={y(line.slope * xMax + line.intercept + offset)} stroke={result!.pass ? colours.ink : colours.beyond} strokeDasharray="4 3" strokeWidth="1" />
+              ))}
+            </>
+          ) : null}
+          <polyline points={sorted.map((point) => `${x(point.station)},${y(point.reading)}`).join(" ")} fill="none" stroke={colours.ink} strokeWidth="1.5" />
+          {sorted.map((point) => (
+            <circle key={point.station} cx={x(point.station)} cy={y(point.reading)} r="3.5" fill="white" stroke={colours.ink} strokeWidth="1.5" />
+          ))}
+        </svg>
         {line ? (
-          <>
-            <polygon points={[at(xMin, tolerance / 2), at(xMax, tolerance / 2), at(xMax, -tolerance / 2), at(xMin, -tolerance / 2)].join(" ")} fill={colours.withinSoft} opacity="0.9" />
-            <line x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept)} y2={y(line.slope * xMax + line.intercept)} stroke={colours.brass} strokeWidth="1.5" />
-            {[result!.value / 2, -result!.value / 2].map((offset) => (
-              <line key={offset} x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept + offset)} y2={y(line.slope * xMax + line.intercept + offset)} stroke={result!.pass ? colours.ink : colours.beyond} strokeDasharray="4 3" strokeWidth="1" />
-            ))}
-          </>
+          <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-500">
+            <span>
+              <span className="mr-1 inline-block h-0.5 w-4 align-middle" style={{ background: colours.brass }} />
+              reference line ({result!.straightness!.reference.replace("-", " ")})
+            </span>
+            <span>
+              <span className="mr-1 inline-block h-0.5 w-4 border-t border-dashed align-middle" style={{ borderColor: colours.ink }} />
+              band holding the readings
+            </span>
+            <span>
+              <span className="mr-1 inline-block h-2.5 w-4 align-middle" style={{ background: colours.withinSoft }} />
+              tolerance band
+            </span>
+            <span>shape: {result!.straightness!.shape}</span>
+          </figcaption>
         ) : null}
-        <polyline points={sorted.map((point) => `${x(point.station)},${y(point.reading)}`).join(" ")} fill="none" stroke={colours.ink} strokeWidth="1.5" />
-        {sorted.map((point) => (
-          <circle key={point.station} cx={x(point.station)} cy={y(point.reading)} r="3.5" fill="white" stroke={colours.ink} strokeWidth="1.5" />
-        ))}
-      </svg>
-      {line ? (
-        <figcaption className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-500">
-          <span>
-            <span className="mr-1 inline-block h-0.5 w-4 align-middle" style={{ background: colours.brass }} />
-            reference line ({result!.straightness!.reference.replace("-", " ")})
-          </span>
-          <span>
-            <span className="mr-1 inline-block h-0.5 w-4 border-t border-dashed align-middle" style={{ borderColor: colours.ink }} />
-            band holding the readings
-          </span>
-          <span>
-            <span className="mr-1 inline-block h-2.5 w-4 align-middle" style={{ background: colours.withinSoft }} />
-            tolerance band
-          </span>
-          <span>shape: {result!.straightness!.shape}</span>
-        </figcaption>
-      ) : null}
-    </figure>
+      </figure>
+      <PlotFigures
+        title={title}
+        columns={[`Station (${stationUnit})`, `Reading (${axisUnit(units, result?.unit)})`]}
+        rows={sorted.map((point) => [units === "inch" ? (point.station / 25.4).toFixed(2) : String(point.station), readingLabel(point.reading, units, result?.unit)])}
+      />
+    </>
   );
 }
 
@@ -160,38 +205,49 @@ export function MandrelPlot({ measurement, result, units, title }: { measurement
   const xNear = PAD.left + 90;
   const xFar = W - PAD.right - 90;
   const wrong = result ? !result.direction.pass : false;
+  const unit = axisUnit(units);
   return (
-    <figure className="w-full">
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
-        <Frame x={(v) => v} y={y} xTicks={[]} yTicks={ticks(yDomain[0], yDomain[1], 5)} xLabel="Along the mandrel" yLabel={`Reading (${axisUnit(units)})`} xFormat={String} yFormat={(value) => readingLabel(value, units)} />
-        <text x={xNear} y={H - PAD.bottom + 16} textAnchor="middle" fontSize="11" fill={colours.muted}>
-          near the nose
-        </text>
-        <text x={xFar} y={H - PAD.bottom + 16} textAnchor="middle" fontSize="11" fill={colours.muted}>
-          far end{measurement.length ? ` (${units === "inch" ? `${(measurement.length / 25.4).toFixed(1)} in` : `${measurement.length} mm`})` : ""}
-        </text>
-        <line x1={xNear} x2={xFar} y1={y(meanNear)} y2={y(meanFar)} stroke={wrong ? colours.beyond : colours.brass} strokeWidth="2" />
-        {[
-          [xNear, near],
-          [xFar, far],
-        ].map(([xPos, values]) => (
-          <g key={String(xPos)}>
-            <line x1={xPos as number} x2={xPos as number} y1={y((values as number[])[0]!)} y2={y((values as number[])[1]!)} stroke={colours.muted} strokeDasharray="2 3" />
-            <circle cx={(xPos as number) - 8} cy={y((values as number[])[0]!)} r="4" fill={colours.ink} />
-            <text x={(xPos as number) - 16} y={y((values as number[])[0]!) + 4} textAnchor="end" fontSize="10" fill={colours.muted}>
-              0°
-            </text>
-            <circle cx={(xPos as number) + 8} cy={y((values as number[])[1]!)} r="4" fill="white" stroke={colours.ink} strokeWidth="1.5" />
-            <text x={(xPos as number) + 16} y={y((values as number[])[1]!) + 4} fontSize="10" fill={colours.muted}>
-              180°
-            </text>
-          </g>
-        ))}
-      </svg>
-      <figcaption className="mt-1 text-xs text-ink-500">
-        Filled: spindle at 0°; open: turned 180°. The line joins the means; its rise is the inclination{result ? ` (${readingLabel(result.value, units)} ${axisUnit(units)})` : ""}.
-      </figcaption>
-    </figure>
+    <>
+      <figure className="w-full">
+        <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
+          <Frame x={(v) => v} y={y} xTicks={[]} yTicks={ticks(yDomain[0], yDomain[1], 5)} xLabel="Along the mandrel" yLabel={`Reading (${axisUnit(units)})`} xFormat={String} yFormat={(value) => readingLabel(value, units)} />
+          <text x={xNear} y={H - PAD.bottom + 16} textAnchor="middle" fontSize="11" fill={colours.muted}>
+            near the nose
+          </text>
+          <text x={xFar} y={H - PAD.bottom + 16} textAnchor="middle" fontSize="11" fill={colours.muted}>
+            far end{measurement.length ? ` (${units === "inch" ? `${(measurement.length / 25.4).toFixed(1)} in` : `${measurement.length} mm`})` : ""}
+          </text>
+          <line x1={xNear} x2={xFar} y1={y(meanNear)} y2={y(meanFar)} stroke={wrong ? colours.beyond : colours.brass} strokeWidth="2" />
+          {[
+            [xNear, near],
+            [xFar, far],
+          ].map(([xPos, values]) => (
+            <g key={String(xPos)}>
+              <line x1={xPos as number} x2={xPos as number} y1={y((values as number[])[0]!)} y2={y((values as number[])[1]!)} stroke={colours.muted} strokeDasharray="2 3" />
+              <circle cx={(xPos as number) - 8} cy={y((values as number[])[0]!)} r="4" fill={colours.ink} />
+              <text x={(xPos as number) - 16} y={y((values as number[])[0]!) + 4} textAnchor="end" fontSize="10" fill={colours.muted}>
+                0°
+              </text>
+              <circle cx={(xPos as number) + 8} cy={y((values as number[])[1]!)} r="4" fill="white" stroke={colours.ink} strokeWidth="1.5" />
+              <text x={(xPos as number) + 16} y={y((values as number[])[1]!) + 4} fontSize="10" fill={colours.muted}>
+                180°
+              </text>
+            </g>
+          ))}
+        </svg>
+        <figcaption className="mt-1 text-xs text-ink-500">
+          Filled: spindle at 0°; open: turned 180°. The line joins the means; its rise is the inclination{result ? ` (${readingLabel(result.value, units)} ${axisUnit(units)})` : ""}.
+        </figcaption>
+      </figure>
+      <PlotFigures
+        title={title}
+        columns={["Along the mandrel", `At 0° (${unit})`, `At 180° (${unit})`, `Mean (${unit})`]}
+        rows={[
+          ["Near the nose", readingLabel(near[0]!, units), readingLabel(near[1]!, units), readingLabel(meanNear, units)],
+          ["Far end", readingLabel(far[0]!, units), readingLabel(far[1]!, units), readingLabel(meanFar, units)],
+        ]}
+      />
+    </>
   );
 }
 
@@ -214,29 +270,43 @@ export function RunOutPlot({ measurement, units, title }: { measurement: Extract
         })
       : [];
   return (
-    <figure className="flex flex-wrap items-center gap-4">
-      <svg viewBox={`0 0 ${size} ${size}`} className="h-auto w-44" role="img" aria-label={title}>
-        <circle cx={centre} cy={centre} r={inner} fill="none" stroke={colours.grid} strokeWidth="1.5" />
-        <circle cx={centre} cy={centre} r={outer} fill="none" stroke={colours.grid} strokeWidth="1.5" />
-        {points.length ? (
-          <>
-            <polygon points={points.map(([px, py]) => `${px},${py}`).join(" ")} fill={colours.withinSoft} stroke={colours.ink} strokeWidth="1.5" />
-            {points.map(([px, py], i) => (
-              <circle key={i} cx={px} cy={py} r="3" fill="white" stroke={colours.ink} strokeWidth="1.2" />
-            ))}
-          </>
-        ) : (
-          <line x1={centre} x2={centre} y1={centre - outer} y2={centre - inner} stroke={colours.ink} strokeWidth="6" strokeLinecap="round" />
-        )}
-        <text x={centre} y={centre + 4} textAnchor="middle" fontSize="12" fill={colours.ink} fontWeight="700">
-          {readingLabel(max - min, units)} {axisUnit(units)}
-        </text>
-      </svg>
-      <figcaption className="max-w-xs text-xs text-ink-500">
-        {measurement.kind === "sweep" ? `${readings.length} readings over a revolution, ` : "Highest and lowest reading, "}
-        inner ring the lowest ({readingLabel(min, units)}), outer the highest ({readingLabel(max, units)} {axisUnit(units)}).
-      </figcaption>
-    </figure>
+    <>
+      <figure className="flex flex-wrap items-center gap-4">
+        <svg viewBox={`0 0 ${size} ${size}`} className="h-auto w-44" role="img" aria-label={title}>
+          <circle cx={centre} cy={centre} r={inner} fill="none" stroke={colours.grid} strokeWidth="1.5" />
+          <circle cx={centre} cy={centre} r={outer} fill="none" stroke={colours.grid} strokeWidth="1.5" />
+          {points.length ? (
+            <>
+              <polygon points={points.map(([px, py]) => `${px},${py}`).join(" ")} fill={colours.withinSoft} stroke={colours.ink} strokeWidth="1.5" />
+              {points.map(([px, py], i) => (
+                <circle key={i} cx={px} cy={py} r="3" fill="white" stroke={colours.ink} strokeWidth="1.2" />
+              ))}
+            </>
+          ) : (
+            <line x1={centre} x2={centre} y1={centre - outer} y2={centre - inner} stroke={colours.ink} strokeWidth="6" strokeLinecap="round" />
+          )}
+          <text x={centre} y={centre + 4} textAnchor="middle" fontSize="12" fill={colours.ink} fontWeight="700">
+            {readingLabel(max - min, units)} {axisUnit(units)}
+          </text>
+        </svg>
+        <figcaption className="max-w-xs text-xs text-ink-500">
+          {measurement.kind === "sweep" ? `${readings.length} readings over a revolution, ` : "Highest and lowest reading, "}
+          inner ring the lowest ({readingLabel(min, units)}), outer the highest ({readingLabel(max, units)} {axisUnit(units)}).
+        </figcaption>
+      </figure>
+      <PlotFigures
+        title={title}
+        columns={measurement.kind === "sweep" ? ["Angle", `Reading (${axisUnit(units)})`] : ["", `Reading (${axisUnit(units)})`]}
+        rows={
+          measurement.kind === "sweep"
+            ? readings.map((value, i) => [`${Math.round((i / readings.length) * 360)}°`, readingLabel(value, units)])
+            : [
+                ["Highest", readingLabel(max, units)],
+                ["Lowest", readingLabel(min, units)],
+              ]
+        }
+      />
+    </>
   );
 }
 

@@ -17,7 +17,8 @@ export function GradeCard({ content, units, now }: { content: ReportContent; uni
         <div className="flex items-center gap-4 sm:w-64 sm:shrink-0">
           <GradeMark grade={score.grade} size="lg" />
           <div>
-            <p className="text-lg font-extrabold text-ink-900">Grade {score.grade}</p>
+            {/* The card's heading, so that "Key figures" below it sits one level down from the page's title. */}
+            <h2 className="text-lg font-extrabold text-ink-900">Grade {score.grade}</h2>
             <p className="text-sm text-ink-600">{gradeMeaning(score.grade)}</p>
             <p className={cx("mt-1 text-sm", age.expired ? "font-semibold text-beyond" : "text-ink-500")}>
               Measured {formatReportDate(content.measuredOn)} · {age.label}
