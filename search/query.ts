@@ -83,17 +83,25 @@ export function listingFilter(query: ListingSearchQuery, now: Date = new Date())
   return conditions.filter((condition): condition is string => condition !== null);
 }
 
-export function listingSortRules(sort: ListingSort | undefined): string[] | undefined {
+/** Ties of every sort, as the PostgreSQL fallback breaks them too: newest first, then by id. */
+const tieBreak = ["publishedAt:desc", "id:desc"];
+
+/**
+ * The index's sort for a buyer's choice. A chosen sort is strict (the settings put `sort` first among
+ * the ranking rules), so that “cheapest first” is that with words too; only `relevance` with words leaves
+ * the order to the text ranking. Relevance without words means newest first.
+ */
+export function listingSortRules(sort: ListingSort | undefined, hasWords = false): string[] | undefined {
   switch (sort ?? "relevance") {
     case "relevance":
-      return undefined;
+      return hasWords ? undefined : tieBreak;
     case "newest":
-      return ["publishedAt:desc"];
+      return tieBreak;
     case "price-ascending":
-      return ["priceMinor:asc"];
+      return ["priceMinor:asc", ...tieBreak];
     case "price-descending":
-      return ["priceMinor:desc"];
+      return ["priceMinor:desc", ...tieBreak];
     case "best-accuracy":
-      return ["gradeRank:asc", "spindleRunoutUm:asc"];
+      return ["gradeRank:asc", "spindleRunoutUm:asc", ...tieBreak];
   }
 }

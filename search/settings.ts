@@ -32,12 +32,16 @@ const filterableAttributes: Attribute[] = [
   "region",
 ];
 
-const sortableAttributes: Attribute[] = ["publishedAt", "priceMinor", "gradeRank", "spindleRunoutUm"];
+// `id` breaks the ties of every sort, as it does in the PostgreSQL fallback.
+const sortableAttributes: Attribute[] = ["publishedAt", "priceMinor", "gradeRank", "spindleRunoutUm", "id"];
 
 export const listingIndexSettings = {
   searchableAttributes,
   filterableAttributes,
   sortableAttributes,
-  // The engine's default order of ranking rules.
-  rankingRules: ["words", "typo", "proximity", "attribute", "sort", "exactness"],
+  // `sort` first: a sort the buyer chose is strict, relevance only orders within equal sort values (and
+  // alone when no sort is chosen). The engine's default puts `sort` after words, typo, proximity and
+  // attribute, which would order “cheapest first” by price only within equal relevance. Relevance ties
+  // go newest first and then by id, the order the PostgreSQL fallback uses when it cannot rank words.
+  rankingRules: ["sort", "words", "typo", "proximity", "attribute", "exactness", "publishedAt:desc", "id:desc"],
 } satisfies Settings;

@@ -4,10 +4,11 @@
 import { mkdir, readFile, rename, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { ApiError, indexNotFound, type ApiErrorBody } from "./errors.ts";
-import { attributePosition, conditionsOf, evaluateFilter, FilterShapeError, FilterSyntaxError, parseFilter, type FilterNode } from "./filter.ts";
-import { applySettingsPatch, attributeMatches, defaultSettings, filterablePatterns } from "./index-settings.ts";
+import { attributePosition, conditionsOf, evaluateFilter, FilterShapeError, FilterSyntaxError, parseFilter, type ConditionNode, type FilterNode } from "./filter.ts";
+import { applySettingsPatch, attributeMatches, defaultSettings, filterablePatterns, filterableRules } from "./index-settings.ts";
 import { DocumentTable, type Bitset, type SortRule } from "./table.ts";
-import { TextIndex, type TypoSettings } from "./text-index.ts";
+import { bucketSort, rankingSteps } from "./ranking.ts";
+import { TextIndex, type TextMatch, type TypoSettings } from "./text-index.ts";
 
 type Document = Record<string, unknown>;
 
@@ -430,8 +431,22 @@ export class SearchEngine {
 
   private checkFilterable(state: IndexState, node: FilterNode, code: string) {
     const patterns = filterablePatterns(state.settings);
+    const rules = filterableRules(state.settings);
     for (const condition of conditionsOf(node)) {
-      if (!attributeMatches(condition.attribute, patterns)) {
+      // The first rule that names the attribute decides what may be done with it, as in the engine.
+      const ruleIndex = rules.findIndex((rule) => attributeMatches(condition.attribute, rule.patterns));
+      const rule = rules[ruleIndex];
+      const operator = operatorOf(condition);
+      const kind = operator === "=" || operator === "!=" || operator === "IN" ? "equality" : operator === "EXISTS" || operator === "IS NULL" || operator === "IS EMPTY" ? "any" : "comparison";
+      if (rule && (rule.equality || rule.comparison) && kind !== "any" && !rule[kind]) {
+        const allowed = ["OR", "AND", "NOT", ...(rule.equality ? ["=", "!=", "IN"] : []), ...(rule.comparison ? ["<", ">", "<=", ">=", "TO"] : []), "IS EMPTY", "IS NULL", "EXISTS"];
+        throw new ApiError(
+          400,
+          code,
+          `Index \`${state.uid}\`: Filter operator \`${operator}\` is not allowed for the attribute \`${condition.attribute}\`.\n  - Note: allowed operators: ${allowed.join(", ")}.\n  - Note: field \`${condition.attribute}\` matched rule #${ruleIndex} in \`filterableAttributes\`\n  - Hint: enable ${kind} in rule #${ruleIndex} by modifying the features.filter object\n  - Hint: prepend another rule matching \`${condition.attribute}\` with appropriate filter features before rule #${ruleIndex}`,
+        );
+      }
+      if (!rule || !(rule.equality || rule.comparison)) {
         const position = attributePosition(condition);
         throw new ApiError(
           400,
@@ -461,16 +476,22 @@ export class SearchEngine {
     const allowed = filter ? table.match(filter, memo) : null;
 
     const query = request.q ?? "";
+    const withWords = query.trim() !== "";
+    // Candidates in insertion order (the engine's document ids), which breaks the ranking rules' last ties.
     let matches: number[];
-    if (query.trim() === "") {
+    let textMatches: Map<string, TextMatch> | null = null;
+    if (!withWords) {
       matches = allowed ? allowed.members() : Array.from({ length: table.size }, (_, n) => n);
     } else {
+      textMatches = state.text.search(query, request.matchingStrategy);
       matches = [];
-      for (const id of state.text.search(query, request.matchingStrategy)) {
+      for (const id of textMatches.keys()) {
         const n = table.numberOfKey(id);
         if (n !== undefined && (!allowed || allowed.has(n))) matches.push(n);
       }
+      matches.sort((a, b) => a - b);
     }
+    const steps = rankingSteps(state.settings.rankingRules as string[], sortRules, withWords, request.matchingStrategy);
     const maxTotalHits = (state.settings.pagination as { maxTotalHits: number }).maxTotalHits;
     const reachable = Math.min(matches.length, maxTotalHits);
     const pageMode = request.page !== undefined || request.hitsPerPage !== undefined;
@@ -479,7 +500,8 @@ export class SearchEngine {
     if (pageMode) {
       const page = request.page ?? 1;
       const hitsPerPage = request.hitsPerPage ?? 20;
-      [start, end] = hitsPerPage === 0 ? [0, 0] : [(page - 1) * hitsPerPage, page * hitsPerPage];
+      // Page 0 and 0 hits per page answer the counts without hits, as the engine does.
+      [start, end] = hitsPerPage === 0 || page === 0 ? [0, 0] : [(page - 1) * hitsPerPage, page * hitsPerPage];
       Object.assign(response, { hitsPerPage, page, totalPages: hitsPerPage === 0 ? 0 : Math.ceil(reachable / hitsPerPage), totalHits: reachable });
     } else {
       const offset = request.offset ?? 0;
@@ -488,9 +510,15 @@ export class SearchEngine {
       Object.assign(response, { limit, offset, estimatedTotalHits: reachable });
     }
     end = Math.min(end, reachable);
-    // Only the page's part of the order is needed; the relevance order (or insertion order) of the
-    // candidates breaks ties, since the sort is stable.
-    const ordered = sortRules.length && end > start ? table.sort(matches, sortRules, end) : matches;
+    let ordered = matches;
+    if (end > start && steps.length) {
+      if (steps.every((step) => step.kind === "sort")) {
+        // Sort rules alone (a search without words): only the page's part of the order is needed.
+        ordered = table.sort(matches, steps.map((step) => (step as { rule: SortRule }).rule), end);
+      } else {
+        ordered = bucketSort(matches, steps, (rule) => table.sortRanksOf(rule), (n) => textMatches!.get(table.keys[n]!));
+      }
+    }
     const hits = end > start ? ordered.slice(start, end) : [];
 
     const result: Record<string, unknown> = {
@@ -552,8 +580,39 @@ export type SearchRequest = {
 };
 
 function typoSettings(settings: Record<string, unknown>): TypoSettings {
-  const typo = settings.typoTolerance as { enabled: boolean; minWordSizeForTypos: { oneTypo: number; twoTypos: number } };
-  return { enabled: typo.enabled, oneTypo: typo.minWordSizeForTypos.oneTypo, twoTypos: typo.minWordSizeForTypos.twoTypos };
+  const typo = settings.typoTolerance as {
+    enabled: boolean;
+    minWordSizeForTypos: { oneTypo: number; twoTypos: number };
+    disableOnWords?: string[];
+    disableOnAttributes?: string[];
+    disableOnNumbers?: boolean;
+  };
+  return {
+    enabled: typo.enabled,
+    oneTypo: typo.minWordSizeForTypos.oneTypo,
+    twoTypos: typo.minWordSizeForTypos.twoTypos,
+    disableOnWords: typo.disableOnWords ?? [],
+    disableOnAttributes: typo.disableOnAttributes ?? [],
+    disableOnNumbers: typo.disableOnNumbers ?? false,
+  };
+}
+
+/** The operator of a condition as the engine's messages name it. */
+function operatorOf(condition: ConditionNode): string {
+  switch (condition.kind) {
+    case "comparison":
+      return condition.operator;
+    case "range":
+      return "TO";
+    case "in":
+      return "IN";
+    case "exists":
+      return "EXISTS";
+    case "isNull":
+      return "IS NULL";
+    case "isEmpty":
+      return "IS EMPTY";
+  }
 }
 
 function parseOrThrow(filter: unknown, code: string): FilterNode | null {
@@ -634,7 +693,10 @@ function copyPath(source: Document, attribute: string, target: Document) {
 
 
 function parseSort(state: IndexState, sort: string[] | null): SortRule[] {
-  if (!sort) return [];
+  if (!sort || sort.length === 0) return [];
+  if (!(state.settings.rankingRules as string[]).includes("sort")) {
+    throw new ApiError(400, "invalid_search_sort", "You must specify where `sort` is listed in the rankingRules setting to use the sort parameter at search time.");
+  }
   const sortable = state.settings.sortableAttributes as string[];
   return sort.map((expression) => {
     const match = /^(.+):(asc|desc)$/.exec(expression.trim());

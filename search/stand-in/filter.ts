@@ -11,6 +11,11 @@
 //                 | "EXISTS" | "NOT" "EXISTS" | "IS" ["NOT"] "NULL" | "IS" ["NOT"] "EMPTY" )
 //   list       := "[" [ value ( "," value )* [","] ] "]"
 //   attribute, value := unquoted word | 'single quoted' | "double quoted"
+//
+// As in the engine's parser (its `filter-parser` crate): an unquoted word is letters, digits, `_`, `-` and
+// `.` only; keywords (and CONTAINS, STARTS, WITH) must be quoted to be values; inside quotes a backslash
+// escapes the quote and the sequences \b \f \n \r \t \' \" \\ \xHH \u{H…} and octal, any other
+// escape is refused; nesting deeper than 150 levels (each parenthesis four, each NOT one) is refused.
 
 export type ComparisonOperator = "=" | "!=" | ">" | ">=" | "<" | "<=";
 
@@ -27,7 +32,10 @@ export type FilterNode =
 
 export type ConditionNode = Exclude<FilterNode, { kind: "or" | "and" | "not" }>;
 
-export const FILTER_KEYWORDS = ["AND", "OR", "NOT", "TO", "IN", "EXISTS", "IS", "NULL", "EMPTY"] as const;
+export const FILTER_KEYWORDS = ["AND", "OR", "NOT", "TO", "IN", "EXISTS", "IS", "NULL", "EMPTY", "CONTAINS", "STARTS", "WITH"] as const;
+
+/** The engine's `MAX_FILTER_DEPTH`. */
+export const MAX_FILTER_DEPTH = 150;
 const keywords = new Set<string>(FILTER_KEYWORDS);
 
 /** A bad filter: `position` is the 0-based offset in the expression where the parser gave up. */
@@ -45,8 +53,49 @@ export class FilterSyntaxError extends Error {
 type TokenKind = "word" | "quoted" | "(" | ")" | "[" | "]" | "," | "operator" | "end";
 type Token = { kind: TokenKind; text: string; start: number; end: number };
 
-// Characters that end an unquoted word: white space, brackets, commas, quotes and comparison signs.
-const wordBreak = /[\s()[\],'"=!<>]/;
+// What an unquoted word may hold (Rust's `char::is_alphanumeric`, `_`, `-`, `.`).
+const wordCharacter = /[\p{Alphabetic}\p{N}_.\-]/u;
+
+const simpleEscapes: Record<string, string> = { b: "\b", f: "\f", n: "\n", r: "\r", t: "\t", "'": "'", '"': '"', "\\": "\\" };
+
+/** The text between quotes with its escapes resolved, or the offset (in `body`) of a refused escape. */
+function unescapeQuoted(body: string): string | number {
+  let text = "";
+  for (let i = 0; i < body.length; i += 1) {
+    const char = body[i]!;
+    if (char !== "\\") {
+      text += char;
+      continue;
+    }
+    const next = body[i + 1];
+    if (next === undefined) return i;
+    if (next in simpleEscapes) {
+      text += simpleEscapes[next];
+      i += 1;
+    } else if (next === "x") {
+      const hex = /^[0-9a-fA-F]{2}/.exec(body.slice(i + 2));
+      if (!hex || parseInt(hex[0], 16) > 0x7f) return i;
+      text += String.fromCharCode(parseInt(hex[0], 16));
+      i += 3;
+    } else if (next === "u") {
+      const braced = /^\{([0-9a-fA-F]{1,6})\}/.exec(body.slice(i + 2));
+      const plain = /^[0-9a-fA-F]{4}/.exec(body.slice(i + 2));
+      const code = braced ? parseInt(braced[1]!, 16) : plain ? parseInt(plain[0], 16) : NaN;
+      if (!Number.isFinite(code) || code > 0x10ffff || (code >= 0xd800 && code <= 0xdfff)) return i;
+      text += String.fromCodePoint(code);
+      i += 1 + (braced ? braced[0].length : 4);
+    } else if (/[0-7]/.test(next)) {
+      const octal = /^[0-7]{1,3}/.exec(body.slice(i + 1))![0];
+      const code = parseInt(octal, 8);
+      if (code > 0x7f) return i;
+      text += String.fromCharCode(code);
+      i += octal.length;
+    } else {
+      return i;
+    }
+  }
+  return text;
+}
 
 function tokenize(expression: string): Token[] {
   const tokens: Token[] = [];
@@ -73,32 +122,40 @@ function tokenize(expression: string): Token[] {
         index += 1;
       }
     } else if (char === "'" || char === '"') {
-      let text = "";
       index += 1;
       let closed = false;
       while (index < expression.length) {
         const inner = expression[index]!;
         if (inner === "\\" && index + 1 < expression.length) {
-          text += expression[index + 1];
           index += 2;
         } else if (inner === char) {
-          index += 1;
           closed = true;
           break;
         } else {
-          text += inner;
           index += 1;
         }
       }
       if (!closed) throw new FilterSyntaxError(expression, start, `the value quoted with ${char} that opens here is never closed.`);
+      const text = unescapeQuoted(expression.slice(start + 1, index));
+      if (typeof text === "number") {
+        throw new FilterSyntaxError(expression, start + 1 + text, "this escape is not one the filter language knows (write a backslash as `\\\\`).");
+      }
+      index += 1;
       tokens.push({ kind: "quoted", text, start, end: index });
-    } else {
-      while (index < expression.length && !wordBreak.test(expression[index]!)) index += 1;
+    } else if (wordCharacter.test(codePointAt(expression, index))) {
+      while (index < expression.length && wordCharacter.test(codePointAt(expression, index))) index += codePointAt(expression, index).length;
       tokens.push({ kind: "word", text: expression.slice(start, index), start, end: index });
+    } else {
+      throw new FilterSyntaxError(expression, start, `\`${codePointAt(expression, index)}\` cannot be part of an unquoted value or attribute; put the value in quotes.`);
     }
   }
   tokens.push({ kind: "end", text: "", start: expression.length, end: expression.length });
   return tokens;
+}
+
+/** The whole character at `index` (two code units for one outside the basic plane). */
+function codePointAt(text: string, index: number): string {
+  return String.fromCodePoint(text.codePointAt(index)!);
 }
 
 const attributePositions = new WeakMap<ConditionNode, number>();
@@ -116,7 +173,7 @@ class Parser {
   ) {}
 
   parse(): FilterNode {
-    const node = this.parseOr();
+    const node = this.parseOr(0);
     const next = this.peek();
     if (next.kind !== "end") {
       this.fail(next, next.kind === ")" ? "found a `)` that closes nothing." : `expected \`AND\`, \`OR\` or the end of the filter, found ${describe(next)}.`);
@@ -142,37 +199,48 @@ class Parser {
     throw new FilterSyntaxError(this.expression, token.start, problem);
   }
 
-  private parseOr(): FilterNode {
-    const operands = [this.parseAnd()];
+  /** Depth is counted as the engine counts it: one per level of or, and, not and primary. */
+  private checkDepth(depth: number) {
+    if (depth > MAX_FILTER_DEPTH) {
+      this.fail(this.peek(), `the filter nests deeper than the ${MAX_FILTER_DEPTH} levels allowed; rewrite it with fewer nested conditions.`);
+    }
+  }
+
+  private parseOr(depth: number): FilterNode {
+    this.checkDepth(depth);
+    const operands = [this.parseAnd(depth + 1)];
     while (this.isKeyword(this.peek(), "OR")) {
       this.advance();
-      operands.push(this.parseAnd());
+      operands.push(this.parseAnd(depth + 1));
     }
     return operands.length === 1 ? operands[0]! : { kind: "or", operands };
   }
 
-  private parseAnd(): FilterNode {
-    const operands = [this.parseNot()];
+  private parseAnd(depth: number): FilterNode {
+    this.checkDepth(depth);
+    const operands = [this.parseNot(depth + 1)];
     while (this.isKeyword(this.peek(), "AND")) {
       this.advance();
-      operands.push(this.parseNot());
+      operands.push(this.parseNot(depth + 1));
     }
     return operands.length === 1 ? operands[0]! : { kind: "and", operands };
   }
 
-  private parseNot(): FilterNode {
+  private parseNot(depth: number): FilterNode {
+    this.checkDepth(depth);
     if (this.isKeyword(this.peek(), "NOT")) {
       this.advance();
-      return { kind: "not", operand: this.parseNot() };
+      return { kind: "not", operand: this.parseNot(depth + 1) };
     }
-    return this.parsePrimary();
+    return this.parsePrimary(depth + 1);
   }
 
-  private parsePrimary(): FilterNode {
+  private parsePrimary(depth: number): FilterNode {
+    this.checkDepth(depth);
     const token = this.peek();
     if (token.kind === "(") {
       this.advance();
-      const inner = this.parseOr();
+      const inner = this.parseOr(depth + 1);
       const closing = this.peek();
       if (closing.kind !== ")") this.fail(closing, `expected \`)\` to close the \`(\` at column ${token.start + 1}, found ${describe(closing)}.`);
       this.advance();
@@ -259,6 +327,9 @@ class Parser {
 
   private parseValue(where: string): string {
     const token = this.peek();
+    if (token.kind === "word" && (token.text === "_geoRadius" || token.text === "_geoBoundingBox")) {
+      this.fail(token, `\`${token.text}\` is a reserved keyword; quote it to use it as a value.`);
+    }
     if (!this.isOperand(token)) {
       this.fail(token, `expected a value ${where}, found ${describe(token)}${token.kind === "word" ? " (quote it to use a keyword as a value)" : ""}.`);
     }
@@ -396,9 +467,22 @@ export function filterNumber(value: string): number | null {
   return Number.isFinite(number) ? number : null;
 }
 
-/** String values compare case-insensitively and without surrounding white space. */
+/**
+ * String values compare as the engine's `normalize_facet` makes them: without surrounding white space,
+ * compatibility-decomposed (so a composed and a decomposed “Î” are one value), lower case.
+ */
 export function normalizeFilterString(value: string): string {
-  return value.trim().toLowerCase();
+  return value.trim().normalize("NFKD").toLowerCase();
+}
+
+/**
+ * The text a leaf is filtered, faceted and sorted by, or null: booleans are the strings `true` and
+ * `false`, and an empty string is no value at all (the engine leaves it out of its facet values).
+ */
+export function facetString(leaf: unknown): string | null {
+  if (typeof leaf === "boolean") return String(leaf);
+  if (typeof leaf === "string" && leaf !== "") return normalizeFilterString(leaf);
+  return null;
 }
 
 function equals(leaf: unknown, value: string): boolean {
@@ -406,25 +490,25 @@ function equals(leaf: unknown, value: string): boolean {
     const number = filterNumber(value);
     return number !== null && leaf === number;
   }
-  if (typeof leaf === "string") return normalizeFilterString(leaf) === normalizeFilterString(value);
-  if (typeof leaf === "boolean") return normalizeFilterString(value) === String(leaf);
-  return false;
+  const text = facetString(leaf);
+  return text !== null && text === normalizeFilterString(value);
 }
 
 /** Orders a leaf against a filter value: numbers against numeric values, strings lexicographically otherwise. */
 function compare(leaf: unknown, value: string): number | null {
   const number = filterNumber(value);
   if (number !== null) return typeof leaf === "number" ? leaf - number : null;
-  if (typeof leaf !== "string") return null;
-  const [a, b] = [normalizeFilterString(leaf), normalizeFilterString(value)];
+  const a = facetString(leaf);
+  if (a === null) return null;
+  const b = normalizeFilterString(value);
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
 function inRange(leaf: unknown, from: string, to: string): boolean {
   const [low, high] = [filterNumber(from), filterNumber(to)];
   if (low !== null && high !== null) return typeof leaf === "number" && leaf >= low && leaf <= high;
-  if (typeof leaf !== "string") return false;
-  const text = normalizeFilterString(leaf);
+  const text = facetString(leaf);
+  if (text === null) return false;
   return text >= normalizeFilterString(from) && text <= normalizeFilterString(to);
 }
 

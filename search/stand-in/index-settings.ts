@@ -2,6 +2,7 @@
 // ones that shape results here are searchable, filterable, sortable and displayed attributes, typo
 // tolerance, faceting.maxValuesPerFacet and pagination.maxTotalHits.
 import { ApiError, badRequest } from "./errors.ts";
+import { isValidRankingRule } from "./ranking.ts";
 
 export const defaultRankingRules = ["words", "typo", "proximity", "attribute", "sort", "exactness"];
 
@@ -52,8 +53,6 @@ function stringList(key: string, value: unknown): string[] {
   return value;
 }
 
-const builtInRules = new Set(defaultRankingRules);
-
 /** Checks a settings patch and returns the settings it leads to; `null` resets a setting. */
 export function applySettingsPatch(current: Record<string, unknown>, patch: unknown): Record<string, unknown> {
   if (patch === null || typeof patch !== "object" || Array.isArray(patch)) throw badRequest("Invalid value type: expected an object of settings.");
@@ -79,14 +78,17 @@ export function applySettingsPatch(current: Record<string, unknown>, patch: unkn
         break;
       case "filterableAttributes":
         if (!Array.isArray(value) || value.some((item) => typeof item !== "string" && !isPatternObject(item))) {
-          throw invalid(key, "expected an array of attribute names or `{ attributePatterns: [...] }` objects.");
+          throw invalid(
+            key,
+            "expected an array of attribute names or `{ attributePatterns: [...], features: { facetSearch, filter: { equality, comparison } } }` objects.",
+          );
         }
         next[key] = value;
         break;
       case "rankingRules": {
         const rules = stringList(key, value);
         for (const rule of rules) {
-          if (!builtInRules.has(rule) && !/^[^:\s]+:(asc|desc)$/.test(rule)) {
+          if (!isValidRankingRule(rule)) {
             throw invalid(key, `\`${rule}\` ranking rule is invalid. Valid ranking rules are words, typo, sort, proximity, attribute, exactness and custom ranking rules.`);
           }
         }
@@ -108,13 +110,40 @@ export function applySettingsPatch(current: Record<string, unknown>, patch: unkn
   return next;
 }
 
+const isPlainObject = (value: unknown): value is Record<string, unknown> => value !== null && typeof value === "object" && !Array.isArray(value);
+const onlyKeys = (value: Record<string, unknown>, keys: string[]) => Object.keys(value).every((key) => keys.includes(key));
+const optionalBoolean = (value: unknown) => value === undefined || typeof value === "boolean";
+
+/** `{ attributePatterns: [...], features?: { facetSearch?, filter?: { equality?, comparison? } } }`, nothing else. */
 function isPatternObject(item: unknown): boolean {
-  return (
-    item !== null &&
-    typeof item === "object" &&
-    Array.isArray((item as { attributePatterns?: unknown }).attributePatterns) &&
-    (item as { attributePatterns: unknown[] }).attributePatterns.every((pattern) => typeof pattern === "string")
-  );
+  if (!isPlainObject(item) || !onlyKeys(item, ["attributePatterns", "features"])) return false;
+  const { attributePatterns, features } = item;
+  if (!Array.isArray(attributePatterns) || !attributePatterns.every((pattern) => typeof pattern === "string")) return false;
+  if (features === undefined) return true;
+  if (!isPlainObject(features) || !onlyKeys(features, ["facetSearch", "filter"]) || !optionalBoolean(features.facetSearch)) return false;
+  const filter = features.filter;
+  if (filter === undefined) return true;
+  return isPlainObject(filter) && onlyKeys(filter, ["equality", "comparison"]) && optionalBoolean(filter.equality) && optionalBoolean(filter.comparison);
+}
+
+/** One entry of `filterableAttributes` with what it allows (the engine's `FilterableAttributesFeatures`). */
+export type FilterableRule = { patterns: string[]; equality: boolean; comparison: boolean; facetSearch: boolean };
+
+/**
+ * A plain attribute name allows everything (the engine's legacy default); the object form allows
+ * equality and not comparison unless its `features.filter` says otherwise, and no facet search.
+ */
+export function filterableRules(settings: Record<string, unknown>): FilterableRule[] {
+  return (settings.filterableAttributes as unknown[]).map((item) => {
+    if (typeof item === "string") return { patterns: [item], equality: true, comparison: true, facetSearch: true };
+    const { attributePatterns, features } = item as { attributePatterns: string[]; features?: { facetSearch?: boolean; filter?: { equality?: boolean; comparison?: boolean } } };
+    return {
+      patterns: attributePatterns,
+      equality: features?.filter?.equality ?? true,
+      comparison: features?.filter?.comparison ?? false,
+      facetSearch: features?.facetSearch ?? false,
+    };
+  });
 }
 
 function mergeDeep(base: Record<string, unknown>, patch: Record<string, unknown>): Record<string, unknown> {

@@ -345,7 +345,7 @@ function searchRequest(body: Record<string, unknown>): SearchRequest {
     sort: stringArray(body.sort, "sort", "invalid_search_sort"),
     offset: positive("offset", 0),
     limit: positive("limit", 0),
-    page: positive("page", 1),
+    page: positive("page", 0),
     hitsPerPage: positive("hitsPerPage", 0),
     attributesToRetrieve: stringArray(body.attributesToRetrieve, "attributesToRetrieve", "invalid_search_attributes_to_retrieve"),
     matchingStrategy,

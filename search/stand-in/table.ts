@@ -4,7 +4,7 @@
 // ranges by binary search over sorted values, EXISTS / IS NULL / IS EMPTY from precomputed sets. The
 // results are exactly those of `evaluateFilter` (filter.ts), which stays the reference; facet counts and
 // sort keys come from the same columns, so a search costs about the size of its result, not of the index.
-import { filterNumber, leafValues, lookUp, normalizeFilterString, type ConditionNode, type FieldLookup, type FilterNode } from "./filter.ts";
+import { facetString, filterNumber, leafValues, lookUp, normalizeFilterString, type ConditionNode, type FieldLookup, type FilterNode } from "./filter.ts";
 
 type Document = Record<string, unknown>;
 
@@ -101,17 +101,14 @@ function isEmptyValue(value: unknown): boolean {
 /** The keys under which a leaf equals a filter value (see `equals` in filter.ts). */
 function equalityKey(leaf: unknown): string | null {
   if (typeof leaf === "number") return `n:${String(leaf)}`;
-  if (typeof leaf === "string") return `s:${normalizeFilterString(leaf)}`;
-  if (typeof leaf === "boolean") return `b:${String(leaf)}`;
-  return null;
+  const text = facetString(leaf);
+  return text === null ? null : `s:${text}`;
 }
 
 function valueKeys(value: string): string[] {
   const keys = [`s:${normalizeFilterString(value)}`];
   const number = filterNumber(value);
   if (number !== null) keys.push(`n:${String(number)}`);
-  const text = normalizeFilterString(value);
-  if (text === "true" || text === "false") keys.push(`b:${text}`);
   return keys;
 }
 
@@ -230,7 +227,12 @@ class Column {
     if (!this.stringsCache) {
       const pairs: Array<[string, number]> = [];
       const leaves = this.leaves();
-      for (let n = 0; n < leaves.length; n += 1) for (const leaf of leaves[n]!) if (typeof leaf === "string") pairs.push([normalizeFilterString(leaf), n]);
+      for (let n = 0; n < leaves.length; n += 1) {
+        for (const leaf of leaves[n]!) {
+          const text = facetString(leaf);
+          if (text !== null) pairs.push([text, n]);
+        }
+      }
       pairs.sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0));
       this.stringsCache = { values: pairs.map((pair) => pair[0]), documents: Int32Array.from(pairs, (pair) => pair[1]) };
     }
@@ -277,9 +279,9 @@ class Column {
             min[n] = Number.isNaN(min[n]!) ? leaf : Math.min(min[n]!, leaf);
             max[n] = Number.isNaN(max[n]!) ? leaf : Math.max(max[n]!, leaf);
           }
-          if (typeof leaf !== "number" && typeof leaf !== "string" && typeof leaf !== "boolean") continue;
+          if (typeof leaf !== "number" && facetString(leaf) === null) continue;
           const label = String(leaf);
-          const key = typeof leaf === "string" ? leaf.trim().toLowerCase() : label;
+          const key = typeof leaf === "number" ? label : facetString(leaf)!;
           if (seen.has(key)) continue;
           seen.add(key);
           let id = keyIndex.get(key);
@@ -312,7 +314,7 @@ class Column {
         keys.numbers[n] = descending ? Math.max(...numbers) : Math.min(...numbers);
         continue;
       }
-      const strings = leaves[n]!.filter((leaf): leaf is string => typeof leaf === "string").map((leaf) => leaf.toLowerCase()).sort();
+      const strings = leaves[n]!.map(facetString).filter((text): text is string => text !== null).sort();
       if (strings.length) {
         keys.group[n] = 1;
         keys.strings[n] = descending ? strings.at(-1)! : strings[0]!;
@@ -387,6 +389,11 @@ export class DocumentTable {
 
   numberOfKey(key: string): number | undefined {
     return this.numberOf.get(key);
+  }
+
+  /** Every document's place in one sort rule's order (equal values share a place). */
+  sortRanksOf(rule: SortRule): Int32Array {
+    return this.column(rule.attribute).sortRanks(rule.descending).ranks;
   }
 
   private column(path: string): Column {

@@ -1,20 +1,122 @@
-// Full-text matching for the search stand-in, delegated to MiniSearch: prefix search on the last query
-// word, typo tolerance by word length, and the “last” matching strategy (documents holding every query
-// word first, then those missing the last word, and so on).
-import MiniSearch from "minisearch";
-import { lookUp, leafValues } from "./filter.ts";
+// Full-text matching for the search stand-in, following the engine's documented and coded rules:
+// words split on separators and normalised (compatibility decomposition, marks removed, lower case); the
+// last query word matches as a prefix; typos by word length (none under `oneTypo` letters, one from
+// `oneTypo`, two from `twoTypos`), where a swap of two adjacent letters is one typo and a typo on the first
+// letter counts as two (so it needs a word long enough for two); the matching strategies `last`,
+// `frequency` and `all`. For each matching document it returns what the engine's ranking rules compare
+// (words, typo, proximity, attribute rank, word position, exactness); `ranking.ts` orders by them.
+//
+// Our own code rather than a text-search package: none on npm applies the engine's typo rules (first
+// letter, transpositions) or reports per-word typo counts and positions for its bucket sort.
+import { leafValues, lookUp } from "./filter.ts";
 
-export type TypoSettings = { enabled: boolean; oneTypo: number; twoTypos: number };
+export type TypoSettings = {
+  enabled: boolean;
+  oneTypo: number;
+  twoTypos: number;
+  /** Words matched exactly only (`typoTolerance.disableOnWords`). */
+  disableOnWords: string[];
+  /** Attributes matched exactly only (`typoTolerance.disableOnAttributes`). */
+  disableOnAttributes: string[];
+  /** No typos on numbers (`typoTolerance.disableOnNumbers`). */
+  disableOnNumbers: boolean;
+};
 
-type Entry = { key: string; document: Record<string, unknown> };
+export type MatchingStrategy = "last" | "all" | "frequency";
 
-const tokenizeText: (text: string) => string[] = MiniSearch.getDefault("tokenize");
+/** What the ranking rules compare for one matching document; lower is better everywhere. */
+export type TextMatch = {
+  /** How many query words had to be dropped for the document to match (the `words` rule). */
+  dropped: number;
+  /** Typos summed over the words kept (`typo`). */
+  typos: number;
+  /** Distance between consecutive kept words, 1 (adjacent) to 8 (apart or in other attributes) each (`proximity`). */
+  proximity: number;
+  /** Rank of the best searchable attribute of each kept word, summed (`attributeRank`). */
+  attributeRank: number;
+  /** Position of each kept word in its attribute, summed (`wordPosition`). */
+  wordPosition: number;
+  /** 0: an attribute is exactly the query; 1: one starts with it; 2: neither (first half of `exactness`). */
+  exactAttribute: number;
+  /** Kept words matched by a typo or as a prefix rather than as typed (second half of `exactness`). */
+  inexactWords: number;
+};
 
-/** Lower case without accents, so that “Präzision” finds “prazision”. */
-function normalizeTerm(term: string): string | null {
-  const normalized = term.normalize("NFD").replace(/\p{Diacritic}/gu, "").toLowerCase();
-  return normalized === "" ? null : normalized;
+/** The engine considers the first ten words of a query. */
+export const MAX_QUERY_WORDS = 10;
+/** The proximity of two words that are not near each other, as the engine caps it. */
+const FAR = 8;
+
+/** Lower case, compatibility-decomposed, without marks: “Präzision”, “PRÄZISION” and “prazision” are one word. */
+export function normalizeText(text: string): string {
+  return text.normalize("NFKD").replace(/\p{M}/gu, "").toLowerCase();
 }
+
+/** The normalised words of a text, in order (separators are anything but letters and digits). */
+export function tokenize(text: string): string[] {
+  return normalizeText(text)
+    .split(/[^\p{L}\p{N}]+/u)
+    .filter((word) => word !== "");
+}
+
+/**
+ * Optimal-string-alignment distance between `word` and `candidate` (a swap of adjacent letters is one
+ * edit), or — with `prefix` — the smallest distance between `word` and any prefix of `candidate`, as the
+ * engine's Levenshtein automata with transpositions compute it. Returns `limit + 1` past `limit`.
+ */
+export function typoDistance(word: string[], candidate: string[], limit: number, prefix: boolean): number {
+  const [n, m] = [word.length, candidate.length];
+  if (!prefix && Math.abs(n - m) > limit) return limit + 1;
+  if (n === 0) return prefix ? 0 : Math.min(m, limit + 1);
+  let before: number[] = [];
+  let previous = Array.from({ length: m + 1 }, (_, j) => j);
+  for (let i = 1; i <= n; i += 1) {
+    const current = new Array<number>(m + 1);
+    current[0] = i;
+    let rowMinimum = i;
+    for (let j = 1; j <= m; j += 1) {
+      const cost = word[i - 1] === candidate[j - 1] ? 0 : 1;
+      let value = Math.min(previous[j]! + 1, current[j - 1]! + 1, previous[j - 1]! + cost);
+      if (i > 1 && j > 1 && word[i - 1] === candidate[j - 2] && word[i - 2] === candidate[j - 1]) value = Math.min(value, before[j - 2]! + 1);
+      current[j] = value;
+      if (value < rowMinimum) rowMinimum = value;
+    }
+    // Every later row is at least this row's minimum (a swap reaches back one row, at a cost of one).
+    if (rowMinimum > limit) return limit + 1;
+    [before, previous] = [previous, current];
+  }
+  const best = prefix ? Math.min(...previous) : previous[m]!;
+  return Math.min(best, limit + 1);
+}
+
+/** How many typos a query word may have (the engine's `number_of_typos_allowed`). */
+export function typosAllowed(word: string, settings: TypoSettings): number {
+  const length = [...word].length;
+  if (!settings.enabled || length < settings.oneTypo) return 0;
+  if (settings.disableOnWords.some((exact) => normalizeText(exact) === word)) return 0;
+  if (settings.disableOnNumbers && /^\p{N}+$/u.test(word)) return 0;
+  return length < settings.twoTypos ? 1 : 2;
+}
+
+/**
+ * The typos a dictionary word costs as a derivation of the query word, or null when it is not one. A
+ * different first letter is only tolerated where two typos are, and then counts as two.
+ */
+export function derivationTypos(word: string, candidate: string, allowed: number, prefix: boolean): number | null {
+  if (candidate === word || (prefix && candidate.startsWith(word))) return 0;
+  if (allowed === 0) return null;
+  const [a, b] = [[...word], [...candidate]];
+  const sameFirst = a[0] === b[0];
+  if (!sameFirst) {
+    if (allowed < 2) return null;
+    return typoDistance(a, b, 1, prefix) <= 1 ? 2 : null;
+  }
+  const distance = typoDistance(a, b, allowed, prefix);
+  return distance >= 1 && distance <= allowed ? distance : null;
+}
+
+type Occurrence = { field: number; position: number };
+type Posting = Map<string, Occurrence[]>;
 
 /** Every dotted path in a document that leads to text or numbers (what `searchableAttributes: ["*"]` means). */
 function searchablePaths(document: unknown, prefix = "", into = new Set<string>()): Set<string> {
@@ -28,9 +130,18 @@ function searchablePaths(document: unknown, prefix = "", into = new Set<string>(
   return into;
 }
 
+type Built = {
+  fields: string[];
+  postings: Map<string, Posting>;
+  /** Each document's words per field, for the exact-attribute rule. */
+  fieldWords: Map<string, string[][]>;
+  /** The dictionary, for typo derivations. */
+  words: string[];
+  derivations: Map<string, Array<[string, number]>>;
+};
+
 export class TextIndex {
-  private miniSearch: MiniSearch<Entry> | null = null;
-  private fields: string[] = [];
+  private built: Built | null = null;
 
   constructor(
     private searchableAttributes: string[],
@@ -41,91 +152,164 @@ export class TextIndex {
   configure(searchableAttributes: string[], typo: TypoSettings) {
     this.searchableAttributes = searchableAttributes;
     this.typo = typo;
-    this.miniSearch = null;
+    this.built = null;
   }
 
-  /** Index changes are applied lazily: the next search rebuilds what changed. */
+  /** Index changes are applied lazily: the next search rebuilds. */
   invalidate() {
-    this.miniSearch = null;
+    this.built = null;
   }
 
-  upsert(key: string, document: Record<string, unknown>, replaced: boolean) {
-    if (!this.miniSearch) return;
-    if (this.wildcard() && [...searchablePaths(document)].some((path) => !this.fields.includes(path))) {
-      this.miniSearch = null;
-      return;
-    }
-    if (replaced) this.miniSearch.discard(key);
-    this.miniSearch.add({ key, document });
+  upsert(_key: string, _document: Record<string, unknown>, _replaced: boolean) {
+    this.built = null;
   }
 
-  remove(key: string) {
-    if (this.miniSearch?.has(key)) this.miniSearch.discard(key);
+  remove(_key: string) {
+    this.built = null;
   }
 
-  private wildcard() {
-    return this.searchableAttributes.includes("*");
-  }
-
-  private build(): MiniSearch<Entry> {
+  private build(): Built {
     const documents = [...this.allDocuments()];
-    if (this.wildcard()) {
+    let fields: string[];
+    if (this.searchableAttributes.includes("*")) {
       const paths = new Set<string>();
       for (const [, document] of documents) searchablePaths(document, "", paths);
-      this.fields = [...paths];
+      fields = [...paths];
     } else {
-      this.fields = [...this.searchableAttributes];
+      fields = [...this.searchableAttributes];
     }
-    // Earlier searchable attributes weigh more, as the order of `searchableAttributes` means.
-    const boost = Object.fromEntries(this.fields.map((field, i) => [field, 1 + (this.fields.length - i) / this.fields.length]));
-    const miniSearch = new MiniSearch<Entry>({
-      idField: "key",
-      fields: this.fields.length ? this.fields : ["__none__"],
-      storeFields: [],
-      extractField: (entry, field) => {
-        if (field === "key") return entry.key;
-        const leaves = leafValues(lookUp(entry.document, field)).filter((value) => typeof value === "string" || typeof value === "number");
-        return leaves.length ? leaves.join(" ") : undefined;
-      },
-      processTerm: normalizeTerm,
-      searchOptions: { boost },
-    });
-    miniSearch.addAll(documents.map(([key, document]) => ({ key, document })));
-    return miniSearch;
+    const postings = new Map<string, Posting>();
+    const fieldWords = new Map<string, string[][]>();
+    for (const [key, document] of documents) {
+      const perField: string[][] = [];
+      fields.forEach((field, fieldIndex) => {
+        const leaves = leafValues(lookUp(document, field)).filter((value) => typeof value === "string" || typeof value === "number");
+        const words = leaves.flatMap((leaf) => tokenize(String(leaf)));
+        perField.push(words);
+        words.forEach((word, position) => {
+          let posting = postings.get(word);
+          if (!posting) postings.set(word, (posting = new Map()));
+          let occurrences = posting.get(key);
+          if (!occurrences) posting.set(key, (occurrences = []));
+          occurrences.push({ field: fieldIndex, position });
+        });
+      });
+      fieldWords.set(key, perField);
+    }
+    return { fields, postings, fieldWords, words: [...postings.keys()], derivations: new Map() };
   }
 
-  /** Keys of the matching documents, best first. */
-  search(query: string, matchingStrategy: "last" | "all" | "frequency"): string[] {
-    this.miniSearch ??= this.build();
-    const terms = tokenizeText(query).map(normalizeTerm).filter((term): term is string => !!term);
-    if (terms.length === 0) return [];
-    const ranked: string[] = [];
-    const seen = new Set<string>();
-    const shortest = matchingStrategy === "all" ? terms.length : 1;
-    for (let count = terms.length; count >= shortest; count -= 1) {
-      const isWholeQuery = count === terms.length;
-      const results = this.miniSearch.search(terms.slice(0, count).join(" "), {
-        combineWith: "AND",
-        // The last word may still be being typed, so it matches as a prefix.
-        prefix: (_term, index, all) => isWholeQuery && index === all.length - 1,
-        fuzzy: (term) => this.typosAllowed(term),
-      });
-      for (const result of results) {
-        const key = String(result.id);
-        if (!seen.has(key)) {
-          seen.add(key);
-          ranked.push(key);
+  /** Dictionary words a query word matches, with the typos each costs. */
+  private derive(built: Built, word: string, prefix: boolean): Array<[string, number]> {
+    const cacheKey = `${prefix ? "p" : "w"}:${word}`;
+    const cached = built.derivations.get(cacheKey);
+    if (cached) return cached;
+    const allowed = typosAllowed(word, this.typo);
+    const found: Array<[string, number]> = [];
+    for (const candidate of built.words) {
+      const typos = derivationTypos(word, candidate, allowed, prefix);
+      if (typos !== null) found.push([candidate, typos]);
+    }
+    built.derivations.set(cacheKey, found);
+    return found;
+  }
+
+  /** The matching documents (by key) with what the ranking rules compare. */
+  search(query: string, matchingStrategy: MatchingStrategy): Map<string, TextMatch> {
+    this.built ??= this.build();
+    const built = this.built;
+    const terms = tokenize(query).slice(0, MAX_QUERY_WORDS);
+    const result = new Map<string, TextMatch>();
+    if (terms.length === 0) return result;
+    // The last word may still be being typed, unless a separator follows it.
+    const lastIsPrefix = !/[^\p{L}\p{N}\p{M}]$/u.test(query.normalize("NFKD"));
+    const exactOnly = new Set(this.typo.disableOnAttributes.map((attribute) => built.fields.indexOf(attribute)).filter((index) => index >= 0));
+
+    // Per query word: for each document, the fewest typos it matched with, whether it matched as typed,
+    // and where.
+    type WordHit = { typos: number; asTyped: boolean; occurrences: Occurrence[] };
+    const hits = terms.map((term, index) => {
+      const prefix = lastIsPrefix && index === terms.length - 1;
+      const perDocument = new Map<string, WordHit>();
+      for (const [candidate, typos] of this.derive(built, term, prefix)) {
+        const asTyped = candidate === term;
+        for (const [key, occurrences] of built.postings.get(candidate)!) {
+          // Attributes without typo tolerance only count matches without typos.
+          const usable = typos > 0 && exactOnly.size ? occurrences.filter((occurrence) => !exactOnly.has(occurrence.field)) : occurrences;
+          if (!usable.length) continue;
+          const hit = perDocument.get(key);
+          if (!hit) perDocument.set(key, { typos, asTyped, occurrences: [...usable] });
+          else {
+            hit.typos = Math.min(hit.typos, typos);
+            hit.asTyped ||= asTyped;
+            hit.occurrences.push(...usable);
+          }
         }
       }
-    }
-    return ranked;
-  }
+      return perDocument;
+    });
 
-  private typosAllowed(term: string): number | false {
-    if (!this.typo.enabled) return false;
-    const length = [...term].length;
-    if (length >= this.typo.twoTypos) return 2;
-    if (length >= this.typo.oneTypo) return 1;
-    return false;
+    // The order in which words are dropped: from the end (`last`), the most frequent first (`frequency`),
+    // none (`all`). The first word kept by `last` and the rarest by `frequency` are never dropped.
+    const indexes = terms.map((_, index) => index);
+    const removal =
+      matchingStrategy === "all"
+        ? []
+        : matchingStrategy === "last"
+          ? indexes.slice(1).reverse()
+          : [...indexes].sort((a, b) => hits[b]!.size - hits[a]!.size || b - a).slice(0, -1);
+
+    const candidates = new Set<string>();
+    for (const perDocument of hits) for (const key of perDocument.keys()) candidates.add(key);
+    for (const key of candidates) {
+      let dropped = -1;
+      for (let stage = 0; stage <= removal.length; stage += 1) {
+        const removed = new Set(removal.slice(0, stage));
+        if (indexes.every((index) => removed.has(index) || hits[index]!.has(key))) {
+          dropped = stage;
+          break;
+        }
+      }
+      if (dropped < 0) continue;
+      const removed = new Set(removal.slice(0, dropped));
+      const kept = indexes.filter((index) => !removed.has(index));
+      const keptHits = kept.map((index) => hits[index]!.get(key)!);
+      let proximity = 0;
+      for (let i = 1; i < keptHits.length; i += 1) proximity += pairProximity(keptHits[i - 1]!.occurrences, keptHits[i]!.occurrences);
+      const keptTerms = kept.map((index) => terms[index]!);
+      result.set(key, {
+        dropped,
+        typos: keptHits.reduce((sum, hit) => sum + hit.typos, 0),
+        proximity,
+        attributeRank: keptHits.reduce((sum, hit) => sum + Math.min(...hit.occurrences.map((occurrence) => occurrence.field)), 0),
+        wordPosition: keptHits.reduce((sum, hit) => sum + Math.min(...hit.occurrences.map((occurrence) => occurrence.position)), 0),
+        exactAttribute: exactAttribute(built.fieldWords.get(key) ?? [], keptTerms),
+        inexactWords: keptHits.filter((hit) => !hit.asTyped).length,
+      });
+    }
+    return result;
   }
+}
+
+/** 1 for adjacent words in order, more the further apart (reversed order costs one more), 8 at most. */
+function pairProximity(left: Occurrence[], right: Occurrence[]): number {
+  let best = FAR;
+  for (const a of left) {
+    for (const b of right) {
+      if (a.field !== b.field) continue;
+      const distance = b.position > a.position ? b.position - a.position : a.position - b.position + 1;
+      if (distance < best) best = distance;
+    }
+  }
+  return Math.min(best, FAR);
+}
+
+function exactAttribute(fields: string[][], terms: string[]): number {
+  let best = 2;
+  for (const words of fields) {
+    if (words.length < terms.length || !terms.every((term, i) => words[i] === term)) continue;
+    if (words.length === terms.length) return 0;
+    best = 1;
+  }
+  return best;
 }

@@ -2,7 +2,7 @@
 // the full re-index) and for the fallback search that runs the buyer's filters here when the search service
 // is down or slow. It reads the listings' and reports' tables directly because those domains export no
 // query of this shape; it never writes to them.
-import { and, asc, count, desc, eq, gt, gte, ilike, inArray, isNotNull, lte, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, lte, ne, or, sql, type SQL } from "drizzle-orm";
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { Database } from "~/db/client.server";
 import type { KeyFigures } from "~/geometry/types";
@@ -155,6 +155,15 @@ function escapeLike(word: string) {
   return word.replace(/[\\%_]/g, (character) => `\\${character}`);
 }
 
+// Text is compared as the index compares it: compatibility-decomposed and lower case, and for word
+// matching without combining marks (so that a composed and a decomposed “Î”, or “Präzision” and
+// “prazision”, are the same). PostgreSQL's regular expressions have no \p{M}; these are the blocks of
+// combining marks that Latin, Greek and Cyrillic text uses.
+const combiningMarks = "[\u0300-\u036f\u1ab0-\u1aff\u1dc0-\u1dff\u20d0-\u20ff\ufe20-\ufe2f]";
+const foldedText = (value: SQL | AnyPgColumn) => sql`regexp_replace(lower(normalize(${value}, NFKD)), ${combiningMarks}, '', 'g')`;
+const foldWord = (word: string) => word.normalize("NFKD").replace(/\p{M}/gu, "").toLowerCase();
+const facetText = (value: SQL | AnyPgColumn | string) => sql`lower(normalize(btrim(${value}), NFKD))`;
+
 function rangeOf(column: AnyPgColumn, bounds: NumberRange | undefined): SQL[] {
   const conditions: SQL[] = [];
   if (bounds?.min !== undefined && bounds.min !== null) conditions.push(gte(column, bounds.min));
@@ -173,16 +182,18 @@ function conditionsFor(query: ListingSearchQuery, current: ReturnType<typeof cur
     limit === undefined || limit === null ? [] : [sql`${column} <= ${limit}`];
   const words = (query.text ?? "").trim().split(/\s+/).filter(Boolean).slice(0, 8);
   const textConditions = words.map((word) => {
-    const pattern = `%${escapeLike(word)}%`;
-    const categories = machineCategories.filter((category) => category.label.toLowerCase().includes(word.toLowerCase())).map((category) => category.value);
+    const folded = foldWord(word);
+    const pattern = `%${escapeLike(folded)}%`;
+    const like = (value: SQL | AnyPgColumn) => sql`${foldedText(value)} like ${pattern}`;
+    const categories = machineCategories.filter((category) => foldWord(category.label).includes(folded)).map((category) => category.value);
     return or(
-      ilike(listings.make, pattern),
-      ilike(listings.model, pattern),
-      ilike(listings.description, pattern),
-      ilike(listings.city, pattern),
-      ilike(sql`coalesce(${listings.region}, '')`, pattern),
-      ilike(listings.country, pattern),
-      ilike(user.name, pattern),
+      like(listings.make),
+      like(listings.model),
+      like(listings.description),
+      like(listings.city),
+      like(sql`coalesce(${listings.region}, '')`),
+      like(listings.country),
+      like(user.name),
       categories.length ? inArray(listings.category, categories as (typeof machineCategories)[number]["value"][]) : undefined,
     )!;
   });
@@ -206,7 +217,7 @@ function conditionsFor(query: ListingSearchQuery, current: ReturnType<typeof cur
       ? undefined
       : gte(current.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),
     query.countries?.length ? inArray(listings.country, query.countries) : undefined,
-    query.region ? sql`lower(${listings.region}) = lower(${query.region})` : undefined,
+    query.region ? sql`${facetText(listings.region)} = ${facetText(query.region)}` : undefined,
     ...textConditions,
   ];
   return and(...conditions);

@@ -163,11 +163,12 @@ export function createListingSearch(connection: SearchConnection) {
 function searchParameters(query: ListingSearchRequest, now: Date) {
   const hitsPerPage = query.hitsPerPage ?? 20;
   const facets = query.facets ?? LISTING_FACETS;
+  const q = query.text?.trim() || null;
   return {
-    q: query.text?.trim() || null,
+    q,
     filter: listingFilter(query, now),
     // A count alone needs no order and no attributes.
-    ...(hitsPerPage > 0 ? { sort: listingSortRules(query.sort), attributesToRetrieve: [...LISTING_HIT_ATTRIBUTES] } : {}),
+    ...(hitsPerPage > 0 ? { sort: listingSortRules(query.sort, q !== null), attributesToRetrieve: [...LISTING_HIT_ATTRIBUTES] } : {}),
     ...(facets.length ? { facets: [...facets] } : {}),
     page: query.page ?? 1,
     hitsPerPage,

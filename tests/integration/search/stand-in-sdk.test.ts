@@ -175,8 +175,12 @@ describe("search stand-in through the meilisearch SDK", () => {
     expect(typeof response.processingTimeMs).toBe("number");
   });
 
-  it("returns every document in insertion order for an empty query", async () => {
-    expect(ids((await listings.search("")).hits)).toEqual(documents.map((document) => document.id));
+  // The listing settings end the ranking rules with `publishedAt:desc` and `id:desc`; lathe-1 is the
+  // newest, the others were published together.
+  const newestThenId = ["lathe-1", "mill-1", "lathe-5", "lathe-4", "lathe-3", "lathe-2"];
+
+  it("returns every document in the custom ranking rules' order for an empty query", async () => {
+    expect(ids((await listings.search("")).hits)).toEqual(newestThenId);
     expect(ids((await listings.search(null)).hits)).toHaveLength(6);
   });
 
@@ -186,8 +190,8 @@ describe("search stand-in through the meilisearch SDK", () => {
     const arrays = await listings.search("", { filter: ["status = published", ["grade = A", "category = milling_machine"]] });
     expect(ids(arrays.hits)).toEqual(["lathe-1", "mill-1"]);
     const range = await listings.search("", { filter: "swingMm 300 TO 400 AND grade NOT IN [A, C]" });
-    expect(ids(range.hits)).toEqual(["lathe-2", "lathe-5"]);
-    expect(ids((await listings.search("", { filter: "grade IS NULL" })).hits)).toEqual(["lathe-4", "mill-1"]);
+    expect(ids(range.hits)).toEqual(["lathe-5", "lathe-2"]);
+    expect(ids((await listings.search("", { filter: "grade IS NULL" })).hits)).toEqual(["mill-1", "lathe-4"]);
     expect(ids((await listings.searchGet("", { filter: "country = nl" })).hits)).toEqual(["lathe-2"]);
   });
 
@@ -199,11 +203,11 @@ describe("search stand-in through the meilisearch SDK", () => {
     expect(response.facetStats).toEqual({ priceMinor: { min: 650_000, max: 3_200_000 } });
   });
 
-  it("sorts first and keeps relevance as the tie-break; documents without the attribute come last", async () => {
+  it("sorts first and leaves ties to the rules after `sort`; documents without the attribute come last", async () => {
     const cheapest = await listings.search("", { sort: ["priceMinor:asc"], filter: "status = published" });
     expect(ids(cheapest.hits)).toEqual(["lathe-4", "mill-1", "lathe-2", "lathe-1", "lathe-3"]);
     const best = await listings.search("", { sort: ["gradeRank:asc", "spindleRunoutUm:asc"] });
-    expect(ids(best.hits)).toEqual(["lathe-1", "lathe-5", "lathe-2", "lathe-3", "lathe-4", "mill-1"]);
+    expect(ids(best.hits)).toEqual(["lathe-1", "lathe-5", "lathe-2", "lathe-3", "mill-1", "lathe-4"]);
     const newestOrvik = await listings.search("orvik", { sort: ["publishedAt:desc"] });
     expect(ids(newestOrvik.hits)).toEqual(["lathe-1", "lathe-4"]);
   });
@@ -212,12 +216,12 @@ describe("search stand-in through the meilisearch SDK", () => {
     const page = await listings.search("", { page: 2, hitsPerPage: 4, attributesToRetrieve: ["id", "grade"] });
     expect(page).toMatchObject({ page: 2, hitsPerPage: 4, totalHits: 6, totalPages: 2 });
     expect(page.hits).toEqual([
-      { id: "lathe-5", grade: "B" },
-      { id: "mill-1", grade: null },
+      { id: "lathe-3", grade: "C" },
+      { id: "lathe-2", grade: "B" },
     ]);
     const offset = await listings.search("", { offset: 4, limit: 10 });
     expect(offset).toMatchObject({ offset: 4, limit: 10, estimatedTotalHits: 6 });
-    expect(ids(offset.hits)).toEqual(["lathe-5", "mill-1"]);
+    expect(ids(offset.hits)).toEqual(["lathe-3", "lathe-2"]);
   });
 
   it("answers a multi-search with each search's own answer, in order, and names a failing one", async () => {
@@ -281,7 +285,7 @@ describe("search stand-in through the meilisearch SDK", () => {
     const byFilter = await listings.deleteDocuments({ filter: "status = withdrawn" }).waitTask();
     expect(byFilter).toMatchObject({ status: "succeeded", type: "documentDeletion", details: { deletedDocuments: 1 } });
     expect(await listings.deleteDocument("mill-1").waitTask()).toMatchObject({ details: { deletedDocuments: 1 } });
-    expect(ids((await listings.search("")).hits)).toEqual(["lathe-1", "lathe-2", "lathe-3", "lathe-4"]);
+    expect(ids((await listings.search("")).hits)).toEqual(["lathe-1", "lathe-4", "lathe-3", "lathe-2"]);
 
     const badFilter = await apiError(listings.deleteDocuments({ filter: "status = " }));
     expect(badFilter.cause?.code).toBe("invalid_document_filter");
@@ -315,7 +319,7 @@ describe("search stand-in through the meilisearch SDK", () => {
     await standIn.stop();
     await expect(client.health()).rejects.toThrow();
     standIn = await startSearchStandIn({ port, dataDir, appOrigin: "http://localhost" });
-    expect(ids((await listings.search("")).hits)).toEqual(["lathe-1", "lathe-2", "lathe-3", "lathe-4"]);
+    expect(ids((await listings.search("")).hits)).toEqual(["lathe-1", "lathe-4", "lathe-3", "lathe-2"]);
     expect(await listings.getFilterableAttributes()).toEqual(listingIndexSettings.filterableAttributes);
     expect(ids((await listings.search("precison")).hits)).toEqual(["lathe-1"]);
     // Task numbers carry on from before the restart.
@@ -357,7 +361,8 @@ describe("search module", () => {
     const text = await listingSearch.searchListings({ text: "brenna", sort: "price-ascending" });
     expect(ids(text.hits)).toEqual(["lathe-2", "lathe-3"]);
     const recent = await listingSearch.searchListings({ maxReportAgeDays: 30 }, new Date("2026-03-10T00:00:00Z"));
-    expect(ids(recent.hits)).toEqual(["lathe-1", "lathe-2", "lathe-3"]);
+    // Relevance without words is newest first, equal dates by id from the last, as in the fallback.
+    expect(ids(recent.hits)).toEqual(["lathe-1", "lathe-3", "lathe-2"]);
     const paged = await listingSearch.searchListings({ page: 2, hitsPerPage: 2 });
     expect(paged).toMatchObject({ totalHits: 5, totalPages: 3, page: 2 });
     expect(paged.facets.category).toEqual({ centre_lathe: 3, milling_machine: 1, toolroom_lathe: 1 });

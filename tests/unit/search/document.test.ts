@@ -141,13 +141,15 @@ describe("listingFilter", () => {
 });
 
 describe("listingSortRules", () => {
-  it("uses sortable attributes only, and none for relevance", () => {
-    expect(listingSortRules("relevance")).toBeUndefined();
-    expect(listingSortRules(undefined)).toBeUndefined();
+  it("uses sortable attributes only, none for relevance with words, and breaks ties as the fallback does", () => {
+    expect(listingSortRules("relevance", true)).toBeUndefined();
+    expect(listingSortRules(undefined, true)).toBeUndefined();
+    expect(listingSortRules("relevance")).toEqual(["publishedAt:desc", "id:desc"]);
     const sortable = new Set<string>(listingIndexSettings.sortableAttributes);
     for (const sort of ["newest", "price-ascending", "price-descending", "best-accuracy"] as const) {
       for (const rule of listingSortRules(sort)!) expect(sortable.has(rule.split(":")[0]!), rule).toBe(true);
     }
-    expect(listingSortRules("best-accuracy")).toEqual(["gradeRank:asc", "spindleRunoutUm:asc"]);
+    expect(listingSortRules("best-accuracy")).toEqual(["gradeRank:asc", "spindleRunoutUm:asc", "publishedAt:desc", "id:desc"]);
+    expect(listingIndexSettings.rankingRules[0]).toBe("sort");
   });
 });

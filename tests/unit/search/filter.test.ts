@@ -208,7 +208,7 @@ const documentArbitrary = fc.record(
 
 const expression = filterExpressionArbitrary(attributes, valuePool);
 
-const keywordSet = new Set(["AND", "OR", "NOT", "TO", "IN", "EXISTS", "IS", "NULL", "EMPTY"]);
+const keywordSet = new Set(["AND", "OR", "NOT", "TO", "IN", "EXISTS", "IS", "NULL", "EMPTY", "CONTAINS", "STARTS", "WITH"]);
 
 /** Values print bare when they can, single-quoted when that needs no escape, double-quoted otherwise. */
 function printValue(text: string): string {
@@ -255,20 +255,24 @@ function rawValues(document: unknown, path: string[]): unknown[] {
 }
 const leaves = (raw: unknown[]): unknown[] => raw.flatMap((value) => (Array.isArray(value) ? leaves(value) : [value]));
 const asNumber = (text: string): number | null => (/^-?\d+(\.\d+)?$/.test(text) ? Number(text) : null);
-const lower = (text: string) => text.trim().toLowerCase();
+// The engine's facet strings (milli `normalize_facet`, `extract_facets.rs`): trimmed, NFKD, lower case;
+// booleans are the strings "true" and "false"; an empty string is no facet value.
+const lower = (text: string) => text.trim().normalize("NFKD").toLowerCase();
+const asText = (leaf: unknown): string | null =>
+  typeof leaf === "boolean" ? String(leaf) : typeof leaf === "string" && leaf !== "" ? lower(leaf) : null;
 
 function referenceEquals(leaf: unknown, text: string): boolean {
   if (typeof leaf === "number") return asNumber(text) === leaf;
-  if (typeof leaf === "string") return lower(leaf) === lower(text);
-  if (typeof leaf === "boolean") return (leaf ? "true" : "false") === lower(text);
-  return false;
+  const own = asText(leaf);
+  return own !== null && own === lower(text);
 }
 
 function referenceOrder(leaf: unknown, text: string): number | null {
   const number = asNumber(text);
   if (number !== null) return typeof leaf === "number" ? Math.sign(leaf - number) : null;
-  if (typeof leaf !== "string") return null;
-  return lower(leaf) === lower(text) ? 0 : lower(leaf) < lower(text) ? -1 : 1;
+  const own = asText(leaf);
+  if (own === null) return null;
+  return own === lower(text) ? 0 : own < lower(text) ? -1 : 1;
 }
 
 function reference(node: FilterNode, document: Record<string, unknown>): boolean {
@@ -295,7 +299,7 @@ function reference(node: FilterNode, document: Record<string, unknown>): boolean
       return values.some((leaf) =>
         from !== null && to !== null
           ? typeof leaf === "number" && from <= leaf && leaf <= to
-          : typeof leaf === "string" && lower(node.from) <= lower(leaf) && lower(leaf) <= lower(node.to),
+          : asText(leaf) !== null && lower(node.from) <= asText(leaf)! && asText(leaf)! <= lower(node.to),
       );
     }
     case "comparison": {

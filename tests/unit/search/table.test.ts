@@ -36,12 +36,17 @@ const expression = filterExpressionArbitrary(attributes, valuePool);
 
 const tableOf = (documents: Document[]) => new DocumentTable(documents.map((document, n) => [`d${n}`, document] as [string, Document]));
 
+// The engine's facet strings (milli `normalize_facet`, `extract_facets.rs`): trimmed, NFKD, lower case;
+// booleans are the strings "true" and "false"; an empty string is no value (sorts last, no facet).
+const engineString = (leaf: unknown): string | null =>
+  typeof leaf === "boolean" ? String(leaf) : typeof leaf === "string" && leaf !== "" ? leaf.trim().normalize("NFKD").toLowerCase() : null;
+
 // The per-document readings the stand-in used before the column store.
 function referenceSortKey(document: Document, rule: SortRule): { group: number; value: number | string } {
   const leaves = leafValues(lookUp(document, rule.attribute));
   const numbers = leaves.filter((leaf): leaf is number => typeof leaf === "number");
   if (numbers.length) return { group: 0, value: rule.descending ? Math.max(...numbers) : Math.min(...numbers) };
-  const strings = leaves.filter((leaf): leaf is string => typeof leaf === "string").map((leaf) => leaf.toLowerCase()).sort();
+  const strings = leaves.map(engineString).filter((text): text is string => text !== null).sort();
   if (strings.length) return { group: 1, value: rule.descending ? strings.at(-1)! : strings[0]! };
   return { group: 2, value: 0 };
 }
@@ -67,9 +72,9 @@ function referenceFacets(documents: Document[], facets: string[], maxValues: num
       const seen = new Set<string>();
       for (const leaf of leafValues(lookUp(document, facet))) {
         if (typeof leaf === "number") [min, max] = [Math.min(min, leaf), Math.max(max, leaf)];
-        if (typeof leaf !== "number" && typeof leaf !== "string" && typeof leaf !== "boolean") continue;
+        if (typeof leaf !== "number" && engineString(leaf) === null) continue;
         const label = String(leaf);
-        const key = typeof leaf === "string" ? leaf.trim().toLowerCase() : label;
+        const key = typeof leaf === "number" ? label : engineString(leaf)!;
         if (seen.has(key)) continue;
         seen.add(key);
         const entry = counts.get(key) ?? { label, count: 0 };
