@@ -1,5 +1,6 @@
-import { GeometryInputError, requireAtLeast, requireFinite, requirePositive } from "./errors";
+import { GeometryInputError, requireAtLeast, requirePositive } from "./errors";
 import { mandrelInclination, totalIndicatorReading } from "./indicator";
+import { requireMeasured, type Quantity } from "./limits";
 import {
   localStraightness,
   profileShape,
@@ -80,18 +81,18 @@ export function toleranceAt(spec: ToleranceSpec, length: number | null, nominal:
   }
 }
 
-function toPoints(points: readonly { station: number; reading: number }[]): ProfilePoint[] {
+function toPoints(points: readonly { station: number; reading: number }[], readingIs: Quantity): ProfilePoint[] {
   requireAtLeast(points, 2, "Readings along the travel", ["points"]);
   return points.map((point, i) => {
-    requireFinite(point?.station, `Station of point ${i + 1}`, ["points", i, "station"]);
-    requireFinite(point?.reading, `Reading of point ${i + 1}`, ["points", i, "reading"]);
+    requireMeasured(point?.station, "station", `Station of point ${i + 1}`, ["points", i, "station"]);
+    requireMeasured(point?.reading, readingIs, `Reading of point ${i + 1}`, ["points", i, "reading"]);
     return { x: point.station, y: point.reading };
   });
 }
 
 /** Re-points errors raised on {x, y} points at the measurement's {station, reading} fields. */
-function sortedStations(points: readonly { station: number; reading: number }[]): ProfilePoint[] {
-  const converted = toPoints(points);
+function sortedStations(points: readonly { station: number; reading: number }[], readingIs: Quantity = "reading"): ProfilePoint[] {
+  const converted = toPoints(points, readingIs);
   try {
     return sortedProfile(converted);
   } catch (error) {
@@ -184,8 +185,8 @@ function evaluateReadings(test: ProfileTest, measurement: TestMeasurement, resol
       return { value, measuringLength: null, local: undefined, direction: UNSIGNED_DIRECTION, warnings: [] };
     }
     case "extremes": {
-      requireFinite(measurement.max, "The highest reading", ["max"]);
-      requireFinite(measurement.min, "The lowest reading", ["min"]);
+      requireMeasured(measurement.max, "reading", "The highest reading", ["max"]);
+      requireMeasured(measurement.min, "reading", "The lowest reading", ["min"]);
       if (measurement.max < measurement.min) {
         throw new GeometryInputError(
           `The highest reading (${measurement.max}) is below the lowest (${measurement.min}); swap them.`,
@@ -201,26 +202,32 @@ function evaluateReadings(test: ProfileTest, measurement: TestMeasurement, resol
       };
     }
     case "level": {
-      const sorted = sortedStations(measurement.points);
+      const sorted = sortedStations(measurement.points, "tilt");
       return { value: range(sorted), measuringLength: null, local: undefined, direction: UNSIGNED_DIRECTION, warnings: [] };
     }
     case "mandrel": {
       const value = mandrelInclination(measurement);
       const length = measurement.length ?? test.measuringLength.nominal;
-      if (length !== null) requirePositive(length, "The distance between the near and far readings (mm)", ["length"]);
+      if (length !== null) {
+        requirePositive(length, "The distance between the near and far readings (mm)", ["length"]);
+        requireMeasured(length, "station", "The distance between the near and far readings (mm)", ["length"]);
+      }
       return { value, measuringLength: length, local: undefined, direction: signedDirection(value, allowed, resolution), warnings: [] };
     }
     case "near-far": {
-      requireFinite(measurement.near, "The near reading", ["near"]);
-      requireFinite(measurement.far, "The far reading", ["far"]);
+      requireMeasured(measurement.near, "reading", "The near reading", ["near"]);
+      requireMeasured(measurement.far, "reading", "The far reading", ["far"]);
       const value = measurement.far - measurement.near;
       const length = measurement.length ?? test.measuringLength.nominal;
-      if (length !== null) requirePositive(length, "The distance between the near and far readings (mm)", ["length"]);
+      if (length !== null) {
+        requirePositive(length, "The distance between the near and far readings (mm)", ["length"]);
+        requireMeasured(length, "station", "The distance between the near and far readings (mm)", ["length"]);
+      }
       return { value, measuringLength: length, local: undefined, direction: signedDirection(value, allowed, resolution), warnings: [] };
     }
     case "centre-height": {
-      requireFinite(measurement.headstockEnd, "The reading at the headstock end", ["headstockEnd"]);
-      requireFinite(measurement.tailstockEnd, "The reading at the tailstock end", ["tailstockEnd"]);
+      requireMeasured(measurement.headstockEnd, "reading", "The reading at the headstock end", ["headstockEnd"]);
+      requireMeasured(measurement.tailstockEnd, "reading", "The reading at the tailstock end", ["tailstockEnd"]);
       const value = measurement.tailstockEnd - measurement.headstockEnd;
       return { value, measuringLength: null, local: undefined, direction: signedDirection(value, allowed, resolution), warnings: [] };
     }
@@ -310,6 +317,7 @@ export function evaluateTest(
   }
   if (measurement.resolution !== undefined) {
     requirePositive(measurement.resolution, "The instrument resolution", ["resolution"]);
+    requireMeasured(measurement.resolution, measurement.kind === "level" ? "tilt" : "reading", "The instrument resolution", ["resolution"]);
   }
   const resolution = measurement.resolution ?? null;
   const evaluated = evaluateReadings(test, measurement, resolution ?? 0);

@@ -51,3 +51,4 @@ export {
   type EvaluationRequestInput,
 } from "./schema";
 export type * from "./types";
+export { MEASUREMENT_LIMITS, beyondLimit, measurementLimitIssues, type Quantity } from "./limits";

@@ -1,4 +1,5 @@
-import { requireAtLeast, requireFinite } from "./errors";
+import { requireAtLeast } from "./errors";
+import { requireMeasured } from "./limits";
 
 /** Max − min of indicator readings over at least one revolution (ISO 230-1, from memory). */
 export function totalIndicatorReading(readings: readonly number[]): number {
@@ -6,7 +7,7 @@ export function totalIndicatorReading(readings: readonly number[]): number {
   let max = -Infinity;
   let min = Infinity;
   readings.forEach((reading, i) => {
-    requireFinite(reading, `Indicator reading ${i + 1}`, [i]);
+    requireMeasured(reading, "reading", `Indicator reading ${i + 1}`, [i]);
     if (reading > max) max = reading;
     if (reading < min) min = reading;
   });
@@ -25,9 +26,9 @@ export interface MandrelReadings {
 export function mandrelInclination(readings: MandrelReadings): number {
   const near = readings?.near;
   const far = readings?.far;
-  requireFinite(near?.at0, "The near-end reading at 0°", ["near", "at0"]);
-  requireFinite(near?.at180, "The near-end reading at 180°", ["near", "at180"]);
-  requireFinite(far?.at0, "The far-end reading at 0°", ["far", "at0"]);
-  requireFinite(far?.at180, "The far-end reading at 180°", ["far", "at180"]);
+  requireMeasured(near?.at0, "reading", "The near-end reading at 0°", ["near", "at0"]);
+  requireMeasured(near?.at180, "reading", "The near-end reading at 180°", ["near", "at180"]);
+  requireMeasured(far?.at0, "reading", "The far-end reading at 0°", ["far", "at0"]);
+  requireMeasured(far?.at180, "reading", "The far-end reading at 180°", ["far", "at180"]);
   return (far.at0 + far.at180) / 2 - (near.at0 + near.at180) / 2;
 }

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { KINDS_FOR_METHOD } from "./acceptance-tests";
+import { MEASUREMENT_LIMITS, measurementLimitIssues } from "./limits";
 import { getProfile, PROFILES } from "./profiles";
 import { STRAIGHTNESS_REFERENCES } from "./straightness";
 import type { ReportMeasurements, TestMeasurement } from "./types";
@@ -16,6 +17,8 @@ function numberField(what: string, unit = "") {
 }
 
 const READING_UNIT = "µm, or inches in inch mode";
+const thousands = (count: number) => count.toLocaleString("en-GB").replace(/,/g, " ");
+const STATIONS_TEXT = thousands(MEASUREMENT_LIMITS.stationsPerTest);
 const LENGTH_UNIT = "mm, or inches in inch mode";
 
 const resolution = numberField("The instrument resolution", READING_UNIT)
@@ -36,6 +39,10 @@ function pointsSchema(readingWhat: string, readingUnit: string) {
       { error: "Give the readings as a list of { station, reading } points." },
     )
     .min(2, "Give readings at two stations at least (a straightness needs three to mean anything).")
+    .max(
+      MEASUREMENT_LIMITS.stationsPerTest,
+      `At most ${STATIONS_TEXT} stations per test; read fewer stations or split the travel into parts.`,
+    )
     .superRefine((points, ctx) => {
       const seen = new Map<number, number>();
       points.forEach((point, i) => {
@@ -59,7 +66,11 @@ export const sweepMeasurementSchema = z.object({
   kind: z.literal("sweep"),
   readings: z
     .array(numberField("Each indicator reading", READING_UNIT), { error: "Give the indicator readings as a list of numbers." })
-    .min(2, 'Give at least two indicator readings over a full revolution, or the highest and lowest as kind "extremes".'),
+    .min(2, 'Give at least two indicator readings over a full revolution, or the highest and lowest as kind "extremes".')
+    .max(
+      MEASUREMENT_LIMITS.readingsPerSweep,
+      `At most ${thousands(MEASUREMENT_LIMITS.readingsPerSweep)} readings per sweep; give the highest and lowest as kind "extremes" instead.`,
+    ),
   resolution,
 });
 
@@ -142,21 +153,31 @@ export const testMeasurementSchema = z.discriminatedUnion(
   { error: `Say which kind of readings these are: one of ${MEASUREMENT_KINDS.join(", ")}.` },
 );
 
+const WEEK_MINUTES = 7 * 24 * 60;
+
 export const conditionsSchema = z.object({
   ambientTemperatureC: numberField("The ambient temperature", "°C")
     .min(-40, "The ambient temperature looks wrong; give it in °C.")
     .max(60, "The ambient temperature looks wrong; give it in °C.")
     .optional(),
-  warmUpMinutes: numberField("The warm-up run", "minutes").min(0, "The warm-up run cannot be negative.").optional(),
+  warmUpMinutes: numberField("The warm-up run", "minutes")
+    .min(0, "The warm-up run cannot be negative.")
+    .max(WEEK_MINUTES, `A warm-up run longer than a week (${thousands(WEEK_MINUTES)} minutes) looks wrong; give it in minutes.`)
+    .optional(),
   levelled: z.boolean({ error: "Say whether the machine was levelled: true or false." }).optional(),
 });
 
 export const reportMeasurementsSchema = z.object({
   measuredOn: z.iso.date({ error: "Give the date of the tests as YYYY-MM-DD." }).optional(),
   conditions: conditionsSchema.optional(),
-  tests: z.record(z.string(), testMeasurementSchema, {
-    error: "Give the readings as an object keyed by test code, e.g. { \"L-SP-NOSE\": { ... } }.",
-  }),
+  tests: z
+    .record(z.string().max(80, "A test code is a short code such as L-SP-NOSE."), testMeasurementSchema, {
+      error: "Give the readings as an object keyed by test code, e.g. { \"L-SP-NOSE\": { ... } }.",
+    })
+    .refine((tests) => Object.keys(tests).length <= MEASUREMENT_LIMITS.testsPerRequest, {
+      message: `At most ${MEASUREMENT_LIMITS.testsPerRequest} tests per request; a profile has fewer.`,
+      abort: true,
+    }),
 });
 
 export const unitsSchema = z.enum(["mm", "inch"], {
@@ -198,6 +219,9 @@ export const evaluationRequestSchema = z
       return;
     }
     for (const [code, measurement] of Object.entries(request.measurements.tests)) {
+      for (const issue of measurementLimitIssues(measurement, request.units)) {
+        ctx.addIssue({ code: "custom", path: ["measurements", "tests", code, ...issue.path], message: issue.message });
+      }
       const test = profile.tests.find((t) => t.code === code);
       if (!test) {
         ctx.addIssue({

@@ -1,4 +1,5 @@
 import { GeometryInputError, requireAtLeast, requireFinite } from "./errors";
+import { tooCloseStations } from "./limits";
 
 /** A reading y (µm) at station x (mm) along a travel. */
 export interface ProfilePoint {
@@ -40,6 +41,10 @@ export function sortedProfile(points: readonly ProfilePoint[]): ProfilePoint[] {
   for (let k = 1; k < order.length; k++) {
     const previous = order[k - 1]!;
     const current = order[k]!;
+    const closeness = tooCloseStations(points[previous]!.x, points[current]!.x);
+    if (closeness && points[previous]!.x !== points[current]!.x) {
+      throw new GeometryInputError(closeness, [Math.max(previous, current), "x"]);
+    }
     if (points[previous]!.x === points[current]!.x) {
       const [first, second] = previous < current ? [previous, current] : [current, previous];
       throw new GeometryInputError(

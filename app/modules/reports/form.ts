@@ -2,6 +2,7 @@
 // browser (live preview, local copy) and the server (draft checks, authoritative scoring on submit).
 import { z } from "zod";
 import {
+  beyondLimit,
   conditionsSchema,
   evaluateTest,
   GeometryInputError,
@@ -13,6 +14,7 @@ import {
   toMetric,
   type MeasurementKind,
   type ProfileTest,
+  type Quantity,
   type ReportMeasurements,
   type ReportScore,
   type StraightnessReference,
@@ -127,12 +129,64 @@ export function unitLabels(units: EntryUnits) {
 
 /** A number as an inspector types it: "-2", "−2", "0,0004" (decimal comma), "+3". Empty → undefined. */
 export function parseTypedNumber(text: string): number | undefined | "invalid" {
+  const value = typedValue(text);
+  return value === undefined || value === "invalid" || Number.isFinite(value) ? value : "invalid";
+}
+
+/** As `parseTypedNumber`, but a number too large for a double (e.g. "1e999") comes back as ±Infinity. */
+function typedValue(text: string): number | undefined | "invalid" {
   const trimmed = text.trim().replace(/\u2212/g, "-").replace(/^\+/, "");
   if (trimmed === "") return undefined;
   const normalised = /^-?\d*,\d+$/.test(trimmed) ? trimmed.replace(",", ".") : trimmed;
   if (!/^-?(\d+\.?\d*|\.\d+)(e-?\d+)?$/i.test(normalised)) return "invalid";
-  const value = Number(normalised);
-  return Number.isFinite(value) ? value : "invalid";
+  return Number(normalised);
+}
+
+const READING_FIELDS = ["max", "min", "near0", "near180", "far0", "far180", "near", "far", "headstockEnd", "tailstockEnd"] as const;
+
+/** Every typed number of an entry that reads as one, with its field path and quantity. */
+function* typedNumbersOf(entry: TestEntry): Generator<[string, number, Quantity]> {
+  const readingIs: Quantity = entry.kind === "level" ? "tilt" : "reading";
+  const typed = function* (path: string, text: string, quantity: Quantity): Generator<[string, number, Quantity]> {
+    const value = typedValue(text);
+    if (typeof value === "number") yield [path, value, quantity];
+  };
+  for (const [i, text] of entry.readings.entries()) yield* typed(`readings.${i}`, text, "reading");
+  for (const field of READING_FIELDS) yield* typed(field, entry[field], "reading");
+  for (const [i, row] of entry.points.entries()) {
+    yield* typed(`points.${i}.station`, row.station, "station");
+    yield* typed(`points.${i}.reading`, row.reading, readingIs);
+  }
+  yield* typed("length", entry.length, "station");
+  yield* typed("resolution", entry.resolution, readingIs);
+}
+
+/**
+ * Typed numbers beyond what these tests can read (or too large for a number at all), at their fields.
+ * Checked as typed, half-typed entries included, so that such a number is never stored or scored.
+ */
+export function entryLimitErrors(entry: TestEntry, units: EntryUnits): Record<string, string[]> {
+  const errors: Record<string, string[]> = {};
+  for (const [path, value, quantity] of typedNumbersOf(entry)) {
+    const message = beyondLimit(value, quantity, units);
+    if (message) errors[path] = [message];
+  }
+  return errors;
+}
+
+/** The same for the whole form: every test's entry and every instrument's resolution, keyed as the entry page shows them. */
+export function formLimitErrors(form: Pick<ReportForm, "tests" | "instruments" | "units">): Record<string, string[]> {
+  const errors: Record<string, string[]> = {};
+  for (const [code, entry] of Object.entries(form.tests)) {
+    for (const [path, messages] of Object.entries(entryLimitErrors(entry, form.units))) errors[`tests.${code}.${path}`] = messages;
+  }
+  form.instruments.forEach((instrument, i) => {
+    const value = typedValue(instrument.resolution);
+    if (typeof value !== "number") return;
+    const message = beyondLimit(value, instrumentReads(instrument.kind) === "tilt" ? "tilt" : "reading", form.units);
+    if (message) errors[`instruments.${i}.resolution`] = [message];
+  });
+  return errors;
 }
 
 /**
@@ -196,7 +250,7 @@ function effectiveResolution(entry: TestEntry, instruments: readonly InstrumentE
 }
 
 /** Turns one test's typed entry into a measurement, saying whether it is empty, incomplete, complete or invalid. */
-export function checkTestEntry(entry: TestEntry, instruments: readonly InstrumentEntry[] = []): TestEntryCheck {
+export function checkTestEntry(entry: TestEntry, instruments: readonly InstrumentEntry[] = [], units: EntryUnits = "mm"): TestEntryCheck {
   const errors: Record<string, string[]> = {};
   const resolution = effectiveResolution(entry, instruments, errors);
   const withResolution = resolution === undefined ? {} : { resolution };
@@ -278,6 +332,8 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
     }
   }
 
+  // A number beyond what the tests can read says so at its field, instead of "Not a number.".
+  Object.assign(errors, entryLimitErrors(entry, units));
   if (Object.keys(errors).length > 0) return { state: "invalid", errors };
   if (!candidate) return { state: filled === 0 ? "empty" : "incomplete", errors: filled === 0 || needed === 0 ? {} : incompleteMessage(entry) };
 
@@ -374,7 +430,7 @@ export function previewReport(form: ReportForm): ReportPreview | null {
   const complete: Record<string, TestMeasurement> = {};
   const tests: TestPreview[] = profile.tests.map((test) => {
     const entry = form.tests[test.code];
-    const check = entry ? checkTestEntry(entry, form.instruments) : ({ state: "empty", errors: {} } as TestEntryCheck);
+    const check = entry ? checkTestEntry(entry, form.instruments, form.units) : ({ state: "empty", errors: {} } as TestEntryCheck);
     if (entry && check.state === "complete" && !KINDS_FOR_METHOD[test.method].includes(entry.kind)) {
       return { test, check: { state: "invalid", errors: { entry: ["This test takes other readings."] } }, result: null, engineError: null };
     }

@@ -33,6 +33,7 @@ export { setupPhotoUrl };
 import {
   checkConditions,
   checkTestEntry,
+  formLimitErrors,
   INSTRUMENT_KINDS,
   instrumentReads,
   metricMeasurements,
@@ -211,6 +212,11 @@ function parseDraftBody(body: unknown): ReportForm {
     else if (!KINDS_FOR_METHOD[test.method].includes(entry.kind)) errors[`form.tests.${code}.kind`] = [`${code} takes ${KINDS_FOR_METHOD[test.method].join(" or ")} readings, not ${entry.kind}.`];
   }
   if (Object.keys(errors).length) throw new ReportRuleError("The draft names tests its profile does not have; nothing was saved.", 422, errors);
+  // Half-typed readings are kept, but never a number beyond what the tests can read: it could not be scored or shown.
+  const beyond = formLimitErrors(form);
+  if (Object.keys(beyond).length) {
+    throw new ReportRuleError("A number is beyond what these tests can read (see the field); nothing was saved.", 422, beyond);
+  }
   return form;
 }
 
@@ -218,7 +224,7 @@ function parseDraftBody(body: unknown): ReportForm {
 export function draftIssues(form: ReportForm): Record<string, string[]> {
   const issues: Record<string, string[]> = {};
   for (const [code, entry] of Object.entries(form.tests)) {
-    const check = checkTestEntry(entry, form.instruments);
+    const check = checkTestEntry(entry, form.instruments, form.units);
     if (check.state === "invalid") Object.assign(issues, prefixed(check.errors, `tests.${code}`));
   }
   Object.assign(issues, prefixed(checkConditions(form).errors, "conditions"));
@@ -287,7 +293,7 @@ function buildContent(
   for (const test of profile.tests) {
     const entry = form.tests[test.code];
     if (!entry) continue;
-    const check = checkTestEntry(entry, form.instruments);
+    const check = checkTestEntry(entry, form.instruments, form.units);
     if (check.state === "empty") continue;
     if (check.state !== "complete" || !check.measurement) {
       Object.assign(errors, prefixed(check.errors, `tests.${test.code}`));
