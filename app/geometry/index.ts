@@ -36,6 +36,7 @@ export {
 export { toMetric, scoreEvaluation, type EvaluationRequest, type EvaluationResponse, type Units } from "./evaluate";
 export {
   evaluationRequestSchema,
+  keyedByTestCode,
   reportMeasurementsSchema,
   testMeasurementSchema,
   conditionsSchema,

@@ -167,17 +167,29 @@ export const conditionsSchema = z.object({
   levelled: z.boolean({ error: "Say whether the machine was levelled: true or false." }).optional(),
 });
 
+/**
+ * Entries keyed by test code. zod drops a "__proto__" key without a word (it would replace the prototype of
+ * the object it builds), so that key is refused here, like any code a profile lacks.
+ */
+export function keyedByTestCode<T extends z.ZodType>(entry: T, error?: string) {
+  return z.preprocess(
+    (input, context) => {
+      if (input !== null && typeof input === "object" && Object.hasOwn(input, "__proto__")) {
+        context.addIssue({ code: "custom", path: ["__proto__"], message: '"__proto__" is not a test code.', input });
+      }
+      return input;
+    },
+    z.record(z.string().max(80, "A test code is a short code such as L-SP-NOSE."), entry, error ? { error } : undefined),
+  );
+}
+
 export const reportMeasurementsSchema = z.object({
   measuredOn: z.iso.date({ error: "Give the date of the tests as YYYY-MM-DD." }).optional(),
   conditions: conditionsSchema.optional(),
-  tests: z
-    .record(z.string().max(80, "A test code is a short code such as L-SP-NOSE."), testMeasurementSchema, {
-      error: "Give the readings as an object keyed by test code, e.g. { \"L-SP-NOSE\": { ... } }.",
-    })
-    .refine((tests) => Object.keys(tests).length <= MEASUREMENT_LIMITS.testsPerRequest, {
-      message: `At most ${MEASUREMENT_LIMITS.testsPerRequest} tests per request; a profile has fewer.`,
-      abort: true,
-    }),
+  tests: keyedByTestCode(testMeasurementSchema, "Give the readings as an object keyed by test code, e.g. { \"L-SP-NOSE\": { ... } }.").refine(
+    (tests) => Object.keys(tests).length <= MEASUREMENT_LIMITS.testsPerRequest,
+    { message: `At most ${MEASUREMENT_LIMITS.testsPerRequest} tests per request; a profile has fewer.`, abort: true },
+  ),
 });
 
 export const unitsSchema = z.enum(["mm", "inch"], {

@@ -8,7 +8,7 @@ import { getAuth } from "./auth.server";
 import { sendInspectorDecisionEmail } from "./emails.server";
 import { checkWrongPasswordLimit, clearWrongPasswords, clientKey, recordWrongPassword } from "./limits.server";
 import { inspectorApplication, user, userRole } from "./schema";
-import type { DisplayUnits, Role } from "./validation";
+import { emailAddress, type DisplayUnits, type Role } from "./validation";
 
 export type Failure = {
   ok: false;
@@ -92,7 +92,10 @@ export async function handleAuthRequest(request: Request): Promise<Response> {
       .clone()
       .json()
       .catch(() => null)) as { email?: unknown } | null;
-    const email = typeof body?.email === "string" ? body.email.trim().toLowerCase() : null;
+    // The address is read as our forms read it, so that a megabyte or a NUL is a 400, not a failed insert.
+    const address = body?.email === undefined ? null : emailAddress.safeParse(body.email);
+    if (address && !address.success) return Response.json({ code: "INVALID_EMAIL", message: address.error.issues[0]!.message }, { status: 400 });
+    const email = address?.data ?? null;
     if (email) {
       const client = clientKey(request);
       const limit = await checkWrongPasswordLimit(email, client);

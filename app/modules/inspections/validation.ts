@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { labelOf, machineCategories, type MachineCategory } from "~/modules/listings/catalogue";
 import { currencies } from "~/modules/units/format";
+import { formId, safeName, safeText } from "~/modules/validation/text";
 
 /** Machine categories an inspector can serve: the same values and words as a listing's category. */
 export const inspectionCategories = machineCategories.map((category) => category.value) as [MachineCategory, ...MachineCategory[]];
@@ -11,7 +12,7 @@ export function categoryLabel(category: string): string {
   return labelOf(machineCategories, category);
 }
 
-const trimmed = (max: number) => z.string().trim().max(max, { error: `must be at most ${max} characters` });
+const trimmed = (label: string, max: number, multiline = false) => safeText({ label, max, multiline, messages: { tooLong: `must be at most ${max} characters` } });
 
 /** A fee typed as major units ("350" or "350.50"), kept in minor units. */
 const feeField = z
@@ -22,19 +23,19 @@ const feeField = z
   .refine((minor) => minor >= 1000, { error: "A fee must be at least 10.00" });
 
 export const profileSchema = z.object({
-  headline: trimmed(120).min(3, { error: "Give a one-line headline, e.g. 'Lathe rebuilder, 20 years'" }),
-  bio: trimmed(4000).min(20, { error: "Tell buyers about your experience in at least a few sentences" }),
-  qualifications: trimmed(2000).min(3, { error: "List your qualifications" }),
-  baseCity: trimmed(120).min(2, { error: "Where do you travel from?" }),
+  headline: safeName({ label: "headline", max: 120, messages: { tooLong: "must be at most 120 characters" } }).min(3, { error: "Give a one-line headline, e.g. 'Lathe rebuilder, 20 years'" }),
+  bio: trimmed("bio", 4000, true).min(20, { error: "Tell buyers about your experience in at least a few sentences" }),
+  qualifications: trimmed("qualifications", 2000, true).min(3, { error: "List your qualifications" }),
+  baseCity: safeName({ label: "base town or city", max: 120, messages: { tooLong: "must be at most 120 characters" } }).min(2, { error: "Where do you travel from?" }),
   regions: z
     .string()
     .transform((value) =>
       [...new Set(value.split(/[\n,;]/).map((region) => region.trim()).filter(Boolean))],
     )
-    .pipe(z.array(z.string().max(80)).min(1, { error: "Name at least one region or country you travel to" }).max(30)),
+    .pipe(z.array(safeName({ label: "region", max: 80 })).min(1, { error: "Name at least one region or country you travel to" }).max(30)),
   currency: z.enum(currencies, { error: "Choose a currency" }),
   categories: z.array(z.enum(inspectionCategories)).min(1, { error: "Choose at least one category of machine" }),
-  fees: z.partialRecord(z.enum(inspectionCategories), z.string()),
+  fees: z.partialRecord(z.enum(inspectionCategories), z.string().max(40)),
 });
 
 /** Parses the profile form: one checkbox per category, one fee field per category (`fee.<category>`). */
@@ -86,17 +87,17 @@ export const slotSchema = z.object({
 export type SlotInput = z.infer<typeof slotSchema>;
 
 export const bookingRequestSchema = z.object({
-  inspectorId: z.string().min(1, { error: "Choose an inspector" }),
-  slotId: z.string().min(1, { error: "Choose a slot" }),
+  inspectorId: safeText({ label: "inspector", max: 100, min: 1, messages: { missing: "Choose an inspector" } }),
+  slotId: formId("slot"),
   acceptTerms: z.literal("on", { error: "Confirm that you have read the refund rules" }),
 });
 
 export const declineSchema = z.object({
-  reason: z.string().trim().min(5, { error: "Say briefly why, so the buyer can book someone else" }).max(1000),
+  reason: safeText({ label: "reason", max: 1000, multiline: true }).min(5, { error: "Say briefly why, so the buyer can book someone else" }),
 });
 
 export const cancelSchema = z.object({
-  reason: z.string().trim().max(1000).default(""),
+  reason: safeText({ label: "reason", max: 1000, multiline: true }).default(""),
 });
 
 export const adminRefundSchema = z.object({
@@ -106,5 +107,5 @@ export const adminRefundSchema = z.object({
     .regex(/^\d{1,6}([.,]\d{1,2})?$/, { error: "Enter the amount, e.g. 120 or 120.50" })
     .transform((value) => Math.round(Number(value.replace(",", ".")) * 100))
     .refine((minor) => minor > 0, { error: "Enter an amount above zero" }),
-  reason: z.string().trim().min(5, { error: "Write down why this refund is given" }).max(1000),
+  reason: safeText({ label: "reason", max: 1000, multiline: true }).min(5, { error: "Write down why this refund is given" }),
 });

@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { currencies, lengthUnitLabel, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
 import { KILOGRAMS_PER_POUND, KILOWATTS_PER_HORSEPOWER, powerUnitLabel, weightUnitLabel } from "~/modules/units/weight-power";
+import { decimalAmount, safeName, safeText } from "~/modules/validation/text";
 import { countryCodes, machineCategories, machineConditions } from "./catalogue";
 
 const categoryValues = machineCategories.map((c) => c.value) as [string, ...string[]];
@@ -26,22 +27,25 @@ function rangeIn(units: DisplayUnits, range: { min: number; max: number }, kind:
 
 const formatted = (value: number) => new Intl.NumberFormat("en").format(value);
 
-/** An optional positive quantity in the reader's units, with the messages a seller reads at the field. */
+/** An optional positive quantity in the reader's units, typed in decimal digits, with the messages a seller reads at the field. */
 function quantity(label: string, unit: string, range: { min: number; max: number }) {
-  return z
-    .number({ error: `Enter the ${label} as a number in ${unit}.` })
-    .min(range.min, { error: `The ${label} must be at least ${formatted(range.min)} ${unit}.` })
-    .max(range.max, { error: `The ${label} must be at most ${formatted(range.max)} ${unit}.` })
+  return decimalAmount({ label, decimals: 3, messages: { invalid: `Enter the ${label} as a number in ${unit}.` } })
+    .pipe(
+      z
+        .number()
+        .min(range.min, { error: `The ${label} must be at least ${formatted(range.min)} ${unit}.` })
+        .max(range.max, { error: `The ${label} must be at most ${formatted(range.max)} ${unit}.` }),
+    )
     .optional();
 }
 
-function text(label: string, max: number) {
-  return z.string().trim().max(max, { error: `Keep the ${label} to ${max} characters.` });
+function text(label: string, max: number, multiline = false) {
+  return safeText({ label, max, multiline });
 }
 
 /** A text a listing cannot do without; an empty field arrives as undefined (Conform's coercion). */
 function requiredText(label: string, max: number, missing: string) {
-  return z.string({ error: missing }).trim().min(1, { error: missing }).max(max, { error: `Keep the ${label} to ${max} characters.` });
+  return safeName({ label, max, messages: { missing, tooShort: missing } });
 }
 
 /** The listing form in the reader's units (sizes in mm or in, weight in kg or lb, power in kW or hp). */
@@ -53,11 +57,14 @@ export function listingFormSchema(units: DisplayUnits) {
     category: z.enum(categoryValues, { error: "Choose the kind of machine." }),
     make: requiredText("make", 80, "Enter the make, e.g. the name cast on the headstock."),
     model: requiredText("model", 80, "Enter the model."),
-    year: z
-      .number({ error: "Enter the year of manufacture as four digits, e.g. 1987." })
-      .int({ error: "Enter the year of manufacture as four digits, e.g. 1987." })
-      .min(1850, { error: "The year of manufacture must be 1850 or later." })
-      .max(thisYear, { error: `The year of manufacture cannot be later than ${thisYear}.` })
+    year: decimalAmount({ label: "year of manufacture", decimals: 0, messages: { invalid: "Enter the year of manufacture as four digits, e.g. 1987." } })
+      .pipe(
+        z
+          .number()
+          .int()
+          .min(1850, { error: "The year of manufacture must be 1850 or later." })
+          .max(thisYear, { error: `The year of manufacture cannot be later than ${thisYear}.` }),
+      )
       .optional(),
     serialNumber: text("serial number", 60).optional(),
     swingOverBed: quantity("swing over bed", length, rangeIn(units, ranges.swingOverBed, "length")),
@@ -69,19 +76,28 @@ export function listingFormSchema(units: DisplayUnits) {
     city: requiredText("town or city", 80, "Enter the town or city where the machine stands."),
     region: text("region", 80).optional(),
     country: z.enum(countryCodes, { error: "Choose the country where the machine stands." }),
-    price: z
-      .number({ error: "Enter the asking price as a number, e.g. 18500." })
-      .positive({ error: "The asking price must be more than zero." })
-      .max(50_000_000, { error: "The asking price must be at most 50,000,000." })
-      .refine((value) => Math.abs(Math.round(value * 100) - value * 100) < 1e-6, { error: "Give the price to at most two decimals." }),
+    // Decimal digits only: Number() would have read "0x10" as 16 and "1e4" as 10,000.
+    price: decimalAmount({ label: "asking price", decimals: 6, messages: { missing: "Enter the asking price as a number, e.g. 18500.", invalid: "Enter the asking price in digits, e.g. 18500." } }).pipe(
+      z
+        .number()
+        .positive({ error: "The asking price must be more than zero." })
+        .max(50_000_000, { error: "The asking price must be at most 50,000,000." })
+        .refine((value) => Math.abs(Math.round(value * 100) - value * 100) < 1e-6, { error: "Give the price to at most two decimals." }),
+    ),
     currency: z.enum(currencies, { error: "Choose the currency of the price." }),
     condition: z.enum(conditionValues, { error: "Choose the condition." }),
-    toolingIncluded: text("list of tooling", 2_000).optional(),
-    description: z
-      .string({ error: "Describe the machine: its history, the work done on it, and what comes with it." })
-      .trim()
-      .min(30, { error: "Describe the machine in at least 30 characters." })
-      .max(10_000, { error: "Keep the description to 10,000 characters." }),
+    toolingIncluded: text("list of tooling", 2_000, true).optional(),
+    description: safeText({
+      label: "description",
+      max: 10_000,
+      min: 30,
+      multiline: true,
+      messages: {
+        missing: "Describe the machine: its history, the work done on it, and what comes with it.",
+        tooShort: "Describe the machine in at least 30 characters.",
+        tooLong: "Keep the description to 10,000 characters.",
+      },
+    }),
   })
     .superRefine((listing, context) => {
       // Buyers size a lathe by these two figures first; a lathe listing without them cannot be found by size.
@@ -100,12 +116,18 @@ const lathes = new Set(["centre_lathe", "toolroom_lathe", "cnc_lathe"]);
 export type ListingFormValues = z.output<ReturnType<typeof listingFormSchema>>;
 
 export const inquiryFormSchema = z.object({
-  message: z
-    .string({ error: "Write your question to the seller." })
-    .trim()
-    .min(10, { error: "Write at least 10 characters, so the seller knows what you are asking." })
-    .max(4_000, { error: "Keep the message to 4,000 characters." }),
-  phone: z.string().trim().max(40, { error: "Keep the phone number to 40 characters." }).optional(),
+  message: safeText({
+    label: "message",
+    max: 4_000,
+    min: 10,
+    multiline: true,
+    messages: {
+      missing: "Write your question to the seller.",
+      tooShort: "Write at least 10 characters, so the seller knows what you are asking.",
+      tooLong: "Keep the message to 4,000 characters.",
+    },
+  }),
+  phone: safeText({ label: "phone number", max: 40 }).optional(),
 });
 
-export const documentTitleSchema = z.string().trim().min(1).max(120);
+export const documentTitleSchema = safeName({ label: "document title", max: 120 });

@@ -7,6 +7,7 @@ import {
   evaluateTest,
   GeometryInputError,
   getProfile,
+  keyedByTestCode,
   KINDS_FOR_METHOD,
   PROFILES,
   scoreReport,
@@ -22,6 +23,7 @@ import {
   type TestResult,
   type ToleranceProfile,
 } from "~/geometry";
+import { safeText } from "~/modules/validation/text";
 
 export type EntryUnits = "mm" | "inch";
 
@@ -48,15 +50,15 @@ const MAX_NUMBER_TEXT = 32;
 const MAX_STATIONS = 200;
 const MAX_READINGS = 72;
 
-const numberText = z.string().max(MAX_NUMBER_TEXT, "Too long for a number.").default("");
-const note = z.string().max(MAX_TEXT, `Keep notes under ${MAX_TEXT} characters.`).default("");
+const numberText = safeText({ label: "number", max: MAX_NUMBER_TEXT, messages: { tooLong: "Too long for a number." } }).default("");
+const note = safeText({ label: "notes", max: MAX_TEXT, multiline: true, messages: { tooLong: `Keep notes under ${MAX_TEXT} characters.` } }).default("");
 
 export const instrumentEntrySchema = z.object({
-  id: z.string().min(1).max(40),
+  id: safeText({ label: "instrument id", max: 40, min: 1 }),
   kind: z.enum(INSTRUMENT_KINDS.map((entry) => entry.value) as [InstrumentKind, ...InstrumentKind[]], {
     error: "Choose the kind of instrument.",
   }),
-  description: z.string().max(200, "Keep the description under 200 characters.").default(""),
+  description: safeText({ label: "description", max: 200, messages: { tooLong: "Keep the description under 200 characters." } }).default(""),
   resolution: numberText,
   calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
 });
@@ -82,7 +84,7 @@ export const testEntrySchema = z.object({
   headstockEnd: numberText,
   tailstockEnd: numberText,
   length: numberText,
-  instrumentId: z.string().max(40).default(""),
+  instrumentId: safeText({ label: "instrument", max: 40 }).default(""),
   /** Overrides the instrument's resolution for this test, in reading units. */
   resolution: numberText,
   notes: note,
@@ -92,10 +94,10 @@ export const testEntrySchema = z.object({
 export const reportFormSchema = z.object({
   units: z.enum(["mm", "inch"], { error: 'Choose "mm" or "inch" for the readings.' }),
   profile: z.object({
-    key: z.string().min(1).max(80),
+    key: safeText({ label: "profile", max: 80, min: 1 }),
     version: z.number().int().positive(),
     /** Why the inspector chose another profile than the one suggested; empty when they kept it. */
-    reason: z.string().max(500, "Keep the reason under 500 characters.").default(""),
+    reason: safeText({ label: "reason", max: 500, multiline: true, messages: { tooLong: "Keep the reason under 500 characters." } }).default(""),
   }),
   measuredOn: z.union([z.literal(""), z.iso.date({ error: "Give the date of the tests as YYYY-MM-DD." })]).default(""),
   conditions: z
@@ -107,7 +109,7 @@ export const reportFormSchema = z.object({
     })
     .default({ ambientTemperatureC: "", warmUpMinutes: "", levelled: "", notes: "" }),
   instruments: z.array(instrumentEntrySchema).max(30, "At most 30 instruments.").default([]),
-  tests: z.record(z.string().max(40), testEntrySchema).default({}),
+  tests: keyedByTestCode(testEntrySchema).default({}),
   notes: note,
   safetyAcknowledged: z.boolean().default(false),
 });

@@ -3,6 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { and, count, eq, isNotNull, sql } from "drizzle-orm";
 import { z } from "zod";
+import { decimalAmount, safeName, safeText } from "~/modules/validation/text";
 import type { Database } from "~/db/client.server";
 import { hasRole, type SessionUser } from "~/modules/accounts/guards.server";
 import { acceptUploadedPhoto, RejectedFileError } from "~/modules/files/images.server";
@@ -17,12 +18,12 @@ const PHOTOS_PER_TEST = 4;
 export const photoStepSchema = z.discriminatedUnion("intent", [
   z.object({
     intent: z.literal("presign"),
-    testCode: z.string().min(1).max(40),
-    fileName: z.string().trim().min(1).max(255),
-    size: z.coerce.number().int().nonnegative(),
-    contentType: z.string().max(100),
+    testCode: safeText({ label: "test code", max: 40, min: 1 }),
+    fileName: safeName({ label: "file name", max: 255 }),
+    size: decimalAmount({ label: "file size", decimals: 0 }),
+    contentType: safeText({ label: "file type", max: 100 }),
   }),
-  z.object({ intent: z.literal("confirm"), testCode: z.string().min(1).max(40), uploadKey: z.string().max(200) }),
+  z.object({ intent: z.literal("confirm"), testCode: safeText({ label: "test code", max: 40, min: 1 }), uploadKey: safeText({ label: "upload key", max: 200 }) }),
 ]);
 
 async function requireWritable(db: Database, inspector: SessionUser, bookingId: string) {

@@ -2,6 +2,7 @@
 // all use these names. Accuracy limits are in µm and sizes in mm; the `…In` twins take inches (what an
 // inch user's form sends without JavaScript) and are converted with the geometry engine's exact 25.4.
 import { z } from "zod";
+import { safeText } from "~/modules/validation/text";
 import { inchesToMicrometres, inchesToMillimetres } from "~/geometry/units";
 import { machineCategories } from "~/modules/listings/catalogue";
 import { currencies, toMinorUnits } from "~/modules/units/format";
@@ -47,12 +48,12 @@ const lengthInches = (what: string) => number(`${what} (in)`, 0, 800);
 
 export const listingSearchParamsSchema = z
   .object({
-    q: z.preprocess(blankAsMissing, z.string().trim().max(200, { error: "Keep the search words under 200 characters." }).optional()),
+    q: z.preprocess(blankAsMissing, safeText({ label: "search words", max: 200, messages: { tooLong: "Keep the search words under 200 characters." } }).optional()),
     category: list(z.enum(categoryValues, { error: `Category must be one of ${categoryValues.join(", ")}.` }), categoryValues.length),
     grade: list(z.enum(gradeValues, { error: "Grade must be A, B, C, D or incomplete." }), gradeValues.length),
     verified: z.preprocess(blankAsMissing, z.enum(["1", "true", "0", "false"], { error: "Verified must be 1 or 0." }).optional()),
     country: list(z.string().regex(/^[A-Za-z]{2}$/, { error: "Country must be a two-letter code, e.g. DE." }).transform((code) => code.toUpperCase()), 40),
-    region: z.preprocess(blankAsMissing, z.string().trim().max(100).optional()),
+    region: z.preprocess(blankAsMissing, safeText({ label: "region", max: 100 }).optional()),
     currency: z.preprocess(blankAsMissing, z.enum(currencies, { error: `Currency must be one of ${currencies.join(", ")}.` }).optional()),
     priceMin: number("Lowest price", 0, 100_000_000),
     priceMax: number("Highest price", 0, 100_000_000),

@@ -70,11 +70,12 @@ export function formId(label: string) {
 }
 
 /**
- * An amount typed in decimal digits ("18500", "18500.50", "18500,50"), as a number. Refuses what `Number()`
- * would read too kindly: hex ("0x10"), exponents ("1e3"), signs, spaces inside, "Infinity".
+ * An amount typed in decimal digits ("18500", "18500.50", "18500,50", "-4"), as a number. Refuses what
+ * `Number()` would read too kindly: hex ("0x10"), exponents ("1e3"), "+", spaces inside, "Infinity". A minus
+ * passes so that the caller's range can say what is allowed.
  */
 export function decimalAmount({ label, decimals = 2, messages = {} }: { label: string; decimals?: number; messages?: { missing?: string; invalid?: string } }) {
-  const pattern = decimals > 0 ? new RegExp(`^\\d{1,12}([.,]\\d{1,${decimals}})?$`) : /^\d{1,12}$/;
+  const pattern = decimals > 0 ? new RegExp(`^-?\\d{1,12}([.,]\\d{1,${decimals}})?$`) : /^-?\d{1,12}$/;
   const invalid = messages.invalid ?? `Enter the ${label} in digits${decimals > 0 ? `, with at most ${decimals} decimals` : ""}, e.g. 18500.`;
   return z
     .string({ error: messages.missing ?? `Enter the ${label}.` })

@@ -1,5 +1,6 @@
-import { Form, Link, useLoaderData } from "react-router";
+import { data, Form, Link, useLoaderData } from "react-router";
 import { z } from "zod";
+import { safeText } from "~/modules/validation/text";
 import { Badge, Button, SelectField, Table, Td, Th, Tr } from "~/components/ui";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { listUsers } from "~/modules/accounts/service.server";
@@ -11,27 +12,33 @@ export const meta: Route.MetaFunction = () => [{ title: "People — Tenthmark st
 
 const PAGE_SIZE = 50;
 const querySchema = z.object({
-  q: z.string().trim().max(100).optional().catch(undefined),
   role: z.enum(ROLES).optional().catch(undefined),
   page: z.coerce.number().int().min(1).max(10_000).catch(1),
 });
+const searchSchema = safeText({ label: "search", max: 100 }).optional();
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requireRole(request, "admin");
-  const query = querySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
+  const params = new URL(request.url).searchParams;
+  const search = searchSchema.safeParse(params.get("q") ?? undefined);
+  const query = { ...querySchema.parse(Object.fromEntries(params)), q: search.success ? search.data : undefined };
+  if (!search.success) {
+    return data({ query, total: 0, pages: 1, users: [], problem: search.error.issues[0]!.message }, { status: 400 });
+  }
   const { users, total } = await listUsers({ search: query.q || undefined, role: query.role, limit: PAGE_SIZE, offset: (query.page - 1) * PAGE_SIZE });
   return {
     query,
     total,
     pages: Math.max(1, Math.ceil(total / PAGE_SIZE)),
     users: users.map((person) => ({ ...person, createdAt: person.createdAt.toISOString() })),
+    problem: undefined,
   };
 }
 
 const inspectorTone = { none: "neutral", pending: "caution", certified: "within", rejected: "beyond" } as const;
 
 export default function AdminUsers() {
-  const { query, total, pages, users } = useLoaderData<typeof loader>();
+  const { query, total, pages, users, problem } = useLoaderData<typeof loader>();
   const pageHref = (page: number) => `?${new URLSearchParams({ ...(query.q ? { q: query.q } : {}), ...(query.role ? { role: query.role } : {}), page: String(page) })}`;
   return (
     <div className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
@@ -51,8 +58,15 @@ export default function AdminUsers() {
             name="q"
             type="search"
             defaultValue={query.q ?? ""}
+            aria-invalid={problem ? true : undefined}
+            aria-describedby={problem ? "people-search-error" : undefined}
             className="block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
           />
+          {problem ? (
+            <p id="people-search-error" role="alert" className="text-sm font-medium text-beyond">
+              {problem}
+            </p>
+          ) : null}
         </div>
         <SelectField label="Role" name="role" defaultValue={query.role ?? ""} placeholder="Any role" options={ROLES.map((role) => ({ value: role, label: role }))} className="sm:w-48" />
         <Button type="submit" variant="secondary">

@@ -1,5 +1,6 @@
-import { Form, Link, useLoaderData } from "react-router";
+import { data, Form, Link, useLoaderData } from "react-router";
 import { z } from "zod";
+import { safeText } from "~/modules/validation/text";
 import { Badge, Button, Card, CardBody, SelectField, TextField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { InspectionSafetyNotice } from "~/modules/inspections/components/parts";
@@ -15,17 +16,20 @@ export const meta: Route.MetaFunction = () => [
 
 const filterSchema = z.object({
   category: z.enum(inspectionCategories).optional().catch(undefined),
-  region: z.string().trim().max(80).optional().catch(undefined),
 });
+const regionSchema = safeText({ label: "region or country", max: 80 }).optional();
 
 export async function loader({ request, context }: Route.LoaderArgs) {
-  const filter = filterSchema.parse(Object.fromEntries(new URL(request.url).searchParams));
+  const params = new URL(request.url).searchParams;
+  const region = regionSchema.safeParse(params.get("region") ?? undefined);
+  const filter = { ...filterSchema.parse(Object.fromEntries(params)), region: region.success ? region.data : undefined };
+  if (!region.success) return data({ filter, inspectors: [], problem: region.error.issues[0]!.message }, { status: 400 });
   const inspectors = await listPublicInspectors(context.get(databaseContext), { category: filter.category, region: filter.region || undefined });
-  return { filter, inspectors };
+  return { filter, inspectors, problem: undefined };
 }
 
 export default function Inspectors() {
-  const { filter, inspectors } = useLoaderData<typeof loader>();
+  const { filter, inspectors, problem } = useLoaderData<typeof loader>();
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6 sm:py-10">
       <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">Certified inspectors</h1>
@@ -42,7 +46,7 @@ export default function Inspectors() {
           options={inspectionCategories.map((value) => ({ value, label: categoryLabel(value) }))}
           className="sm:w-56"
         />
-        <TextField label="Region or country" name="region" defaultValue={filter.region ?? ""} placeholder="e.g. Westmarch" className="sm:w-64" />
+        <TextField label="Region or country" name="region" defaultValue={filter.region ?? ""} errors={problem ? [problem] : undefined} placeholder="e.g. Westmarch" className="sm:w-64" />
         <Button type="submit" variant="secondary">
           Show
         </Button>

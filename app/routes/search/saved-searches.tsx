@@ -1,5 +1,6 @@
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
+import { safeName, safeText } from "~/modules/validation/text";
 import { Badge, Button, ButtonLink, Card } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
@@ -22,8 +23,8 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 const intents = z.discriminatedUnion("intent", [
   z.object({
     intent: z.literal("save"),
-    name: z.string().trim().min(1, { error: "Give the search a name." }).max(120, { error: "Keep the name under 120 characters." }),
-    queryString: z.string().max(2000, { error: "This search is too long to save." }),
+    name: safeName({ label: "name", max: 120, messages: { missing: "Give the search a name.", tooLong: "Keep the name under 120 characters." } }),
+    queryString: safeText({ label: "search", max: 2000, messages: { tooLong: "This search is too long to save." } }),
   }),
   z.object({ intent: z.literal("delete"), savedSearchId: z.uuid() }),
   z.object({ intent: z.literal("alerts"), savedSearchId: z.uuid(), enabled: z.enum(["on", "off"]) }),

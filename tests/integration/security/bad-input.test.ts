@@ -67,10 +67,22 @@ async function ownedRows(): Promise<Record<string, string>> {
 
 // ————— Generators of wrongness —————
 
-const junkText = fc.oneof(
-  fc.constantFrom("NaN", "Infinity", "-Infinity", "1e309", "-1", "-0.001", "null", "undefined", "[object Object]", "true", "<script>alert(1)</script>", "'; drop table listings; --", "\u0000", "💥"),
-  fc.string({ maxLength: 12 }).filter((value) => value.trim().length > 0),
-);
+// Text that is wrong whatever the field: a control character (NUL most often) inside it. A form body carries
+// these as they are; lone surrogates it cannot carry (URL encoding turns them into U+FFFD), so those are sent
+// where JSON takes text (loneSurrogateText).
+const CONTROL_CHARACTERS = ["\u0000", "\u0000", "\u0000", "\u0001", "\u0007", "\u0008", "\u000E", "\u001B", "\u007F", "\u0085", "\u009F"];
+const junkText = fc
+  .tuple(fc.oneof(fc.constantFrom("", "NaN", "<script>alert(1)</script>", "'; drop table listings; --", "💥"), fc.string({ maxLength: 12 })), fc.constantFrom(...CONTROL_CHARACTERS), fc.string({ maxLength: 12 }))
+  .map(([before, control, after]) => `${before}${control}${after}`);
+const loneSurrogateText = fc
+  .tuple(fc.string({ maxLength: 12 }), fc.oneof(fc.integer({ min: 0xd800, max: 0xdbff }), fc.integer({ min: 0xdc00, max: 0xdfff })), fc.constantFrom("", "x", " tail"))
+  .map(([before, unit, after]) => `${before}${String.fromCharCode(unit)}${after}`);
+/** A name with nothing to see: white space, zero-width and format characters, fillers. */
+const invisibleText = fc
+  .array(fc.constantFrom("\u200B", "\u200C", "\u200D", "\u2060", "\uFEFF", "\u00AD", "\u3164", "\u115F", "\u202E", "\u2800", " "), { minLength: 1, maxLength: 6 })
+  .map((parts) => `\u200B${parts.join("")}`);
+/** Too long, but within the 16 KB a request line may have (Node answers 431 beyond it). */
+const longInQuery = (over: number) => fc.integer({ min: over + 1, max: over + 4_000 }).map((length) => "x".repeat(length));
 const huge = (over: number) => fc.integer({ min: over + 1, max: over + 50_000 }).map((length) => "x".repeat(length));
 const notANumber = fc.oneof(fc.constantFrom("abc", "NaN", "1,2,3", "twelve", "0x", "--1", "1e", "[]", "{}"), fc.string({ minLength: 1, maxLength: 8 }).filter((value) => Number.isNaN(Number(value)) && value.trim() !== ""));
 const badNumber = (min: number, max: number) =>
@@ -110,14 +122,16 @@ function wrongContentType(valid: Record<string, string>): fc.Arbitrary<Payload> 
 }
 
 const missing = fc.constant(undefined);
-const requiredText = (max: number) => fc.oneof(missing, fc.constantFrom("", "   "), huge(max));
-const optionalText = (max: number) => huge(max);
+const requiredText = (max: number) => fc.oneof(missing, fc.constantFrom("", "   "), huge(max), junkText);
+/** A name or title: also refused when nothing in it is visible. */
+const requiredName = (max: number) => fc.oneof(requiredText(max), invisibleText);
+const optionalText = (max: number) => fc.oneof(huge(max), junkText);
 
 const listingBreakers: Breakers = {
   units: unknownOf(["mm"]),
   category: fc.oneof(missing, unknownOf(["centre_lathe"])),
-  make: requiredText(80),
-  model: requiredText(80),
+  make: requiredName(80),
+  model: requiredName(80),
   year: fc.oneof(notANumber, fc.constantFrom("1849", "99999", "1987.5", "-1987", "Infinity")),
   serialNumber: optionalText(60),
   swingOverBed: badNumber(50, 5_000),
@@ -126,14 +140,14 @@ const listingBreakers: Breakers = {
   spindleNose: optionalText(60),
   motorPower: badNumber(0.05, 500),
   weight: badNumber(10, 250_000),
-  city: requiredText(80),
+  city: requiredName(80),
   region: optionalText(80),
   country: fc.oneof(missing, unknownOf([])).filter((value) => value === undefined || !/^[A-Z]{2}$/.test(value)),
-  price: fc.oneof(missing, notANumber, fc.constantFrom("-1", "0", "1.234", "1e309", "60000000", "-Infinity")),
+  price: fc.oneof(missing, notANumber, fc.constantFrom("-1", "0", "1.234", "1e309", "60000000", "-Infinity", "0x10", "1e4", "0b101", "+5", "1 000")),
   currency: fc.oneof(missing, unknownOf(["EUR", "USD", "GBP", "CHF", "SEK", "NOK", "DKK", "PLN", "CZK"])),
   condition: fc.oneof(missing, unknownOf(["new", "used", "reconditioned", "for_parts", "rebuilt", "as_is"])),
   toolingIncluded: optionalText(2_000),
-  description: fc.oneof(missing, fc.constantFrom("", "Too short.", "                                   "), huge(10_000)),
+  description: fc.oneof(missing, fc.constantFrom("", "Too short.", "                                   "), huge(10_000), junkText.map((text) => `A lathe with a reground bed and new bearings. ${text}`)),
 };
 
 const malformedJson = fc.oneof(fc.constantFrom("{", "[1,", "{'form': 1}", "undefined", "\u0000", '{"form": }', "NaN"), fc.string({ maxLength: 20 }).filter((value) => {
@@ -189,7 +203,7 @@ const targets: Target[] = [
     path: () => "/account",
     as: "buyer",
     payloads: fc.oneof(
-      oneFieldBroken({ intent: "profile", name: "Mira Holt", displayUnits: "mm" }, { intent: unknownOf(["profile", "password", "seller"]), name: requiredText(100), displayUnits: fc.oneof(missing, unknownOf(["mm", "inch"])) }),
+      oneFieldBroken({ intent: "profile", name: "Mira Holt", displayUnits: "mm" }, { intent: unknownOf(["profile", "password", "seller"]), name: requiredName(100), displayUnits: fc.oneof(missing, unknownOf(["mm", "inch"])) }),
       oneFieldBroken(
         { intent: "password", currentPassword: "wrong-current-password", newPassword: "a new long password", confirmPassword: "a different one" },
         { newPassword: fc.oneof(missing, fc.constantFrom("", "short"), huge(128)), confirmPassword: fc.constant("does not match") },
@@ -212,7 +226,7 @@ const targets: Target[] = [
     as: "visitor",
     payloads: oneFieldBroken(
       { name: "New person", email: `new-${randomUUID()}@example.test`, password: "a long enough password" },
-      { name: requiredText(100), email: fc.oneof(missing, fc.constantFrom("", "no-at-sign", "a@", "@b", "a b@c.d"), huge(320)), password: fc.oneof(missing, fc.constantFrom("", "short"), huge(128)) },
+      { name: requiredName(100), email: fc.oneof(missing, fc.constantFrom("", "no-at-sign", "a@", "@b", "a b@c.d"), huge(320), huge(1_000_000), junkText.map((text) => `a${text}@example.test`)), password: fc.oneof(missing, fc.constantFrom("", "short"), huge(128)) },
     ),
   },
   {
@@ -221,7 +235,7 @@ const targets: Target[] = [
     as: "visitor",
     payloads: oneFieldBroken(
       { email: "someone@example.test", password: "whatever it is" },
-      { email: fc.oneof(missing, fc.constantFrom("", "not-an-address"), huge(320)), password: fc.oneof(missing, fc.constant(""), huge(200)) },
+      { email: fc.oneof(missing, fc.constantFrom("", "not-an-address"), huge(320), huge(1_000_000), junkText.map((text) => `a${text}@example.test`)), password: fc.oneof(missing, fc.constant(""), huge(200)) },
     ),
   },
   { route: "forgot-password", path: () => "/forgot-password", as: "visitor", payloads: oneFieldBroken({ email: "x@example.test" }, { email: fc.oneof(missing, fc.constantFrom("", "nope", "a@"), huge(320)) }) },
@@ -237,7 +251,7 @@ const targets: Target[] = [
     as: "buyer",
     payloads: fc.oneof(
       oneFieldBroken({ intent: "watch", listingId: randomUUID() }, { intent: unknownOf(["watch", "unwatch", "inquire"]), listingId: notAUuid }),
-      oneFieldBroken({ intent: "inquire", listingId: randomUUID(), message: "Is the quill free of play?" }, { message: fc.oneof(missing, fc.constantFrom("", "short"), huge(4_000)), phone: huge(40), listingId: notAUuid }),
+      oneFieldBroken({ intent: "inquire", listingId: randomUUID(), message: "Is the quill free of play?" }, { message: fc.oneof(missing, fc.constantFrom("", "short"), huge(4_000), junkText.map((text) => `Is the quill free of play? ${text}`)), phone: fc.oneof(huge(40), junkText), listingId: notAUuid }),
     ),
   },
   {
@@ -245,7 +259,7 @@ const targets: Target[] = [
     path: () => "/account/saved-searches",
     as: "buyer",
     payloads: fc.oneof(
-      oneFieldBroken({ intent: "save", name: "Long beds", queryString: "q=lathe" }, { intent: unknownOf(["save", "delete", "alerts"]), name: requiredText(120), queryString: fc.oneof(missing, huge(2_000)) }),
+      oneFieldBroken({ intent: "save", name: "Long beds", queryString: "q=lathe" }, { intent: unknownOf(["save", "delete", "alerts"]), name: requiredName(120), queryString: fc.oneof(missing, huge(2_000), junkText) }),
       oneFieldBroken({ intent: "alerts", savedSearchId: randomUUID(), enabled: "on" }, { savedSearchId: notAUuid, enabled: fc.oneof(missing, unknownOf(["on", "off"])) }),
       fc.constant<Payload>({ form: { intent: "delete", savedSearchId: randomUUID() } }),
     ),
@@ -254,16 +268,16 @@ const targets: Target[] = [
     route: "machines/:slug/book",
     path: () => `/machines/${slug}/book`,
     as: "buyer",
-    payloads: oneFieldBroken({ inspectorId: `nobody-${randomUUID()}`, slotId: randomUUID(), acceptTerms: "on" }, { inspectorId: fc.oneof(missing, fc.constantFrom("", "nobody"), huge(100)), slotId: notAUuid, acceptTerms: fc.oneof(missing, fc.constantFrom("off", "")) }),
+    payloads: oneFieldBroken({ inspectorId: `nobody-${randomUUID()}`, slotId: randomUUID(), acceptTerms: "on" }, { inspectorId: fc.oneof(missing, fc.constantFrom("", "nobody"), huge(100), junkText), slotId: fc.oneof(notAUuid, junkText), acceptTerms: fc.oneof(missing, fc.constantFrom("off", "")) }),
   },
-  { route: "bookings/:bookingId", path: () => `/bookings/${bookingId}`, as: "buyer", payloads: fc.oneof(huge(1_000).map((reason): Payload => ({ form: { reason } })), wrongContentType({ reason: "x" })) },
+  { route: "bookings/:bookingId", path: () => `/bookings/${bookingId}`, as: "buyer", payloads: fc.oneof(fc.oneof(huge(1_000), junkText).map((reason): Payload => ({ form: { reason } })), wrongContentType({ reason: "x" })) },
   {
     route: "inspector/bookings/:bookingId",
     path: () => `/inspector/bookings/${bookingId}`,
     as: "inspector",
     payloads: fc.oneof(
       unknownOf(["accept", "decline"]).map((intent): Payload => ({ form: { intent } })),
-      fc.oneof(missing, fc.constantFrom("", "no", "    "), huge(1_000)).map((reason): Payload => ({ form: { intent: "decline", ...(reason === undefined ? {} : { reason }) } })),
+      fc.oneof(missing, fc.constantFrom("", "no", "    "), huge(1_000), junkText).map((reason): Payload => ({ form: { intent: "decline", ...(reason === undefined ? {} : { reason }) } })),
       wrongContentType({ intent: "decline", reason: "Cannot travel that week" }),
     ),
   },
@@ -274,22 +288,37 @@ const targets: Target[] = [
     payloads: fc.oneof(
       unknownOf(["profile", "add-slot", "remove-slot", "certificate"]).map((intent): Payload => ({ form: { intent } })),
       oneFieldBroken({ intent: "add-slot", date: "2031-02-30", start: "25:00", hours: "4", repeatWeeks: "0" }, { date: fc.constantFrom("", "yesterday", "2031-13-01", "0000-00-00"), hours: badNumber(1, 12) }),
-      oneFieldBroken({ intent: "remove-slot", slotId: randomUUID() }, { slotId: notAUuid }),
+      oneFieldBroken({ intent: "remove-slot", slotId: randomUUID() }, { slotId: fc.oneof(notAUuid, junkText) }),
       fc.constant<Payload>({ form: { intent: "certificate" } }),
-      oneFieldBroken({ intent: "profile", headline: "x", bio: "y" }, { headline: huge(200), bio: huge(5_000) }),
+      oneFieldBroken({ intent: "profile", headline: "x", bio: "y" }, { headline: fc.oneof(huge(200), junkText, invisibleText), bio: fc.oneof(huge(5_000), junkText) }),
     ),
   },
   {
     route: "admin/payments",
     path: () => "/admin/payments",
     as: "admin",
-    payloads: oneFieldBroken({ bookingId: randomUUID(), amount: "10", reason: "Goodwill" }, { amount: fc.oneof(missing, notANumber, fc.constantFrom("-10", "1e309", "10000000", "1.234", "Infinity")), reason: fc.oneof(missing, fc.constant(""), huge(1_000)) }),
+    payloads: oneFieldBroken({ bookingId: randomUUID(), amount: "10", reason: "Goodwill" }, { amount: fc.oneof(missing, notANumber, fc.constantFrom("-10", "1e309", "10000000", "1.234", "Infinity", "0x10")), reason: fc.oneof(missing, fc.constant(""), huge(1_000), junkText) }),
   },
   {
     route: "admin/inspector-applications",
     path: () => "/admin/inspector-applications",
     as: "admin",
-    payloads: oneFieldBroken({ applicationId: randomUUID(), decision: "approve" }, { applicationId: notAUuid, decision: fc.oneof(missing, unknownOf(["approve", "reject"])) }),
+    payloads: fc.oneof(
+      oneFieldBroken({ applicationId: randomUUID(), decision: "approve" }, { applicationId: fc.oneof(notAUuid, junkText), decision: fc.oneof(missing, unknownOf(["approve", "reject"])) }),
+      junkText.map((reason): Payload => ({ form: { applicationId: randomUUID(), decision: "reject", reason: `Not enough ${reason}` } })),
+    ),
+  },
+  {
+    route: "admin/users",
+    path: () => "/admin/users",
+    as: "admin",
+    payloads: fc.oneof(junkText, longInQuery(100)).map((q): Payload => ({ method: "GET", query: `?${new URLSearchParams({ q })}` })),
+  },
+  {
+    route: "inspectors",
+    path: () => "/inspectors",
+    as: "visitor",
+    payloads: fc.oneof(junkText, longInQuery(80)).map((region): Payload => ({ method: "GET", query: `?${new URLSearchParams({ region })}` })),
   },
   {
     route: "inspector/bookings/:bookingId/report",
@@ -311,6 +340,20 @@ const targets: Target[] = [
       wrongJsonShapes.map((json): Payload => ({ json })),
       fc.constant<Payload>({ raw: "form=1", contentType: "application/x-www-form-urlencoded" }),
       fc.constant<Payload>({ json: JSON.stringify({ form: { ...completeForm(), profile: { key: "no-such-profile", version: 99, reason: "" } } }) }),
+      // Hostile text in each kind of text a draft holds; JSON carries lone surrogates as they are.
+      fc
+        .tuple(fc.oneof(junkText, loneSurrogateText, huge(2_000)), fc.constantFrom("notes", "conditions", "instrument", "reason", "testNotes", "testCode"))
+        .map(([text, where]): Payload => {
+          const form = completeForm() as ReturnType<typeof completeForm> & Record<string, unknown>;
+          if (where === "notes") form.notes = text;
+          else if (where === "conditions") form.conditions = { ...form.conditions, notes: text };
+          else if (where === "instrument") form.instruments = [{ ...form.instruments[0]!, description: text }];
+          else if (where === "reason") form.profile = { ...form.profile, reason: text };
+          else if (where === "testNotes") form.tests = { ...form.tests, "L-SP-NOSE": { ...form.tests["L-SP-NOSE"], notes: text } };
+          else form.tests = { ...form.tests, [text]: { kind: "sweep", readings: ["1"] } };
+          return { json: JSON.stringify({ form }) };
+        }),
+      fc.constant<Payload>({ json: `{"form": ${JSON.stringify({ ...completeForm(), tests: {} }).replace('"tests":{}', '"tests":{"__proto__":{"kind":"sweep","readings":["1"]}}')}}` }),
     ),
   },
   {
@@ -343,6 +386,9 @@ const targets: Target[] = [
         fc.jsonValue({ maxDepth: 3 }).map((value) => JSON.stringify(value)),
       ).map((json): Payload => ({ json })),
       fc.constant<Payload>({ raw: "profile=x", contentType: "application/x-www-form-urlencoded" }),
+      fc
+        .oneof(junkText, loneSurrogateText, fc.constant("__proto__"))
+        .map((code): Payload => ({ json: `{"profile": {"key": "centre-lathe-normal", "version": 1}, "units": "mm", "measurements": {"tests": {${JSON.stringify(code)}: {"kind": "sweep", "readings": [0, 2]}}}}` })),
       fc.constant<Payload>({ json: "{}", method: "PUT" }),
       fc.constant<Payload>({ json: "{}", method: "DELETE" }),
     ),
@@ -351,13 +397,16 @@ const targets: Target[] = [
     route: "api/v1/listings",
     path: () => "/api/v1/listings",
     as: "visitor",
-    payloads: fc
+    payloads: fc.oneof(
+      fc.tuple(fc.constantFrom("q", "region"), fc.oneof(junkText, longInQuery(200))).map(([name, value]): Payload => ({ method: "GET", query: `?${new URLSearchParams({ [name]: value })}` })),
+      fc
       .tuple(
         fc.constantFrom("priceMin", "priceMax", "swingMin", "swingMax", "runoutMax", "page", "sort", "category", "grade", "units", "verified"),
         // Long, but within the 16 KB a request line may have (Node answers 431 beyond it).
         fc.oneof(notANumber, fc.constantFrom("-1", "Infinity", "NaN", "1e309", "unknown-value", "-0.5"), fc.integer({ min: 2_001, max: 8_000 }).map((length) => "9".repeat(length))),
       )
       .map(([name, value]): Payload => ({ method: "GET", query: `?${new URLSearchParams({ [name]: value })}` })),
+    ),
   },
   {
     route: "api/v1/reports/verify",

@@ -76,8 +76,12 @@ describe("decimalAmount", () => {
     expect(price.parse("18500,50")).toBe(18_500.5);
   });
 
-  it("refuses what Number() would read kindly: hex, exponents, signs, Infinity", () => {
-    for (const value of ["0x10", "1e3", "-5", "+5", "Infinity", "1 000", "0b11", "0o7", "1.234", "", " "]) {
+  it("reads a minus, for the caller's range to refuse with its own words", () => {
+    expect(price.parse("-5")).toBe(-5);
+  });
+
+  it("refuses what Number() would read kindly: hex, exponents, a plus sign, Infinity", () => {
+    for (const value of ["0x10", "1e3", "-0x10", "+5", "--5", "Infinity", "1 000", "0b11", "0o7", "1.234", "", " "]) {
       expect(price.safeParse(value).success, value).toBe(false);
     }
   });
