@@ -1,10 +1,13 @@
 import type { HTMLAttributes, TdHTMLAttributes, ThHTMLAttributes } from "react";
 import { cx } from "./cx";
 
-/** A table that scrolls sideways on a phone instead of squeezing its columns. */
+/**
+ * A table that scrolls sideways on a phone instead of squeezing its columns. The scrolling box is a named
+ * region in the tab order, so that a keyboard can scroll it too (WCAG 2.1.1).
+ */
 export function Table({ className, caption, children, ...props }: HTMLAttributes<HTMLTableElement> & { caption?: string }) {
   return (
-    <div className="overflow-x-auto rounded-panel border border-ink-200 bg-white">
+    <div className="overflow-x-auto rounded-panel border border-ink-200 bg-white" role="region" aria-label={caption} tabIndex={0}>
       <table className={cx("min-w-full divide-y divide-ink-200 text-sm", className)} {...props}>
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         {children}

@@ -116,8 +116,13 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
           <thead className="bg-ink-50 text-left text-xs font-bold uppercase tracking-wide text-ink-600">
             <tr>
               <th className="w-10 px-2 py-2">#</th>
-              <th className="px-2 py-2">Station ({labels.station})</th>
-              <th className="px-2 py-2">Reading ({readingUnit})</th>
+              {/* Units stay as written: uppercase would turn µm into a Greek capital, read as "MM". */}
+              <th className="px-2 py-2">
+                Station (<span className="normal-case">{labels.station}</span>)
+              </th>
+              <th className="px-2 py-2">
+                Reading (<span className="normal-case">{readingUnit}</span>)
+              </th>
               <th className="w-12 px-2 py-2">
                 <span className="sr-only">Remove</span>
               </th>
