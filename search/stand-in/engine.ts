@@ -5,7 +5,7 @@ import { mkdir, readFile, rename, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { ApiError, indexNotFound, type ApiErrorBody } from "./errors.ts";
 import { attributePosition, conditionsOf, evaluateFilter, FilterShapeError, FilterSyntaxError, parseFilter, type ConditionNode, type FilterNode } from "./filter.ts";
-import { applySettingsPatch, attributeMatches, defaultSettings, filterablePatterns, filterableRules } from "./index-settings.ts";
+import { applySettingsPatch, attributeMatches, defaultSettings, filterablePatterns, filterableRules, ruleMatches } from "./index-settings.ts";
 import { DocumentTable, type Bitset, type SortRule } from "./table.ts";
 import { bucketSort, rankingSteps } from "./ranking.ts";
 import { TextIndex, type TextMatch, type TypoSettings } from "./text-index.ts";
@@ -430,11 +430,10 @@ export class SearchEngine {
   }
 
   private checkFilterable(state: IndexState, node: FilterNode, code: string) {
-    const patterns = filterablePatterns(state.settings);
     const rules = filterableRules(state.settings);
     for (const condition of conditionsOf(node)) {
       // The first rule that names the attribute decides what may be done with it, as in the engine.
-      const ruleIndex = rules.findIndex((rule) => attributeMatches(condition.attribute, rule.patterns));
+      const ruleIndex = rules.findIndex((rule) => ruleMatches(rule, condition.attribute));
       const rule = rules[ruleIndex];
       const operator = operatorOf(condition);
       const kind = operator === "=" || operator === "!=" || operator === "IN" ? "equality" : operator === "EXISTS" || operator === "IS NULL" || operator === "IS EMPTY" ? "any" : "comparison";
@@ -448,10 +447,11 @@ export class SearchEngine {
       }
       if (!rule || !(rule.equality || rule.comparison)) {
         const position = attributePosition(condition);
+        const usable = rules.filter((candidate) => candidate.equality || candidate.comparison).flatMap((candidate) => candidate.patterns);
         throw new ApiError(
           400,
           code,
-          `Index \`${state.uid}\`: Attribute \`${condition.attribute}\` is not filterable. ${availableList("filterable attribute patterns", patterns)}${position === undefined ? "" : ` (at column ${position + 1})`}`,
+          `Index \`${state.uid}\`: Attribute \`${condition.attribute}\` is not filterable. ${availableList("filterable attribute patterns", usable)}${position === undefined ? "" : ` (at column ${position + 1})`}`,
         );
       }
     }

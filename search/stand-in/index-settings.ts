@@ -127,7 +127,7 @@ function isPatternObject(item: unknown): boolean {
 }
 
 /** One entry of `filterableAttributes` with what it allows (the engine's `FilterableAttributesFeatures`). */
-export type FilterableRule = { patterns: string[]; equality: boolean; comparison: boolean; facetSearch: boolean };
+export type FilterableRule = { patterns: string[]; legacy: boolean; equality: boolean; comparison: boolean; facetSearch: boolean };
 
 /**
  * A plain attribute name allows everything (the engine's legacy default); the object form allows
@@ -135,10 +135,11 @@ export type FilterableRule = { patterns: string[]; equality: boolean; comparison
  */
 export function filterableRules(settings: Record<string, unknown>): FilterableRule[] {
   return (settings.filterableAttributes as unknown[]).map((item) => {
-    if (typeof item === "string") return { patterns: [item], equality: true, comparison: true, facetSearch: true };
+    if (typeof item === "string") return { patterns: [item], legacy: true, equality: true, comparison: true, facetSearch: true };
     const { attributePatterns, features } = item as { attributePatterns: string[]; features?: { facetSearch?: boolean; filter?: { equality?: boolean; comparison?: boolean } } };
     return {
       patterns: attributePatterns,
+      legacy: false,
       equality: features?.filter?.equality ?? true,
       comparison: features?.filter?.comparison ?? false,
       facetSearch: features?.facetSearch ?? false,
@@ -179,6 +180,22 @@ export function filterablePatterns(settings: Record<string, unknown>): string[] 
   return (settings.filterableAttributes as unknown[]).flatMap((item) =>
     typeof item === "string" ? [item] : ((item as { attributePatterns: string[] }).attributePatterns ?? []),
   );
+}
+
+/**
+ * Whether a rule covers an attribute, as the engine matches them: a plain name also covers what is nested
+ * under it (`seller` covers `seller.city`); an `attributePatterns` entry covers only what it names, with
+ * `*` at its start, its end or both (milli `attribute_patterns.rs`).
+ */
+export function ruleMatches(rule: FilterableRule, attribute: string): boolean {
+  if (rule.legacy) return attributeMatches(attribute, rule.patterns);
+  return rule.patterns.some((pattern) => {
+    if (pattern === "*" || pattern === attribute) return true;
+    if (pattern.length > 1 && pattern.startsWith("*") && pattern.endsWith("*")) return attribute.includes(pattern.slice(1, -1));
+    if (pattern.startsWith("*")) return attribute.endsWith(pattern.slice(1));
+    if (pattern.endsWith("*")) return attribute.startsWith(pattern.slice(0, -1));
+    return false;
+  });
 }
 
 /** `seller.city` is covered by `seller.city`, by `seller` and by patterns such as `seller.*` or `*`. */
