@@ -6,6 +6,7 @@ import QRCode from "qrcode";
 import { KEY_FIGURE_LABELS, reportAge, type KeyFigureKey } from "./content";
 import { DIRECTION_LABELS, formatDeviationBoth, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
+import { renderReadingsCertificate } from "./certificate-readings.server";
 import type { PublicReport } from "./service.server";
 
 const require = createRequire(import.meta.url);
@@ -27,6 +28,7 @@ const printable = (text: string) => text.replace(/≤/g, "up to").replace(/≥/g
 const SIGNED_FIGURES = new Set<KeyFigureKey>(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight"]);
 
 export async function renderCertificate(report: PublicReport, now = new Date()): Promise<Buffer> {
+  if (report.notice) return renderReadingsCertificate({ ...report, notice: report.notice });
   const { content } = report;
   const qr = await QRCode.toBuffer(report.verificationUrl, { type: "png", margin: 1, width: 240, errorCorrectionLevel: "M" });
   const doc = new PDFDocument({

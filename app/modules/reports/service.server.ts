@@ -47,6 +47,7 @@ import { SAFETY_CAUTIONS } from "./safety";
 import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
 import { reportUrl, verificationUrl } from "./links.server";
 import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
+import { unrenderableNotice } from "./stored-readings";
 import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
 import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";
 
@@ -557,6 +558,8 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
     isInspector: viewer?.id === report.inspectorId,
     hasCredential: report.credential !== null,
+    /** Set when the signed results cannot be scored or drawn: the readings are shown instead, with this notice. */
+    notice: unrenderableNotice(content),
     photoUrls: Object.fromEntries(
       Object.entries(content.tests)
         .filter(([, meta]) => meta.photo)
@@ -583,6 +586,8 @@ export async function reportForApi(db: Database, reportId: string) {
     contentHash: report.contentHash,
     hashAlgorithm: "SHA-256 of the RFC 8785 canonical JSON of `content`",
     intact: report.intact,
+    /** Null, or why the signed results cannot be scored or drawn (then read the readings in `content`). */
+    notice: report.notice,
     links: {
       page: `${origin}/reports/${report.id}`,
       certificate: `${origin}/reports/${report.id}/certificate.pdf`,

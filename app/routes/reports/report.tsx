@@ -6,6 +6,7 @@ import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { reportAge } from "~/modules/reports/content";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
 import { SafetyCautions } from "~/modules/reports/components/safety";
+import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
 import { getPublicReport } from "~/modules/reports/service.server";
 import { formatLength, type DisplayUnits } from "~/modules/units/format";
@@ -14,7 +15,7 @@ import type { Route } from "./+types/report";
 export const meta: Route.MetaFunction = ({ data: loaded }) =>
   loaded
     ? [
-        { title: `Accuracy report, grade ${loaded.report.content.score.grade}: ${loaded.report.content.machine.title} — Tenthmark` },
+        { title: `Accuracy report, ${loaded.report.notice ? "readings as signed" : `grade ${loaded.report.content.score.grade}`}: ${loaded.report.content.machine.title} — Tenthmark` },
         { name: "description", content: `Geometric accuracy of the ${loaded.report.content.machine.title}, measured ${loaded.report.content.measuredOn} by ${loaded.report.content.inspector.name}.` },
       ]
     : [{ title: "Report not found — Tenthmark" }];
@@ -105,7 +106,7 @@ export default function ReportPage() {
       </div>
 
       <div className="mt-6 space-y-6">
-        <GradeCard content={content} units={units} now={new Date(now)} />
+        {report.notice ? <StoredReadings content={content} notice={report.notice} /> : <GradeCard content={content} units={units} now={new Date(now)} />}
 
         <Card>
           <CardHeader title="Machine and inspection" />
@@ -119,17 +120,21 @@ export default function ReportPage() {
           </dl>
         </Card>
 
-        <section aria-labelledby="results">
-          <h2 id="results" className="mb-3 text-xl font-bold text-ink-900">
-            Results
-          </h2>
-          <ResultsTable content={content} units={units} />
-          <p className="mt-2 text-xs text-ink-500">
-            Ratio = value ÷ tolerance at the length measured. A test that allows one direction fails on any reading the other way beyond the instrument's resolution. Sources of each tolerance are in the JSON.
-          </p>
-        </section>
+        {report.notice ? null : (
+          <>
+            <section aria-labelledby="results">
+              <h2 id="results" className="mb-3 text-xl font-bold text-ink-900">
+                Results
+              </h2>
+              <ResultsTable content={content} units={units} />
+              <p className="mt-2 text-xs text-ink-500">
+                Ratio = value ÷ tolerance at the length measured. A test that allows one direction fails on any reading the other way beyond the instrument's resolution. Sources of each tolerance are in the JSON.
+              </p>
+            </section>
 
-        <TestDetails content={content} units={units} photoUrls={report.photoUrls} />
+            <TestDetails content={content} units={units} photoUrls={report.photoUrls} />
+          </>
+        )}
         <ConditionsAndInstruments content={content} units={units} />
 
         {content.notes ? (

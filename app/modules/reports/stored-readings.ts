@@ -1,0 +1,122 @@
+// A signed report is never changed, so one stored before readings were bounded may hold a number no page can
+// draw (±1e308, or a result that overflowed to Infinity and was stored as null). Such a report is shown as
+// signed: its readings as typed and its seal, with a notice, instead of results, grade and plots. Pure:
+// shared by the report page, its JSON and its certificate.
+import { measurementLimitIssues, testMeasurementSchema } from "~/geometry";
+import type { ReportContent } from "./content";
+
+const isFiniteNumber = (value: unknown): value is number => typeof value === "number" && Number.isFinite(value);
+
+/** The first number of a stored result that is not finite, as "path", or null. */
+function nonFiniteIn(value: unknown, path: string, optional = false): string | null {
+  if (value === undefined || (optional && value === null)) return null;
+  return isFiniteNumber(value) ? null : path;
+}
+
+/**
+ * Why a signed report's results cannot be scored or drawn, in words, or null when they can: a reading beyond
+ * what the tests can read, or a result, ratio or key figure that is not a finite number.
+ */
+export function unrenderableReason(content: ReportContent): string | null {
+  const tests = content?.measurements?.tests;
+  if (!tests || typeof tests !== "object") return "the readings are missing";
+  for (const [code, measurement] of Object.entries(tests)) {
+    const parsed = testMeasurementSchema.safeParse(measurement);
+    if (!parsed.success) return `${code}: ${parsed.error.issues[0]?.message ?? "the readings cannot be read"}`;
+    const [beyond] = measurementLimitIssues(parsed.data, "mm");
+    if (beyond) return `${code}, ${beyond.path.join(" ")}: ${beyond.message}`;
+  }
+  const score = content.score as unknown as Record<string, unknown> | undefined;
+  if (!score || !Array.isArray(score.results)) return "the results are missing";
+  for (const result of score.results as Array<Record<string, unknown>>) {
+    const line = (result.straightness as { line?: Record<string, unknown> } | undefined)?.line;
+    const local = result.local as Record<string, unknown> | null | undefined;
+    const window = result.window as Record<string, unknown> | undefined;
+    const bad =
+      nonFiniteIn(result.value, "value") ??
+      nonFiniteIn(result.tolerance, "tolerance") ??
+      nonFiniteIn(result.ratio, "ratio") ??
+      nonFiniteIn(result.measuringLength, "measuring length", true) ??
+      nonFiniteIn(line?.slope, "reference line") ??
+      nonFiniteIn(line?.intercept, "reference line") ??
+      nonFiniteIn(local?.value, "local value") ??
+      nonFiniteIn(local?.ratio, "local ratio") ??
+      nonFiniteIn(window?.from, "window") ??
+      nonFiniteIn(window?.to, "window");
+    if (bad) return `${String(result.code)}: its ${bad} is not a number`;
+  }
+  for (const [name, value] of Object.entries((score.keyFigures as Record<string, unknown>) ?? {})) {
+    if (nonFiniteIn(value, name, true)) return `the key figure ${name} is not a number`;
+  }
+  if (nonFiniteIn(score.worstRatio, "worst ratio", true)) return "the worst ratio is not a number";
+  return null;
+}
+
+/** The notice shown in place of the results, or null for a report that renders. */
+export function unrenderableNotice(content: ReportContent): string | null {
+  const reason = unrenderableReason(content);
+  if (!reason) return null;
+  return (
+    `This report was signed with a number that cannot be scored or drawn (${reason}). ` +
+    "It is shown as it was signed: its readings and its seal, without results, grade or plots. " +
+    "Its inspector can file a correction as a new revision."
+  );
+}
+
+export interface StoredTestReadings {
+  code: string;
+  title: string;
+  kind: string;
+  lines: string[];
+}
+
+function text(value: unknown): string {
+  if (typeof value === "number") return String(value);
+  if (value === null) return "not a number";
+  if (typeof value === "string") return value;
+  return JSON.stringify(value) ?? "—";
+}
+
+const FIELD_LABELS: Record<string, string> = {
+  max: "Highest",
+  min: "Lowest",
+  near: "Near",
+  far: "Far",
+  headstockEnd: "Headstock end",
+  tailstockEnd: "Tailstock end",
+  length: "Between near and far",
+  resolution: "Resolution",
+  reference: "Reference line",
+  at0: "at 0°",
+  at180: "at 180°",
+};
+
+/** Each test's readings as typed (the units of `entryUnits`), one line per station or field, whatever their shape. */
+export function storedReadings(content: ReportContent): StoredTestReadings[] {
+  const entered = content?.measurementsAsEntered?.tests ?? content?.measurements?.tests ?? {};
+  const inch = content.entryUnits === "inch";
+  const titles = new Map((Array.isArray(content?.score?.results) ? content.score.results : []).map((result) => [result.code, result.title]));
+  return Object.entries(entered).map(([code, measurement]) => {
+    const fields = (measurement ?? {}) as unknown as Record<string, unknown>;
+    const kind = String(fields.kind ?? "");
+    const readingUnit = kind === "level" ? "µm/m" : inch ? "in" : "µm";
+    const stationUnit = inch ? "in" : "mm";
+    const lines: string[] = [];
+    for (const [field, value] of Object.entries(fields)) {
+      if (field === "kind") continue;
+      if (field === "points" && Array.isArray(value)) {
+        for (const point of value as Array<Record<string, unknown> | null>) {
+          lines.push(`Station ${text(point?.station)} ${stationUnit}: ${text(point?.reading)} ${readingUnit}`);
+        }
+      } else if (field === "readings" && Array.isArray(value)) {
+        lines.push(`Readings (${readingUnit}): ${value.map(text).join(", ")}`);
+      } else if (value && typeof value === "object" && !Array.isArray(value)) {
+        const parts = Object.entries(value as Record<string, unknown>).map(([key, inner]) => `${FIELD_LABELS[key] ?? key} ${text(inner)}`);
+        lines.push(`${FIELD_LABELS[field] ?? field}: ${parts.join(", ")}`);
+      } else {
+        lines.push(`${FIELD_LABELS[field] ?? field}: ${text(value)}`);
+      }
+    }
+    return { code, title: titles.get(code) ?? code, kind, lines };
+  });
+}
