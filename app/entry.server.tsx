@@ -7,15 +7,22 @@ import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import type { EntryContext, HandleDataRequestFunction, HandleErrorFunction, RouterContextProvider } from "react-router";
 import { isRouteErrorResponse, ServerRouter } from "react-router";
-import { env } from "~/env.server";
+import { EnvironmentError, env } from "~/env.server";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
 
-// Once per process, when the server bundle is first loaded: a bad or missing setting (in production, a
-// missing secret or signing key) stops the server here, before it answers anything.
-env();
-// A database that is down is retried inside.
+// A missing, weak or published-default secret (or any other bad setting) stops the server before it answers
+// anything; the message names each variable and what it must be.
+try {
+  env();
+} catch (error) {
+  if (!(error instanceof EnvironmentError)) throw error;
+  console.error(`Tenthmark cannot start. ${error.message}`);
+  process.exit(1);
+}
+
+// Once per process, when the server bundle is first loaded. A database that is down is retried inside.
 void startJobWorkers();
 
 export const streamTimeout = 5_000;

@@ -5,6 +5,7 @@ import path from "node:path";
 import { buildIfNeeded } from "./lib/build.ts";
 import { runMigrations } from "./lib/migrate.ts";
 import { log } from "./lib/output.ts";
+import { secretsForDataFolder } from "./lib/local-secrets.ts";
 import { isPortFree } from "./lib/ports.ts";
 import { startCluster } from "./lib/postgres.ts";
 import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
@@ -42,15 +43,16 @@ async function main() {
   if (registered.added) log("app", `report signing key ${registered.id} registered`);
 
   // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).
-  const standIns = await startStandIns({ dataDir, appOrigin, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
+  // Random secrets made once for this data folder and kept beside its data; the stand-ins check and sign with them.
+  const secrets = secretsForDataFolder(dataDir);
+  const standIns = await startStandIns({ dataDir, appOrigin, secrets, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
   for (const standIn of standIns) onStop(() => standIn.stop());
   // What the environment (or .env) sets wins over a stand-in: that is how a hosted service is chosen.
-  const standInSettings = Object.fromEntries(
-    Object.entries(standInEnvironment(standIns)).filter(([key]) => process.env[key] === undefined),
-  );
+  const unlessSet = (settings: Record<string, string>) => Object.fromEntries(Object.entries(settings).filter(([key]) => !process.env[key]));
   const environment = {
     ...process.env,
-    ...standInSettings,
+    ...unlessSet(secrets),
+    ...unlessSet(standInEnvironment(standIns)),
     NODE_ENV: "production",
     DATABASE_URL: databaseUrl,
     REPORT_SIGNING_KEY: signingKey,

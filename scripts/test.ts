@@ -8,6 +8,7 @@ import path from "node:path";
 import { buildIfNeeded } from "./lib/build.ts";
 import { runMigrations } from "./lib/migrate.ts";
 import { log } from "./lib/output.ts";
+import { freshSecrets } from "./lib/local-secrets.ts";
 import { freePort } from "./lib/ports.ts";
 import { startCluster } from "./lib/postgres.ts";
 import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
@@ -32,11 +33,14 @@ async function main(): Promise<number> {
 
   const port = await freePort();
   const appOrigin = `http://localhost:${port}`;
-  const standIns = await startStandIns({ dataDir: workDir, appOrigin });
+  // Fresh random secrets for this run, whatever the shell or .env holds.
+  const secrets = freshSecrets();
+  const standIns = await startStandIns({ dataDir: workDir, appOrigin, secrets });
   for (const standIn of standIns) onStop(() => standIn.stop());
 
   const environment: NodeJS.ProcessEnv = {
     ...process.env,
+    ...secrets,
     ...standInEnvironment(standIns),
     DATABASE_URL: cluster.url,
     REPORT_SIGNING_KEY: signingKey,
@@ -45,6 +49,8 @@ async function main(): Promise<number> {
     TEST_WORK_DIR: workDir,
     CHROMIUM_PATH: ensureChromium(),
   };
+  // It would win over this run's SESSION_SECRET.
+  delete environment.BETTER_AUTH_SECRET;
 
   // A build folder of this run's own, so that test runs side by side never overwrite each other's bundle.
   const buildDirectory = `build-test/${path.basename(workDir)}`;

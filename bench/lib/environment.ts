@@ -8,6 +8,7 @@ import path from "node:path";
 import { buildIfNeeded } from "../../scripts/lib/build.ts";
 import { runMigrations } from "../../scripts/lib/migrate.ts";
 import { log } from "../../scripts/lib/output.ts";
+import { freshSecrets } from "../../scripts/lib/local-secrets.ts";
 import { freePort } from "../../scripts/lib/ports.ts";
 import { startCluster } from "../../scripts/lib/postgres.ts";
 import { onStop, stopAll, stopOnSignals, waitForHttp } from "../../scripts/lib/processes.ts";
@@ -43,10 +44,12 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
   // The app's origin is fixed before the stand-ins start (they are told where it lives).
   const appPort = await freePort();
   const appOrigin = `http://127.0.0.1:${appPort}`;
-  const standIns = await startStandIns({ dataDir: workDir, appOrigin });
+  const secrets = freshSecrets();
+  const standIns = await startStandIns({ dataDir: workDir, appOrigin, secrets });
   for (const standIn of standIns) onStop(() => standIn.stop());
 
   const appEnvironment: Record<string, string> = {
+    ...secrets,
     ...standInEnvironment(standIns),
     DATABASE_URL: cluster.url,
     REPORT_SIGNING_KEY: signingKey,

@@ -4,6 +4,7 @@ import { startFilesStandIn } from "../../stand-ins/files/index.ts";
 import { startMailStandIn } from "../../stand-ins/mail/index.ts";
 import { startPaymentsStandIn } from "../../stand-ins/payments/index.ts";
 import { startSearchStandIn } from "../../search/stand-in/index.ts";
+import type { LocalSecrets } from "./local-secrets.ts";
 import { freePort } from "./ports.ts";
 
 export type StandIn = { name: string; env: Record<string, string>; stop: () => Promise<void> };
@@ -13,6 +14,8 @@ export type StandInOptions = {
   /** Fixed ports for `npm start`; the tests take free ones. */
   ports?: Partial<Record<string, number>>;
   appOrigin: string;
+  /** The run's generated secrets (scripts/lib/local-secrets.ts): the stand-ins check and sign with these. */
+  secrets: LocalSecrets;
 };
 
 type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
@@ -20,9 +23,14 @@ type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
 // Each stand-in adds itself to this list with its default port.
 const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [
   { name: "files", defaultPort: 4568, start: startFilesStandIn },
-  { name: "mail", defaultPort: 4580, start: startMailStandIn },
-  { name: "payments", defaultPort: 12111, start: startPaymentsStandIn },
-  { name: "search", defaultPort: 7701, start: startSearchStandIn },
+  { name: "mail", defaultPort: 4580, start: (options) => startMailStandIn({ ...options, token: options.secrets.POSTMARK_SERVER_TOKEN }) },
+  {
+    name: "payments",
+    defaultPort: 12111,
+    start: (options) =>
+      startPaymentsStandIn({ ...options, secretKey: options.secrets.STRIPE_SECRET_KEY, webhookSecret: options.secrets.STRIPE_WEBHOOK_SECRET }),
+  },
+  { name: "search", defaultPort: 7701, start: (options) => startSearchStandIn({ ...options, masterKey: options.secrets.MEILISEARCH_API_KEY }) },
 ];
 
 export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {

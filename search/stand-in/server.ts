@@ -1,13 +1,11 @@
 // The search stand-in's HTTP face: the REST routes the `meilisearch` SDK calls, a master key checked as a
 // Bearer token, errors in the engine's `{ message, code, type, link }` shape. Loopback only.
+import { randomBytes } from "node:crypto";
 import http from "node:http";
 import path from "node:path";
 import { ApiError, badRequest } from "./errors.ts";
 import { ClientGoneError, SearchEngine, type SearchRequest } from "./engine.ts";
 import { settingRoutes } from "./index-settings.ts";
-
-/** The key `npm start` and the tests use unless told otherwise; the app's default matches it. */
-export const DEFAULT_SEARCH_MASTER_KEY = "tenthmark-local-search-master-key";
 
 export type SearchStandInOptions = { port: number; dataDir: string; appOrigin?: string; masterKey?: string };
 
@@ -22,7 +20,8 @@ export type SearchStandIn = {
 
 const maxBodyBytes = 20 * 1024 * 1024;
 
-export async function startSearchStandIn({ port, dataDir, masterKey = DEFAULT_SEARCH_MASTER_KEY }: SearchStandInOptions): Promise<SearchStandIn> {
+/** `masterKey` is the key it accepts; a random one unless given (`npm start` and the tests pass theirs). */
+export async function startSearchStandIn({ port, dataDir, masterKey = randomBytes(24).toString("hex") }: SearchStandInOptions): Promise<SearchStandIn> {
   const engine = await SearchEngine.open(path.join(dataDir, "search"));
   let latencyMs = 0;
 

@@ -5,8 +5,8 @@ import path from "node:path";
 import S3rver from "s3rver";
 
 export const FILES_BUCKET = "tenthmark-files";
-// s3rver checks signatures against these fixed credentials.
-const ACCESS_KEY = "S3RVER";
+// s3rver checks signatures against these fixed, public credentials (it runs on loopback only).
+export const FILES_STAND_IN_ACCESS_KEY = "S3RVER";
 
 function corsConfiguration(appOrigin: string) {
   const origins = new Set([appOrigin, appOrigin.replace("localhost", "127.0.0.1")]);
@@ -41,8 +41,8 @@ export async function startFilesStandIn({ port, dataDir, appOrigin }: { port: nu
       S3_ENDPOINT: `http://127.0.0.1:${port}`,
       S3_REGION: "us-east-1",
       S3_BUCKET: FILES_BUCKET,
-      S3_ACCESS_KEY_ID: ACCESS_KEY,
-      S3_SECRET_ACCESS_KEY: ACCESS_KEY,
+      S3_ACCESS_KEY_ID: FILES_STAND_IN_ACCESS_KEY,
+      S3_SECRET_ACCESS_KEY: FILES_STAND_IN_ACCESS_KEY,
     },
     stop: () => server.close(),
   };

@@ -1,12 +1,11 @@
 // The local stand-in for Postmark: the subset of its send API we use (`POST /email`, `/email/batch`,
 // `/email/withTemplate`, answered in Postmark's shapes), a mailbox page to read what was sent, and a JSON
 // API for tests. Messages are kept as files under the data folder, so they survive a restart.
-import { randomUUID } from "node:crypto";
+import { randomBytes, randomUUID } from "node:crypto";
 import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import http from "node:http";
 import path from "node:path";
 
-export const MAIL_STAND_IN_TOKEN = "local-mail-stand-in-token";
 const DEFAULT_FROM = "Tenthmark <mail@tenthmark.example.test>";
 
 export type StoredMessage = {
@@ -151,7 +150,8 @@ button{font:inherit;padding:4px 10px}
 
 export type MailStandInOptions = { port: number; dataDir: string; appOrigin?: string; token?: string };
 
-export async function startMailStandIn({ port, dataDir, token = MAIL_STAND_IN_TOKEN }: MailStandInOptions) {
+/** `token` is the server token it accepts; a random one unless given. */
+export async function startMailStandIn({ port, dataDir, token = randomBytes(24).toString("hex") }: MailStandInOptions) {
   const directory = path.join(dataDir, "mail");
   mkdirSync(directory, { recursive: true });
   const messages: StoredMessage[] = readdirSync(directory)

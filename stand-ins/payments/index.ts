@@ -9,8 +9,6 @@ import { parseStripeForm, type FormObject } from "./form.ts";
 import { Store } from "./state.ts";
 import { WebhookDeliverer } from "./webhooks.ts";
 
-export const standInSecretKey = "sk_test_tenthmark_payments_stand_in";
-export const standInWebhookSecret = "whsec_tenthmark_payments_stand_in";
 
 export type PaymentsStandInOptions = {
   port: number;
@@ -18,6 +16,7 @@ export type PaymentsStandInOptions = {
   appOrigin: string;
   /** Where events are posted; default `${appOrigin}/api/webhooks/stripe`. */
   webhookUrl?: string;
+  /** The API key it accepts and the secret it signs webhooks with; random ones unless given. */
   secretKey?: string;
   webhookSecret?: string;
   /** Delay before the first redelivery, doubled each time (default 1 s). */
@@ -79,8 +78,8 @@ function parseControlBody(body: string, contentType: string | undefined): Record
 }
 
 export async function startPaymentsStandIn(options: PaymentsStandInOptions): Promise<PaymentsStandIn> {
-  const secretKey = options.secretKey ?? standInSecretKey;
-  const webhookSecret = options.webhookSecret ?? standInWebhookSecret;
+  const secretKey = options.secretKey ?? `sk_test_${randomBytes(24).toString("hex")}`;
+  const webhookSecret = options.webhookSecret ?? `whsec_${randomBytes(32).toString("hex")}`;
   const origin = `http://127.0.0.1:${options.port}`;
   const store = new Store(options.dataDir);
   const deliverer = new WebhookDeliverer(store, {

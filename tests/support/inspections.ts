@@ -81,7 +81,7 @@ export async function bookingRow(bookingId: string) {
   return row!;
 }
 
-const webhookSecret = process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_tenthmark_payments_stand_in";
+const webhookSecret = process.env.STRIPE_WEBHOOK_SECRET!;
 
 /** A Stripe event as JSON with a Stripe-Signature header made with the endpoint's secret. */
 export function signedEvent(type: string, object: Record<string, unknown>, options: { timestamp?: number; secret?: string; id?: string } = {}) {

@@ -53,6 +53,7 @@ export async function ownSearch(options: { searchTimeoutMs?: number; port?: numb
   const dataDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-search-own-"));
   const port = options.port ?? (await freePort());
   let standIn: SearchStandIn | null = await startSearchStandIn({ port, dataDir, appOrigin: testAppOrigin });
+  const masterKey = standIn.env.MEILISEARCH_API_KEY;
   const connection = { host: `http://127.0.0.1:${port}`, apiKey: standIn.env.MEILISEARCH_API_KEY!, searchTimeoutMs: options.searchTimeoutMs ?? 500, writeTimeoutMs: 3_000 };
   return {
     port,
@@ -66,7 +67,7 @@ export async function ownSearch(options: { searchTimeoutMs?: number; port?: numb
       standIn = null;
     },
     async restart() {
-      standIn ??= await startSearchStandIn({ port, dataDir, appOrigin: testAppOrigin });
+      standIn ??= await startSearchStandIn({ port, dataDir, appOrigin: testAppOrigin, masterKey });
     },
     async dispose() {
       await standIn?.stop();

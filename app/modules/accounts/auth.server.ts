@@ -1,9 +1,10 @@
 // better-auth on our PostgreSQL through its Drizzle adapter. Sessions, verification tokens and rate-limit
 // counters all live in the database, so the app servers keep no state of their own.
 import { betterAuth } from "better-auth";
+import { APIError, createAuthMiddleware } from "better-auth/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { getDatabase } from "~/db/client.server";
-import { env } from "~/env.server";
+import { env, sessionSecret } from "~/env.server";
 import { account, rateLimit, session, user, verification } from "./schema";
 import { sendPasswordResetEmail, sendVerificationEmail } from "./emails.server";
 
@@ -17,6 +18,35 @@ export function trustedOrigins(origin = env().APP_ORIGIN): string[] {
   return [...twins];
 }
 
+/**
+ * The claims of an e-mail token, read without checking its signature (better-auth checks that next). Only
+ * used to refuse tokens of flows Tenthmark does not offer.
+ */
+function unverifiedClaims(token: unknown): Record<string, unknown> | null {
+  if (typeof token !== "string") return null;
+  try {
+    return JSON.parse(Buffer.from(token.split(".")[1] ?? "", "base64url").toString("utf8")) as Record<string, unknown>;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Tenthmark offers no change of e-mail address. better-auth's /verify-email would still carry one out for any
+ * correctly signed token naming an `updateTo` address, whether or not changing e-mail is switched on, so
+ * such tokens are refused here before better-auth reads them. A confirmation link carries exactly the
+ * address and the account.
+ */
+const refuseOtherFlowsAtVerifyEmail = createAuthMiddleware(async (context) => {
+  if (context.path !== "/verify-email") return;
+  const claims = unverifiedClaims(context.query?.token);
+  if (!claims) return;
+  const allowed = new Set(["email", "userId", "iat", "exp"]);
+  if (Object.keys(claims).some((claim) => !allowed.has(claim))) {
+    throw new APIError("BAD_REQUEST", { code: "INVALID_TOKEN", message: "This link is not an e-mail confirmation link." });
+  }
+});
+
 function createAuth() {
   const settings = env();
   const secure = settings.APP_ORIGIN.startsWith("https://");
@@ -24,11 +54,16 @@ function createAuth() {
     appName: "Tenthmark",
     baseURL: settings.APP_ORIGIN,
     basePath: "/api/auth",
-    secret: settings.BETTER_AUTH_SECRET ?? settings.SESSION_SECRET,
+    secret: sessionSecret(settings),
     trustedOrigins: trustedOrigins(settings.APP_ORIGIN),
     telemetry: { enabled: false },
     database: drizzleAdapter(getDatabase(), { provider: "pg", schema: { user, session, account, verification, rateLimit } }),
+    // Flows the product does not offer are off, and their endpoints answer 404.
+    disabledPaths: ["/change-email", "/update-user", "/delete-user"],
+    hooks: { before: refuseOtherFlowsAtVerifyEmail },
     user: {
+      changeEmail: { enabled: false },
+      deleteUser: { enabled: false },
       additionalFields: {
         displayUnits: { type: "string", required: false, defaultValue: "mm", input: false },
       },

@@ -53,7 +53,7 @@ describe("the mail queue", () => {
     }
     expect(state).toBe("retry");
 
-    standIn = await startMailStandIn({ port, dataDir });
+    standIn = await startMailStandIn({ port, dataDir, token: process.env.POSTMARK_SERVER_TOKEN });
     let delivered: { subject: string; text: string; html: string } | undefined;
     for (let waited = 0; waited < 60_000 && !delivered; waited += 500) {
       await new Promise((resolve) => setTimeout(resolve, 500));

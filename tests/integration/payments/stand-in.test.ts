@@ -447,8 +447,11 @@ describe("when the payment service is down or slow", () => {
 describe("the stand-in across a restart", () => {
   it("keeps its sessions and payments when started again on the same port and folder", async () => {
     const { session, paymentIntentId } = await paidSession();
+    const { STRIPE_SECRET_KEY: secretKey, STRIPE_WEBHOOK_SECRET: webhookSecret } = harness.standIn.env;
     await harness.standIn.stop();
     harness.standIn = await startPaymentsStandIn({
+      secretKey,
+      webhookSecret,
       port: harness.port,
       dataDir: harness.dataDir,
       appOrigin: harness.receiver.origin,

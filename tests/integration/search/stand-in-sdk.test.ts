@@ -1,5 +1,6 @@
 // The `meilisearch` SDK's own calls against the search stand-in (started here on a free port), then the
 // search module on top of it, including what it does when the service is slow or stopped.
+import { randomBytes } from "node:crypto";
 import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -10,6 +11,9 @@ import { freePort } from "../../../scripts/lib/ports.ts";
 import { listingToSearchDocument, type ListingSearchDocument, type SearchableListing, type SearchableReport } from "../../../search/document.ts";
 import { listingIndexSettings, LISTINGS_INDEX_UID } from "../../../search/settings.ts";
 import { startSearchStandIn, type SearchStandIn } from "../../../search/stand-in/index.ts";
+
+// One key for this file's stand-ins, so that a restarted one still takes the clients' key.
+const masterKey = randomBytes(16).toString("hex");
 
 // Invented machines, dealers and places.
 function listing(id: string, overrides: Partial<SearchableListing>): SearchableListing {
@@ -84,7 +88,7 @@ let listings: Index<ListingSearchDocument>;
 beforeAll(async () => {
   dataDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-search-test-"));
   port = await freePort();
-  standIn = await startSearchStandIn({ port, dataDir, appOrigin: "http://localhost" });
+  standIn = await startSearchStandIn({ port, dataDir, appOrigin: "http://localhost", masterKey });
   client = new Meilisearch({ host: standIn.env.MEILISEARCH_HOST, apiKey: standIn.env.MEILISEARCH_API_KEY });
   listings = client.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
 });
@@ -318,7 +322,7 @@ describe("search stand-in through the meilisearch SDK", () => {
     const lastTaskUid = (await client.tasks.getTasks({ limit: 1 })).results[0]!.uid;
     await standIn.stop();
     await expect(client.health()).rejects.toThrow();
-    standIn = await startSearchStandIn({ port, dataDir, appOrigin: "http://localhost" });
+    standIn = await startSearchStandIn({ port, dataDir, appOrigin: "http://localhost", masterKey });
     expect(ids((await listings.search("")).hits)).toEqual(["lathe-1", "lathe-4", "lathe-3", "lathe-2"]);
     expect(await listings.getFilterableAttributes()).toEqual(listingIndexSettings.filterableAttributes);
     expect(ids((await listings.search("precison")).hits)).toEqual(["lathe-1"]);
@@ -337,7 +341,7 @@ describe("search module", () => {
   beforeAll(async () => {
     moduleDataDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-search-module-"));
     modulePort = await freePort();
-    moduleStandIn = await startSearchStandIn({ port: modulePort, dataDir: moduleDataDir });
+    moduleStandIn = await startSearchStandIn({ port: modulePort, dataDir: moduleDataDir, masterKey });
   });
   afterAll(async () => {
     await moduleStandIn?.stop();
@@ -408,7 +412,7 @@ describe("search module", () => {
     expect((down as SearchUnavailableError).reason).toBe("unreachable");
     await expect(search().removeListing("lathe-1")).rejects.toBeInstanceOf(SearchUnavailableError);
 
-    moduleStandIn = await startSearchStandIn({ port: modulePort, dataDir: moduleDataDir });
+    moduleStandIn = await startSearchStandIn({ port: modulePort, dataDir: moduleDataDir, masterKey });
     expect(ids((await search().searchListings({ text: "orvik" })).hits).sort()).toEqual(["lathe-1", "lathe-4"]);
   });
 

@@ -36,7 +36,7 @@ let search: Awaited<ReturnType<typeof startSearchStandIn>> | undefined;
 const appLog = path.join(os.tmpdir(), `tenthmark-faults-app-${randomUUID().slice(0, 8)}.log`);
 
 beforeAll(async () => {
-  search = await startSearchStandIn({ port: await freePort(), dataDir: searchDataDir });
+  search = await startSearchStandIn({ port: await freePort(), dataDir: searchDataDir, masterKey: process.env.MEILISEARCH_API_KEY });
   proxies = {
     files: await startFaultProxy(process.env.S3_ENDPOINT!),
     payments: await startFaultProxy(`http://127.0.0.1:${process.env.STRIPE_API_PORT}`),

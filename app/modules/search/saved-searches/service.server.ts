@@ -5,7 +5,7 @@ import { createHmac, timingSafeEqual } from "node:crypto";
 import { and, asc, count, eq, lt, notExists, sql } from "drizzle-orm";
 import { data } from "react-router";
 import type { Database } from "~/db/client.server";
-import { env } from "~/env.server";
+import { env, sessionSecret } from "~/env.server";
 import type { SessionUser } from "~/modules/accounts/guards.server";
 import { user } from "~/modules/accounts/schema";
 import { countryName } from "~/modules/listings/catalogue";
@@ -94,7 +94,7 @@ export async function setSavedSearchAlerts(db: Database, owner: SessionUser, sav
 // ————— One-click unsubscribe —————
 
 function signature(savedSearchId: string) {
-  return createHmac("sha256", env().SESSION_SECRET).update(`saved-search-unsubscribe:${savedSearchId}`).digest("base64url");
+  return createHmac("sha256", sessionSecret()).update(`saved-search-unsubscribe:${savedSearchId}`).digest("base64url");
 }
 
 /** `<id>.<HMAC>`: stops one saved search's alerts without signing in, and nothing else. */
