@@ -119,9 +119,10 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
         onSubmit={(event) => {
           event.preventDefault();
           commit();
-          // Closing the drawer hides the button that had focus: carry focus on to what the filters changed.
-          if (filtersOpen) resultsHeadingRef.current?.focus();
           setFiltersOpen(false);
+          // Closing the drawer hides the button that had focus: carry focus on to what the filters changed,
+          // once the drawer is gone, so that the heading is scrolled into view where it now stands.
+          if (filtersOpen) requestAnimationFrame(() => resultsHeadingRef.current?.focus());
         }}
       >
         <div className="flex flex-wrap items-end justify-between gap-4">

@@ -128,6 +128,9 @@ describe("the buyer's story by keyboard", () => {
     const heading = page.getByTestId("result-count");
     await expect.poll(() => isFocused(heading)).toBe(true);
     expect(await heading.evaluate((element) => element.tagName)).toBe("H2");
+    // Scrolled to where the heading stands once the drawer has closed.
+    const inView = () => heading.evaluate((element) => element.getBoundingClientRect().top >= 0 && element.getBoundingClientRect().bottom <= window.innerHeight);
+    await expect.poll(inView).toBe(true);
     await context.close();
   });
 });
