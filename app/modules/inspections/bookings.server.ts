@@ -8,6 +8,7 @@ import { user, userRole } from "~/modules/accounts/schema";
 import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
 import { listings } from "~/modules/listings/schema";
 import { createCheckoutSession, expireCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
+import { bookingFor, historyFor, refundsFor } from "./booking-view.server";
 import { BookingRuleError, isExclusionViolation, SlotTakenError } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
 import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
@@ -205,7 +206,7 @@ function bookingSummaryQuery(db: Executor) {
     .innerJoin(buyerUser, eq(buyerUser.id, bookings.buyerId));
 }
 
-export type BookingSummary = Awaited<ReturnType<typeof listBookingsForBuyer>>[number];
+export type BookingSummary = Awaited<ReturnType<typeof listBookingsForInspector>>["requests"][number];
 
 /** One booking with its history, for its buyer, its inspector, the listing's seller or an admin. */
 export async function getBookingView(db: Executor, bookingId: string, viewer: Viewer, now = new Date()) {
@@ -224,20 +225,24 @@ export async function getBookingView(db: Executor, bookingId: string, viewer: Vi
   if (!role) throw new BookingRuleError("This booking is not yours.", 403);
   const history = await db.select().from(bookingEvents).where(eq(bookingEvents.bookingId, bookingId)).orderBy(asc(bookingEvents.createdAt));
   const refunds = await db.select().from(bookingRefunds).where(eq(bookingRefunds.bookingId, bookingId)).orderBy(asc(bookingRefunds.createdAt));
-  const cancellable = row.booking.status === "paid" || row.booking.status === "accepted";
+  const cancellable = role === "buyer" && (row.booking.status === "paid" || row.booking.status === "accepted");
   const refundIfCancelledNow = cancellable
     ? refundFor({ by: "buyer", status: row.booking.status, feeMinor: row.booking.feeMinor, startsAt: row.booking.startsAt, at: now })
     : null;
-  return { ...row, role, history, refunds, refundIfCancelledNow };
+  // Each party loads only its part of the booking (booking-view.server.ts).
+  return { ...bookingFor(role, row), history: historyFor(role, history), refunds: refundsFor(role, refunds), refundIfCancelledNow };
 }
 
+export type BookingView = Awaited<ReturnType<typeof getBookingView>>;
+
 export async function listBookingsForBuyer(db: Executor, buyerId: string) {
-  return bookingSummaryQuery(db).where(eq(bookings.buyerId, buyerId)).orderBy(desc(bookings.startsAt));
+  const rows = await bookingSummaryQuery(db).where(eq(bookings.buyerId, buyerId)).orderBy(desc(bookings.startsAt));
+  return rows.map((row) => bookingFor("buyer", row));
 }
 
 /** The inspector's requests to answer, upcoming visits, finished work and the rest. */
 export async function listBookingsForInspector(db: Executor, inspectorId: string, now = new Date()) {
-  const rows = await bookingSummaryQuery(db).where(eq(bookings.inspectorId, inspectorId)).orderBy(asc(bookings.startsAt));
+  const rows = (await bookingSummaryQuery(db).where(eq(bookings.inspectorId, inspectorId)).orderBy(asc(bookings.startsAt))).map((row) => bookingFor("inspector", row));
   return {
     requests: rows.filter((row) => row.booking.status === "paid"),
     upcoming: rows.filter((row) => row.booking.status === "accepted"),

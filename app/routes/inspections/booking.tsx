@@ -52,12 +52,12 @@ export default function BookingPage() {
           <BookingHistory detail={detail} />
         </div>
         <aside className="space-y-4">
-          {detail.role === "buyer" && booking.status === "awaiting_payment" && booking.checkoutUrl ? (
+          {detail.role === "buyer" && detail.booking.status === "awaiting_payment" && detail.booking.checkoutUrl ? (
             <Card>
               <CardHeader title="Payment not finished" />
               <CardBody className="space-y-3 text-sm text-ink-700">
                 <p>The slot is held for you until the checkout lapses. Nothing has been charged yet.</p>
-                <a href={booking.checkoutUrl} className="inline-flex h-10 w-full items-center justify-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700">
+                <a href={detail.booking.checkoutUrl} className="inline-flex h-10 w-full items-center justify-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700">
                   Return to payment
                 </a>
               </CardBody>

@@ -12,17 +12,19 @@ type Detail = {
     status: BookingStatus;
     startsAt: string | Date;
     endsAt: string | Date;
-    feeMinor: number;
     currency: string;
-    platformFeeMinor: number;
-    inspectorShareMinor: number;
-    refundedMinor: number;
+    // Money is shown to the buyer, the inspector and staff; a seller's view carries none.
+    feeMinor?: number;
+    platformFeeMinor?: number;
+    inspectorShareMinor?: number;
+    refundedMinor?: number;
     declineReason: string | null;
     cancelReason: string | null;
   };
   listing: { slug: string; make: string; model: string; city: string; country: string; region: string | null };
   inspectorName: string;
-  buyerName: string;
+  /** Null in the seller's view: who booked is between the buyer, the inspector and us. */
+  buyerName: string | null;
   history: Array<{ id: string; kind: string; toStatus: BookingStatus | null; note: string | null; createdAt: string | Date }>;
   refunds: Array<{ id: string; amountMinor: number; currency: string; rule: string; createdAt: string | Date }>;
 };
@@ -65,10 +67,10 @@ export function BookingFacts({ detail, showSplit = false }: { detail: Detail; sh
     ],
     ["When", <SlotTime key="when" startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />],
     ["Inspector", detail.inspectorName],
-    ["Booked by", detail.buyerName],
-    ["Fee", <span key="fee" className="tabular">{formatMoney(booking.feeMinor, booking.currency)}</span>],
   ];
-  if (showSplit) {
+  if (detail.buyerName !== null) rows.push(["Booked by", detail.buyerName]);
+  if (booking.feeMinor !== undefined) rows.push(["Fee", <span key="fee" className="tabular">{formatMoney(booking.feeMinor, booking.currency)}</span>]);
+  if (showSplit && booking.platformFeeMinor !== undefined && booking.inspectorShareMinor !== undefined) {
     rows.push(["Platform fee", <span key="pf" className="tabular">{formatMoney(booking.platformFeeMinor, booking.currency)}</span>]);
     rows.push(["Inspector's share", <span key="share" className="tabular">{formatMoney(booking.inspectorShareMinor, booking.currency)}</span>]);
   }
