@@ -29,7 +29,7 @@ export class PaymentsRejectedError extends Error {
   }
 }
 
-export type WebhookSignatureProblem = "missing" | "mismatch" | "stale" | "malformed";
+export type WebhookSignatureProblem = "missing" | "mismatch" | "stale" | "malformed" | "not_an_event";
 
 /** A webhook that is not provably from Stripe, or too old to trust: answer 400 and change nothing. */
 export class WebhookSignatureError extends Error {
@@ -42,6 +42,13 @@ export class WebhookSignatureError extends Error {
     super(message, options);
   }
 }
+
+/** What every event we act on has; a signed body without it is refused with 400, not failed on with 500. */
+const webhookEventShape = z.object({
+  id: z.string().min(1),
+  type: z.string().min(1),
+  data: z.object({ object: z.record(z.string(), z.unknown()) }),
+});
 
 /** Seconds a webhook signature stays valid: Stripe's own default tolerance. */
 export const webhookToleranceSeconds = 300;
@@ -321,8 +328,9 @@ export function createPaymentsClient(config: PaymentsConfig) {
      */
     verifyWebhook(rawBody: string, signatureHeader: string | null): Stripe.Event {
       if (!signatureHeader) throw new WebhookSignatureError("The Stripe-Signature header is missing.", "missing");
+      let event: Stripe.Event;
       try {
-        return stripe.webhooks.constructEvent(rawBody, signatureHeader, config.webhookSecret, webhookToleranceSeconds);
+        event = stripe.webhooks.constructEvent(rawBody, signatureHeader, config.webhookSecret, webhookToleranceSeconds);
       } catch (error) {
         const message = error instanceof Error ? error.message : String(error);
         const problem: WebhookSignatureProblem = /tolerance/i.test(message)
@@ -332,6 +340,15 @@ export function createPaymentsClient(config: PaymentsConfig) {
             : "malformed";
         throw new WebhookSignatureError(`Webhook signature rejected (${problem}): ${message.split("\n")[0]}`, problem, { cause: error });
       }
+      // The SDK only refuses old timestamps; one from the future is as untrustworthy (a replay kept for later).
+      const signedAt = Number(/(?:^|,)\s*t=(\d+)/.exec(signatureHeader)?.[1]);
+      if (signedAt > Math.floor(Date.now() / 1000) + webhookToleranceSeconds) {
+        throw new WebhookSignatureError(`Webhook signature rejected (stale): the timestamp is more than ${webhookToleranceSeconds} s in the future.`, "stale");
+      }
+      if (!webhookEventShape.safeParse(event).success) {
+        throw new WebhookSignatureError("Webhook rejected (not_an_event): the body is not a Stripe event with an id, a type and data.object.", "not_an_event");
+      }
+      return event;
     },
   };
 }
