@@ -1,3 +1,4 @@
+import { isIP } from "node:net";
 import { z } from "zod";
 
 /**
@@ -63,6 +64,23 @@ export const environmentSchema = z.object({
     .default("127.0.0.1:4580"),
   POSTMARK_USE_HTTPS: z.enum(["true", "false"]).default("false").transform((value) => value === "true"),
   MAIL_FROM: z.string().min(3, { error: "must be the sender, e.g. Tenthmark <mail@example.test>" }).default("Tenthmark <mail@tenthmark.example.test>"),
+  // The proxies in front of the app (IP addresses or CIDR ranges, comma-separated) whose X-Forwarded-For
+  // entries are believed. Unset: the header is ignored and sign-in limits count per account alone.
+  TRUSTED_PROXIES: z
+    .string()
+    .default("")
+    .transform((value) => value.split(",").map((entry) => entry.trim()).filter(Boolean))
+    .check((context) => {
+      for (const entry of context.value) {
+        const [address = "", prefix, extra] = entry.split("/");
+        const family = isIP(address);
+        const bits = family === 6 ? 128 : 32;
+        const prefixOk = prefix === undefined || (/^\d{1,3}$/.test(prefix) && Number(prefix) <= bits);
+        if (!family || !prefixOk || extra !== undefined) {
+          context.issues.push({ code: "custom", input: context.value, message: `has "${entry}", which is not an IP address or CIDR range (e.g. 10.0.0.0/8, 127.0.0.1)` });
+        }
+      }
+    }),
   // Job queue (pg-boss) schema in DATABASE_URL; tests may run a queue of their own in another schema.
   JOB_QUEUE_SCHEMA: z.string().regex(/^[a-z_][a-z0-9_]*$/).default("pgboss"),
   // Set to "false" to run no job workers in this process (e.g. a web-only server).

@@ -5,6 +5,7 @@ import { APIError, createAuthMiddleware } from "better-auth/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { getDatabase } from "~/db/client.server";
 import { env, sessionSecret } from "~/env.server";
+import { CLIENT_ADDRESS_HEADER } from "./limits.server";
 import { account, rateLimit, session, user, verification } from "./schema";
 import { sendPasswordResetEmail, sendVerificationEmail } from "./emails.server";
 
@@ -92,8 +93,8 @@ function createAuth() {
       storage: "database",
       window: 60,
       max: 600,
-      // Per client address (or one shared bucket when no trusted address header is present, as in local
-      // runs): a flood guard. Guessing passwords is limited per e-mail address and client in limits.server.ts.
+      // Per client address (or one shared bucket when it cannot be known: no TRUSTED_PROXIES, as in local
+      // runs): a flood guard. Guessing passwords is limited per account in limits.server.ts.
       customRules: {
         "/sign-in/email": { window: 60, max: 300 },
         "/sign-up/email": { window: 60, max: 120 },
@@ -103,6 +104,9 @@ function createAuth() {
       },
     },
     advanced: {
+      // The client address as our auth route worked it out (limits.server.ts: X-Forwarded-For only through
+      // TRUSTED_PROXIES); the route removes any value a client sent under this name.
+      ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] },
       cookiePrefix: "tenthmark",
       // Secure only when the app is served over https: the local production build runs on http://localhost.
       useSecureCookies: secure,

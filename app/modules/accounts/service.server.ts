@@ -6,7 +6,7 @@ import { getDatabase } from "~/db/client.server";
 import { env } from "~/env.server";
 import { getAuth } from "./auth.server";
 import { sendInspectorDecisionEmail } from "./emails.server";
-import { checkWrongPasswordLimit, clearWrongPasswords, clientKey, recordWrongPassword } from "./limits.server";
+import { CLIENT_ADDRESS_HEADER, clientAddress, clientKey, reserveSignInAttempt, settleSignInAttempt } from "./limits.server";
 import { inspectorApplication, user, userRole } from "./schema";
 import { emailAddress, type DisplayUnits, type Role } from "./validation";
 
@@ -28,12 +28,22 @@ function cookieHeaders(response: Response): Headers {
   return headers;
 }
 
-// Headers of the visitor's request that better-auth needs: their session, their address, their browser.
-const forwardedHeaders = ["cookie", "user-agent", "x-forwarded-for", "accept-language"];
+// Headers of the visitor's request that better-auth needs: their session, their browser (their address is
+// worked out by us, see withClientAddress).
+const forwardedHeaders = ["cookie", "user-agent", "accept-language"];
+
+/** The request's headers with the client address as we trust it, and none of the client's own claims of one. */
+function withClientAddress(request: Request, headers: Headers): Headers {
+  headers.delete("x-forwarded-for");
+  headers.delete(CLIENT_ADDRESS_HEADER);
+  const address = clientAddress(request);
+  if (address) headers.set(CLIENT_ADDRESS_HEADER, address);
+  return headers;
+}
 
 /** Calls one better-auth endpoint through its HTTP handler, on behalf of the visitor's request. */
 async function callAuthEndpoint(request: Request, path: string, body?: object, method: "GET" | "POST" = "POST") {
-  const headers = new Headers({ origin: env().APP_ORIGIN });
+  const headers = withClientAddress(request, new Headers({ origin: env().APP_ORIGIN }));
   for (const name of forwardedHeaders) {
     const value = request.headers.get(name);
     if (value) headers.set(name, value);
@@ -58,34 +68,42 @@ function unexpected(response: Response, payload: { code?: string; message?: stri
 const minutes = (seconds: number) => Math.max(1, Math.ceil(seconds / 60));
 
 export function wrongPasswordLimitMessage(retryAfterSeconds: number) {
-  return `Too many wrong passwords for this address. Wait ${minutes(retryAfterSeconds)} minute${minutes(retryAfterSeconds) === 1 ? "" : "s"} and try again, or reset your password.`;
+  const wait = retryAfterSeconds < 90 ? `${retryAfterSeconds} seconds` : `${minutes(retryAfterSeconds)} minutes`;
+  return `Too many wrong passwords for this account. Wait ${wait} and try again, or reset your password.`;
 }
 
+const signInOutcome = (status: number) => (status === 200 ? "signed-in" : status === 401 || status === 400 ? "wrong-password" : "not-checked");
+
 /**
- * Signs in with e-mail and password, counting wrong passwords per address and client (limits.server.ts).
+ * Signs in with e-mail and password, counting wrong passwords per account (limits.server.ts).
  * The only door for password sign-in: our page and /api/auth/sign-in/email both come here.
  */
 export async function signInWithPassword(request: Request, input: { email: string; password: string }): Promise<Success<{ userId: string }> | Failure> {
   const email = input.email.trim().toLowerCase();
-  const client = clientKey(request);
-  const limit = await checkWrongPasswordLimit(email, client);
+  const limit = await reserveSignInAttempt(email, clientKey(request));
   if (limit.limited) return { ok: false, status: 429, code: "TOO_MANY_ATTEMPTS", message: wrongPasswordLimitMessage(limit.retryAfterSeconds), retryAfterSeconds: limit.retryAfterSeconds };
 
-  const { response, payload } = await callAuthEndpoint(request, "/sign-in/email", { email, password: input.password, rememberMe: true });
-  if (response.status === 200) {
-    await clearWrongPasswords(email, client);
-    return { ok: true, headers: cookieHeaders(response), userId: (payload.user as { id: string }).id };
+  let result: Awaited<ReturnType<typeof callAuthEndpoint>> | undefined;
+  try {
+    result = await callAuthEndpoint(request, "/sign-in/email", { email, password: input.password, rememberMe: true });
+  } finally {
+    await settleSignInAttempt(email, limit.attemptId, result ? signInOutcome(result.response.status) : "not-checked");
   }
+  const { response, payload } = result;
+  if (response.status === 200) return { ok: true, headers: cookieHeaders(response), userId: (payload.user as { id: string }).id };
   if (response.status === 429) return tooManyRequests(response, "Too many sign-in attempts from your network. Wait a minute and try again.");
   if (response.status === 401 || response.status === 400) {
-    await recordWrongPassword(email, client);
     return { ok: false, status: 401, code: "INVALID_EMAIL_OR_PASSWORD", message: "That e-mail address and password do not match an account. Check both and try again.", field: "password" };
   }
   return unexpected(response, payload);
 }
 
-/** The /api/auth/* resource route: better-auth's handler, with our wrong-password limit on sign-in. */
-export async function handleAuthRequest(request: Request): Promise<Response> {
+/**
+ * The /api/auth/* resource route: better-auth's handler, given the client address as we trust it, with our
+ * wrong-password limit on sign-in.
+ */
+export async function handleAuthRequest(incoming: Request): Promise<Response> {
+  const request = new Request(incoming, { headers: withClientAddress(incoming, new Headers(incoming.headers)) });
   const url = new URL(request.url);
   if (request.method === "POST" && url.pathname === "/api/auth/sign-in/email") {
     const body = (await request
@@ -97,18 +115,21 @@ export async function handleAuthRequest(request: Request): Promise<Response> {
     if (address && !address.success) return Response.json({ code: "INVALID_EMAIL", message: address.error.issues[0]!.message }, { status: 400 });
     const email = address?.data ?? null;
     if (email) {
-      const client = clientKey(request);
-      const limit = await checkWrongPasswordLimit(email, client);
+      const limit = await reserveSignInAttempt(email, clientKey(incoming));
       if (limit.limited) {
         return Response.json(
           { code: "TOO_MANY_ATTEMPTS", message: wrongPasswordLimitMessage(limit.retryAfterSeconds) },
           { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds), "X-Retry-After": String(limit.retryAfterSeconds) } },
         );
       }
-      const response = await getAuth().handler(request);
-      if (response.status === 401) await recordWrongPassword(email, client);
-      if (response.status === 200) await clearWrongPasswords(email, client);
-      return response;
+      let status = 0;
+      try {
+        const response = await getAuth().handler(request);
+        status = response.status;
+        return response;
+      } finally {
+        await settleSignInAttempt(email, limit.attemptId, signInOutcome(status));
+      }
     }
   }
   return getAuth().handler(request);
