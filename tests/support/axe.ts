@@ -19,9 +19,15 @@ export async function wcagViolations(page: Page): Promise<string[]> {
     (tags) => (window as unknown as { axe: { run: (context: Document, options: object) => Promise<AxeResults> } }).axe.run(document, { runOnly: { type: "tag", values: tags }, resultTypes: ["violations"] }),
     WCAG_22_AA,
   );
-  return results.violations.flatMap((violation) =>
+  const found = results.violations.flatMap((violation) =>
     violation.nodes.map((node) => `${violation.id} (${violation.impact}) ${node.target.join(" ")}: ${node.failureSummary?.replace(/\s+/g, " ").slice(0, 300)}`),
   );
+  // A name on an element with no role is not announced by screen readers (ARIA 1.2 prohibits it on generic
+  // elements); axe-core only lists it for review, so it is looked for here.
+  const unnamed = await page.evaluate(() =>
+    [...document.querySelectorAll("span[aria-label]:not([role]), div[aria-label]:not([role]), p[aria-label]:not([role])")].map((element) => `${element.tagName.toLowerCase()} "${element.getAttribute("aria-label")}"`),
+  );
+  return [...found, ...unnamed.map((element) => `aria-label on an element with no role (not announced): ${element}`)];
 }
 
 /** Signs the context in as this person, through the real sign-in endpoint. */
