@@ -6,7 +6,7 @@ import {
   profileShape,
   sortedProfile,
   straightnessEvaluation,
-  windowsOf,
+  windowRuns,
   type ProfilePoint,
   type StraightnessReference,
 } from "./straightness";
@@ -115,11 +115,30 @@ function range(points: readonly ProfilePoint[]): number {
   return max - min;
 }
 
+/**
+ * Worst max − min of the readings over any window of `window` mm. The runs slide forwards (both ends only
+ * move right), so two monotonic queues give each run's highest and lowest reading in O(1): O(n) in all.
+ */
 function worstRangeOver(sorted: readonly ProfilePoint[], window: number): { value: number; from: number; to: number } | null {
   let worst: { value: number; from: number; to: number } | null = null;
-  for (const run of windowsOf(sorted, window)) {
-    const value = range(run);
-    if (worst === null || value > worst.value) worst = { value, from: run[0]!.x, to: run[run.length - 1]!.x };
+  const highest: number[] = []; // indices, readings decreasing
+  const lowest: number[] = []; // indices, readings increasing
+  let highHead = 0;
+  let lowHead = 0;
+  let added = -1;
+  for (const run of windowRuns(sorted, window)) {
+    while (added < run.to) {
+      added++;
+      const y = sorted[added]!.y;
+      while (highest.length > highHead && sorted[highest[highest.length - 1]!]!.y <= y) highest.pop();
+      highest.push(added);
+      while (lowest.length > lowHead && sorted[lowest[lowest.length - 1]!]!.y >= y) lowest.pop();
+      lowest.push(added);
+    }
+    while (highest[highHead]! < run.from) highHead++;
+    while (lowest[lowHead]! < run.from) lowHead++;
+    const value = sorted[highest[highHead]!]!.y - sorted[lowest[lowHead]!]!.y;
+    if (worst === null || value > worst.value) worst = { value, from: sorted[run.from]!.x, to: sorted[run.to]!.x };
   }
   return worst;
 }

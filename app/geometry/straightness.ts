@@ -57,39 +57,48 @@ export function sortedProfile(points: readonly ProfilePoint[]): ProfilePoint[] {
   return order.map((i) => ({ x: points[i]!.x, y: points[i]!.y }));
 }
 
-function bandAround(points: readonly ProfilePoint[], slope: number): { top: number; bottom: number } {
+/** A run of consecutive stations of a sorted profile, first and last index included. */
+interface Run {
+  from: number;
+  to: number;
+}
+
+const whole = (sorted: readonly ProfilePoint[]): Run => ({ from: 0, to: sorted.length - 1 });
+
+function bandAround(sorted: readonly ProfilePoint[], run: Run, slope: number): { top: number; bottom: number } {
   let top = -Infinity;
   let bottom = Infinity;
-  for (const { x, y } of points) {
-    const r = y - slope * x;
+  for (let i = run.from; i <= run.to; i++) {
+    const r = sorted[i]!.y - slope * sorted[i]!.x;
     if (r > top) top = r;
     if (r < bottom) bottom = r;
   }
   return { top, bottom };
 }
 
-function endPointSlope(sorted: readonly ProfilePoint[]): number {
-  const first = sorted[0]!;
-  const last = sorted[sorted.length - 1]!;
+function endPointSlope(sorted: readonly ProfilePoint[], run: Run = whole(sorted)): number {
+  const first = sorted[run.from]!;
+  const last = sorted[run.to]!;
   return (last.y - first.y) / (last.x - first.x);
 }
 
 /** Ordinary least-squares regression of y on x, centred for numerical stability. */
-function leastSquaresSlope(sorted: readonly ProfilePoint[]): number {
-  const n = sorted.length;
+function leastSquaresSlope(sorted: readonly ProfilePoint[], run: Run): number {
+  const n = run.to - run.from + 1;
   let meanX = 0;
   let meanY = 0;
-  for (const p of sorted) {
-    meanX += p.x;
-    meanY += p.y;
+  for (let i = run.from; i <= run.to; i++) {
+    meanX += sorted[i]!.x;
+    meanY += sorted[i]!.y;
   }
   meanX /= n;
   meanY /= n;
   let sxy = 0;
   let sxx = 0;
-  for (const p of sorted) {
-    sxy += (p.x - meanX) * (p.y - meanY);
-    sxx += (p.x - meanX) * (p.x - meanX);
+  for (let i = run.from; i <= run.to; i++) {
+    const dx = sorted[i]!.x - meanX;
+    sxy += dx * (sorted[i]!.y - meanY);
+    sxx += dx * dx;
   }
   return sxy / sxx;
 }
@@ -98,11 +107,12 @@ function cross(o: ProfilePoint, a: ProfilePoint, b: ProfilePoint): number {
   return (a.x - o.x) * (b.y - o.y) - (a.y - o.y) * (b.x - o.x);
 }
 
-/** Lower and upper convex hull, left to right (Andrew's monotone chain); input sorted by x. */
-function convexHull(sorted: readonly ProfilePoint[]): { lower: ProfilePoint[]; upper: ProfilePoint[] } {
+/** Lower and upper convex hull of a run, left to right (Andrew's monotone chain, O(n) on sorted input). */
+function convexHull(sorted: readonly ProfilePoint[], run: Run): { lower: ProfilePoint[]; upper: ProfilePoint[] } {
   const lower: ProfilePoint[] = [];
   const upper: ProfilePoint[] = [];
-  for (const p of sorted) {
+  for (let i = run.from; i <= run.to; i++) {
+    const p = sorted[i]!;
     while (lower.length >= 2 && cross(lower[lower.length - 2]!, lower[lower.length - 1]!, p) <= 0) lower.pop();
     lower.push(p);
     while (upper.length >= 2 && cross(upper[upper.length - 2]!, upper[upper.length - 1]!, p) >= 0) upper.pop();
@@ -121,20 +131,25 @@ function edgeSlopes(chain: readonly ProfilePoint[]): number[] {
 
 /**
  * The narrowest band along y is parallel to an edge of the convex hull, because its width is a convex
- * piecewise-linear function of the slope that breaks only at edge slopes. Walk the edge slopes in
- * increasing order while two pointers track the supporting vertices on the upper and lower hull.
+ * piecewise-linear function of the slope that breaks only at edge slopes. Rotating calipers: the lower
+ * hull's edge slopes increase left to right and the upper hull's decrease, so one merge walks every edge
+ * slope in increasing order while the supporting vertex on each chain only ever moves one way. O(n) on
+ * sorted stations, O(n log n) with the sort.
  */
-function minimumZoneSlope(sorted: readonly ProfilePoint[]): number {
-  const { lower, upper } = convexHull(sorted);
+function minimumZoneSlope(sorted: readonly ProfilePoint[], run: Run): number {
+  const { lower, upper } = convexHull(sorted, run);
   const lowerSlopes = edgeSlopes(lower); // increasing
   const upperSlopes = edgeSlopes(upper); // decreasing
-  const candidates = [...lowerSlopes, ...upperSlopes].sort((a, b) => a - b);
 
+  let nextLower = 0;
+  let nextUpper = upperSlopes.length - 1;
   let iu = upper.length - 1; // the highest point for very steep negative slopes is the rightmost
   let il = 0;
-  let bestSlope = candidates[0]!;
+  let bestSlope = NaN;
   let bestWidth = Infinity;
-  for (const slope of candidates) {
+  while (nextLower < lowerSlopes.length || nextUpper >= 0) {
+    const fromLower = nextUpper < 0 || (nextLower < lowerSlopes.length && lowerSlopes[nextLower]! <= upperSlopes[nextUpper]!);
+    const slope = fromLower ? lowerSlopes[nextLower++]! : upperSlopes[nextUpper--]!;
     while (iu > 0 && upperSlopes[iu - 1]! < slope) iu--;
     while (il < lower.length - 1 && lowerSlopes[il]! < slope) il++;
     const top = upper[iu]!.y - slope * upper[iu]!.x;
@@ -147,24 +162,24 @@ function minimumZoneSlope(sorted: readonly ProfilePoint[]): number {
   return bestSlope;
 }
 
-function evaluateSorted(sorted: readonly ProfilePoint[], reference: StraightnessReference): StraightnessEvaluation {
+function evaluateRun(sorted: readonly ProfilePoint[], run: Run, reference: StraightnessReference): StraightnessEvaluation {
   let slope: number;
   switch (reference) {
     case "end-points":
-      slope = endPointSlope(sorted);
+      slope = endPointSlope(sorted, run);
       break;
     case "least-squares":
-      slope = leastSquaresSlope(sorted);
+      slope = leastSquaresSlope(sorted, run);
       break;
     case "minimum-zone":
-      slope = minimumZoneSlope(sorted);
+      slope = minimumZoneSlope(sorted, run);
       break;
     default:
       throw new GeometryInputError(
         `Unknown straightness reference "${String(reference)}"; use one of ${STRAIGHTNESS_REFERENCES.join(", ")}.`,
       );
   }
-  const { top, bottom } = bandAround(sorted, slope);
+  const { top, bottom } = bandAround(sorted, run, slope);
   return { reference, deviation: top - bottom, line: { slope, intercept: (top + bottom) / 2 } };
 }
 
@@ -172,7 +187,8 @@ export function straightnessEvaluation(
   points: readonly ProfilePoint[],
   reference: StraightnessReference,
 ): StraightnessEvaluation {
-  return evaluateSorted(sortedProfile(points), reference);
+  const sorted = sortedProfile(points);
+  return evaluateRun(sorted, whole(sorted), reference);
 }
 
 /** Width (µm) of the band parallel to the reference line that holds every point. */
@@ -211,21 +227,27 @@ export function profileShape(points: readonly ProfilePoint[], resolution = 0): S
   return { shape, above, below };
 }
 
-/** Consecutive runs of points whose stations lie within `window` mm of the run's first station. */
-export function windowsOf(sorted: readonly ProfilePoint[], window: number): ProfilePoint[][] {
-  const runs: ProfilePoint[][] = [];
+/**
+ * Each maximal run of consecutive stations that lie within `window` mm of the run's first station (as index
+ * ranges, so no run is copied). Later runs that only hold a subset of one already given are left out.
+ */
+export function windowRuns(sorted: readonly ProfilePoint[], window: number): Run[] {
+  const runs: Run[] = [];
   let end = 0;
   for (let start = 0; start < sorted.length; start++) {
     const limit = sorted[start]!.x + window * (1 + 1e-12);
     if (end < start) end = start;
     while (end + 1 < sorted.length && sorted[end + 1]!.x <= limit) end++;
-    if (end > start) runs.push(sorted.slice(start, end + 1));
+    if (end > start) runs.push({ from: start, to: end });
     if (end === sorted.length - 1) break; // later windows only hold subsets of this one
   }
   return runs;
 }
 
-/** Worst straightness over any window of `window` mm, each window judged against its own reference line. */
+/**
+ * Worst straightness over any window of `window` mm, each window judged against its own reference line.
+ * O(n · k) for k stations per window; the counts in limits.ts keep that small.
+ */
 export function localStraightness(
   points: readonly ProfilePoint[],
   reference: StraightnessReference,
@@ -233,10 +255,10 @@ export function localStraightness(
 ): { deviation: number; from: number; to: number } | null {
   const sorted = sortedProfile(points);
   let worst: { deviation: number; from: number; to: number } | null = null;
-  for (const run of windowsOf(sorted, window)) {
-    const { deviation } = evaluateSorted(run, reference);
+  for (const run of windowRuns(sorted, window)) {
+    const { deviation } = evaluateRun(sorted, run, reference);
     if (worst === null || deviation > worst.deviation) {
-      worst = { deviation, from: run[0]!.x, to: run[run.length - 1]!.x };
+      worst = { deviation, from: sorted[run.from]!.x, to: sorted[run.to]!.x };
     }
   }
   return worst;
