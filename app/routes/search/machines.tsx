@@ -53,7 +53,6 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
   const [draft, setDraft] = useState<SearchDraft>(() => draftFromParams(searchParams, units));
   const [filtersOpen, setFiltersOpen] = useState(false);
   const [attempt, setAttempt] = useState(0);
-  const resultsRef = useRef<HTMLDivElement>(null);
   const resultsHeadingRef = useRef<HTMLHeadingElement>(null);
 
   // The address is the state: back, forward and shared links set the form from it.
@@ -188,7 +187,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             </div>
           </aside>
 
-          <section aria-label="Results" ref={resultsRef} aria-busy={loading} className={cx("min-w-0 transition-opacity", loading && "opacity-60")}>
+          <section aria-label="Results" aria-busy={loading} className={cx("min-w-0 transition-opacity", loading && "opacity-60")}>
             {search?.notice ? (
               <p role="status" className="mb-4 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800" data-testid="search-notice">
                 {search.notice}
