@@ -4,8 +4,9 @@ import { mkdirSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import {
+  BUILT_IN_PROFILES,
   CENTRE_LATHE_NORMAL,
-  evaluationRequestSchema,
+  evaluationRequestSchemaFor,
   scoreEvaluation,
   scoreReport,
   type ReportMeasurements,
@@ -113,7 +114,8 @@ export async function runScoringBench(): Promise<ScoringBenchResult> {
 
   const jsonParseMs = medianMs(() => JSON.parse(payload));
   const scoreReportMs = medianMs(() => scoreReport(CENTRE_LATHE_NORMAL, parsed.measurements));
-  const validateAndScoreMs = medianMs(() => scoreEvaluation(evaluationRequestSchema.parse(parsed)));
+  const schema = evaluationRequestSchemaFor(BUILT_IN_PROFILES);
+  const validateAndScoreMs = medianMs(() => scoreEvaluation(CENTRE_LATHE_NORMAL, schema.parse(parsed)));
 
   const result: ScoringBenchResult = {
     benchmark: "scoring",

@@ -5,3 +5,4 @@ export * from "../modules/listings/schema";
 export * from "../modules/inspections/schema";
 export * from "../modules/reports/schema";
 export * from "../modules/search/saved-searches/schema";
+export * from "../modules/profiles/schema";

@@ -10,6 +10,7 @@ import {
   type ProfilePoint,
   type StraightnessReference,
 } from "./straightness";
+import { sourceLabel } from "./sources";
 import { toleranceOver } from "./tolerance";
 import type {
   Conditions,
@@ -17,6 +18,7 @@ import type {
   EvaluationMethod,
   LocalResult,
   MeasurementKind,
+  ProfileRules,
   ProfileTest,
   TestMeasurement,
   TestResult,
@@ -44,8 +46,11 @@ export function withinLimit(ratio: number, limit: number): boolean {
   return ratio <= limit * (1 + RELATIVE_NOISE);
 }
 
+/** The profile-wide rules a single test is scored under (rounding, least count); none by default. */
+export type TestRules = Pick<ProfileRules, "rounding" | "leastCount">;
+
 /** The tolerance a spec gives at the measured length (mm), or at the test's nominal length when null. */
-export function toleranceAt(spec: ToleranceSpec, length: number | null, nominal: number | null = null): number {
+export function toleranceAt(spec: ToleranceSpec, length: number | null, nominal: number | null = null, rules: TestRules = {}): number {
   switch (spec.type) {
     case "fixed":
       return spec.tolerance;
@@ -57,6 +62,7 @@ export function toleranceAt(spec: ToleranceSpec, length: number | null, nominal:
           over: spec.over,
           minimum: spec.minimum,
           ...(spec.maximum !== undefined ? { maximum: spec.maximum } : {}),
+          ...(rules.rounding ? { roundTo: rules.rounding.step } : {}),
         },
         at,
       );
@@ -325,6 +331,7 @@ export function evaluateTest(
   test: ProfileTest,
   measurement: TestMeasurement,
   conditions?: Conditions,
+  rules: TestRules = {},
 ): TestResult {
   const kinds = KINDS_FOR_METHOD[test.method];
   if (!kinds.includes(measurement?.kind)) {
@@ -340,7 +347,7 @@ export function evaluateTest(
   }
   const resolution = measurement.resolution ?? null;
   const evaluated = evaluateReadings(test, measurement, resolution ?? 0);
-  const tolerance = toleranceAt(test.tolerance, evaluated.measuringLength, test.measuringLength.nominal);
+  const tolerance = toleranceAt(test.tolerance, evaluated.measuringLength, test.measuringLength.nominal, rules);
   const direction: DirectionVerdict = { allowed: test.direction.allowed, ...evaluated.direction };
   const warnings: Warning[] = [...evaluated.warnings];
 
@@ -379,7 +386,8 @@ export function evaluateTest(
         "No instrument resolution given: the direction rule is applied with no allowance and the ten-to-one rule " +
         "cannot be checked; give the instrument's smallest reading step.",
     });
-  } else if (resolution > finest / 10 + ABSOLUTE_NOISE) {
+  } else if (resolution > finest / 10 + ABSOLUTE_NOISE && !(rules.leastCount && resolution <= rules.leastCount.value + ABSOLUTE_NOISE)) {
+    // An instrument as fine as the profile's least count is enough, whatever the ten-to-one rule asks.
     warnings.push({
       code: "resolution-coarse",
       message:
@@ -407,9 +415,14 @@ export function evaluateTest(
     resolution,
     warnings,
     sources: {
-      tolerance: test.tolerance.source,
-      ...(test.local ? { local: test.local.source } : {}),
-      direction: test.direction.source,
+      tolerance: sourceLabel(test.tolerance.source),
+      ...(test.local ? { local: sourceLabel(test.local.source) } : {}),
+      direction: sourceLabel(test.direction.source),
+    },
+    confidence: {
+      tolerance: test.tolerance.source.confidence,
+      ...(test.local ? { local: test.local.source.confidence } : {}),
+      direction: test.direction.source.confidence,
     },
   };
 }

@@ -1,7 +1,6 @@
 import { GeometryInputError } from "./errors";
-import { getProfile } from "./profiles";
 import { scoreReport } from "./report";
-import type { ReportMeasurements, ReportScore, TestMeasurement } from "./types";
+import type { ReportMeasurements, ReportScore, TestMeasurement, ToleranceProfile } from "./types";
 import { inchesToMicrometres, inchesToMillimetres } from "./units";
 
 export type Units = "mm" | "inch";
@@ -62,10 +61,9 @@ export function toMetric(measurements: ReportMeasurements, units: Units): Report
   return { ...measurements, tests };
 }
 
-/** Profile lookup, unit conversion and scoring of one request; errors point at the request's fields. */
-export function scoreEvaluation(request: EvaluationRequest): EvaluationResponse {
-  const profile = getProfile(request.profile.key, request.profile.version);
-  if (!profile) {
+/** Unit conversion and scoring of one request against its profile; errors point at the request's fields. */
+export function scoreEvaluation(profile: ToleranceProfile, request: EvaluationRequest): EvaluationResponse {
+  if (profile.key !== request.profile.key || profile.version !== request.profile.version) {
     throw new GeometryInputError(
       `No tolerance profile ${request.profile.key} v${request.profile.version}.`,
       ["profile", "key"],

@@ -22,20 +22,37 @@ export {
   type StraightnessEvaluation,
   type StraightnessReference,
 } from "./straightness";
-export { toleranceOver, type ProportionalRule } from "./tolerance";
-export { evaluateTest, toleranceAt, KINDS_FOR_METHOD } from "./acceptance-tests";
+export { toleranceOver, roundToStep, type ProportionalRule } from "./tolerance";
+export { evaluateTest, toleranceAt, KINDS_FOR_METHOD, type TestRules } from "./acceptance-tests";
 export { scoreReport, gradeOf, type GradedOutcome } from "./report";
 export {
-  PROFILES,
+  BUILT_IN_PROFILES,
   CENTRE_LATHE_NORMAL,
   CENTRE_LATHE_PRECISION,
-  getProfile,
-  latestProfile,
+  CENTRE_LATHE_PRECISION_V1,
+  findProfile,
+  newestVersions,
+  makerChartFits,
+  sizeFits,
   suggestProfile,
 } from "./profiles";
+export {
+  toleranceProfileSchema,
+  profileTestSchema,
+  profileSettingsSchema,
+  valueSourceSchema,
+  compareSerials,
+  MACHINE_CATEGORIES,
+  MACHINE_DIMENSIONS,
+  EVALUATION_METHODS,
+  ALLOWED_DIRECTIONS,
+  KEY_FIGURE_NAMES,
+  PROFILE_LIMITS,
+} from "./profile-schema";
+export { sourceLabel, confidenceOfLabel, testsScoredFromMemory, CONFIDENCE_LABELS, SOURCE_CONFIDENCES } from "./sources";
 export { toMetric, scoreEvaluation, type EvaluationRequest, type EvaluationResponse, type Units } from "./evaluate";
 export {
-  evaluationRequestSchema,
+  evaluationRequestSchemaFor,
   keyedByTestCode,
   reportMeasurementsSchema,
   testMeasurementSchema,

@@ -1,22 +1,46 @@
 import { GeometryInputError, requirePositive } from "./errors";
-import type { MachineCategory, ProfileTest, ToleranceProfile, ToleranceSpec } from "./types";
+import { compareSerials, MACHINE_CATEGORIES } from "./profile-schema";
+import { roundToStep } from "./tolerance";
+import type { MachineForProfile, ProfileTest, ToleranceProfile, ToleranceSpec, ValueSource } from "./types";
 
-// Labels as in GEOMETRY.md; tests and stored reports repeat them beside each value.
-const ISO_1708_FROM_MEMORY = "ISO 1708:1989, from memory";
-const PROPORTION_FROM_MEMORY = "ISO 1708:1989 values, from memory; rule of proportionality, ISO 230-1, from memory";
-const COMMON_PRACTICE = "common practice";
-const PRECISION_SOURCE =
-  "half the normal class (Schlesinger, Testing Machine Tools, as quoted second-hand), " +
-  "never below 5 µm (IS 6040:1993)";
+// The built-in profiles: the engine's own data, seeded into the database as published versions (the app
+// scores against the database's copy; these stay for the seed, the tests and the bench). Labels as in
+// GEOMETRY.md; tests and stored reports repeat them beside each value.
+const ISO_1708_FROM_MEMORY: ValueSource = { confidence: "from-memory", document: "ISO 1708:1989" };
+const PROPORTION_FROM_MEMORY: ValueSource = {
+  confidence: "from-memory",
+  document: "ISO 1708:1989",
+  note: "scaled by the rule of proportionality of ISO 230-1, also from memory",
+};
+const LOW_CONFIDENCE: ValueSource = { confidence: "from-memory", document: "ISO 1708:1989", note: "low confidence" };
+const COMMON_PRACTICE: ValueSource = { confidence: "common-practice" };
+const FROM_MEMORY: ValueSource = { confidence: "from-memory" };
+const PRECISION_SOURCE: ValueSource = {
+  confidence: "from-memory",
+  document: "half the normal class (Schlesinger, Testing Machine Tools, as quoted second-hand)",
+  note: "never below 5 µm, IS 6040:1993",
+};
+const IS_6040 = (clause: string, note?: string): ValueSource => ({
+  confidence: "published",
+  document: "IS 6040",
+  edition: "1993",
+  clause,
+  ...(note ? { note } : {}),
+});
+const PRECISION_ON_GRID: ValueSource = {
+  confidence: "from-memory",
+  document: "half the normal class (Schlesinger, Testing Machine Tools, as quoted second-hand)",
+  note: "never below 5 µm and on the 2 µm grid, IS 6040:1993, clause 3.5",
+};
 
 const NORMAL_MINIMUM = 10; // µm, from memory
-const PRECISION_MINIMUM = 5; // µm, IS 6040:1993
+const PRECISION_MINIMUM = 5; // µm, IS 6040:1993, clause 3.5
 
 const VERTICAL_PLUS = "+ = free end higher";
 const HORIZONTAL_PLUS = "+ = free end toward the tool (front, operator side, on a front-tool-post lathe)";
 const UNSIGNED = "no sign: max − min of the readings";
 
-function proportional(tolerance: number, over: number, extra: { maximum?: number; source?: string } = {}): ToleranceSpec {
+function proportional(tolerance: number, over: number, extra: { maximum?: number; source?: ValueSource } = {}): ToleranceSpec {
   return {
     type: "proportional",
     tolerance,
@@ -51,7 +75,7 @@ const NORMAL_CLASS_TESTS: readonly ProfileTest[] = [
     local: { tolerance: 7.5, window: 250, source: ISO_1708_FROM_MEMORY },
     method: "straightness",
     reference: "end-points",
-    direction: { allowed: "convex", positive: "+ = higher; convex = middle above the end-point line", source: "from memory" },
+    direction: { allowed: "convex", positive: "+ = higher; convex = middle above the end-point line", source: FROM_MEMORY },
     unit: "µm",
     required: true,
   },
@@ -294,7 +318,7 @@ const NORMAL_CLASS_TESTS: readonly ProfileTest[] = [
     direction: {
       allowed: "positive",
       positive: "+ = faced surface concave (the travel moves toward the tailstock as it goes outward)",
-      source: "common practice (faced work must not rock)",
+      source: { confidence: "common-practice", note: "faced work must not rock" },
     },
     unit: "µm",
     required: true,
@@ -317,9 +341,9 @@ const NORMAL_CLASS_TESTS: readonly ProfileTest[] = [
     measures: "Cumulative pitch error of the carriage driven by the leadscrew, over any 300 mm and any 60 mm",
     instrument: "Carriage driven by the leadscrew against a reference length (scale, gauge blocks); readings are position errors",
     measuringLength: { nominal: 300, description: "Any 300 mm (and any 60 mm) of travel" },
-    tolerance: proportional(40, 300, { maximum: 40, source: "ISO 1708:1989, from memory (low confidence)" }),
+    tolerance: proportional(40, 300, { maximum: 40, source: LOW_CONFIDENCE }),
     overAnyWindow: 300,
-    local: { tolerance: 15, window: 60, source: "ISO 1708:1989, from memory (low confidence)" },
+    local: { tolerance: 15, window: 60, source: LOW_CONFIDENCE },
     method: "range-along",
     direction: { allowed: "any", positive: UNSIGNED, source: ISO_1708_FROM_MEMORY },
     unit: "µm",
@@ -368,17 +392,19 @@ const NORMAL_CLASS_TESTS: readonly ProfileTest[] = [
   },
 ];
 
-function halved(value: number): number {
-  return Math.max(value / 2, PRECISION_MINIMUM);
-}
-
-/** Precision class: half of every normal-class tolerance, never below 5 µm. */
-function precisionTest(test: ProfileTest): ProfileTest {
+/** Precision class: half of every normal-class tolerance, never below 5 µm, optionally put on a grid. */
+function precisionTest(test: ProfileTest, options: { grid?: number; source: ValueSource }): ProfileTest {
+  const halved = (value: number) => {
+    const half = value / 2;
+    // Only a half that is not a whole micrometre (7.5, 12.5) is moved onto the grid.
+    const onGrid = options.grid && !Number.isInteger(half) ? roundToStep(half, options.grid) : half;
+    return Math.max(onGrid, PRECISION_MINIMUM);
+  };
   const spec = test.tolerance;
   let tolerance: ToleranceSpec;
   switch (spec.type) {
     case "fixed":
-      tolerance = { type: "fixed", tolerance: halved(spec.tolerance), source: PRECISION_SOURCE };
+      tolerance = { type: "fixed", tolerance: halved(spec.tolerance), source: options.source };
       break;
     case "proportional":
       tolerance = {
@@ -387,23 +413,21 @@ function precisionTest(test: ProfileTest): ProfileTest {
         over: spec.over,
         minimum: PRECISION_MINIMUM,
         ...(spec.maximum !== undefined ? { maximum: halved(spec.maximum) } : {}),
-        source: PRECISION_SOURCE,
+        source: options.source,
       };
       break;
     case "stepped":
       tolerance = {
         type: "stepped",
         steps: spec.steps.map((step) => ({ upTo: step.upTo, tolerance: halved(step.tolerance) })),
-        source: PRECISION_SOURCE,
+        source: options.source,
       };
       break;
   }
   return {
     ...test,
     tolerance,
-    ...(test.local
-      ? { local: { tolerance: halved(test.local.tolerance), window: test.local.window, source: PRECISION_SOURCE } }
-      : {}),
+    ...(test.local ? { local: { tolerance: halved(test.local.tolerance), window: test.local.window, source: options.source } } : {}),
   };
 }
 
@@ -417,10 +441,12 @@ const KEY_FIGURES = {
 } as const;
 
 const LATHE_SCOPE = {
-  swingMaxMm: 800,
-  betweenCentresMaxMm: 1500,
+  limits: [
+    { dimension: "swingOverBedMm", maxMm: 800 },
+    { dimension: "distanceBetweenCentresMm", maxMm: 1500 },
+  ],
   source: ISO_1708_FROM_MEMORY,
-};
+} as const;
 
 export const CENTRE_LATHE_NORMAL: ToleranceProfile = deepFreeze({
   key: "centre-lathe-normal",
@@ -429,59 +455,109 @@ export const CENTRE_LATHE_NORMAL: ToleranceProfile = deepFreeze({
   category: "centre-lathe",
   accuracyClass: "normal",
   scope: LATHE_SCOPE,
-  minimumTolerance: { value: NORMAL_MINIMUM, source: "from memory" },
+  rules: { minimumTolerance: { value: NORMAL_MINIMUM, source: FROM_MEMORY } },
   keyFigures: KEY_FIGURES,
   tests: NORMAL_CLASS_TESTS,
 });
 
-export const CENTRE_LATHE_PRECISION: ToleranceProfile = deepFreeze({
+/** Version 1 of the precision class: kept as it was for the reports scored with it. */
+export const CENTRE_LATHE_PRECISION_V1: ToleranceProfile = deepFreeze({
   key: "centre-lathe-precision",
   version: 1,
   title: "Centre lathe, precision (toolroom) class (swing ≤ 800 mm, between centres ≤ 1500 mm)",
   category: "toolroom-lathe",
   accuracyClass: "precision",
   scope: LATHE_SCOPE,
-  minimumTolerance: { value: PRECISION_MINIMUM, source: "IS 6040:1993" },
+  rules: { minimumTolerance: { value: PRECISION_MINIMUM, source: IS_6040("clause 3.5") } },
   keyFigures: KEY_FIGURES,
-  tests: NORMAL_CLASS_TESTS.map(precisionTest),
+  tests: NORMAL_CLASS_TESTS.map((test) => precisionTest(test, { source: PRECISION_SOURCE })),
 });
 
-/** Every profile the engine knows, each version kept so that old reports re-score the same way. */
-export const PROFILES: readonly ToleranceProfile[] = Object.freeze([CENTRE_LATHE_NORMAL, CENTRE_LATHE_PRECISION]);
+/**
+ * Version 2 follows the published rules of IS 6040:1993 (the precision-lathe chart aligned with
+ * ISO 1708:1989): its scope (swing ≤ 500 mm, between centres ≤ 1 500 mm), proportional tolerances rounded
+ * to the nearest 0.002 mm and never below 0.005 mm, and instruments that need not read finer than 0.002 mm
+ * (clause 3.5). The values themselves are still the halved normal class.
+ */
+export const CENTRE_LATHE_PRECISION: ToleranceProfile = deepFreeze({
+  key: "centre-lathe-precision",
+  version: 2,
+  title: "Centre lathe, precision (toolroom) class (swing ≤ 500 mm, between centres ≤ 1500 mm)",
+  category: "toolroom-lathe",
+  accuracyClass: "precision",
+  scope: {
+    limits: [
+      { dimension: "swingOverBedMm", maxMm: 500 },
+      { dimension: "distanceBetweenCentresMm", maxMm: 1500 },
+    ],
+    source: IS_6040("scope"),
+  },
+  rules: {
+    minimumTolerance: { value: PRECISION_MINIMUM, source: IS_6040("clause 3.5") },
+    rounding: { step: 2, source: IS_6040("clause 3.5") },
+    leastCount: { value: 2, source: IS_6040("clause 3.5") },
+  },
+  keyFigures: KEY_FIGURES,
+  tests: NORMAL_CLASS_TESTS.map((test) => precisionTest(test, { grid: 2, source: PRECISION_ON_GRID })),
+});
 
-export function getProfile(key: string, version: number): ToleranceProfile | undefined {
-  return PROFILES.find((profile) => profile.key === key && profile.version === version);
+/** Every built-in profile version, oldest first; the seed publishes each once. */
+export const BUILT_IN_PROFILES: readonly ToleranceProfile[] = Object.freeze([CENTRE_LATHE_NORMAL, CENTRE_LATHE_PRECISION_V1, CENTRE_LATHE_PRECISION]);
+
+export function findProfile(profiles: readonly ToleranceProfile[], key: string, version: number): ToleranceProfile | undefined {
+  return profiles.find((profile) => profile.key === key && profile.version === version);
 }
 
-export function latestProfile(key: string): ToleranceProfile | undefined {
-  return PROFILES.filter((profile) => profile.key === key).sort((a, b) => b.version - a.version)[0];
+/** The newest version of each key. */
+export function newestVersions(profiles: readonly ToleranceProfile[]): ToleranceProfile[] {
+  const newest = new Map<string, ToleranceProfile>();
+  for (const profile of profiles) {
+    const seen = newest.get(profile.key);
+    if (!seen || seen.version < profile.version) newest.set(profile.key, profile);
+  }
+  return [...newest.values()];
+}
+
+const sameName = (a: string, b: string) => a.trim().localeCompare(b.trim(), "en", { sensitivity: "base" }) === 0;
+
+/** Whether a maker's chart is for this machine: same make and model, serial inside the range when one is set. */
+export function makerChartFits(profile: ToleranceProfile, machine: MachineForProfile): boolean {
+  const maker = profile.scope.maker;
+  if (!maker || !machine.make || !machine.model) return false;
+  if (!sameName(maker.make, machine.make) || !sameName(maker.model, machine.model)) return false;
+  if (!maker.serialFrom && !maker.serialTo) return true;
+  const serial = machine.serialNumber?.trim();
+  if (!serial) return false;
+  return (!maker.serialFrom || compareSerials(maker.serialFrom, serial) <= 0) && (!maker.serialTo || compareSerials(serial, maker.serialTo) <= 0);
+}
+
+/** Whether the machine's known sizes are inside the profile's limits (an unknown size is not checked). */
+export function sizeFits(profile: ToleranceProfile, machine: MachineForProfile): boolean {
+  return profile.scope.limits.every((limit) => {
+    const size = machine.dimensions[limit.dimension];
+    return size === null || size === undefined || size <= limit.maxMm;
+  });
 }
 
 /**
- * The newest profile for a machine of this category, swing and distance between centres, or null when
- * no profile covers it (e.g. swing over 800 mm: not yet sourced).
+ * The profile to suggest for a machine, among the versions offered for new reports: a maker's chart for its
+ * make, model (and serial) first, then the general class for its category and size; only the newest version
+ * of each profile counts. Null when none covers it (e.g. a lathe with over 800 mm swing: not yet sourced).
  */
-export function suggestProfile(machine: {
-  category: MachineCategory;
-  swingMm: number;
-  betweenCentresMm: number;
-}): ToleranceProfile | null {
-  requirePositive(machine?.swingMm, "The swing over the bed (mm)", ["swingMm"]);
-  requirePositive(machine.betweenCentresMm, "The distance between centres (mm)", ["betweenCentresMm"]);
-  const categories: readonly MachineCategory[] = ["centre-lathe", "toolroom-lathe"];
-  if (!categories.includes(machine.category)) {
+export function suggestProfile(profiles: readonly ToleranceProfile[], machine: MachineForProfile): ToleranceProfile | null {
+  if (!MACHINE_CATEGORIES.includes(machine?.category)) {
     throw new GeometryInputError(
-      `No profiles for machine category "${String(machine.category)}"; use one of ${categories.join(", ")}.`,
+      `No profiles for machine category "${String(machine?.category)}"; use one of ${MACHINE_CATEGORIES.join(", ")}.`,
       ["category"],
     );
   }
-  const candidates = PROFILES.filter(
-    (profile) =>
-      profile.category === machine.category &&
-      machine.swingMm <= profile.scope.swingMaxMm &&
-      machine.betweenCentresMm <= profile.scope.betweenCentresMaxMm,
-  ).sort((a, b) => b.version - a.version);
-  return candidates[0] ?? null;
+  for (const [dimension, size] of Object.entries(machine.dimensions)) {
+    if (size !== null && size !== undefined) requirePositive(size, `The machine's ${dimension}`, ["dimensions", dimension]);
+  }
+  const candidates = newestVersions(profiles)
+    .filter((profile) => profile.category === machine.category && sizeFits(profile, machine))
+    .sort((a, b) => a.key.localeCompare(b.key));
+  return candidates.find((profile) => makerChartFits(profile, machine)) ?? candidates.find((profile) => !profile.scope.maker) ?? null;
 }
 
 function deepFreeze<T>(value: T): T {

@@ -1,6 +1,7 @@
 import { conditionWarnings, evaluateTest, withinLimit } from "./acceptance-tests";
 import { GeometryInputError } from "./errors";
-import type { Grade, KeyFigureName, KeyFigures, ReportMeasurements, ReportScore, TestResult, ToleranceProfile } from "./types";
+import { KEY_FIGURE_NAMES } from "./profile-schema";
+import type { Grade, KeyFigures, ReportMeasurements, ReportScore, TestResult, ToleranceProfile } from "./types";
 
 export interface GradedOutcome {
   ratio: number;
@@ -50,7 +51,7 @@ export function scoreReport(profile: ToleranceProfile, measurements: ReportMeasu
       continue;
     }
     try {
-      results.push(evaluateTest(test, measurement, measurements.conditions));
+      results.push(evaluateTest(test, measurement, measurements.conditions, profile.rules));
     } catch (error) {
       if (error instanceof GeometryInputError) {
         throw new GeometryInputError(`${test.code} (${test.title}): ${error.message}`, ["tests", test.code, ...error.path]);
@@ -66,12 +67,18 @@ export function scoreReport(profile: ToleranceProfile, measurements: ReportMeasu
   );
   const byCode = new Map(results.map((result) => [result.code, result]));
   const keyFigures = {} as KeyFigures;
-  for (const [name, code] of Object.entries(profile.keyFigures) as [KeyFigureName, string][]) {
-    keyFigures[name] = byCode.get(code)?.value ?? null;
+  for (const name of KEY_FIGURE_NAMES) {
+    const code = profile.keyFigures[name];
+    keyFigures[name] = code ? (byCode.get(code)?.value ?? null) : null;
   }
 
   return {
-    profile: { key: profile.key, version: profile.version, title: profile.title },
+    profile: {
+      key: profile.key,
+      version: profile.version,
+      title: profile.title,
+      ...(profile.scope.maker ? { makersChart: profile.scope.maker.chart } : {}),
+    },
     measuredOn: measurements.measuredOn ?? null,
     grade,
     worstRatio: results.length > 0 ? Math.max(...results.map((result) => result.ratio)) : null,

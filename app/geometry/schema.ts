@@ -1,9 +1,9 @@
 import { z } from "zod";
 import { KINDS_FOR_METHOD } from "./acceptance-tests";
 import { MEASUREMENT_LIMITS, measurementLimitIssues } from "./limits";
-import { getProfile, PROFILES } from "./profiles";
+import { findProfile } from "./profiles";
 import { STRAIGHTNESS_REFERENCES } from "./straightness";
-import type { ReportMeasurements, TestMeasurement } from "./types";
+import type { ReportMeasurements, TestMeasurement, ToleranceProfile } from "./types";
 
 // One schema per measurement kind, shared by the API and the forms. Values are in the request's units:
 // "mm" → stations and lengths in mm, readings and resolution in µm; "inch" → all in inches.
@@ -196,8 +196,7 @@ export const unitsSchema = z.enum(["mm", "inch"], {
   error: 'Say which units the readings are in: "mm" (stations in mm, readings in µm) or "inch" (both in inches).',
 });
 
-export const evaluationRequestSchema = z
-  .object({
+const evaluationRequestShape = z.object({
     profile: z.object(
       {
         key: z.string({ error: "Give the tolerance profile's key." }).min(1, "Give the tolerance profile's key."),
@@ -210,11 +209,14 @@ export const evaluationRequestSchema = z
     ),
     units: unitsSchema,
     measurements: reportMeasurementsSchema,
-  })
-  .superRefine((request, ctx) => {
-    const profile = getProfile(request.profile.key, request.profile.version);
+  });
+
+/** The request schema against the profiles that may be scored (passed in: the engine holds none). */
+export function evaluationRequestSchemaFor(profiles: readonly ToleranceProfile[]) {
+  return evaluationRequestShape.superRefine((request, ctx) => {
+    const profile = findProfile(profiles, request.profile.key, request.profile.version);
     if (!profile) {
-      const sameKey = PROFILES.filter((p) => p.key === request.profile.key);
+      const sameKey = profiles.filter((p) => p.key === request.profile.key);
       ctx.addIssue(
         sameKey.length > 0
           ? {
@@ -225,7 +227,7 @@ export const evaluationRequestSchema = z
           : {
               code: "custom",
               path: ["profile", "key"],
-              message: `No tolerance profile "${request.profile.key}"; known profiles: ${[...new Set(PROFILES.map((p) => p.key))].join(", ")}.`,
+              message: `No tolerance profile "${request.profile.key}"; known profiles: ${[...new Set(profiles.map((p) => p.key))].join(", ")}.`,
             },
       );
       return;
@@ -253,8 +255,9 @@ export const evaluationRequestSchema = z
       }
     }
   });
+}
 
-export type EvaluationRequestInput = z.input<typeof evaluationRequestSchema>;
+export type EvaluationRequestInput = z.input<typeof evaluationRequestShape>;
 
 /** Zod issues as { "path.to.field": ["message", …] }; issues on the whole value go under "request". */
 export function fieldErrors(error: z.ZodError): Record<string, string[]> {

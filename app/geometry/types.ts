@@ -4,22 +4,40 @@ import type { ProfileShape, ReferenceLine, StraightnessReference } from "./strai
 // Tolerance profiles (data; see profiles.ts)
 // ---------------------------------------------------------------------------------------------
 
-/** Where a value comes from, in GEOMETRY.md's words: a published source, "common practice" or "from memory". */
+/**
+ * How far a value can be trusted, in GEOMETRY.md's words: read in a published standard, taken from the
+ * machine maker's own acceptance chart, a fact of the trade with no single source, or recalled.
+ */
+export type SourceConfidence = "published" | "manufacturer" | "common-practice" | "from-memory";
+
+/**
+ * Where a value comes from. `document` is the standard ("IS 6040"), the maker's chart's title, or what a
+ * recalled value was recalled from; `edition` the standard's year; `clause` "clause 3.5" or "test G4".
+ */
+export interface ValueSource {
+  confidence: SourceConfidence;
+  document?: string;
+  edition?: string;
+  clause?: string;
+  note?: string;
+}
+
+/** A source as one line a reader can follow, e.g. "IS 6040:1993, clause 3.5" (see sources.ts). */
 export type SourceLabel = string;
 
 export type ToleranceSpec =
   /** One tolerance whatever the measuring length (run-out, axial slip, centre height). */
-  | { type: "fixed"; tolerance: number; source: SourceLabel }
+  | { type: "fixed"; tolerance: number; source: ValueSource }
   /** T over L0, applied over the measured length by proportion and clamped (ISO 230-1, from memory). */
-  | { type: "proportional"; tolerance: number; over: number; minimum: number; maximum?: number; source: SourceLabel }
+  | { type: "proportional"; tolerance: number; over: number; minimum: number; maximum?: number; source: ValueSource }
   /** A tolerance per band of measuring length, e.g. by distance between centres. */
-  | { type: "stepped"; steps: readonly { upTo: number; tolerance: number }[]; source: SourceLabel };
+  | { type: "stepped"; steps: readonly { upTo: number; tolerance: number }[]; source: ValueSource };
 
 /** A tolerance that holds over any window of `window` mm inside the travel. */
 export interface LocalToleranceSpec {
   tolerance: number;
   window: number;
-  source: SourceLabel;
+  source: ValueSource;
 }
 
 /** How the readings of a test become its value. */
@@ -51,7 +69,7 @@ export interface ProfileTest {
   reference?: StraightnessReference;
   /** For range-along: the value is the worst range over any window of this many mm. */
   overAnyWindow?: number;
-  direction: { allowed: AllowedDirection; positive: string; source: SourceLabel };
+  direction: { allowed: AllowedDirection; positive: string; source: ValueSource };
   unit: "µm" | "µm/m";
   required: boolean;
 }
@@ -64,7 +82,49 @@ export type KeyFigureName =
   | "centreHeight"
   | "bedStraightness";
 
+/** Machine kinds the engine has evaluation methods for; a new kind is a new entry here plus its profiles. */
 export type MachineCategory = "centre-lathe" | "toolroom-lathe";
+
+/** Sizes a profile's scope can be bounded by, in mm, named as the listing names them. */
+export type MachineDimension = "swingOverBedMm" | "distanceBetweenCentresMm";
+
+/** The machine a report is for, as far as choosing a profile needs it. */
+export interface MachineForProfile {
+  category: MachineCategory;
+  /** A size left out (unknown) is not checked against the scope. */
+  dimensions: Partial<Record<MachineDimension, number | null>>;
+  make?: string | null;
+  model?: string | null;
+  serialNumber?: string | null;
+}
+
+/** A maker's own acceptance chart covers one make and model, optionally only a range of serial numbers. */
+export interface MakerScope {
+  make: string;
+  model: string;
+  serialFrom?: string;
+  serialTo?: string;
+  /** The chart's title as printed, e.g. "Acceptance test chart shipped with the machine, form 12". */
+  chart: string;
+}
+
+export interface ProfileScope {
+  /** Largest machine covered, per dimension (mm). */
+  limits: readonly { dimension: MachineDimension; maxMm: number }[];
+  maker?: MakerScope;
+  source: ValueSource;
+}
+
+/**
+ * Rules of the profile as a whole. `rounding`: proportional tolerances are rounded to the nearest `step`
+ * µm (before the minimum is applied). `leastCount`: an instrument reading this finely needs no finer one,
+ * so it draws no resolution warning even where the ten-to-one rule would ask for more.
+ */
+export interface ProfileRules {
+  minimumTolerance: { value: number; source: ValueSource };
+  rounding?: { step: number; source: ValueSource };
+  leastCount?: { value: number; source: ValueSource };
+}
 
 export interface ToleranceProfile {
   key: string;
@@ -72,10 +132,10 @@ export interface ToleranceProfile {
   title: string;
   category: MachineCategory;
   accuracyClass: "normal" | "precision";
-  scope: { swingMaxMm: number; betweenCentresMaxMm: number; source: SourceLabel };
-  minimumTolerance: { value: number; source: SourceLabel };
-  /** Which test supplies each key figure. */
-  keyFigures: Readonly<Record<KeyFigureName, string>>;
+  scope: ProfileScope;
+  rules: ProfileRules;
+  /** Which test supplies each key figure; a category without some figure leaves it out. */
+  keyFigures: Readonly<Partial<Record<KeyFigureName, string>>>;
   tests: readonly ProfileTest[];
 }
 
@@ -233,7 +293,10 @@ export interface TestResult {
   window?: { from: number; to: number };
   resolution: number | null;
   warnings: Warning[];
+  /** Where the tolerance, the local tolerance and the direction rule come from, as readable lines. */
   sources: { tolerance: SourceLabel; local?: SourceLabel; direction: SourceLabel };
+  /** How far each of those can be trusted. */
+  confidence: { tolerance: SourceConfidence; local?: SourceConfidence; direction: SourceConfidence };
 }
 
 export type Grade = "A" | "B" | "C" | "D" | "incomplete";
@@ -241,7 +304,7 @@ export type Grade = "A" | "B" | "C" | "D" | "incomplete";
 export type KeyFigures = Record<KeyFigureName, number | null>;
 
 export interface ReportScore {
-  profile: { key: string; version: number; title: string };
+  profile: { key: string; version: number; title: string; makersChart?: string };
   measuredOn: string | null;
   grade: Grade;
   /** Worst ratio over the graded tests (null when none was measured). */

@@ -1,11 +1,12 @@
-import { evaluationRequestSchema, fieldErrors, GeometryInputError, scoreEvaluation } from "~/geometry";
+import { databaseContext } from "~/db/context";
+import { scoreEvaluationRequest } from "~/modules/profiles/service.server";
 import type { Route } from "./+types/api.v1.evaluations";
 
 const ALLOW = { Allow: "POST" };
 
-// POST /api/v1/evaluations: score a measurement set against a tolerance profile. The engine is pure,
-// so this route only parses, scores and answers.
-export async function action({ request }: Route.ActionArgs) {
+// POST /api/v1/evaluations: score a measurement set against a published (or retired) tolerance profile
+// version. The engine is pure; the profiles come from the database.
+export async function action({ request, context }: Route.ActionArgs) {
   if (request.method !== "POST") return methodNotAllowed();
 
   let body: unknown;
@@ -15,19 +16,9 @@ export async function action({ request }: Route.ActionArgs) {
     return Response.json({ errors: { request: ["The body must be JSON (Content-Type: application/json)."] } }, { status: 400 });
   }
 
-  const parsed = evaluationRequestSchema.safeParse(body);
-  if (!parsed.success) return Response.json({ errors: fieldErrors(parsed.error) }, { status: 422 });
-
-  try {
-    return Response.json(scoreEvaluation(parsed.data));
-  } catch (error) {
-    // The schema catches what it can; the engine's own checks are the last word on the readings.
-    if (error instanceof GeometryInputError) {
-      const field = error.path.length > 0 ? error.path.join(".") : "measurements";
-      return Response.json({ errors: { [field]: [error.message] } }, { status: 422 });
-    }
-    throw error;
-  }
+  const scored = await scoreEvaluationRequest(context.get(databaseContext), body);
+  if (!scored.ok) return Response.json({ errors: scored.errors }, { status: 422 });
+  return Response.json(scored.response);
 }
 
 export function loader() {

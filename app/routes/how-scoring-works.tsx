@@ -40,6 +40,33 @@ export default function HowScoringWorks() {
           may sit high, never low. A reading the wrong way fails however small it is.
         </li>
       </ul>
+      <h2 id="sources" className="mt-10 scroll-mt-20 text-xl font-bold text-ink-900">Where the tolerances come from</h2>
+      <p className="mt-2 text-ink-600">
+        Every tolerance a report is scored with names its source, and how far it can be trusted:
+      </p>
+      <ul className="mt-3 list-disc space-y-2 pl-5 text-ink-700">
+        <li>
+          <strong>Published</strong>: read in a standard, with its edition and clause or test number (for example
+          IS 6040:1993, clause 3.5).
+        </li>
+        <li>
+          <strong>Maker's chart</strong>: the acceptance chart the machine's maker shipped with it, named by its title.
+          Such a profile covers one make and model, sometimes only a range of serial numbers.
+        </li>
+        <li>
+          <strong>Common practice</strong>: a rule of the trade with no single written source, such as a mandrel's free
+          end being allowed to rise but never to drop.
+        </li>
+        <li>
+          <strong>From memory</strong>: a value recalled from a standard and not yet checked against a copy of it. A
+          report scored with any such value says so above its results; read those tolerances as a guide.
+        </li>
+      </ul>
+      <p className="mt-3 text-ink-600">
+        The tables are kept as versions. Staff draft a new version, a second staff member reviews the differences and
+        publishes it, and from then on new reports use it. A published version is never changed: a report keeps the
+        exact version it was scored with, and scoring it again gives the same result.
+      </p>
       <h2 className="mt-10 text-xl font-bold text-ink-900">Grades</h2>
       <p className="mt-2 text-ink-600">
         From the worst ratio of measured value to tolerance over the required tests. A grade is always shown with the

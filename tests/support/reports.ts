@@ -27,7 +27,7 @@ async function waitForStatus(bookingId: string, status: string) {
  * A published centre lathe (330 mm swing, 1000 mm between centres), a certified inspector serving its
  * region, and a buyer's booking of that inspector, paid on the stand-in and accepted.
  */
-export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch" } = {}) {
+export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string } = {}) {
   const region = `Oderland ${randomUUID().slice(0, 6)}`;
   const inspector = await createTestUser({ roles: ["inspector"], inspectorStatus: "certified", name: "Aldo Verrin", displayUnits: options.inspectorUnits });
   await saveProfile(db, inspector.id, {
@@ -51,8 +51,8 @@ export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch" 
       slug,
       status: "published",
       category: "centre_lathe",
-      make: "Tessmar",
-      model: "DL 330",
+      make: options.make ?? "Tessmar",
+      model: options.model ?? "DL 330",
       year: 1991,
       serialNumber: "DL330-1187",
       swingOverBedMm: 330,

@@ -5,8 +5,10 @@ import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
 import { KEY_FIGURE_LABELS, reportAge, type KeyFigureKey } from "./content";
 import { DIRECTION_LABELS, formatDeviationBoth, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
+import { env } from "~/env.server";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
 import { renderReadingsCertificate } from "./certificate-readings.server";
+import { fromMemoryNotice, HOW_SCORING_WORKS_SOURCES, makersChartLine, resultSources } from "./sources";
 import type { PublicReport } from "./service.server";
 
 const require = createRequire(import.meta.url);
@@ -189,6 +191,21 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   );
   if (content.score.missing.length) {
     doc.moveDown(0.4).font("regular").fontSize(8.5).fillColor(beyond).text(`Required tests without a reading: ${content.score.missing.join(", ")}.`, left, doc.y, { width });
+  }
+
+  heading("Where the tolerances come from");
+  const chartLine = makersChartLine(content.profile);
+  const recalled = fromMemoryNotice(content.score);
+  for (const note of [chartLine, recalled ? `${recalled} How scoring works: ${env().APP_ORIGIN}${HOW_SCORING_WORKS_SOURCES}` : null]) {
+    if (note) doc.font("bold").fontSize(8.5).fillColor(ink).text(printable(note), left, doc.y, { width }).moveDown(0.2);
+  }
+  for (const result of content.score.results) {
+    const sources = resultSources(result);
+    const parts = [`tolerance: ${sources.tolerance.label} (${sources.tolerance.confidenceLabel})`];
+    if (sources.local) parts.push(`local: ${sources.local.label} (${sources.local.confidenceLabel})`);
+    parts.push(`direction: ${sources.direction.label} (${sources.direction.confidenceLabel})`);
+    ensureSpace(20);
+    doc.font("regular").fontSize(8).fillColor(ink).text(printable(`${result.code} — ${parts.join("; ")}`), left, doc.y, { width });
   }
   if (content.notes) {
     heading("Inspector's notes");

@@ -31,6 +31,8 @@ export interface ReportContent {
     key: string;
     version: number;
     title: string;
+    /** The title of the maker's own acceptance chart, when the profile is one. */
+    makersChart?: string;
     /** What the machine's category and size suggested, and why this profile was used. */
     suggested: { key: string; version: number } | null;
     reason: string;

@@ -210,7 +210,7 @@ export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | u
   );
   const form = {
     units: set.units,
-    profile: { key: machine.profileKey, version: 1, reason: plan.profileReason ?? "" },
+    profile: { key: readings.profile.key, version: readings.profile.version, reason: plan.profileReason ?? "" },
     measuredOn: measuredOn.toISOString().slice(0, 10),
     conditions: plan.conditions,
     instruments: set.list(due),

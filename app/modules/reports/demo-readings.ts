@@ -2,7 +2,8 @@
 // ratio of value to tolerance, quantised to the instrument's resolution, with a seeded jitter so that no two
 // machines read alike. Pure: the seed and the unit tests both use it, and both check the grade it scores to.
 import {
-  getProfile,
+  BUILT_IN_PROFILES,
+  newestVersions,
   KINDS_FOR_METHOD,
   scoreReport,
   toleranceAt,
@@ -73,7 +74,8 @@ function scaleOf(units: EntryUnits): Scale {
 
 /** Readings for every test the machine's plan names, in the entry's units. */
 export function demoReadings(machine: DemoMachine): DemoReadings {
-  const profile = getProfile(machine.profileKey, 1);
+  // The newest built-in version: the one the seeded database offers for new reports.
+  const profile = newestVersions(BUILT_IN_PROFILES).find((candidate) => candidate.key === machine.profileKey);
   if (!profile) throw new Error(`demo readings: no profile ${machine.profileKey}`);
   const random = seededRandom(machine.seed);
   const between = (low: number, high: number) => low + (high - low) * random();
@@ -94,7 +96,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
     const lengthMm = (travel: number) => travel * scale.station;
     switch (test.method) {
       case "run-out": {
-        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const value = Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         const zero = -whole(0, Math.ceil(value / 2));
         if (kind.includes("sweep") && (test.code === "L-SP-NOSE" || test.code === "L-P-ROUND" || test.code === "L-FP-CAM")) {
@@ -116,7 +118,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
         const travel = machine.travel;
         const bedStep = machine.bedResolution ?? step;
         const bedStepUm = bedStep * scale.reading;
-        const tolerance = toleranceAt(test.tolerance, lengthMm(travel));
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), null, profile.rules);
         const xs = stations(travel, 10);
         // A straight line the level would show anyway (the bed is never set dead level), plus the shape.
         const tiltUmPerMm = between(-0.012, 0.012);
@@ -136,7 +138,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
       case "range-along": {
         // The top slide is read over its own short travel (about 100 mm, 4 in).
         const travel = test.code === "L-TOP-PAR" ? (machine.units === "inch" ? 4 : 100) : machine.travel;
-        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal, profile.rules);
         const value = Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         const xs = stations(travel, 4);
         const points = xs.map((x, i) => ({ station: x, reading: reading(i === xs.length - 1 ? value : Math.round((value * i) / (xs.length - 1))) }));
@@ -145,7 +147,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
       }
       case "squareness": {
         const travel = machine.crossTravel;
-        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, lengthMm(travel), test.measuringLength.nominal, profile.rules);
         const value = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         const xs = stations(travel, 6);
         // A straight travel, off square by `value` over its length; the least-squares slope reads it back.
@@ -154,7 +156,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
         break;
       }
       case "level-range": {
-        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const levelStep = machine.levelResolution;
         const value = Math.max(1, Math.round((Math.abs(ratio) * tolerance) / levelStep));
         const xs = stations(machine.travel, 4);
@@ -165,7 +167,7 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
         break;
       }
       case "mandrel-inclination": {
-        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const lean = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         // The mandrel's own run-out shows at 0° and 180° and cancels in the mean (GEOMETRY.md).
         const nearRunOut = whole(1, 2);
@@ -179,14 +181,14 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
         break;
       }
       case "near-far": {
-        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const lean = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         const zero = whole(-2, 2);
         measurements[test.code] = { kind: "near-far", near: reading(zero), far: reading(zero + lean) };
         break;
       }
       case "centre-height": {
-        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal);
+        const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const rise = Math.sign(ratio || 1) * Math.max(1, countsFor(Math.abs(ratio) * tolerance));
         const zero = whole(-2, 2);
         measurements[test.code] = { kind: "centre-height", headstockEnd: reading(zero), tailstockEnd: reading(zero + rise) };

@@ -5,11 +5,10 @@ import {
   beyondLimit,
   conditionsSchema,
   evaluateTest,
+  findProfile,
   GeometryInputError,
-  getProfile,
   keyedByTestCode,
   KINDS_FOR_METHOD,
-  PROFILES,
   scoreReport,
   testMeasurementSchema,
   toMetric,
@@ -397,8 +396,9 @@ export function checkConditions(form: Pick<ReportForm, "conditions">): Condition
   return { values: parsed.data, errors };
 }
 
-export function profileOf(form: Pick<ReportForm, "profile">): ToleranceProfile | undefined {
-  return getProfile(form.profile.key, form.profile.version);
+/** The profile the form names, among those given (the entry page is sent the ones it may score with). */
+export function profileOf(form: Pick<ReportForm, "profile">, profiles: readonly ToleranceProfile[]): ToleranceProfile | undefined {
+  return findProfile(profiles, form.profile.key, form.profile.version);
 }
 
 export interface TestPreview {
@@ -425,8 +425,7 @@ export function metricMeasurements(form: ReportForm, tests: Record<string, TestM
 }
 
 /** Live preview: every test checked and scored on its own, then the report scored on what is complete. */
-export function previewReport(form: ReportForm): ReportPreview | null {
-  const profile = profileOf(form);
+export function previewReport(form: ReportForm, profile: ToleranceProfile | undefined): ReportPreview | null {
   if (!profile) return null;
   const conditions = checkConditions(form);
   const complete: Record<string, TestMeasurement> = {};
@@ -439,7 +438,7 @@ export function previewReport(form: ReportForm): ReportPreview | null {
     if (check.state !== "complete" || !check.measurement) return { test, check, result: null, engineError: null };
     try {
       const metric = toMetric({ tests: { [test.code]: check.measurement } }, form.units).tests[test.code]!;
-      const result = evaluateTest(test, metric, conditions.values);
+      const result = evaluateTest(test, metric, conditions.values, profile.rules);
       complete[test.code] = check.measurement;
       return { test, check, result, engineError: null };
     } catch (error) {
@@ -477,8 +476,5 @@ export function defaultKind(test: ProfileTest): MeasurementKind {
   return KINDS_FOR_METHOD[test.method][0]!;
 }
 
-export function knownProfiles() {
-  return PROFILES.map((profile) => ({ key: profile.key, version: profile.version, title: profile.title }));
-}
 
 export type { StraightnessReference };

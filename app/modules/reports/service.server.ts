@@ -6,18 +6,18 @@ import { z } from "zod";
 import type { Database } from "~/db/client.server";
 import { env } from "~/env.server";
 import {
-  CENTRE_LATHE_NORMAL,
   fieldErrors,
+  findProfile,
   GeometryInputError,
-  getProfile,
   inchesToMicrometres,
   KINDS_FOR_METHOD,
-  latestProfile,
+  newestVersions,
   scoreReport,
   suggestProfile,
   type KeyFigures,
   type ReportMeasurements,
   type TestMeasurement,
+  type ToleranceProfile,
 } from "~/geometry";
 import type { SessionUser } from "~/modules/accounts/guards.server";
 import { sha256Hex } from "~/modules/files/images.server";
@@ -26,6 +26,7 @@ import { recordReportFiled } from "~/modules/inspections/bookings.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
 import { getBookingForReport, type BookingForReport } from "~/modules/inspections/report-queries.server";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
+import { profilesForNewReports, scorableProfile } from "~/modules/profiles/service.server";
 import { queueListingIndexUpdate } from "~/modules/search/indexing.server";
 import { REPORT_FORMAT, engineCategory, setupPhotoUrl, type ReportContent } from "./content";
 
@@ -115,29 +116,70 @@ async function draftOf(db: Executor, bookingId: string, lock = false): Promise<R
 
 // ————— Profile suggestion —————
 
-export function suggestionFor(listing: BookingForReport["listing"]): { profile: { key: string; version: number; title: string } | null; reason: string } {
+export type ProfileSuggestion = {
+  profile: { key: string; version: number; title: string; makersChart: string | null } | null;
+  reason: string;
+  /** True when no profile covers the machine at all: staff can add one. */
+  uncovered: boolean;
+};
+
+const NO_PROFILE_YET = "No profile covers this machine yet; staff can add one. Until then, choose the nearest profile and say why.";
+
+const briefOf = (profile: ToleranceProfile) => ({ key: profile.key, version: profile.version, title: profile.title, makersChart: profile.scope.maker?.chart ?? null });
+
+function scopeText(profile: ToleranceProfile) {
+  const limits = profile.scope.limits.map((limit) => `${limit.dimension === "swingOverBedMm" ? "swing" : "between centres"} up to ${limit.maxMm} mm`);
+  return limits.length ? limits.join(", ") : "any size";
+}
+
+/**
+ * The profile to score this machine with, among the versions offered for new reports: the maker's own chart
+ * for its make and model first, then the class for its category and size; and why, in a line.
+ */
+export function suggestionFor(listing: BookingForReport["listing"], offered: readonly ToleranceProfile[]): ProfileSuggestion {
   const categoryName = labelOf(machineCategories, listing.category).toLowerCase();
   const category = engineCategory(listing.category);
   if (!category) {
-    return { profile: null, reason: `No tolerance profile covers a ${categoryName} yet; choose the nearest one and say why.` };
+    return { profile: null, reason: `No tolerance profile covers a ${categoryName} yet; staff can add one. Until then, choose the nearest one and say why.`, uncovered: true };
   }
   const swing = listing.swingOverBedMm;
   const centres = listing.distanceBetweenCentresMm;
-  if (!swing || !centres) {
-    const fallback = category === "toolroom-lathe" ? latestProfile("centre-lathe-precision") : latestProfile("centre-lathe-normal");
+  const machine = {
+    category,
+    dimensions: { swingOverBedMm: swing, distanceBetweenCentresMm: centres },
+    make: listing.make,
+    model: listing.model,
+    serialNumber: listing.serialNumber,
+  };
+  const profile = suggestProfile(offered, machine);
+  if (!profile) {
+    const sizes = [swing ? `${swing} mm swing` : null, centres ? `${centres} mm between centres` : null].filter(Boolean).join(" and ");
+    return { profile: null, reason: `No ${categoryName} profile covers ${sizes || "this machine"}. ${NO_PROFILE_YET}`, uncovered: true };
+  }
+  if (profile.scope.maker) {
     return {
-      profile: fallback ? { key: fallback.key, version: fallback.version, title: fallback.title } : null,
-      reason: `The listing gives no ${!swing ? "swing over the bed" : "distance between centres"}, so the size could not be checked; measure it and confirm the profile fits.`,
+      profile: briefOf(profile),
+      reason: `The maker's chart for the ${profile.scope.maker.make} ${profile.scope.maker.model}${profile.scope.maker.serialFrom || profile.scope.maker.serialTo ? ` (serial numbers ${profile.scope.maker.serialFrom ?? "…"} to ${profile.scope.maker.serialTo ?? "…"})` : ""}: “${profile.scope.maker.chart}”.`,
+      uncovered: false,
     };
   }
-  const profile = suggestProfile({ category, swingMm: swing, betweenCentresMm: centres });
-  if (!profile) {
-    return { profile: null, reason: `No ${categoryName} profile covers ${swing} mm swing and ${centres} mm between centres yet; choose the nearest and say why.` };
+  if (!swing || !centres) {
+    return {
+      profile: briefOf(profile),
+      reason: `The listing gives no ${!swing ? "swing over the bed" : "distance between centres"}, so the size could not be checked; measure it and confirm the profile fits (${scopeText(profile)}).`,
+      uncovered: false,
+    };
   }
   return {
-    profile: { key: profile.key, version: profile.version, title: profile.title },
-    reason: `A ${categoryName} with ${swing} mm swing and ${centres} mm between centres is within this profile (swing up to ${profile.scope.swingMaxMm} mm, between centres up to ${profile.scope.betweenCentresMaxMm} mm).`,
+    profile: briefOf(profile),
+    reason: `A ${categoryName} with ${swing} mm swing and ${centres} mm between centres is within this profile (${scopeText(profile)}).`,
+    uncovered: false,
   };
+}
+
+/** The profile a form names, if it may still be scored: offered for new reports, or (for a draft in progress) retired. */
+async function profileOfForm(db: Executor, form: Pick<ReportForm, "profile">) {
+  return scorableProfile(db, form.profile.key, form.profile.version);
 }
 
 // ————— The entry page —————
@@ -151,8 +193,11 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
   const found = await bookingOfInspector(db, inspector, bookingId);
   const draft = await draftOf(db, bookingId);
   const mode = await entryMode(db, found, draft);
-  const suggestion = suggestionFor(found.listing);
-  const start = suggestion.profile ?? CENTRE_LATHE_NORMAL;
+  const offered = await profilesForNewReports(db);
+  const suggestion = suggestionFor(found.listing, offered);
+  // With no profile for the machine the form still opens on one (the inspector says why it is the nearest).
+  const start = suggestion.profile ?? newestVersions(offered).find((profile) => !profile.scope.maker) ?? offered[0];
+  if (!start) throw new ReportRuleError("No tolerance profile is published yet; staff must publish one before reports can be filed.", 409);
   const form: ReportForm = draft
     ? reportFormSchema.parse(draft.form)
     : newReportForm({
@@ -178,12 +223,26 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
       location: [found.listing.city, found.listing.country].join(", "),
     },
     suggestion,
+    profiles: await profilesForEntry(db, offered, form),
     form,
     draft: draft ? { version: draft.version, updatedAt: draft.updatedAt.toISOString(), correctsReportId: draft.correctsReportId } : null,
     mode: mode.kind === "locked" ? { kind: "locked" as const, reason: mode.reason, signedReportId: mode.signed?.id ?? null } : { kind: mode.kind },
     submitted: submitted && draft && submitted.draftVersion === draft.version ? { reportId: submitted.id } : null,
     photos: await photosOfBooking(db, bookingId),
   };
+}
+
+/**
+ * The profiles the entry page may score with in the browser: those offered for new reports, and the draft's
+ * own when it has since been retired (shown, so the readings still preview, but refused on submit).
+ */
+async function profilesForEntry(db: Executor, offered: ToleranceProfile[], form: ReportForm) {
+  const list = offered.map((profile) => ({ profile, retired: false }));
+  if (!findProfile(offered, form.profile.key, form.profile.version)) {
+    const own = await profileOfForm(db, form);
+    if (own) list.push({ profile: own.profile, retired: own.status === "retired" });
+  }
+  return list;
 }
 
 export async function photosOfBooking(db: Executor, bookingId: string) {
@@ -200,12 +259,13 @@ function prefixed(errors: Record<string, string[]>, prefix: string) {
 }
 
 /** The shape checks a draft must pass to be stored: a known profile, its test codes, kinds those tests take. */
-function parseDraftBody(body: unknown): ReportForm {
+async function parseDraftBody(db: Executor, body: unknown): Promise<{ form: ReportForm; profile: ToleranceProfile; retired: boolean }> {
   const parsed = draftBodySchema.safeParse(body);
   if (!parsed.success) throw new ReportRuleError("The draft could not be read; nothing was saved.", 422, fieldErrors(parsed.error));
   const form = parsed.data.form;
-  const profile = getProfile(form.profile.key, form.profile.version);
-  if (!profile) throw new ReportRuleError("Unknown tolerance profile; nothing was saved.", 422, { "form.profile.key": [`No tolerance profile ${form.profile.key} v${form.profile.version}.`] });
+  const found = await profileOfForm(db, form);
+  if (!found) throw new ReportRuleError("Unknown tolerance profile; nothing was saved.", 422, { "form.profile.key": [`No published tolerance profile ${form.profile.key} v${form.profile.version}.`] });
+  const { profile } = found;
   const errors: Record<string, string[]> = {};
   for (const [code, entry] of Object.entries(form.tests)) {
     const test = profile.tests.find((candidate) => candidate.code === code);
@@ -218,7 +278,7 @@ function parseDraftBody(body: unknown): ReportForm {
   if (Object.keys(beyond).length) {
     throw new ReportRuleError("A number is beyond what these tests can read (see the field); nothing was saved.", 422, beyond);
   }
-  return form;
+  return { form, profile, retired: found.status === "retired" };
 }
 
 /** Per-test problems of a draft, reported but not blocking the save: a draft may be half typed. */
@@ -259,7 +319,7 @@ async function storeOpenDraft(tx: Transaction, inspector: SessionUser, bookingId
 }
 
 export async function saveDraft(db: Database, inspector: SessionUser, bookingId: string, body: unknown) {
-  const form = parseDraftBody(body);
+  const { form } = await parseDraftBody(db, body);
   return db.transaction(async (tx) => {
     const { saved } = await storeOpenDraft(tx, inspector, bookingId, form);
     return { version: saved.version, savedAt: saved.updatedAt.toISOString(), issues: draftIssues(form) };
@@ -275,10 +335,11 @@ function buildContent(
   photos: Awaited<ReturnType<typeof photosOfBooking>>,
   reportId: string,
   now: Date,
+  scoring: { profile: ToleranceProfile; retired: boolean; suggestion: ProfileSuggestion },
 ): { content: ReportContent; errors: Record<string, string[]> } | { content: null; errors: Record<string, string[]> } {
   const errors: Record<string, string[]> = {};
-  const profile = getProfile(form.profile.key, form.profile.version)!;
-  const suggestion = suggestionFor(found.listing);
+  const { profile, suggestion } = scoring;
+  if (scoring.retired) errors["profile.key"] = [`${profile.title} (v${profile.version}) has been retired by staff; choose a current profile. Your readings are kept.`];
   if (!form.safetyAcknowledged) errors.safetyAcknowledged = ["Read the safety cautions and tick the box before submitting."];
   if (!form.measuredOn) errors.measuredOn = ["Give the date of the tests."];
   else if (form.measuredOn > now.toISOString().slice(0, 10)) errors.measuredOn = ["The date of the tests is in the future."];
@@ -372,6 +433,7 @@ function buildContent(
       key: profile.key,
       version: profile.version,
       title: profile.title,
+      ...(profile.scope.maker ? { makersChart: profile.scope.maker.chart } : {}),
       suggested: suggestion.profile ? { key: suggestion.profile.key, version: suggestion.profile.version } : null,
       reason: form.profile.reason.trim() || suggestion.reason,
     },
@@ -401,7 +463,7 @@ function buildContent(
  * report waits for the inspector's signature (status draft).
  */
 export async function submitReport(db: Database, inspector: SessionUser, bookingId: string, body: unknown, now = new Date()) {
-  const form = parseDraftBody(body);
+  const { form, profile, retired } = await parseDraftBody(db, body);
   return db.transaction(async (tx) => {
     const { found, mode, saved } = await storeOpenDraft(tx, inspector, bookingId, form);
     const [existing] = await tx
@@ -410,7 +472,8 @@ export async function submitReport(db: Database, inspector: SessionUser, booking
       .where(and(eq(reports.bookingId, bookingId), eq(reports.status, "draft")))
       .for("update");
     const reportId = existing?.id ?? randomUUID();
-    const built = buildContent(found, form, mode, await photosOfBooking(tx, bookingId), reportId, now);
+    const suggestion = suggestionFor(found.listing, await profilesForNewReports(tx));
+    const built = buildContent(found, form, mode, await photosOfBooking(tx, bookingId), reportId, now, { profile, retired, suggestion });
     if (!built.content) {
       // The typed form is kept (saved above); only the scored submission is refused.
       return { ok: false as const, errors: built.errors, version: saved.version };
@@ -665,7 +728,7 @@ export type ListingReportSummary = {
   keyFigures: KeyFigures;
   measuredOn: string;
   signedAt: string;
-  profile: { key: string; version: number };
+  profile: { key: string; version: number; makersChart: string | null };
   inspectorName: string;
 };
 
@@ -689,6 +752,7 @@ export async function currentReportsForListings(db: Executor, listingIds: string
       profileKey: reports.profileKey,
       profileVersion: reports.profileVersion,
       inspectorName: sql<string>`${reports.content} -> 'inspector' ->> 'name'`,
+      makersChart: sql<string | null>`${reports.content} -> 'profile' ->> 'makersChart'`,
     })
     .from(reports)
     .where(and(inArray(reports.listingId, listingIds), eq(reports.status, "signed")))
@@ -701,7 +765,7 @@ export async function currentReportsForListings(db: Executor, listingIds: string
       keyFigures: row.keyFigures as KeyFigures,
       measuredOn: row.measuredOn,
       signedAt: row.signedAt!.toISOString(),
-      profile: { key: row.profileKey, version: row.profileVersion },
+      profile: { key: row.profileKey, version: row.profileVersion, makersChart: row.makersChart },
       inspectorName: row.inspectorName,
     });
   }

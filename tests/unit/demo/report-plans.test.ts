@@ -2,7 +2,7 @@
 // uses; the readings look like an inspector's (whole steps of the instrument, directions as planned).
 import { describe, expect, it } from "vitest";
 import { reportFormSchema, checkTestEntry, metricMeasurements, checkConditions, profileOf } from "~/modules/reports/form";
-import { scoreReport, type TestMeasurement } from "~/geometry";
+import { BUILT_IN_PROFILES, scoreReport, type TestMeasurement } from "~/geometry";
 import { demoReportPlans, formFor } from "~/modules/reports/demo-plans";
 import { demoReadings } from "~/modules/reports/demo-readings";
 
@@ -18,7 +18,7 @@ function scoreAsServer(form: unknown) {
     tests[code] = check.measurement!;
   }
   const conditions = checkConditions(parsed);
-  return scoreReport(profileOf(parsed)!, metricMeasurements(parsed, tests, conditions.values));
+  return scoreReport(profileOf(parsed, BUILT_IN_PROFILES)!, metricMeasurements(parsed, tests, conditions.values));
 }
 
 describe("demo report plans", () => {

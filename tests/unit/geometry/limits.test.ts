@@ -3,8 +3,9 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
+  BUILT_IN_PROFILES,
   CENTRE_LATHE_NORMAL,
-  evaluationRequestSchema,
+  evaluationRequestSchemaFor,
   fieldErrors,
   GeometryInputError,
   MEASUREMENT_LIMITS,
@@ -13,6 +14,8 @@ import {
   type TestMeasurement,
 } from "~/geometry";
 import { checkTestEntry, emptyTestEntry, formLimitErrors, newReportForm, previewReport } from "~/modules/reports/form";
+
+const evaluationRequestSchema = evaluationRequestSchemaFor(BUILT_IN_PROFILES);
 
 const stations = (count: number, reading = (i: number) => i % 7) =>
   Array.from({ length: count }, (_, i) => ({ station: i, reading: reading(i) }));
@@ -121,7 +124,7 @@ describe("the report form", () => {
     form.tests["L-SP-PAR-V"] = { ...emptyTestEntry("mandrel"), near0: "0", near180: "0", far0: "-1e308", far180: "0" };
     form.instruments[0]!.resolution = "1e300";
     expect(Object.keys(formLimitErrors(form)).sort()).toEqual(["instruments.0.resolution", "tests.L-SP-PAR-V.far0"]);
-    const preview = previewReport(form)!;
+    const preview = previewReport(form, CENTRE_LATHE_NORMAL)!;
     expect(preview.tests.find((test) => test.test.code === "L-SP-PAR-V")!.check.state).toBe("invalid");
   });
 });

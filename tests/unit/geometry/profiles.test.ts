@@ -1,19 +1,27 @@
 import { describe, expect, it } from "vitest";
 import {
+  BUILT_IN_PROFILES,
   CENTRE_LATHE_NORMAL,
   CENTRE_LATHE_PRECISION,
+  CENTRE_LATHE_PRECISION_V1,
+  findProfile,
   GeometryInputError,
-  getProfile,
-  latestProfile,
-  PROFILES,
+  newestVersions,
+  sourceLabel,
   suggestProfile,
   toleranceAt,
+  toleranceProfileSchema,
 } from "~/geometry";
 
 const tolerance = (code: string, length: number | null = null, profile = CENTRE_LATHE_NORMAL) => {
   const test = profile.tests.find((t) => t.code === code)!;
-  return toleranceAt(test.tolerance, length, test.measuringLength.nominal);
+  return toleranceAt(test.tolerance, length, test.measuringLength.nominal, profile.rules);
 };
+
+const lathe = (category: "centre-lathe" | "toolroom-lathe", swing: number | null, centres: number | null) => ({
+  category,
+  dimensions: { swingOverBedMm: swing, distanceBetweenCentresMm: centres },
+});
 
 describe("centre lathe, normal class", () => {
   it("holds every test of the GEOMETRY.md table, each code once", () => {
@@ -74,11 +82,11 @@ describe("centre lathe, normal class", () => {
   });
 
   it("labels every value with its source", () => {
-    for (const profile of PROFILES) {
+    for (const profile of BUILT_IN_PROFILES) {
       for (const test of profile.tests) {
-        expect(test.tolerance.source, test.code).toMatch(/from memory|common practice|IS 6040|Schlesinger|ISO/);
-        expect(test.direction.source, test.code).not.toBe("");
-        if (test.local) expect(test.local.source, test.code).not.toBe("");
+        expect(sourceLabel(test.tolerance.source), test.code).toMatch(/from memory|common practice|IS 6040|Schlesinger|ISO/);
+        expect(sourceLabel(test.direction.source), test.code).not.toBe("");
+        if (test.local) expect(sourceLabel(test.local.source), test.code).not.toBe("");
         expect(test.title && test.measures && test.instrument && test.measuringLength.description, test.code).toBeTruthy();
       }
     }
@@ -96,43 +104,55 @@ describe("centre lathe, normal class", () => {
   });
 });
 
-describe("precision class", () => {
+describe("precision class, version 1", () => {
   it("halves every normal-class tolerance, never below 5 µm", () => {
     // Schlesinger, Testing Machine Tools, as quoted second-hand: half; IS 6040:1993: minimum 5 µm
     for (const test of CENTRE_LATHE_NORMAL.tests) {
       const lengths = test.tolerance.type === "stepped" ? test.tolerance.steps.map((s) => s.upTo) : [test.measuringLength.nominal];
       for (const length of lengths) {
         const normal = tolerance(test.code, length);
-        expect(tolerance(test.code, length, CENTRE_LATHE_PRECISION), test.code).toBe(Math.max(normal / 2, 5));
+        expect(tolerance(test.code, length, CENTRE_LATHE_PRECISION_V1), test.code).toBe(Math.max(normal / 2, 5));
       }
     }
   });
 
   it("gives 5 µm for the spindle nose and 10 µm for the spindle axis over 300 mm", () => {
-    expect(tolerance("L-SP-NOSE", null, CENTRE_LATHE_PRECISION)).toBe(5); // half of 10 µm (Schlesinger, second-hand)
-    expect(tolerance("L-SP-PAR-V", 300, CENTRE_LATHE_PRECISION)).toBe(10); // half of 20 µm (Schlesinger, second-hand)
+    expect(tolerance("L-SP-NOSE", null, CENTRE_LATHE_PRECISION_V1)).toBe(5); // half of 10 µm (Schlesinger, second-hand)
+    expect(tolerance("L-SP-PAR-V", 300, CENTRE_LATHE_PRECISION_V1)).toBe(10); // half of 20 µm (Schlesinger, second-hand)
   });
 });
 
 describe("choosing a profile", () => {
-  it("finds profiles by key and version", () => {
-    expect(getProfile("centre-lathe-normal", 1)).toBe(CENTRE_LATHE_NORMAL);
-    expect(getProfile("centre-lathe-normal", 2)).toBeUndefined();
-    expect(latestProfile("centre-lathe-precision")).toBe(CENTRE_LATHE_PRECISION);
+  it("finds profiles by key and version among those given", () => {
+    expect(findProfile(BUILT_IN_PROFILES, "centre-lathe-normal", 1)).toBe(CENTRE_LATHE_NORMAL);
+    expect(findProfile(BUILT_IN_PROFILES, "centre-lathe-normal", 2)).toBeUndefined();
+    expect(newestVersions(BUILT_IN_PROFILES).find((p) => p.key === "centre-lathe-precision")).toBe(CENTRE_LATHE_PRECISION);
   });
 
-  it("suggests a profile by category, swing and distance between centres", () => {
-    // GEOMETRY.md scope: swing up to 800 mm, between centres up to 1500 mm
-    expect(suggestProfile({ category: "centre-lathe", swingMm: 400, betweenCentresMm: 1000 })).toBe(CENTRE_LATHE_NORMAL);
-    expect(suggestProfile({ category: "toolroom-lathe", swingMm: 330, betweenCentresMm: 650 })).toBe(CENTRE_LATHE_PRECISION);
-    expect(suggestProfile({ category: "centre-lathe", swingMm: 800, betweenCentresMm: 1500 })).toBe(CENTRE_LATHE_NORMAL);
-    expect(suggestProfile({ category: "centre-lathe", swingMm: 1000, betweenCentresMm: 1500 })).toBeNull();
-    expect(suggestProfile({ category: "centre-lathe", swingMm: 500, betweenCentresMm: 3000 })).toBeNull();
+  it("suggests the newest version by category, swing and distance between centres", () => {
+    // GEOMETRY.md scope of the normal class: swing up to 800 mm, between centres up to 1500 mm (ISO 1708:1989, from memory)
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 400, 1000))).toBe(CENTRE_LATHE_NORMAL);
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("toolroom-lathe", 330, 650))).toBe(CENTRE_LATHE_PRECISION);
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 800, 1500))).toBe(CENTRE_LATHE_NORMAL);
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 1000, 1500))).toBeNull();
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 500, 3000))).toBeNull();
+    // An unknown size is not held against the machine.
+    expect(suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", null, 1000))).toBe(CENTRE_LATHE_NORMAL);
   });
 
   it("refuses sizes that are not positive and unknown categories", () => {
-    expect(() => suggestProfile({ category: "centre-lathe", swingMm: 0, betweenCentresMm: 1000 })).toThrow(GeometryInputError);
-    expect(() => suggestProfile({ category: "centre-lathe", swingMm: 400, betweenCentresMm: NaN })).toThrow(GeometryInputError);
-    expect(() => suggestProfile({ category: "planer" as never, swingMm: 400, betweenCentresMm: 1000 })).toThrow(/category/);
+    expect(() => suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 0, 1000))).toThrow(GeometryInputError);
+    expect(() => suggestProfile(BUILT_IN_PROFILES, lathe("centre-lathe", 400, NaN))).toThrow(GeometryInputError);
+    expect(() => suggestProfile(BUILT_IN_PROFILES, lathe("planer" as never, 400, 1000))).toThrow(/category/);
+  });
+});
+
+describe("the built-in data", () => {
+  it("passes the one profile schema the editor uses, unchanged", () => {
+    for (const profile of BUILT_IN_PROFILES) {
+      const parsed = toleranceProfileSchema.safeParse(profile);
+      expect(parsed.success, `${profile.key} v${profile.version}: ${parsed.error?.message}`).toBe(true);
+      expect(parsed.data).toEqual(profile);
+    }
   });
 });

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import {
-  evaluationRequestSchema,
+  BUILT_IN_PROFILES,
+  CENTRE_LATHE_NORMAL,
+  evaluationRequestSchemaFor,
   fieldErrors,
   mandrelMeasurementSchema,
   profileMeasurementSchema,
@@ -58,6 +60,7 @@ describe("measurement schemas", () => {
 });
 
 describe("the evaluation request", () => {
+  const evaluationRequestSchema = evaluationRequestSchemaFor(BUILT_IN_PROFILES);
   const request = (overrides: Record<string, unknown> = {}) => ({
     profile: { key: "centre-lathe-normal", version: 1 },
     units: "mm",
@@ -107,7 +110,7 @@ describe("inch mode", () => {
 
   it("scores the same machine the same in either unit", () => {
     // the worked example of GEOMETRY.md, mandrel readings given in inches (NIST SP 811: 1 in = 25.4 mm)
-    const inch = scoreEvaluation({
+    const inch = scoreEvaluation(CENTRE_LATHE_NORMAL, {
       profile: { key: "centre-lathe-normal", version: 1 },
       units: "inch",
       measurements: {

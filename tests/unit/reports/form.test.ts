@@ -66,7 +66,7 @@ describe("the live preview", () => {
     const form = newReportForm({ profileKey: "centre-lathe-normal", profileVersion: 1, units: "mm", measuredOn: "2026-03-02" });
     form.tests["L-SP-PAR-H"] = { ...emptyTestEntry("mandrel"), near0: "0", near180: "0", far0: "-2", far180: "-2", instrumentId: "i1" };
     form.tests["L-SP-NOSE"] = { ...emptyTestEntry("extremes"), max: "4", min: "" };
-    const preview = previewReport(form)!;
+    const preview = previewReport(form, CENTRE_LATHE_NORMAL)!;
     const horizontal = preview.tests.find((test) => test.test.code === "L-SP-PAR-H")!;
     // GEOMETRY.md direction rule: a one-way test fails on any deviation the other way beyond the resolution.
     expect(horizontal.result).toMatchObject({ value: -2, pass: false, direction: { pass: false, against: 2 } });

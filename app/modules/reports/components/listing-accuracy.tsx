@@ -5,6 +5,7 @@ import { Badge, ButtonLink, Card, CardBody, CardHeader, cx } from "~/components/
 import type { DisplayUnits } from "~/modules/units/format";
 import { reportAge } from "../content";
 import { formatReportDate } from "../format";
+import { makersChartLine } from "../sources";
 import type { ListingReportSummary } from "../service.server";
 import { GradeMark, gradeMeaning, KeyFigureList } from "./grade";
 
@@ -26,6 +27,7 @@ export function VerifiedAccuracyPanel({ report, units, now, bookingLink }: { rep
           Measured {formatReportDate(report.measuredOn)} ({age.label}) by {report.inspectorName}
           {age.expired ? ". Accuracy changes with use: a new check is advised." : "."}
         </p>
+        {report.profile.makersChart ? <p className="font-semibold text-ink-800" data-testid="makers-chart">{makersChartLine(report.profile)}</p> : null}
         <ButtonLink to={`/reports/${report.id}`} variant="secondary" className="w-full">
           Read the full report
         </ButtonLink>

@@ -1,10 +1,12 @@
 // The body of a scored report: grade with key figures, conditions, instruments, results with plots.
 // Shared by the inspector's review and the public report page.
+import { Link } from "react-router";
 import { Badge, Card, CardBody, CardHeader, Table, Td, Th, Tr, cx } from "~/components/ui";
 import type { TestResult } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
 import { reportAge, type ReportContent } from "../content";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, isSignedValue, observedLabel } from "../format";
+import { fromMemoryNotice, HOW_SCORING_WORKS_SOURCES, makersChartLine, resultSources, type SourceLine } from "../sources";
 import { GradeMark, gradeMeaning, KeyFigureList, RatioBar, VerdictBadge } from "./grade";
 import { TestPlot } from "./plots";
 
@@ -33,9 +35,55 @@ export function GradeCard({ content, units, now }: { content: ReportContent; uni
             <p className="mt-3 text-sm text-beyond">Required tests without a reading: {score.missing.join(", ")}.</p>
           ) : null}
           {score.outOfTolerance.length ? <p className="mt-2 text-sm text-ink-700">Out of tolerance or leaning the wrong way: {score.outOfTolerance.join(", ")}.</p> : null}
+          <ScoringSourcesNote content={content} />
         </div>
       </CardBody>
     </Card>
+  );
+}
+
+/** The maker's chart the report was scored against, and the one-line warning when any value was recalled. */
+export function ScoringSourcesNote({ content }: { content: ReportContent }) {
+  const chart = makersChartLine(content.profile);
+  const notice = fromMemoryNotice(content.score);
+  if (!chart && !notice) return null;
+  return (
+    <div className="mt-3 space-y-1 text-sm">
+      {chart ? <p className="font-semibold text-ink-800" data-testid="makers-chart">{chart}</p> : null}
+      {notice ? (
+        <p className="text-ink-700" data-testid="from-memory-notice">
+          {notice}{" "}
+          <Link to={HOW_SCORING_WORKS_SOURCES} className="font-semibold underline underline-offset-2">
+            How scoring works
+          </Link>
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+const CONFIDENCE_TONES = { published: "within", manufacturer: "within", "common-practice": "neutral", "from-memory": "caution" } as const;
+
+function SourceText({ source, prefix }: { source: SourceLine; prefix?: string }) {
+  return (
+    <span className="block text-xs text-ink-500" data-confidence={source.confidence}>
+      {prefix ? `${prefix}: ` : ""}
+      {source.label}{" "}
+      <Badge tone={CONFIDENCE_TONES[source.confidence]} className="align-middle">
+        {source.confidenceLabel}
+      </Badge>
+    </span>
+  );
+}
+
+function ResultSources({ result }: { result: TestResult }) {
+  const sources = resultSources(result);
+  return (
+    <>
+      <SourceText source={sources.tolerance} prefix="Tolerance" />
+      {sources.local ? <SourceText source={sources.local} prefix="Local" /> : null}
+      <SourceText source={sources.direction} prefix="Direction" />
+    </>
   );
 }
 
@@ -129,6 +177,9 @@ function ResultsList({ content, units }: { content: ReportContent; units: Displa
           </p>
           <RatioBar ratio={result.ratio} pass={result.pass} />
           <p className={cx("text-sm", result.direction.pass ? "text-ink-600" : "font-semibold text-beyond")}>{directionText(result, units)}</p>
+          <div className="space-y-0.5">
+            <ResultSources result={result} />
+          </div>
         </li>
       ))}
     </ul>
@@ -146,6 +197,7 @@ function ResultsGrid({ content, units }: { content: ReportContent; units: Displa
           <Th className="min-w-36">Ratio</Th>
           <Th>Direction</Th>
           <Th>Verdict</Th>
+          <Th className="min-w-56">Sources</Th>
         </tr>
       </thead>
       <tbody>
@@ -172,6 +224,9 @@ function ResultsGrid({ content, units }: { content: ReportContent; units: Displa
             <Td className={cx("text-sm", result.direction.pass ? "text-ink-700" : "font-semibold text-beyond")}>{directionText(result, units)}</Td>
             <Td>
               <VerdictBadge result={result} />
+            </Td>
+            <Td className="space-y-0.5" data-sources={result.code}>
+              <ResultSources result={result} />
             </Td>
           </Tr>
         ))}

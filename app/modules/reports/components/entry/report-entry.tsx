@@ -4,13 +4,13 @@ import { useMemo, useState } from "react";
 import { Form, Link, useNavigation } from "react-router";
 import { Badge, Button, Card, CardBody, CardHeader, CheckboxField, cx, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { formatDeviation } from "../../format";
-import { KINDS_FOR_METHOD, type EvaluationMethod, type ReportScore } from "~/geometry";
+import { KINDS_FOR_METHOD, type EvaluationMethod, type ReportScore, type ToleranceProfile } from "~/geometry";
 import {
   emptyTestEntry,
   INSTRUMENT_KINDS,
   instrumentReads,
-  knownProfiles,
   previewReport,
+  profileOf,
   unitLabels,
   type ReportForm,
   type ReportPreview,
@@ -25,7 +25,9 @@ import { useDraftSync, type SyncStatus } from "./use-draft-sync";
 export type EntryData = {
   booking: { id: string; reference: string; status: string; startsAt: string };
   machine: { title: string; slug: string; categoryLabel: string; year: number | null; swingOverBedMm: number | null; distanceBetweenCentresMm: number | null; location: string };
-  suggestion: { profile: { key: string; version: number; title: string } | null; reason: string };
+  suggestion: { profile: { key: string; version: number; title: string; makersChart: string | null } | null; reason: string; uncovered: boolean };
+  /** The versions this form may score with, its own (if since retired) included and marked. */
+  profiles: Array<{ profile: ToleranceProfile; retired: boolean }>;
   form: ReportForm;
   draft: { version: number; updatedAt: string; correctsReportId: string | null } | null;
   mode: { kind: "first" | "correction" } | { kind: "locked"; reason: string; signedReportId: string | null };
@@ -78,12 +80,16 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
     serverVersion: data.draft?.version ?? null,
     enabled: !locked,
   });
-  const preview = useMemo(() => previewReport(form), [form]);
+  const profiles = data.profiles;
+  const profile = profileOf(
+    form,
+    profiles.map((entry) => entry.profile),
+  );
+  const preview = useMemo(() => previewReport(form, profile), [form, profile]);
   const navigation = useNavigation();
   const submitting = navigation.state === "submitting" && navigation.formData?.get("intent") === "submit";
   const errors = serverErrors ?? {};
   const labels = unitLabels(form.units);
-  const profiles = knownProfiles();
   const suggested = data.suggestion.profile;
   const differs = !suggested || suggested.key !== form.profile.key || suggested.version !== form.profile.version;
 
@@ -154,17 +160,21 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
             <Card>
               <CardHeader title="Tolerance profile" description="Suggested from the machine's category and size; change it if the machine calls for another." />
               <CardBody className="space-y-4">
-                <div className="rounded-control bg-ink-50 px-3 py-2 text-sm text-ink-700">
+                <div className={cx("rounded-control px-3 py-2 text-sm text-ink-700", data.suggestion.uncovered ? "bg-caution/10 ring-1 ring-caution/40" : "bg-ink-50")} data-testid="profile-suggestion">
                   <p>
                     <span className="font-semibold text-ink-900">Suggested: </span>
-                    {suggested ? `${suggested.title} (v${suggested.version})` : "none"}
+                    {suggested ? `${suggested.makersChart ? "the maker's chart — " : ""}${suggested.title} (v${suggested.version})` : "none"}
                   </p>
                   <p className="mt-1">{data.suggestion.reason}</p>
                 </div>
                 <SelectField
                   label="Profile used"
                   value={`${form.profile.key}@${form.profile.version}`}
-                  options={profiles.map((profile) => ({ value: `${profile.key}@${profile.version}`, label: `${profile.title} — v${profile.version}` }))}
+                  options={profiles.map(({ profile: option, retired }) => ({
+                    value: `${option.key}@${option.version}`,
+                    label: `${option.scope.maker ? "Maker's chart: " : ""}${option.title} — v${option.version}${retired ? " (retired)" : ""}`,
+                  }))}
+                  errors={errors["profile.key"]}
                   onChange={(event) =>
                     change((draft) => {
                       const [key, version] = event.target.value.split("@");

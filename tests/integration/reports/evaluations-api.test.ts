@@ -1,6 +1,8 @@
+// The scoring API against the profile versions in the database (the built-in ones, seeded with the migrations).
 import { describe, expect, it } from "vitest";
+import { getDatabase } from "~/db/client.server";
 import { action, loader } from "~/routes/api.v1.evaluations";
-import { WELL_KEPT_LATHE } from "./fixtures";
+import { WELL_KEPT_LATHE } from "../../unit/geometry/fixtures";
 
 type ActionArgs = Parameters<typeof action>[0];
 
@@ -10,7 +12,7 @@ function post(body: unknown, method = "POST") {
     headers: { "Content-Type": "application/json" },
     body: typeof body === "string" ? body : JSON.stringify(body),
   });
-  return action({ request, params: {}, context: {} } as unknown as ActionArgs);
+  return action({ request, params: {}, context: { get: () => getDatabase() } } as unknown as ActionArgs);
 }
 
 // Worked example, GEOMETRY.md: straightness 0, −4, +2, +6, +3, +8 µm at 0…500 mm; mandrel +30/+10 far, 0/0 near.
@@ -47,6 +49,22 @@ describe("POST /api/v1/evaluations", () => {
     expect(body.grade).toBe("incomplete"); // only two of the required tests were read
     expect(body.keyFigures.spindleParallelismVertical).toBe(20);
     expect(body.measuredOn).toBe("2025-03-14");
+    // Every tolerance names its source and how far it can be trusted (GEOMETRY.md labels).
+    expect(straightness.sources.tolerance).toBe("ISO 1708:1989, from memory");
+    expect(straightness.confidence).toMatchObject({ tolerance: "from-memory", direction: "from-memory" });
+    expect(mandrel.confidence.direction).toBe("common-practice");
+  });
+
+  it("scores with version 2 of the precision class on the 2 µm grid (IS 6040:1993, clause 3.5)", async () => {
+    const response = await post({
+      profile: { key: "centre-lathe-precision", version: 2 },
+      units: "mm",
+      measurements: { tests: { "L-SP-PAR-V": { kind: "mandrel", near: { at0: 0, at180: 0 }, far: { at0: 8, at180: 8 }, length: 250, resolution: 2 } } },
+    });
+    expect(response.status).toBe(200);
+    const [axis] = (await response.json()).results;
+    expect(axis.tolerance).toBe(8); // 10 µm / 300 mm at 250 mm = 8.33 → 8 µm (IS 6040:1993, clause 3.5)
+    expect(axis.warnings.map((w: { code: string }) => w.code)).not.toContain("resolution-coarse"); // least count 2 µm, clause 3.5
   });
 
   it("grades a full report", async () => {
