@@ -146,7 +146,7 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
             y={y}
             xTicks={ticks(xMin, xMax, 6)}
             yTicks={ticks(yDomain[0], yDomain[1], 5)}
-            xLabel={`Station (${units === "inch" ? "in" : "mm"})`}
+            xLabel={`Station (${stationUnit})`}
             yLabel={`Reading (${axisUnit(units, result?.unit)})`}
             xFormat={stationFormat}
             yFormat={(value) => readingLabel(value, units, result?.unit)}
