@@ -25,6 +25,9 @@ try {
 // Once per process, when the server bundle is first loaded. A database that is down is retried inside.
 void startJobWorkers();
 
+// Our server (server/index.mjs) takes the static files' headers from the build, so they have one home.
+export { staticFileHeaders } from "~/modules/security/headers.server";
+
 export const streamTimeout = 5_000;
 
 /**

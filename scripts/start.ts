@@ -65,7 +65,7 @@ async function main() {
   await seedDemoDataIfEmpty(databaseUrl);
 
   buildIfNeeded("build");
-  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), ["build/server/index.js"], environment);
+  startChild("app", process.execPath, [path.join(root, "server/index.mjs"), "build/server/index.js"], environment);
   await waitForHttp(`http://127.0.0.1:${port}/api/health`);
 
   log("app", `Tenthmark is running at ${appOrigin}`);

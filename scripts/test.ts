@@ -57,7 +57,7 @@ async function main(): Promise<number> {
   onStop(() => rmSync(path.join(root, buildDirectory), { recursive: true, force: true }));
   buildIfNeeded(buildDirectory, true);
   environment.TEST_SERVER_BUILD = `${buildDirectory}/server/index.js`;
-  startChild("app", path.join(root, "node_modules/.bin/react-router-serve"), [environment.TEST_SERVER_BUILD], {
+  startChild("app", process.execPath, [path.join(root, "server/index.mjs"), environment.TEST_SERVER_BUILD], {
     ...environment,
     NODE_ENV: "production",
     PORT: String(port),

@@ -72,7 +72,7 @@ export function buildForBench(environment: BenchEnvironment) {
 export type RunningApp = { origin: string; child: ChildProcess; logFile: string; logText: () => string };
 
 /**
- * Serves the build with react-router-serve on 127.0.0.1, web only (JOB_WORKERS=false: the bench indexes
+ * Serves the build with our server (server/index.mjs) on 127.0.0.1, web only (JOB_WORKERS=false: the bench indexes
  * itself and wants no start-up re-index running under the load). Its output goes to a log file.
  */
 export async function startBenchApp(
@@ -84,8 +84,8 @@ export async function startBenchApp(
   const output = createWriteStream(logFile);
   const origin = options.port ? `http://127.0.0.1:${options.port}` : environment.appEnvironment.APP_ORIGIN!;
   const port = options.port ? String(options.port) : environment.appEnvironment.PORT!;
-  // Node itself runs react-router-serve's script, so that flags such as --cpu-prof (refused in NODE_OPTIONS) can be given.
-  const serve = path.join(root, "node_modules/@react-router/serve/bin.js");
+  // Node itself runs our server's script, so that flags such as --cpu-prof (refused in NODE_OPTIONS) can be given.
+  const serve = path.join(root, "server/index.mjs");
   const child = spawn(process.execPath, [...(options.nodeFlags ?? []), serve, `${environment.buildDirectory}/server/index.js`], {
     cwd: root,
     env: {

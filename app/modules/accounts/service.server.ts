@@ -98,11 +98,40 @@ export async function signInWithPassword(request: Request, input: { email: strin
   return unexpected(response, payload);
 }
 
+/** A JSON value with every `token` field taken out (better-auth puts the session token in several answers). */
+function withoutTokens(value: unknown, depth = 0): unknown {
+  if (depth > 4 || value === null || typeof value !== "object") return value;
+  if (Array.isArray(value)) return value.map((item) => withoutTokens(item, depth + 1));
+  return Object.fromEntries(Object.entries(value).filter(([key]) => key !== "token").map(([key, item]) => [key, withoutTokens(item, depth + 1)]));
+}
+
+/**
+ * better-auth answers sign-in, sign-up, get-session and list-sessions with the session token in the JSON body,
+ * where any script on the page could read it; the HttpOnly cookie is the only place it belongs.
+ */
+async function withoutSessionTokens(response: Response): Promise<Response> {
+  if (!response.headers.get("content-type")?.includes("application/json")) return response;
+  const text = await response.text();
+  let body: unknown;
+  try {
+    body = JSON.parse(text);
+  } catch {
+    return new Response(text, response);
+  }
+  const headers = new Headers(response.headers);
+  headers.delete("content-length");
+  return new Response(JSON.stringify(withoutTokens(body)), { status: response.status, statusText: response.statusText, headers });
+}
+
 /**
  * The /api/auth/* resource route: better-auth's handler, given the client address as we trust it, with our
- * wrong-password limit on sign-in.
+ * wrong-password limit on sign-in, and no session token in any body it answers with.
  */
 export async function handleAuthRequest(incoming: Request): Promise<Response> {
+  return withoutSessionTokens(await handleAuthEndpoint(incoming));
+}
+
+async function handleAuthEndpoint(incoming: Request): Promise<Response> {
   const request = new Request(incoming, { headers: withClientAddress(incoming, new Headers(incoming.headers)) });
   const url = new URL(request.url);
   if (request.method === "POST" && url.pathname === "/api/auth/sign-in/email") {

@@ -19,7 +19,7 @@ export function checkoutOrigin(settings: Pick<Environment, "STRIPE_API_HOST" | "
   return new URL(`${protocol}://${settings.STRIPE_API_HOST}${port}`).origin;
 }
 
-type PolicySettings = Pick<Environment, "S3_ENDPOINT" | "STRIPE_API_HOST" | "STRIPE_API_PORT" | "STRIPE_API_PROTOCOL">;
+type PolicySettings = Pick<Environment, "S3_ENDPOINT" | "STRIPE_API_HOST" | "STRIPE_API_PORT" | "STRIPE_API_PROTOCOL" | "APP_ORIGIN">;
 
 export function contentSecurityPolicy(nonce: string, settings: PolicySettings = env()): string {
   // The browser PUTs photos and documents straight to the bucket with presigned URLs (path-style).
@@ -59,13 +59,37 @@ const permissionsPolicy = [
   "accelerometer=()",
 ].join(", ");
 
-export function securityHeaders(nonce: string, settings?: PolicySettings): Record<string, string> {
+/**
+ * Browsers remember for two years to reach us over https only — sent only when the public origin is https
+ * (the local build runs on http://localhost, where it would be ignored or, worse, stick to localhost).
+ */
+export function transportSecurity(settings: Pick<Environment, "APP_ORIGIN"> = env()): Record<string, string> {
+  return settings.APP_ORIGIN.startsWith("https://") ? { "Strict-Transport-Security": "max-age=63072000; includeSubDomains" } : {};
+}
+
+export function securityHeaders(nonce: string, settings: PolicySettings = env()): Record<string, string> {
   return {
     "Content-Security-Policy": contentSecurityPolicy(nonce, settings),
     "X-Content-Type-Options": "nosniff",
     "Referrer-Policy": "strict-origin-when-cross-origin",
     "X-Frame-Options": "DENY",
     "Permissions-Policy": permissionsPolicy,
+    ...transportSecurity(settings),
+  };
+}
+
+/**
+ * The headers of the static files (hashed scripts and styles under /assets/, the favicon, fonts), which our
+ * server (server/index.mjs) sends before the app sees the request: no sniffing, no framing, and a policy
+ * that lets an SVG opened on its own run nothing.
+ */
+export function staticFileHeaders(settings: Pick<Environment, "APP_ORIGIN"> = env()): Record<string, string> {
+  return {
+    "Content-Security-Policy": "default-src 'none'; style-src 'unsafe-inline'; img-src 'self' data:; frame-ancestors 'none'",
+    "X-Content-Type-Options": "nosniff",
+    "X-Frame-Options": "DENY",
+    "Referrer-Policy": "strict-origin-when-cross-origin",
+    ...transportSecurity(settings),
   };
 }
 

@@ -22,7 +22,7 @@ describe("GET /api/health", () => {
   it("answers 503 with a reason when the database is not reachable", async () => {
     // A second app server whose database is stopped: nothing listens on its port.
     const [appPort, deadDatabasePort] = [await freePort(), await freePort()];
-    server = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [process.env.TEST_SERVER_BUILD!], {
+    server = spawn(process.execPath, [path.join(root, "server/index.mjs"), process.env.TEST_SERVER_BUILD!], {
       cwd: root,
       env: {
         ...process.env,

@@ -106,7 +106,7 @@ describe("the production server", () => {
       if (value === undefined) delete environment[name];
       else environment[name] = value;
     }
-    const child = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [process.env.TEST_SERVER_BUILD!], { cwd: root, env: environment });
+    const child = spawn(process.execPath, [path.join(root, "server/index.mjs"), process.env.TEST_SERVER_BUILD!], { cwd: root, env: environment });
     let output = "";
     child.stdout.on("data", (chunk) => (output += chunk));
     child.stderr.on("data", (chunk) => (output += chunk));

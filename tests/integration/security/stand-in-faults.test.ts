@@ -45,7 +45,7 @@ beforeAll(async () => {
   };
   const port = await freePort();
   origin = `http://localhost:${port}`;
-  app = spawn(path.join(root, "node_modules/.bin/react-router-serve"), [process.env.TEST_SERVER_BUILD!], {
+  app = spawn(process.execPath, [path.join(root, "server/index.mjs"), process.env.TEST_SERVER_BUILD!], {
     cwd: root,
     env: {
       ...process.env,
