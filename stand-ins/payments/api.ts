@@ -1,7 +1,7 @@
 // The payments the stand-in keeps: Checkout sessions, their payment intents and charges, refunds and
 // transfers, with the events each change sends. Shapes and rules follow Stripe's v1 API for the subset
 // Tenthmark uses; anything else is refused with Stripe's "unknown parameter" error.
-import { checkCard, type CardInput } from "./cards.ts";
+import { checkCard, checkIban, type CardInput } from "./cards.ts";
 import { ApiError, invalidParam, missingParam, noSuch } from "./errors.ts";
 import type { FormObject } from "./form.ts";
 import {
@@ -26,9 +26,9 @@ import {
   type LineItem,
   type PaymentIntent,
   type Refund,
+  type BalanceTransaction,
   type Store,
   type StripeObject,
-  type Transfer,
 } from "./state.ts";
 import type { WebhookDeliverer } from "./webhooks.ts";
 
@@ -46,7 +46,10 @@ const collections = {
   pi_: "payment_intents",
   ch_: "charges",
   re_: "refunds",
+  trr_: "transfer_reversals",
   tr_: "transfers",
+  acct_: "accounts",
+  txn_: "balance_transactions",
 } as const;
 
 /** A copy without the stand-in's own `_` fields, as the API shows it. */
@@ -82,7 +85,7 @@ export class PaymentsLedger {
   }
 
   /** `expand[]=payment_intent`, `expand[]=payment_intent.latest_charge`: ids replaced by their objects. */
-  private expand(object: StripeObject, paths: string[]): Record<string, unknown> {
+  expand(object: StripeObject, paths: string[]): Record<string, unknown> {
     const view = publicView(object);
     for (const path of paths) {
       let node: Record<string, unknown> | undefined = view;
@@ -113,10 +116,11 @@ export class PaymentsLedger {
   // ── events ───────────────────────────────────────────────────────────────────────────────────────────
 
   /** Records an event with a snapshot of the object and starts its delivery; resolves after the first attempt. */
-  private emit(type: string, object: StripeObject, apiVersion: string, context?: RequestContext): Promise<Delivery> {
+  emit(type: string, object: StripeObject, apiVersion: string, context?: RequestContext, account?: string): Promise<Delivery> {
     const event: Event = {
       id: newId("evt_"),
       object: "event",
+      ...(account ? { account } : {}),
       api_version: apiVersion,
       created: now(),
       data: { object: publicView(object) },
@@ -131,7 +135,7 @@ export class PaymentsLedger {
   }
 
   /** Waits for first delivery attempts, but never longer than `awaitDeliveryMs` (the app may be slow or down). */
-  private async settle(deliveries: Promise<Delivery>[]): Promise<Delivery[]> {
+  async settle(deliveries: Promise<Delivery>[]): Promise<Delivery[]> {
     let timer: NodeJS.Timeout | undefined;
     const timeout = new Promise<"timeout">((resolve) => {
       timer = setTimeout(() => resolve("timeout"), this.options.awaitDeliveryMs);
@@ -246,8 +250,8 @@ export class PaymentsLedger {
     }
     const created = now();
     const expiresAt = optionalInteger(params.expires_at, "expires_at") ?? created + 24 * 3600;
-    // Stripe allows 30 minutes to 24 hours; a minute of slack for clocks that differ a little.
-    if (expiresAt < created + 30 * 60 - 60) {
+    // Stripe allows 30 minutes to 24 hours and no slack: a request resent a moment later with the same value is refused.
+    if (expiresAt < created + 30 * 60) {
       throw invalidParam("expires_at", "The `expires_at` timestamp must be at least 30 minutes from Checkout Session creation.");
     }
     if (expiresAt > created + 24 * 3600 + 60) {
@@ -264,7 +268,8 @@ export class PaymentsLedger {
       const destination = optionalString(transferParams.destination, "payment_intent_data[transfer_data][destination]");
       if (!destination) throw missingParam("payment_intent_data[transfer_data][destination]");
       const amount = optionalInteger(transferParams.amount, "payment_intent_data[transfer_data][amount]");
-      transferData = { destination: connectedAccount(destination, "payment_intent_data[transfer_data][destination]"), ...(amount === undefined ? {} : { amount }) };
+      if (!this.state.accounts[destination]) throw new ApiError(400, "invalid_request_error", `No such destination: '${destination}'`, "resource_missing", "payment_intent_data[transfer_data][destination]");
+      transferData = { destination, ...(amount === undefined ? {} : { amount }) };
     }
     if (applicationFee !== null) {
       // Stripe takes an application fee only on a direct or a destination charge.
@@ -394,11 +399,14 @@ export class PaymentsLedger {
       amount_captured: intent.amount,
       amount_refunded: 0,
       application_fee_amount: intent.application_fee_amount,
+      balance_transaction: null,
       billing_details: { email: customerEmail },
       captured: true,
       created: now(),
       currency: intent.currency,
       description: intent.description,
+      failure_code: null,
+      failure_message: null,
       livemode: false,
       metadata: { ...intent.metadata },
       paid: true,
@@ -409,8 +417,10 @@ export class PaymentsLedger {
       refunded: false,
       status: "succeeded",
       transfer_group: intent.transfer_group,
+      _behaviour: { refund: check.refund, settle: "succeeds" },
     };
     this.state.charges[charge.id] = charge;
+    charge.balance_transaction = this.chargeFunds(charge).id;
     Object.assign(intent, { status: "succeeded", amount_received: intent.amount, latest_charge: charge.id, last_payment_error: null, receipt_email: customerEmail });
     Object.assign(session, { status: "complete", payment_status: "paid", url: null, customer_details: { email: customerEmail } });
     const deliveries = [
@@ -422,6 +432,172 @@ export class PaymentsLedger {
     const settled = await this.settle(deliveries);
     const redirectUrl = session.success_url ? session.success_url.replaceAll("{CHECKOUT_SESSION_ID}", session.id) : null;
     return { outcome: "paid", session, paymentIntent: intent, redirectUrl, deliveries: settled };
+  }
+
+  /**
+   * Card money is pending for days at Stripe before it is available to spend (two days here, or until the
+   * test control settles the charge); a transfer tied to the charge (`source_transaction`) need not wait.
+   */
+  private chargeFunds(charge: Charge): BalanceTransaction {
+    return this.balanceTransaction({
+      amount: charge.amount,
+      currency: charge.currency,
+      type: "charge",
+      reporting_category: "charge",
+      source: charge.id,
+      status: "pending",
+      available_on: now() + 2 * 86400,
+      description: charge.description,
+    });
+  }
+
+  balanceTransaction(input: Pick<BalanceTransaction, "amount" | "currency" | "type" | "reporting_category" | "source" | "status"> & Partial<BalanceTransaction>): BalanceTransaction {
+    const created = now();
+    const transaction: BalanceTransaction = {
+      id: newId("txn_"),
+      object: "balance_transaction",
+      available_on: created,
+      balance_type: "payments",
+      created,
+      description: null,
+      exchange_rate: null,
+      fee: 0,
+      fee_details: [],
+      net: input.amount,
+      _account: null,
+      _waits_for: null,
+      ...input,
+    };
+    this.state.balance_transactions[transaction.id] = transaction;
+    return transaction;
+  }
+
+  /**
+   * A bank debit (SEPA) that settles days later: the session completes with `payment_status: "unpaid"`, the
+   * intent is `processing`, and the outcome follows when the test control settles it.
+   */
+  async payByBankDebit(sessionId: string, iban: string, email?: string): Promise<PayOutcome> {
+    const session = this.session(sessionId);
+    if (session.status !== "open") {
+      throw new ApiError(400, "invalid_request_error", `This checkout session is ${session.status} and can no longer be paid.`, session.status === "expired" ? "checkout_session_expired" : "checkout_session_complete");
+    }
+    if (session.currency !== "eur") throw new ApiError(400, "invalid_request_error", "Bank debits are offered for payments in EUR only.", "payment_method_unactivated");
+    const intent = this.intentFor(session);
+    const check = checkIban(iban);
+    if (!check.ok) {
+      const error = new ApiError(402, "invalid_request_error", check.message, "invalid_bank_account_iban", "iban");
+      return { outcome: "declined", error, paymentIntent: intent };
+    }
+    const paymentMethod = newId("pm_");
+    const customerEmail = session.customer_email ?? email ?? null;
+    const charge: Charge = {
+      id: newId("ch_"),
+      object: "charge",
+      amount: intent.amount,
+      amount_captured: intent.amount,
+      amount_refunded: 0,
+      application_fee_amount: intent.application_fee_amount,
+      balance_transaction: null,
+      billing_details: { email: customerEmail },
+      captured: true,
+      created: now(),
+      currency: intent.currency,
+      description: intent.description,
+      failure_code: null,
+      failure_message: null,
+      livemode: false,
+      metadata: { ...intent.metadata },
+      paid: false,
+      payment_intent: intent.id,
+      payment_method: paymentMethod,
+      payment_method_details: { type: "sepa_debit", sepa_debit: { bank_code: check.bankCode, country: check.country, last4: check.last4 } },
+      receipt_email: customerEmail,
+      refunded: false,
+      status: "pending",
+      transfer_group: intent.transfer_group,
+      _behaviour: { refund: "pending", settle: check.settle },
+    };
+    this.state.charges[charge.id] = charge;
+    Object.assign(intent, { status: "processing", payment_method: paymentMethod, latest_charge: charge.id, last_payment_error: null, receipt_email: customerEmail });
+    Object.assign(session, { status: "complete", payment_status: "unpaid", url: null, customer_details: { email: customerEmail } });
+    const deliveries = [
+      this.emit("charge.pending", charge, session._api_version),
+      this.emit("payment_intent.processing", intent, session._api_version),
+      this.emit("checkout.session.completed", session, session._api_version),
+    ];
+    this.store.save();
+    const settled = await this.settle(deliveries);
+    const redirectUrl = session.success_url ? session.success_url.replaceAll("{CHECKOUT_SESSION_ID}", session.id) : null;
+    return { outcome: "paid", session, paymentIntent: intent, redirectUrl, deliveries: settled };
+  }
+
+  /** Test control: a processing bank debit succeeds or fails, as its test account says unless told otherwise. */
+  async settlePayment(intentId: string, outcome?: "succeeded" | "failed") {
+    const intent = this.state.payment_intents[intentId];
+    if (!intent) throw noSuch("payment_intent", intentId);
+    if (intent.status !== "processing" || !intent.latest_charge) {
+      throw new ApiError(400, "invalid_request_error", `This PaymentIntent is ${intent.status}; only a processing one can be settled.`, "payment_intent_unexpected_state");
+    }
+    const charge = this.state.charges[intent.latest_charge]!;
+    const session = Object.values(this.state.sessions).find((candidate) => candidate.payment_intent === intent.id)!;
+    const succeeds = (outcome ?? (charge._behaviour.settle === "succeeds" ? "succeeded" : "failed")) === "succeeded";
+    const version = session._api_version;
+    let deliveries: Promise<Delivery>[];
+    if (succeeds) {
+      Object.assign(charge, { status: "succeeded", paid: true });
+      charge.balance_transaction = this.chargeFunds(charge).id;
+      Object.assign(intent, { status: "succeeded", amount_received: intent.amount });
+      session.payment_status = "paid";
+      deliveries = [
+        this.emit("charge.succeeded", charge, version),
+        this.emit("payment_intent.succeeded", intent, version),
+        this.emit("checkout.session.async_payment_succeeded", session, version),
+      ];
+    } else {
+      Object.assign(charge, { status: "failed", failure_code: "insufficient_funds", failure_message: "The customer's account has insufficient funds to cover this payment." });
+      Object.assign(intent, {
+        status: "requires_payment_method",
+        last_payment_error: { type: "card_error", code: "payment_intent_payment_attempt_failed", message: "The customer's account has insufficient funds to cover this payment.", payment_method: { id: charge.payment_method, object: "payment_method", type: "sepa_debit" } },
+      });
+      deliveries = [
+        this.emit("charge.failed", charge, version),
+        this.emit("payment_intent.payment_failed", intent, version),
+        this.emit("checkout.session.async_payment_failed", session, version),
+      ];
+    }
+    this.store.save();
+    await this.settle(deliveries);
+    return { payment_intent: publicView(intent), charge: publicView(charge), session: publicView(session) };
+  }
+
+  /** Test control: a refund that is pending succeeds or fails; one that "fails later" (its test card) fails. */
+  async settleRefund(refundId: string, outcome?: "succeeded" | "failed") {
+    const refund = this.state.refunds[refundId];
+    if (!refund) throw noSuch("refund", refundId);
+    const charge = this.state.charges[refund.charge]!;
+    const fails = outcome ? outcome === "failed" : charge._behaviour.refund === "fails_later";
+    const canFail = refund.status === "pending" || (refund.status === "succeeded" && charge._behaviour.refund === "fails_later");
+    if (fails ? !canFail : refund.status !== "pending") {
+      throw new ApiError(400, "invalid_request_error", `This refund is ${refund.status} and cannot become ${fails ? "failed" : "succeeded"}.`, "refund_unexpected_state");
+    }
+    const version = defaultApiVersion;
+    const deliveries: Promise<Delivery>[] = [];
+    delete refund.pending_reason;
+    if (fails) {
+      refund.status = "failed";
+      refund.failure_reason = "expired_or_canceled_card";
+      // The money comes back to the platform's balance; the charge counts it as not refunded.
+      refund.failure_balance_transaction = this.balanceTransaction({ amount: refund.amount, currency: refund.currency, type: "refund_failure", reporting_category: "refund_failure", source: refund.id, status: "available" }).id;
+      charge.amount_refunded -= refund.amount;
+      charge.refunded = false;
+      deliveries.push(this.emit("refund.updated", refund, version), this.emit("refund.failed", refund, version), this.emit("charge.refund.updated", refund, version));
+    } else {
+      refund.status = "succeeded";
+      deliveries.push(this.emit("refund.updated", refund, version), this.emit("charge.refund.updated", refund, version));
+    }
+    this.store.save();
+    await this.settle(deliveries);
+    return publicView(refund);
   }
 
   /** Stripe makes a session's payment intent when the customer first tries to pay. */
@@ -446,7 +622,7 @@ export class PaymentsLedger {
       livemode: false,
       metadata: { ...data.metadata },
       payment_method: null,
-      payment_method_types: ["card"],
+      payment_method_types: session.currency === "eur" ? ["card", "sepa_debit"] : ["card"],
       receipt_email: null,
       status: "requires_payment_method",
       transfer_data: data.transfer_data,
@@ -518,18 +694,22 @@ export class PaymentsLedger {
     if (reason !== null && !["duplicate", "fraudulent", "requested_by_customer"].includes(reason)) {
       throw invalidParam("reason", "Invalid reason: must be one of duplicate, fraudulent, or requested_by_customer");
     }
+    const pending = charge._behaviour.refund === "pending";
     const refund: Refund = {
       id: newId("re_"),
       object: "refund",
       amount,
+      balance_transaction: null,
       charge: charge.id,
       created: now(),
       currency: charge.currency,
       metadata: metadata(params.metadata),
       payment_intent: charge.payment_intent,
+      ...(pending ? { pending_reason: "processing" as const } : {}),
       reason,
-      status: "succeeded",
+      status: pending ? "pending" : "succeeded",
     };
+    refund.balance_transaction = this.balanceTransaction({ amount: -amount, currency: refund.currency, type: "refund", reporting_category: "refund", source: refund.id, status: "available" }).id;
     this.state.refunds[refund.id] = refund;
     charge.amount_refunded += amount;
     charge.refunded = charge.amount_refunded === charge.amount;
@@ -546,85 +726,4 @@ export class PaymentsLedger {
     if (!refund) throw noSuch("refund", id);
     return this.expand(refund, expandPaths(params));
   }
-
-  // ── transfers ────────────────────────────────────────────────────────────────────────────────────────
-
-  /** What the platform holds in one currency: charges kept, less refunds and transfers out. */
-  private balance(currencyCode: string): number {
-    const charged = Object.values(this.state.charges)
-      .filter((charge) => charge.currency === currencyCode && !this.state.payment_intents[charge.payment_intent]?.transfer_data)
-      .reduce((sum, charge) => sum + charge.amount - charge.amount_refunded, 0);
-    const transferred = Object.values(this.state.transfers)
-      .filter((transfer) => transfer.currency === currencyCode)
-      .reduce((sum, transfer) => sum + transfer.amount - transfer.amount_reversed, 0);
-    return charged - transferred;
-  }
-
-  async createTransfer(params: FormObject, context: RequestContext) {
-    refuseUnknown(params, ["amount", "currency", "destination", "transfer_group", "metadata", "description", "source_transaction", "expand"]);
-    const rawAmount = optionalInteger(params.amount, "amount");
-    if (rawAmount === undefined) throw missingParam("amount");
-    const amount = positiveInteger(rawAmount, "amount");
-    const rawCurrency = optionalString(params.currency, "currency");
-    if (!rawCurrency) throw missingParam("currency");
-    const transferCurrency = currency(rawCurrency, "currency");
-    const rawDestination = optionalString(params.destination, "destination");
-    if (!rawDestination) throw missingParam("destination");
-    const destination = connectedAccount(rawDestination, "destination");
-    const sourceTransaction = optionalString(params.source_transaction, "source_transaction") ?? null;
-    if (sourceTransaction) {
-      const charge = this.state.charges[sourceTransaction];
-      if (!charge) throw noSuch("charge", sourceTransaction, "source_transaction");
-      if (charge.currency !== transferCurrency) {
-        throw invalidParam("currency", `The currency of the transfer (${transferCurrency}) must match the source transaction's (${charge.currency}).`);
-      }
-      const alreadyOut = Object.values(this.state.transfers)
-        .filter((transfer) => transfer.source_transaction === sourceTransaction)
-        .reduce((sum, transfer) => sum + transfer.amount, 0);
-      if (alreadyOut + amount > charge.amount) {
-        throw invalidParam("amount", `Transfers from ${sourceTransaction} would exceed the charge's amount (${formatAmount(charge.amount, charge.currency)}).`, "amount_too_large");
-      }
-    } else if (amount > this.balance(transferCurrency)) {
-      throw new ApiError(
-        400,
-        "invalid_request_error",
-        "You have insufficient available funds in your Stripe account. Try adding funds directly to your available balance by creating Charges.",
-        "balance_insufficient",
-        "amount",
-      );
-    }
-    const transfer: Transfer = {
-      id: newId("tr_"),
-      object: "transfer",
-      amount,
-      amount_reversed: 0,
-      created: now(),
-      currency: transferCurrency,
-      description: optionalString(params.description, "description") ?? null,
-      destination,
-      livemode: false,
-      metadata: metadata(params.metadata),
-      reversed: false,
-      source_transaction: sourceTransaction,
-      transfer_group: optionalString(params.transfer_group, "transfer_group") ?? null,
-    };
-    this.state.transfers[transfer.id] = transfer;
-    const delivery = this.emit("transfer.created", transfer, context.apiVersion ?? defaultApiVersion, context);
-    this.store.save();
-    await this.settle([delivery]);
-    return this.expand(transfer, expandPaths(params));
-  }
-
-  retrieveTransfer(id: string, params: FormObject) {
-    refuseUnknown(params, ["expand"]);
-    const transfer = this.state.transfers[id];
-    if (!transfer) throw noSuch("transfer", id);
-    return this.expand(transfer, expandPaths(params));
-  }
-}
-
-/** Connected accounts are not modelled: any id shaped like one (`acct_…`) is taken as an existing account. */
-function connectedAccount(value: string, param: string): string {
-  if (!/^acct_[A-Za-z0-9]+$/.test(value)) throw new ApiError(400, "invalid_request_error", `No such destination: '${value}'`, "resource_missing", param);
-  return value;
 }

@@ -3,13 +3,19 @@
 
 export type CardInput = { number: string; expiry?: string; cvc?: string };
 
+export type RefundBehaviour = "succeeds" | "pending" | "fails_later";
+
 export type CardCheck =
-  | { ok: true; brand: string; last4: string; expMonth: number; expYear: number }
+  | { ok: true; brand: string; last4: string; expMonth: number; expYear: number; refund: RefundBehaviour }
   | { ok: false; code: string; declineCode?: string; message: string; param: string; brand: string; last4: string };
 
-const testCards: Record<string, { brand: string; decline?: { code: string; declineCode?: string; message: string } }> = {
+const testCards: Record<string, { brand: string; refund?: RefundBehaviour; decline?: { code: string; declineCode?: string; message: string } }> = {
   "4242424242424242": { brand: "visa" },
   "5555555555554444": { brand: "mastercard" },
+  // Refunds of these payments do not succeed at once (Stripe's refund test cards, from memory of docs.stripe.com/testing):
+  // a refund stays pending until settled; a refund answers succeeded and fails later.
+  "4000000000007726": { brand: "visa", refund: "pending" },
+  "4000000000005126": { brand: "visa", refund: "fails_later" },
   "4000000000000002": { brand: "visa", decline: { code: "card_declined", declineCode: "generic_decline", message: "Your card was declined." } },
   "4000000000009995": {
     brand: "visa",
@@ -21,7 +27,25 @@ const testCards: Record<string, { brand: string; decline?: { code: string; decli
 export const documentedTestCards = [
   { number: "4242 4242 4242 4242", outcome: "succeeds" },
   { number: "4000 0000 0000 0002", outcome: "is declined" },
+  { number: "4000 0000 0000 7726", outcome: "succeeds; a refund stays pending" },
+  { number: "4000 0000 0000 5126", outcome: "succeeds; a refund fails later" },
 ];
+
+/** Test bank accounts for the bank debit that settles days later (Stripe's SEPA test IBANs, from memory). */
+export const testIbans: Record<string, "succeeds" | "fails"> = {
+  DE89370400440532013000: "succeeds",
+  DE62370400440532013001: "fails",
+};
+
+export type IbanCheck = { ok: true; country: string; bankCode: string; last4: string; settle: "succeeds" | "fails" } | { ok: false; message: string };
+
+export function checkIban(input: string): IbanCheck {
+  const iban = input.replace(/\s+/g, "").toUpperCase();
+  if (!/^[A-Z]{2}\d{2}[A-Z0-9]{10,30}$/.test(iban)) return { ok: false, message: "Your bank account number (IBAN) is incomplete." };
+  const settle = testIbans[iban];
+  if (!settle) return { ok: false, message: "This is a test payment page: use one of the test bank accounts shown." };
+  return { ok: true, country: iban.slice(0, 2), bankCode: iban.slice(4, 12), last4: iban.slice(-4), settle };
+}
 
 function luhnValid(digits: string): boolean {
   let sum = 0;
@@ -75,5 +99,5 @@ export function checkCard(input: CardInput, today = new Date()): CardCheck {
     );
   }
   if (known.decline) return refuse(known.decline.code, known.decline.message, "number", known.decline.declineCode);
-  return { ok: true, brand, last4, expMonth: expiry.month, expYear: expiry.year };
+  return { ok: true, brand, last4, expMonth: expiry.month, expYear: expiry.year, refund: known.refund ?? "succeeds" };
 }

@@ -1,8 +1,8 @@
 // The hosted payment page a Checkout session's `url` leads to. It is a test stand-in and says so at the
 // top; its look is our own and plain. Works without JavaScript: the form posts back to the stand-in.
 import { formatAmount } from "./api.ts";
-import { documentedTestCards } from "./cards.ts";
-import type { CheckoutSession } from "./state.ts";
+import { documentedTestCards, testIbans } from "./cards.ts";
+import type { Account, CheckoutSession } from "./state.ts";
 
 const escape = (text: string) =>
   text.replace(/[&<>"']/g, (char) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[char]!);
@@ -36,6 +36,13 @@ const styles = `
   .back { display: inline-block; margin-top: 18px; color: #2e6b57; font-size: 15px; }
   .meta { margin-top: 16px; color: #6b756f; font-size: 12px; word-break: break-all; }
   h1 { font-size: 22px; margin: 0 0 8px; }
+  h2 { font-size: 17px; margin: 0; }
+  .debit { border-top: 1px solid #e4e8e5; padding-top: 18px; }
+  .hint { margin: 0; color: #5b6660; font-size: 14px; }
+  button.secondary { background: #fff; color: #2e6b57; border: 1px solid #2e6b57; }
+  button.secondary:hover { background: #eef5f1; }
+  .choices { display: grid; gap: 10px; margin-top: 18px; }
+  .due { margin: 12px 0 0; padding-left: 18px; font-size: 14px; color: #46514b; }
 `;
 
 function page(title: string, body: string): string {
@@ -54,7 +61,7 @@ function page(title: string, body: string): string {
 </html>`;
 }
 
-export type CheckoutFormValues = { number?: string; expiry?: string; cvc?: string; email?: string };
+export type CheckoutFormValues = { number?: string; expiry?: string; cvc?: string; email?: string; iban?: string };
 
 export function renderCheckoutPage(session: CheckoutSession, options: { error?: string; values?: CheckoutFormValues } = {}): string {
   const total = formatAmount(session.amount_total, session.currency);
@@ -89,12 +96,26 @@ export function renderCheckoutPage(session: CheckoutSession, options: { error?: 
         <input name="cvc" inputmode="numeric" autocomplete="cc-csc" placeholder="123" value="${escape(values.cvc ?? "")}" required>
       </label>
     </div>
-    <button type="submit">Pay ${escape(total)}</button>
+    <button type="submit" name="method" value="card">Pay ${escape(total)}</button>
   </form>
+  ${
+    session.currency === "eur"
+      ? `<form method="post" action="/pay/${escape(session.id)}" novalidate class="debit" aria-labelledby="debit-heading">
+    <h2 id="debit-heading">Or by bank debit</h2>
+    <p class="hint">Settles in a few working days; the payment stays "processing" until then.</p>
+    <input type="hidden" name="email" value="${escape(email)}">
+    <label>Bank account (IBAN)
+      <input name="iban" autocomplete="off" placeholder="DE89 3704 0044 0532 0130 00" value="${escape(values.iban ?? "")}">
+    </label>
+    <button type="submit" name="method" value="bank_debit" class="secondary">Pay ${escape(total)} by bank debit</button>
+  </form>`
+      : ""
+  }
   <div class="cards">
     <p>Test cards</p>
     <ul>${documentedTestCards.map((card) => `<li><code>${card.number}</code> ${card.outcome}</li>`).join("")}</ul>
     Any future expiry date and any three-digit CVC.
+    ${session.currency === "eur" ? `<p>Test bank accounts</p><ul>${Object.entries(testIbans).map(([iban, outcome]) => `<li><code>${iban}</code> ${outcome === "succeeds" ? "settles" : "fails when settled"}</li>`).join("")}</ul>` : ""}
   </div>
   ${session.cancel_url ? `<a class="back" href="${escape(session.cancel_url)}">Cancel and go back</a>` : ""}
 </section>
@@ -122,4 +143,25 @@ export function renderClosedPage(session: CheckoutSession | undefined): string {
       session.cancel_url ? `<a class="back" href="${escape(session.cancel_url)}">Go back</a>` : ""
     }</section>`,
   );
+}
+
+/** The hosted onboarding page an account link leads to: finish set-up, or leave some requirements for later. */
+export function renderOnboardingPage(account: Account | undefined, token?: string): string {
+  if (!account || !token) {
+    return page("Link not found", `<section class="panel"><h1>Set-up link not found</h1><p>This link is not known to the stand-in.</p></section>`);
+  }
+  const due = account.requirements.currently_due;
+  const body = `
+<section class="panel" aria-labelledby="onboarding-heading">
+  <p class="label">Payout account set-up</p>
+  <h1 id="onboarding-heading">Set up payouts for ${escape(account.email ?? account.id)}</h1>
+  <p>A real provider would ask for identity details and a bank account here. This test page lets you choose how set-up ends.</p>
+  ${due.length ? `<p class="hint">Still required:</p><ul class="due">${due.map((field) => `<li><code>${escape(field)}</code></li>`).join("")}</ul>` : ""}
+  <form method="post" action="/connect/onboarding/${escape(token)}" class="choices">
+    <button type="submit" name="choice" value="complete">Complete set-up</button>
+    <button type="submit" name="choice" value="requirements_due" class="secondary">Leave requirements due</button>
+  </form>
+</section>
+<p class="meta">Account ${escape(account.id)}</p>`;
+  return page("Set up payouts", body);
 }

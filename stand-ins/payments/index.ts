@@ -3,7 +3,8 @@
 import http from "node:http";
 import { randomBytes } from "node:crypto";
 import { PaymentsLedger, defaultApiVersion, publicView, type RequestContext } from "./api.ts";
-import { renderCheckoutPage, renderClosedPage } from "./checkout-page.ts";
+import { renderCheckoutPage, renderClosedPage, renderOnboardingPage } from "./checkout-page.ts";
+import { ConnectDesk, type OnboardingChoice } from "./connect.ts";
 import { ApiError } from "./errors.ts";
 import { parseStripeForm, type FormObject } from "./form.ts";
 import { Store } from "./state.ts";
@@ -90,6 +91,7 @@ export async function startPaymentsStandIn(options: PaymentsStandInOptions): Pro
     attemptTimeoutMs: 10_000,
   });
   const ledger = new PaymentsLedger(store, deliverer, { publicOrigin: origin, awaitDeliveryMs: options.awaitDeliveryMs ?? 3_000 });
+  const connect = new ConnectDesk(store, ledger, { publicOrigin: origin });
   const inFlightKeys = new Set<string>();
 
   async function handleApi(request: http.IncomingMessage, response: http.ServerResponse, url: URL) {
@@ -161,8 +163,20 @@ export async function startPaymentsStandIn(options: PaymentsStandInOptions): Pro
     if ((match = pathname.match(/^\/v1\/charges\/([^/]+)$/)) && method === "GET") return ledger.retrieveCharge(decodeURIComponent(match[1]!), params);
     if (pathname === "/v1/refunds" && method === "POST") return ledger.createRefund(params, context);
     if ((match = pathname.match(/^\/v1\/refunds\/([^/]+)$/)) && method === "GET") return ledger.retrieveRefund(decodeURIComponent(match[1]!), params);
-    if (pathname === "/v1/transfers" && method === "POST") return ledger.createTransfer(params, context);
-    if ((match = pathname.match(/^\/v1\/transfers\/([^/]+)$/)) && method === "GET") return ledger.retrieveTransfer(decodeURIComponent(match[1]!), params);
+    if (pathname === "/v1/transfers" && method === "POST") return connect.createTransfer(params, context);
+    if ((match = pathname.match(/^\/v1\/transfers\/([^/]+)$/)) && method === "GET") return connect.retrieveTransfer(decodeURIComponent(match[1]!), params);
+    if ((match = pathname.match(/^\/v1\/transfers\/([^/]+)\/reversals$/))) {
+      if (method === "POST") return connect.createReversal(decodeURIComponent(match[1]!), params, context);
+      if (method === "GET") return connect.listReversals(decodeURIComponent(match[1]!), params);
+    }
+    if (pathname === "/v1/accounts" && method === "POST") return connect.createAccount(params);
+    if ((match = pathname.match(/^\/v1\/accounts\/([^/]+)$/)) && method === "GET") return connect.retrieveAccount(decodeURIComponent(match[1]!), params);
+    if (pathname === "/v1/account_links" && method === "POST") return connect.createAccountLink(params);
+    if (pathname === "/v1/balance" && method === "GET") return connect.balance(context.stripeAccount);
+    if (pathname === "/v1/balance_transactions" && method === "GET") return connect.listBalanceTransactions(params, context);
+    if ((match = pathname.match(/^\/v1\/balance_transactions\/([^/]+)$/)) && method === "GET") {
+      return connect.retrieveBalanceTransaction(decodeURIComponent(match[1]!), params, context);
+    }
     if (pathname === "/v1/events" && method === "GET") return ledger.listEvents(params);
     if ((match = pathname.match(/^\/v1\/events\/([^/]+)$/)) && method === "GET") return ledger.event(decodeURIComponent(match[1]!));
     throw new ApiError(404, "invalid_request_error", `Unrecognized request URL (${method}: ${pathname}). The payments stand-in speaks only the subset listed in stand-ins/payments/README.md.`);
@@ -177,9 +191,9 @@ export async function startPaymentsStandIn(options: PaymentsStandInOptions): Pro
     }
     if (request.method !== "POST") return sendHtml(response, 405, renderClosedPage(session));
     const form = new URLSearchParams(await readBody(request));
-    const values = { number: form.get("card_number") ?? "", expiry: form.get("expiry") ?? "", cvc: form.get("cvc") ?? "", email: form.get("email") ?? "" };
+    const values = { number: form.get("card_number") ?? "", expiry: form.get("expiry") ?? "", cvc: form.get("cvc") ?? "", email: form.get("email") ?? "", iban: form.get("iban") ?? "" };
     if (session.status !== "open") return sendHtml(response, 410, renderClosedPage(session));
-    const result = await ledger.pay(sessionId, values, values.email || undefined);
+    const result = form.get("method") === "bank_debit" ? await ledger.payByBankDebit(sessionId, values.iban, values.email || undefined) : await ledger.pay(sessionId, values, values.email || undefined);
     if (result.outcome === "declined") {
       return sendHtml(response, 402, renderCheckoutPage(session, { error: result.error.message, values: { ...values, cvc: "" } }));
     }
@@ -190,9 +204,49 @@ export async function startPaymentsStandIn(options: PaymentsStandInOptions): Pro
     return sendHtml(response, 200, renderClosedPage(session));
   }
 
+  /** The hosted onboarding page an account link leads to: "complete" or "leave requirements due". */
+  async function handleOnboarding(request: http.IncomingMessage, response: http.ServerResponse, token: string) {
+    const opened = connect.openLink(token);
+    if (!opened) return sendHtml(response, 404, renderOnboardingPage(undefined));
+    // As at Stripe, a link that has expired or was used already sends the visitor to its refresh URL.
+    if (!opened.usable) {
+      response.writeHead(303, { Location: opened.link._refresh_url });
+      return response.end();
+    }
+    if (request.method === "GET") return sendHtml(response, 200, renderOnboardingPage(opened.account, token));
+    if (request.method !== "POST") return sendHtml(response, 405, renderOnboardingPage(undefined));
+    const form = new URLSearchParams(await readBody(request));
+    const choice = form.get("choice") === "requirements_due" ? "requirements_due" : "complete";
+    const { redirect } = await connect.finishOnboarding(token, choice);
+    response.writeHead(303, { Location: redirect });
+    return response.end();
+  }
+
   async function handleControl(request: http.IncomingMessage, response: http.ServerResponse, url: URL) {
     let match: RegExpMatchArray | null;
     const method = request.method ?? "GET";
+    const controlBody = async () => parseControlBody(await readBody(request), request.headers["content-type"]);
+    const outcome = (value: unknown) => (value === "succeeded" || value === "failed" ? value : undefined);
+    if ((match = url.pathname.match(/^\/__stand-in\/sessions\/([^/]+)\/pay-by-bank-debit$/)) && method === "POST") {
+      const body = await controlBody();
+      const result = await ledger.payByBankDebit(decodeURIComponent(match[1]!), typeof body.iban === "string" ? body.iban : "", typeof body.email === "string" ? body.email : undefined);
+      if (result.outcome === "declined") return sendJson(response, 402, result.error.toJSON());
+      return sendJson(response, 200, { outcome: "processing", session: publicView(result.session), payment_intent: publicView(result.paymentIntent), redirect_url: result.redirectUrl, deliveries: result.deliveries });
+    }
+    if ((match = url.pathname.match(/^\/__stand-in\/payment_intents\/([^/]+)\/settle$/)) && method === "POST") {
+      return sendJson(response, 200, await ledger.settlePayment(decodeURIComponent(match[1]!), outcome((await controlBody()).outcome)));
+    }
+    if ((match = url.pathname.match(/^\/__stand-in\/refunds\/([^/]+)\/settle$/)) && method === "POST") {
+      return sendJson(response, 200, await ledger.settleRefund(decodeURIComponent(match[1]!), outcome((await controlBody()).outcome)));
+    }
+    if ((match = url.pathname.match(/^\/__stand-in\/charges\/([^/]+)\/settle$/)) && method === "POST") {
+      return sendJson(response, 200, connect.settleCharge(decodeURIComponent(match[1]!)));
+    }
+    if ((match = url.pathname.match(/^\/__stand-in\/accounts\/([^/]+)\/state$/)) && method === "POST") {
+      const body = await controlBody();
+      const choice: OnboardingChoice = body.state === "requirements_due" ? "requirements_due" : "complete";
+      return sendJson(response, 200, await connect.setState(decodeURIComponent(match[1]!), choice));
+    }
     if ((match = url.pathname.match(/^\/__stand-in\/sessions\/([^/]+)\/pay$/)) && method === "POST") {
       const body = parseControlBody(await readBody(request), request.headers["content-type"]);
       const number = typeof body.card_number === "string" ? body.card_number : undefined;
@@ -233,6 +287,8 @@ export async function startPaymentsStandIn(options: PaymentsStandInOptions): Pro
       if (url.pathname.startsWith("/v1/")) return await handleApi(request, response, url);
       const page = url.pathname.match(/^\/pay\/([^/]+)$/);
       if (page) return await handlePage(request, response, decodeURIComponent(page[1]!));
+      const onboarding = url.pathname.match(/^\/connect\/onboarding\/([^/]+)$/);
+      if (onboarding) return await handleOnboarding(request, response, decodeURIComponent(onboarding[1]!));
       if (url.pathname.startsWith("/__stand-in/")) return await handleControl(request, response, url);
       if (url.pathname === "/") return sendJson(response, 200, { service: "payments stand-in", api: `${origin}/v1`, status: "ok" });
       throw new ApiError(404, "invalid_request_error", `Unrecognized request URL (${request.method}: ${url.pathname}).`);

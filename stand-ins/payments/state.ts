@@ -67,10 +67,14 @@ export type PaymentIntent = {
   payment_method: string | null;
   payment_method_types: string[];
   receipt_email: string | null;
-  status: "requires_payment_method" | "succeeded" | "canceled";
+  status: "requires_payment_method" | "processing" | "succeeded" | "canceled";
   transfer_data: { destination: string; amount?: number } | null;
   transfer_group: string | null;
 };
+
+export type PaymentMethodDetails =
+  | { type: "card"; card: { brand: string; last4: string; exp_month: number; exp_year: number } }
+  | { type: "sepa_debit"; sepa_debit: { bank_code: string; country: string; last4: string } };
 
 export type Charge = {
   id: string;
@@ -79,6 +83,7 @@ export type Charge = {
   amount_captured: number;
   amount_refunded: number;
   application_fee_amount: number | null;
+  balance_transaction: string | null;
   billing_details: { email: string | null };
   captured: boolean;
   created: number;
@@ -86,27 +91,102 @@ export type Charge = {
   description: string | null;
   livemode: false;
   metadata: Metadata;
+  failure_code: string | null;
+  failure_message: string | null;
   paid: boolean;
   payment_intent: string;
   payment_method: string;
-  payment_method_details: { type: "card"; card: { brand: string; last4: string; exp_month: number; exp_year: number } };
+  payment_method_details: PaymentMethodDetails;
   receipt_email: string | null;
   refunded: boolean;
-  status: "succeeded";
+  status: "pending" | "succeeded" | "failed";
   transfer_group: string | null;
+  /** What the test card or bank account makes of this charge's later steps (not part of Stripe's object). */
+  _behaviour: { refund: "succeeds" | "pending" | "fails_later"; settle: "succeeds" | "fails" };
 };
 
 export type Refund = {
   id: string;
   object: "refund";
   amount: number;
+  balance_transaction: string | null;
   charge: string;
   created: number;
   currency: string;
+  failure_balance_transaction?: string;
+  failure_reason?: string;
   metadata: Metadata;
   payment_intent: string;
+  pending_reason?: "processing" | "charge_pending";
   reason: string | null;
-  status: "succeeded";
+  status: "pending" | "succeeded" | "failed" | "canceled";
+};
+
+export type Requirements = {
+  alternatives: unknown[];
+  current_deadline: number | null;
+  currently_due: string[];
+  disabled_reason: string | null;
+  errors: unknown[];
+  eventually_due: string[];
+  past_due: string[];
+  pending_verification: string[];
+};
+
+export type Account = {
+  id: string;
+  object: "account";
+  business_type: "individual" | "company" | null;
+  capabilities: { transfers?: "active" | "inactive" | "pending" };
+  charges_enabled: boolean;
+  country: string;
+  created: number;
+  default_currency: string;
+  details_submitted: boolean;
+  email: string | null;
+  metadata: Metadata;
+  payouts_enabled: boolean;
+  requirements: Requirements;
+  future_requirements: Requirements;
+  type: "express";
+};
+
+export type AccountLink = { object: "account_link"; created: number; expires_at: number; url: string; _account: string; _refresh_url: string; _return_url: string; _used: boolean };
+
+export type TransferReversal = {
+  id: string;
+  object: "transfer_reversal";
+  amount: number;
+  balance_transaction: string | null;
+  created: number;
+  currency: string;
+  destination_payment_refund: string | null;
+  metadata: Metadata;
+  source_refund: string | null;
+  transfer: string;
+};
+
+export type BalanceTransaction = {
+  id: string;
+  object: "balance_transaction";
+  amount: number;
+  available_on: number;
+  balance_type: "payments";
+  created: number;
+  currency: string;
+  description: string | null;
+  exchange_rate: null;
+  fee: number;
+  fee_details: unknown[];
+  net: number;
+  reporting_category: string;
+  source: string | null;
+  status: "pending" | "available";
+  type: string;
+  /** The connected account whose balance this is; null for the platform's own (not part of Stripe's object). */
+  _account: string | null;
+  /** The charge whose settling makes this available (not part of Stripe's object). */
+  _waits_for: string | null;
 };
 
 export type Transfer = {
@@ -120,16 +200,21 @@ export type Transfer = {
   destination: string;
   livemode: false;
   metadata: Metadata;
+  balance_transaction: string | null;
+  destination_payment: string | null;
+  reversals: { object: "list"; data: TransferReversal[]; has_more: false; url: string };
   reversed: boolean;
   source_transaction: string | null;
   transfer_group: string | null;
 };
 
-export type StripeObject = CheckoutSession | PaymentIntent | Charge | Refund | Transfer;
+export type StripeObject = CheckoutSession | PaymentIntent | Charge | Refund | Transfer | Account | TransferReversal | BalanceTransaction;
 
 export type Event = {
   id: string;
   object: "event";
+  /** The connected account the event is about (events of connected accounts only). */
+  account?: string;
   api_version: string;
   created: number;
   data: { object: Record<string, unknown> };
@@ -161,6 +246,10 @@ export type State = {
   charges: Record<string, Charge>;
   refunds: Record<string, Refund>;
   transfers: Record<string, Transfer>;
+  accounts: Record<string, Account>;
+  account_links: Record<string, AccountLink>;
+  transfer_reversals: Record<string, TransferReversal>;
+  balance_transactions: Record<string, BalanceTransaction>;
   events: Record<string, Event>;
   /** Event ids in the order they happened. */
   event_order: string[];
@@ -175,6 +264,10 @@ const emptyState = (): State => ({
   charges: {},
   refunds: {},
   transfers: {},
+  accounts: {},
+  account_links: {},
+  transfer_reversals: {},
+  balance_transactions: {},
   events: {},
   event_order: [],
   deliveries: [],

@@ -141,3 +141,32 @@ export function failedIntent(held: Held, paymentIntentId: string) {
     last_payment_error: { type: "card_error", code: "card_declined", message: "Your card was declined." },
   };
 }
+
+/** A test-only control request to the payments stand-in that `npm test` started (stand-ins/payments/README.md). */
+export async function standInControl(pathname: string, body: Record<string, unknown> = {}) {
+  const response = await fetch(`${process.env.STRIPE_STAND_IN_URL}/__stand-in/${pathname}`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(body),
+  });
+  return { status: response.status, body: (await response.json()) as Record<string, any> };
+}
+
+export async function until<T>(probe: () => Promise<T | undefined | null | false>, what: string, timeoutMs = 10_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await probe();
+    if (value) return value;
+    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
+/** A held booking paid on the stand-in with the given test card (4242… by default), once the app has recorded it. */
+export async function paidBooking(card = "4242 4242 4242 4242") {
+  const held = await heldBooking();
+  const paid = await standInControl(`sessions/${held.booking.checkoutSessionId}/pay`, { card_number: card, expiry: "12/34", cvc: "123" });
+  if (paid.status !== 200) throw new Error(`the stand-in refused the payment: ${JSON.stringify(paid.body)}`);
+  await until(async () => (await bookingRow(held.bookingId)).status === "paid", "the payment webhook");
+  return held;
+}

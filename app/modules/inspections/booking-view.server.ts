@@ -42,7 +42,8 @@ function forBuyer(row: Row) {
       feeMinor: booking.feeMinor,
       refundedMinor: booking.refundedMinor,
       paidAt: booking.paidAt,
-      checkoutUrl: waiting ? booking.checkoutUrl : null,
+      paymentProcessingSince: booking.paymentProcessingSince,
+      checkoutUrl: waiting && !booking.paymentProcessingSince ? booking.checkoutUrl : null,
       checkoutExpiresAt: waiting ? booking.checkoutExpiresAt : null,
     },
     listing: place(row.listing),
@@ -119,5 +120,14 @@ export function historyFor(role: BookingRole, events: Event[]) {
 /** Refunds as amounts and rules; the seller sees none (the money is between the buyer, the inspector and us). */
 export function refundsFor(role: BookingRole, refunds: Refund[]) {
   if (role === "seller") return [];
-  return refunds.map((refund) => ({ id: refund.id, amountMinor: refund.amountMinor, currency: refund.currency, rule: refund.rule, createdAt: refund.createdAt }));
+  return refunds.map((refund) => ({
+    id: refund.id,
+    amountMinor: refund.amountMinor,
+    currency: refund.currency,
+    rule: refund.rule,
+    // Whether the money reached the buyer: requested and pending are on their way, failed is with staff.
+    status: refund.status,
+    failureReason: role === "admin" ? refund.failureReason : null,
+    createdAt: refund.createdAt,
+  }));
 }

@@ -1,19 +1,37 @@
 // Paid inspection bookings: the hold on an inspector's time, checkout, acceptance, decline and cancellation
 // with the refund rules, the inspector's payout, and the lists behind the dashboards.
-import { and, asc, desc, eq, inArray, isNotNull, lt, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull, lt, or, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { Database } from "~/db/client.server";
 import { env } from "~/env.server";
 import { user, userRole } from "~/modules/accounts/schema";
-import { enqueue, registerWorker } from "~/modules/jobs/queue.server";
+import { configureQueue, enqueue, registerWorker } from "~/modules/jobs/queue.server";
 import { listings } from "~/modules/listings/schema";
-import { createCheckoutSession, expireCheckoutSession, recordTransfer, refundPayment, type CheckoutSessionSummary } from "~/modules/payments/stripe.server";
+import {
+  createCheckoutSession,
+  expireCheckoutSession,
+  PaymentsRejectedError,
+  PaymentsUnavailableError,
+  refundPayment,
+  type CheckoutSessionSummary,
+  type RefundSummary,
+} from "~/modules/payments/stripe.server";
 import { bookingFor, historyFor, refundsFor } from "./booking-view.server";
 import { BookingRuleError, isExclusionViolation, SlotTakenError } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
 import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
 import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule } from "./rules";
-import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "./schema";
+import {
+  HELD_REVIEW_QUEUE,
+  PAYOUT_FAILED_QUEUE,
+  PAYOUT_QUEUE,
+  payInspector,
+  recordPayoutFailure,
+  REVERSAL_QUEUE,
+  reverseShareForRefunds,
+  reviewHeldShares,
+} from "./payouts.server";
+import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payoutReversals, payouts, type RefundStatus } from "./schema";
 import { categoryLabel } from "./validation";
 
 export type Booking = typeof bookings.$inferSelect;
@@ -21,7 +39,11 @@ type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
 type Person = { id: string; email: string };
 
 export const SETTLE_REFUND_QUEUE = "inspections.settle-refund";
-export const PAYOUT_QUEUE = "inspections.payout";
+
+// A payout whose retries are spent (about two hours of them) moves to its dead-letter queue, whose worker
+// marks the share failed and tells the staff. Configured where the queue is used, so that whichever process
+// creates it first creates it with this setting.
+configureQueue(PAYOUT_QUEUE, { retryLimit: 12, retryDelay: 2, retryBackoff: true, deadLetter: PAYOUT_FAILED_QUEUE });
 
 /** Moves a booking from the status it was read with to the next, with a line in its history; false if it moved meanwhile. */
 export async function transition(
@@ -75,6 +97,8 @@ export async function releaseLapsedCheckouts(db: Database, inspectorId?: string,
       .where(
         and(
           eq(bookings.status, "awaiting_payment"),
+          // A bank debit in progress keeps its slot until Stripe says whether the money came.
+          isNull(bookings.paymentProcessingSince),
           inspectorId ? eq(bookings.inspectorId, inspectorId) : undefined,
           or(
             lt(bookings.checkoutExpiresAt, now),
@@ -315,44 +339,125 @@ export async function cancelBookingAsBuyer(db: Database, buyer: Person, bookingI
   return outcome;
 }
 
+/** The order refund states move in; a state never moves back (events may arrive in any order). */
+const refundStateRank: Record<RefundStatus, number> = { requested: 0, pending: 1, succeeded: 2, failed: 3, canceled: 3 };
+
+export type RefundEffects = { reverseShare: boolean; failed: Array<{ amountMinor: number; reason: string }> };
+
 /**
- * Issues what is still owed (refund due less refunded so far) through Stripe and records it, holding the
- * booking's row so that two settlers never refund twice. Returns the amount refunded now (0 if nothing was owed).
+ * Moves one refund record to the state Stripe reports, if that is further on. A refund that fails gives its
+ * amount back to what is owed and refundable (staff decide what next); one that succeeds cuts the
+ * inspector's share. Runs inside the caller's transaction, with the booking's row locked.
+ */
+export async function applyRefundState(
+  tx: Transaction,
+  booking: Booking,
+  record: typeof bookingRefunds.$inferSelect,
+  refund: Pick<RefundSummary, "id" | "status" | "failureReason">,
+  effects: RefundEffects,
+  stripeEventId?: string,
+): Promise<boolean> {
+  const to: RefundStatus = refund.status;
+  const idChanged = record.stripeRefundId !== refund.id;
+  if (refundStateRank[to] <= refundStateRank[record.status]) {
+    if (idChanged && !record.stripeRefundId && refund.id.startsWith("re_")) await tx.update(bookingRefunds).set({ stripeRefundId: refund.id }).where(eq(bookingRefunds.id, record.id));
+    return false;
+  }
+  await tx
+    .update(bookingRefunds)
+    .set({ stripeRefundId: refund.id.startsWith("re_") ? refund.id : record.stripeRefundId, status: to, failureReason: refund.failureReason, updatedAt: new Date() })
+    .where(eq(bookingRefunds.id, record.id));
+  if (to === "succeeded") {
+    effects.reverseShare = true;
+    await logBookingEvent(tx, booking.id, { kind: "refund_succeeded", stripeEventId, note: `Refund ${refund.id}` });
+  } else if (to === "pending") {
+    await logBookingEvent(tx, booking.id, { kind: "refund_pending", stripeEventId, note: `Refund ${refund.id} is pending.` });
+  } else {
+    // failed or canceled: the money did not reach the buyer; it is owed again, by a person's decision.
+    await tx
+      .update(bookings)
+      .set({ refundedMinor: sql`${bookings.refundedMinor} - ${record.amountMinor}`, refundDueMinor: sql`greatest(coalesce(${bookings.refundDueMinor}, 0) - ${record.amountMinor}, 0)`, updatedAt: new Date() })
+      .where(eq(bookings.id, booking.id));
+    const reason = refund.failureReason ?? to;
+    await logBookingEvent(tx, booking.id, { kind: "refund_failed", stripeEventId, note: `Refund ${refund.id} ${to}: ${reason}. Staff notified.` });
+    effects.failed.push({ amountMinor: record.amountMinor, reason });
+  }
+  return true;
+}
+
+/** After the commit: the share cut for refunds that succeeded, and people told of those that failed. */
+export async function afterRefundStates(db: Database, bookingId: string, effects: RefundEffects) {
+  if (effects.reverseShare) {
+    try {
+      await reverseShareForRefunds(db, bookingId);
+    } catch (error) {
+      console.warn(`[inspections] share reversal of booking ${bookingId} queued for retry: ${error instanceof Error ? error.message : String(error)}`);
+      await enqueue(REVERSAL_QUEUE, { bookingId }, { singletonKey: bookingId });
+    }
+  }
+  for (const failure of effects.failed) await notify(db, [{ bookingId, notice: { kind: "refund_failed", amountMinor: failure.amountMinor, reason: failure.reason } }]);
+}
+
+/**
+ * Issues what is still owed (refund due less refunded so far). The refund's record is written first, with the
+ * amount counted as refunded so that no other settler refunds it again; Stripe is then asked with the
+ * record's id as idempotency key, so a retry (by the queue, after Stripe was unreachable) repeats this
+ * refund and never makes a second. Returns the amount asked for now (0 if nothing was owed).
  */
 export async function settleRefund(db: Database, bookingId: string, actorId: string | null, rule?: RefundRule): Promise<number> {
-  const refunded = await db.transaction(async (tx) => {
+  const pending = await db.transaction(async (tx) => {
     const booking = await lockBooking(tx, bookingId);
     if (!booking) throw new BookingRuleError("No such booking.", 404);
+    const waiting = await tx.select().from(bookingRefunds).where(and(eq(bookingRefunds.bookingId, bookingId), eq(bookingRefunds.status, "requested")));
     const owed = (booking.refundDueMinor ?? 0) - booking.refundedMinor;
-    if (owed <= 0 || !booking.paymentIntentId) return 0;
-    const history = await tx.select({ kind: bookingEvents.kind }).from(bookingEvents).where(eq(bookingEvents.bookingId, bookingId)).orderBy(desc(bookingEvents.createdAt));
-    const appliedRule = rule ?? history.find((event) => event.kind in ruleKinds)?.kind ?? "admin";
-    const refund = await refundPayment({
-      paymentIntentId: booking.paymentIntentId,
-      amountMinor: owed,
-      reason: "requested_by_customer",
-      bookingId,
-    });
-    await tx.insert(bookingRefunds).values({
-      bookingId,
-      stripeRefundId: refund.id,
-      amountMinor: owed,
-      currency: booking.currency,
-      reason: booking.declineReason ?? booking.cancelReason ?? "",
-      rule: appliedRule,
-      issuedBy: actorId,
-    });
-    const set = { refundedMinor: booking.refundedMinor + owed };
-    if (booking.status === "declined" || booking.status === "cancelled") {
-      await transition(tx, booking, "refunded", { kind: "refund_issued", actorId, note: `Refund ${refund.id}` }, set);
-    } else {
-      await tx.update(bookings).set({ ...set, updatedAt: new Date() }).where(eq(bookings.id, bookingId));
-      await logBookingEvent(tx, bookingId, { kind: "refund_issued", actorId, note: `Refund ${refund.id}` });
+    if (owed > 0 && booking.paymentIntentId) {
+      const history = await tx.select({ kind: bookingEvents.kind }).from(bookingEvents).where(eq(bookingEvents.bookingId, bookingId)).orderBy(desc(bookingEvents.createdAt));
+      const appliedRule = rule ?? history.find((event) => event.kind in ruleKinds)?.kind ?? "admin";
+      const [record] = await tx
+        .insert(bookingRefunds)
+        .values({ bookingId, amountMinor: owed, currency: booking.currency, reason: booking.declineReason ?? booking.cancelReason ?? "", rule: appliedRule, issuedBy: actorId })
+        .returning();
+      await tx.update(bookings).set({ refundedMinor: booking.refundedMinor + owed, updatedAt: new Date() }).where(eq(bookings.id, bookingId));
+      waiting.push(record!);
     }
-    return owed;
+    return { paymentIntentId: booking.paymentIntentId, waiting };
   });
-  if (refunded > 0) await notify(db, [{ bookingId, notice: { kind: "refunded", amountMinor: refunded } }]);
-  return refunded;
+  let asked = 0;
+  for (const record of pending.waiting) {
+    let refund: RefundSummary;
+    try {
+      refund = await refundPayment({ paymentIntentId: pending.paymentIntentId!, amountMinor: record.amountMinor, reason: record.reason || "requested_by_customer", bookingId, refundRecordId: record.id });
+    } catch (error) {
+      if (!(error instanceof PaymentsRejectedError)) throw error;
+      // Stripe refused this refund as asked (e.g. nothing left to refund): it will not succeed on a retry.
+      refund = { id: `refused:${record.id}`, amountMinor: record.amountMinor, currency: record.currency, status: "failed", failureReason: error.message, paymentIntentId: pending.paymentIntentId, bookingId };
+    }
+    const effects: RefundEffects = { reverseShare: false, failed: [] };
+    await db.transaction(async (tx) => {
+      const booking = (await lockBooking(tx, bookingId))!;
+      const [current] = await tx.select().from(bookingRefunds).where(eq(bookingRefunds.id, record.id));
+      const issued = refund.status !== "failed" && refund.status !== "canceled";
+      if (current!.status === "requested") {
+        await tx.update(bookingRefunds).set({ status: "pending", stripeRefundId: refund.id.startsWith("re_") ? refund.id : null, updatedAt: new Date() }).where(eq(bookingRefunds.id, record.id));
+      }
+      const [fresh] = await tx.select().from(bookingRefunds).where(eq(bookingRefunds.id, record.id));
+      if (refund.status !== "pending") await applyRefundState(tx, booking, fresh!, refund, effects);
+      if (!issued) return;
+      const note = `Refund ${refund.id}`;
+      if (booking.status === "declined" || booking.status === "cancelled") {
+        await transition(tx, booking, "refunded", { kind: "refund_issued", actorId, note });
+      } else {
+        const [logged] = await tx.select({ id: bookingEvents.id }).from(bookingEvents).where(and(eq(bookingEvents.bookingId, bookingId), eq(bookingEvents.kind, "refund_issued"), eq(bookingEvents.note, note)));
+        if (!logged) await logBookingEvent(tx, bookingId, { kind: "refund_issued", actorId, note });
+      }
+    });
+    if (refund.status !== "failed" && refund.status !== "canceled") {
+      asked += record.amountMinor;
+      await notify(db, [{ bookingId, notice: { kind: "refunded", amountMinor: record.amountMinor, pending: refund.status === "pending" } }]);
+    }
+    await afterRefundStates(db, bookingId, effects);
+  }
+  return asked;
 }
 
 const ruleKinds: Record<string, true> = {
@@ -366,8 +471,11 @@ const ruleKinds: Record<string, true> = {
   admin: true,
 };
 
-/** An admin refunds part or all of what was paid and not yet refunded, with a written reason. */
-export async function refundAsAdmin(db: Database, admin: Person, bookingId: string, amountMinor: number, reason: string) {
+/**
+ * An admin refunds part or all of what was paid and not yet refunded, with a written reason. If Stripe is
+ * unreachable the refund waits in the queue (its record is kept) and is sent when Stripe answers again.
+ */
+export async function refundAsAdmin(db: Database, admin: Person, bookingId: string, amountMinor: number, reason: string): Promise<{ issuedMinor: number; queued: boolean }> {
   await db.transaction(async (tx) => {
     const booking = await lockBooking(tx, bookingId);
     if (!booking) throw new BookingRuleError("No such booking.", 404);
@@ -377,7 +485,13 @@ export async function refundAsAdmin(db: Database, admin: Person, bookingId: stri
     await tx.update(bookings).set({ refundDueMinor: booking.refundedMinor + amountMinor, cancelReason: booking.cancelReason ?? reason }).where(eq(bookings.id, bookingId));
     await logBookingEvent(tx, bookingId, { kind: "admin_refund_ordered", actorId: admin.id, note: reason });
   });
-  return settleRefund(db, bookingId, admin.id, "admin");
+  try {
+    return { issuedMinor: await settleRefund(db, bookingId, admin.id, "admin"), queued: false };
+  } catch (error) {
+    if (!(error instanceof PaymentsUnavailableError)) throw error;
+    await enqueue(SETTLE_REFUND_QUEUE, { bookingId, actorId: admin.id }, { singletonKey: bookingId });
+    return { issuedMinor: 0, queued: true };
+  }
 }
 
 /** The reports domain calls this when the inspector signs the report of an accepted booking; the payout follows. */
@@ -390,37 +504,6 @@ export async function recordReportFiled(db: Database, input: { bookingId: string
     return transition(tx, booking, "report_filed", { kind: "report_filed", actorId: input.inspectorId }, { reportId: input.reportId });
   });
   if (filed) await enqueue(PAYOUT_QUEUE, { bookingId: input.bookingId }, { singletonKey: input.bookingId });
-}
-
-/** Records the inspector's share as a transfer and closes the booking; once per booking. */
-export async function payInspector(db: Database, bookingId: string) {
-  const amount = await db.transaction(async (tx) => {
-    const booking = await lockBooking(tx, bookingId);
-    if (!booking || booking.status !== "report_filed") return 0;
-    const [existing] = await tx.select({ id: payouts.id }).from(payouts).where(eq(payouts.bookingId, bookingId));
-    if (existing) return 0;
-    const transfer = await recordTransfer({
-      amountMinor: booking.inspectorShareMinor,
-      currency: booking.currency,
-      destination: payoutDestination(booking.inspectorId),
-      bookingId,
-    });
-    await tx.insert(payouts).values({
-      bookingId,
-      inspectorId: booking.inspectorId,
-      amountMinor: booking.inspectorShareMinor,
-      currency: booking.currency,
-      stripeTransferId: transfer.id,
-    });
-    await transition(tx, booking, "closed", { kind: "payout_recorded", note: `Transfer ${transfer.id}` });
-    return booking.inspectorShareMinor;
-  });
-  if (amount > 0) await notify(db, [{ bookingId, notice: { kind: "payout", amountMinor: amount } }]);
-}
-
-/** The inspector's connected account. Onboarding to Stripe Connect is not built yet; the id is derived from the user. */
-export function payoutDestination(inspectorId: string) {
-  return `acct_${inspectorId.replace(/[^A-Za-z0-9]/g, "").slice(0, 16)}`;
 }
 
 /** Every booking that took money, with its refunds and payout, newest first, for the admin's payments page. */
@@ -459,7 +542,18 @@ export function declareInspectionWorkers(getDb: () => Database) {
   registerWorker<{ bookingId: string; actorId: string | null }>(SETTLE_REFUND_QUEUE, async ({ bookingId, actorId }) => {
     await settleRefund(getDb(), bookingId, actorId);
   });
+  // The dead-letter queue first: pg-boss requires it to exist before the queue that names it.
+  registerWorker<{ bookingId: string }>(PAYOUT_FAILED_QUEUE, async ({ bookingId }) => {
+    await recordPayoutFailure(getDb(), bookingId, null);
+  });
   registerWorker<{ bookingId: string }>(PAYOUT_QUEUE, async ({ bookingId }) => {
+    if (!bookingId) return;
     await payInspector(getDb(), bookingId);
   });
+  registerWorker<{ bookingId: string }>(REVERSAL_QUEUE, async ({ bookingId }) => {
+    await reverseShareForRefunds(getDb(), bookingId);
+  });
+  registerWorker(HELD_REVIEW_QUEUE, async () => {
+    await reviewHeldShares(getDb());
+  }, undefined, { cron: "17 6 * * *" });
 }

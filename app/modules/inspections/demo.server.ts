@@ -10,6 +10,7 @@ import { env } from "~/env.server";
 import type { MachineCategory } from "~/modules/listings/catalogue";
 import { listings } from "~/modules/listings/schema";
 import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking, releaseLapsedCheckouts } from "./bookings.server";
+import { getPayoutAccount, refreshPayoutAccount, startPayoutOnboarding } from "./payouts.server";
 import { freeSlots, saveProfile } from "./profiles.server";
 import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "./schema";
 import { handleStripeEvent } from "./webhook.server";
@@ -141,6 +142,21 @@ async function slugOf(db: Database, model: string) {
   return row.slug;
 }
 
+/** A connected account on the payments stand-in with set-up finished, as if the inspector had gone through its page. */
+async function setUpDemoPayouts(db: Database, person: DemoPerson) {
+  const standIn = env().STRIPE_STAND_IN_URL;
+  if (!standIn) throw new Error("the demo payouts need the payments stand-in (STRIPE_STAND_IN_URL)");
+  await startPayoutOnboarding(db, person);
+  const account = await getPayoutAccount(db, person.id);
+  const finished = await fetch(`${standIn}/__stand-in/accounts/${account!.stripeAccountId}/state`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ state: "complete" }),
+  });
+  if (!finished.ok) throw new Error(`the payments stand-in did not finish the demo account: ${finished.status}`);
+  await refreshPayoutAccount(db, person.id);
+}
+
 /**
  * Profiles and slots for the three certified inspectors, then a booking in each state a booking can be in
  * (besides those the reports demo files): not paid in time, released unpaid, awaiting payment, paid and
@@ -152,6 +168,7 @@ export async function seedDemoInspections(inspectors: Record<DemoInspectorKey, D
   for (const [index, key] of (Object.keys(demoInspectorProfiles) as DemoInspectorKey[]).entries()) {
     const profile = demoInspectorProfiles[key];
     await saveProfile(db, inspectors[key].id, { ...profile, categories: [...profile.categories] });
+    await setUpDemoPayouts(db, inspectors[key]);
     await addFutureSlots(db, inspectors[key].id, index, today);
   }
   const { buyer } = people;

@@ -1,7 +1,7 @@
 // E-mails about a booking: each change of status tells the people it concerns, through the mail queue.
-import { eq, inArray } from "drizzle-orm";
+import { and, eq, inArray } from "drizzle-orm";
 import { env } from "~/env.server";
-import { user } from "~/modules/accounts/schema";
+import { user, userRole } from "~/modules/accounts/schema";
 import { listings } from "~/modules/listings/schema";
 import { queueEmail } from "~/modules/mail/mail.server";
 import { renderEmail } from "~/modules/mail/render.server";
@@ -17,10 +17,22 @@ export type BookingNotice =
   | { kind: "declined"; reason: string }
   | { kind: "cancelled_by_buyer"; reason: string }
   | { kind: "cancelled_by_inspector"; reason: string }
-  | { kind: "refunded"; amountMinor: number }
+  | { kind: "refunded"; amountMinor: number; pending?: boolean }
+  | { kind: "refund_failed"; amountMinor: number; reason: string }
   | { kind: "expired" }
+  | { kind: "payment_processing" }
+  | { kind: "payment_failed" }
   | { kind: "slot_lost" }
-  | { kind: "payout"; amountMinor: number };
+  | { kind: "payout"; amountMinor: number }
+  | { kind: "share_held"; amountMinor: number }
+  | { kind: "share_unclaimed"; amountMinor: number }
+  | { kind: "payout_failed"; amountMinor: number; reason: string };
+
+/** Everyone who holds the staff role: told of money that did not move as it should. */
+async function staffAddresses(db: Executor): Promise<string[]> {
+  const rows = await db.select({ email: user.email }).from(user).innerJoin(userRole, and(eq(userRole.userId, user.id), eq(userRole.role, "admin")));
+  return rows.map((row) => row.email);
+}
 
 type Letter = { to: string; subject: string; heading: string; paragraphs: string[]; action?: { href: string; label: string }; reason: string };
 
@@ -129,9 +141,57 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
       letters.push({
         to: buyer.email,
         subject: `Refund of ${formatMoney(notice.amountMinor, booking.currency)} issued for ${ref}`,
-        heading: "Your refund is issued",
-        paragraphs: [`We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. It shows on your card statement within a few working days.`],
+        heading: notice.pending ? "Your refund is on its way" : "Your refund is issued",
+        paragraphs: [
+          notice.pending
+            ? `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. Your bank is still processing it (refund pending); it can take a few more working days.`
+            : `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. It shows on your statement within a few working days.`,
+          `Your receipt for the refund: ${origin}/bookings/${booking.id}/receipts`,
+        ],
         action: buyerLink,
+        reason: forBuyer,
+      });
+      break;
+    case "refund_failed": {
+      letters.push({
+        to: buyer.email,
+        subject: `Refund for ${ref} did not go through — our staff are on it`,
+        heading: "Your refund did not go through",
+        paragraphs: [
+          `The refund of ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what} was returned by your bank or card issuer (${notice.reason.replace(/_/g, " ")}).`,
+          "Our staff have been told and will contact you to pay it another way. You do not need to do anything yet.",
+        ],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      for (const to of await staffAddresses(db))
+        letters.push({
+          to,
+          subject: `Refund failed for ${ref}: ${formatMoney(notice.amountMinor, booking.currency)}`,
+          heading: "A refund failed",
+          paragraphs: [`The refund of ${formatMoney(notice.amountMinor, booking.currency)} to ${buyer.name} for ${ref} failed (${notice.reason}).`, "The amount is refundable again from the payments page once the buyer has been reached."],
+          action: { href: `${origin}/admin/payments`, label: "Open payments" },
+          reason: "You receive this because you are Tenthmark staff.",
+        });
+      break;
+    }
+    case "payment_processing":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref}: your bank payment is processing`,
+        heading: "Your payment is processing",
+        paragraphs: [`Your bank debit of ${fee} for the inspection of the ${what} on ${slot} is on its way. The slot stays held for you while the bank processes it, which can take a few working days; we write again when it arrives.`],
+        action: buyerLink,
+        reason: forBuyer,
+      });
+      break;
+    case "payment_failed":
+      letters.push({
+        to: buyer.email,
+        subject: `Inspection ${ref}: the bank payment failed — slot released`,
+        heading: "Your bank payment did not go through",
+        paragraphs: [`Your bank did not pay the ${fee} for the inspection of the ${what} on ${slot}, so the slot was released. Nothing was taken from your account.`],
+        action: { href: `${origin}/machines/${machine.slug}/book`, label: "Book again" },
         reason: forBuyer,
       });
       break;
@@ -160,10 +220,45 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
         to: inspector.email,
         subject: `Payout of ${formatMoney(notice.amountMinor, booking.currency)} for ${ref}`,
         heading: "Your share is on its way",
-        paragraphs: [`Thank you for the report on the ${what}. Your share of ${formatMoney(notice.amountMinor, booking.currency)} has been transferred.`],
-        action: inspectorLink,
+        paragraphs: [`Thank you for the report on the ${what}. Your share of ${formatMoney(notice.amountMinor, booking.currency)} has been transferred to your payout account.`],
+        action: { href: `${origin}/inspector/earnings`, label: "Open your earnings" },
         reason: forInspector,
       });
+      break;
+    case "share_held":
+    case "share_unclaimed":
+      letters.push({
+        to: inspector.email,
+        subject: `Your share for ${ref} is waiting: finish payout set-up`,
+        heading: "Your share is waiting for you",
+        paragraphs: [
+          `Your share of ${formatMoney(notice.amountMinor, booking.currency)} for the report on the ${what} is held until your payout set-up is finished.`,
+          notice.kind === "share_unclaimed" ? "It has now waited over 90 days; our staff will contact you. It stays yours and is transferred as soon as set-up is finished." : "Finish set-up from your inspector profile and it is transferred at once.",
+        ],
+        action: { href: `${origin}/inspector/profile`, label: "Set up payouts" },
+        reason: forInspector,
+      });
+      if (notice.kind === "share_unclaimed")
+        for (const to of await staffAddresses(db))
+          letters.push({
+            to,
+            subject: `Share unclaimed for 90 days: ${ref}, ${inspector.name}`,
+            heading: "An inspector's share is unclaimed",
+            paragraphs: [`${inspector.name}'s share of ${formatMoney(notice.amountMinor, booking.currency)} for ${ref} has been held for over 90 days because payout set-up is not finished. Please contact them.`],
+            action: { href: `${origin}/admin/payments`, label: "Open payments" },
+            reason: "You receive this because you are Tenthmark staff.",
+          });
+      break;
+    case "payout_failed":
+      for (const to of await staffAddresses(db))
+        letters.push({
+          to,
+          subject: `Payout failed for ${ref}: ${formatMoney(notice.amountMinor, booking.currency)} to ${inspector.name}`,
+          heading: "A payout to an inspector failed",
+          paragraphs: [`The transfer of ${inspector.name}'s share (${formatMoney(notice.amountMinor, booking.currency)}) for ${ref} failed after every retry: ${notice.reason}`, "Fix the cause, then try it again from the payments page."],
+          action: { href: `${origin}/admin/payments`, label: "Open payments" },
+          reason: "You receive this because you are Tenthmark staff.",
+        });
       break;
   }
 

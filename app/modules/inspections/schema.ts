@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { customType, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { boolean, customType, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { user } from "../accounts/schema";
 import { listings } from "../listings/schema";
 
@@ -104,6 +104,13 @@ export const bookings = pgTable(
     checkoutUrl: text("checkout_url"),
     checkoutExpiresAt: timestamp("checkout_expires_at", { withTimezone: true }),
     paymentIntentId: text("payment_intent_id"),
+    /** The charge the fee was taken in; each transfer of the inspector's share is tied to it (`source_transaction`). */
+    chargeId: text("charge_id"),
+    /**
+     * Set while a payment that settles later (a bank debit) is processing: the booking stays awaiting payment
+     * and keeps its slot past the checkout's lapse, until Stripe says the money arrived or did not.
+     */
+    paymentProcessingSince: timestamp("payment_processing_since", { withTimezone: true }),
     declineReason: text("decline_reason"),
     cancelReason: text("cancel_reason"),
     reportId: text("report_id"),
@@ -159,18 +166,32 @@ export const bookingRefunds = pgTable(
     bookingId: text("booking_id")
       .notNull()
       .references(() => bookings.id, { onDelete: "restrict" }),
-    stripeRefundId: text("stripe_refund_id").notNull().unique(),
+    /** Null until Stripe has answered: the row is written first, and its id is the request's idempotency key. */
+    stripeRefundId: text("stripe_refund_id").unique(),
     amountMinor: integer("amount_minor").notNull(),
     currency: text("currency").notNull(),
     reason: text("reason").notNull(),
     rule: text("rule").notNull(),
+    /** `requested` (not yet accepted by Stripe), then Stripe's `pending`, `succeeded`, `failed` or `canceled`. */
+    status: text("status").$type<RefundStatus>().notNull().default("requested"),
+    failureReason: text("failure_reason"),
     issuedBy: text("issued_by").references(() => user.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [index("booking_refunds_booking_idx").on(table.bookingId)],
 );
 
-/** The inspector's share, recorded as a transfer once the report is filed. One per booking. */
+export type RefundStatus = "requested" | "pending" | "succeeded" | "failed" | "canceled";
+
+/**
+ * `held`: the inspector has not finished payout set-up; `unclaimed`: held for over 90 days, staff told
+ * (still paid once set-up is finished); `due`: a transfer is being made; `transferred`; `failed`: the
+ * queue gave up, staff told.
+ */
+export type PayoutStatus = "held" | "unclaimed" | "due" | "transferred" | "failed";
+
+/** The inspector's share of a booking, owed once the report is filed. One per booking. */
 export const payouts = pgTable(
   "payouts",
   {
@@ -183,11 +204,72 @@ export const payouts = pgTable(
     inspectorId: text("inspector_id")
       .notNull()
       .references(() => user.id, { onDelete: "restrict" }),
+    /** The share earned; what is transferred is this less `reversedMinor` (refunds cut the share in proportion). */
     amountMinor: integer("amount_minor").notNull(),
+    reversedMinor: integer("reversed_minor").notNull().default(0),
     currency: text("currency").notNull(),
-    stripeTransferId: text("stripe_transfer_id").notNull(),
+    status: text("status").$type<PayoutStatus>().notNull().default("transferred"),
+    /** The connected account the transfer went to, copied from the inspector's payout account at the time. */
+    destination: text("destination"),
+    stripeTransferId: text("stripe_transfer_id").unique(),
+    transferredMinor: integer("transferred_minor").notNull().default(0),
+    lastError: text("last_error"),
+    heldSince: timestamp("held_since", { withTimezone: true }),
+    transferredAt: timestamp("transferred_at", { withTimezone: true }),
     details: jsonb("details"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (table) => [uniqueIndex("payouts_booking_unique").on(table.bookingId)],
+  (table) => [uniqueIndex("payouts_booking_unique").on(table.bookingId), index("payouts_inspector_idx").on(table.inspectorId, table.createdAt)],
 );
+
+/**
+ * The inspector's share taken back when the buyer is refunded: in proportion to the refund, from the share
+ * still held (no Stripe call) or from the transfer already made (a Stripe transfer reversal). One per refund.
+ */
+export const payoutReversals = pgTable(
+  "payout_reversals",
+  {
+    id: text("id")
+      .primaryKey()
+      .default(sql`gen_random_uuid()::text`),
+    payoutId: text("payout_id")
+      .notNull()
+      .references(() => payouts.id, { onDelete: "restrict" }),
+    refundId: text("refund_id")
+      .notNull()
+      .unique()
+      .references(() => bookingRefunds.id, { onDelete: "restrict" }),
+    amountMinor: integer("amount_minor").notNull(),
+    currency: text("currency").notNull(),
+    /** Null when the share had not been transferred yet (it is simply transferred smaller). */
+    stripeReversalId: text("stripe_reversal_id").unique(),
+    /** `due` (a Stripe reversal is to be made), `done`. */
+    status: text("status").$type<"due" | "done">().notNull().default("due"),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index("payout_reversals_payout_idx").on(table.payoutId)],
+);
+
+/**
+ * The inspector's Stripe Connect account (Express) and its state as the last `account.updated` told it.
+ * Transfers only ever go to the account stored here.
+ */
+export const payoutAccounts = pgTable("payout_accounts", {
+  userId: text("user_id")
+    .primaryKey()
+    .references(() => user.id, { onDelete: "restrict" }),
+  stripeAccountId: text("stripe_account_id").notNull().unique(),
+  detailsSubmitted: boolean("details_submitted").notNull().default(false),
+  /** Stripe's state of the `transfers` capability: `inactive`, `pending` or `active`. */
+  transfersCapability: text("transfers_capability").notNull().default("inactive"),
+  payoutsEnabled: boolean("payouts_enabled").notNull().default(false),
+  /** Stripe's `requirements.currently_due` and `past_due`, e.g. `individual.verification.document`. */
+  requirementsDue: text("requirements_due").array().notNull().default(sql`'{}'::text[]`),
+  disabledReason: text("disabled_reason"),
+  /** The `created` time of the event (or the read) the state came from; an older event changes nothing. */
+  stateAsOf: timestamp("state_as_of", { withTimezone: true }).notNull().defaultNow(),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});

@@ -2,15 +2,17 @@
 // the same transaction as the change it causes, so a replay changes nothing; the booking's row is locked, so
 // events for one booking apply one at a time; and every rule only ever moves a booking forward, so events
 // arriving out of order reach the same end state.
-import { eq } from "drizzle-orm";
+import { eq, or } from "drizzle-orm";
 import type Stripe from "stripe";
 import type { Database } from "~/db/client.server";
 import { enqueue } from "~/modules/jobs/queue.server";
-import { logBookingEvent, notify, SETTLE_REFUND_QUEUE, transition, type Booking } from "./bookings.server";
+import { summariseRefund } from "~/modules/payments/stripe.server";
+import { afterRefundStates, applyRefundState, logBookingEvent, notify, SETTLE_REFUND_QUEUE, transition, type Booking, type RefundEffects } from "./bookings.server";
 import { isExclusionViolation } from "./errors";
 import type { BookingNotice } from "./notices.server";
+import { afterAccountUpdated, applyAccountUpdated } from "./payouts.server";
 import { refundFor } from "./rules";
-import { bookings, processedWebhookEvents } from "./schema";
+import { bookingRefunds, bookings, processedWebhookEvents } from "./schema";
 
 type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
 
@@ -35,6 +37,12 @@ function targetOf(event: Stripe.Event): Target | null {
     case "payment_intent.payment_failed":
       return { bookingId: metadataBookingId(event.data.object.metadata) };
     case "charge.refunded":
+    case "charge.succeeded":
+      return { bookingId: metadataBookingId(event.data.object.metadata) };
+    case "refund.created":
+    case "refund.updated":
+    case "refund.failed":
+    case "charge.refund.updated":
       return { bookingId: metadataBookingId(event.data.object.metadata) };
     default:
       return null;
@@ -54,7 +62,7 @@ async function findBooking(tx: Transaction, target: Target): Promise<Booking | u
   return undefined;
 }
 
-type Effects = { notices: BookingNotice[]; refund: boolean };
+type Effects = { notices: BookingNotice[]; refund: boolean; refunds: RefundEffects };
 
 /** Money arrived for the booking: awaiting payment becomes paid; a hold released meanwhile is taken again if the time is still free. */
 async function applyPayment(tx: Transaction, booking: Booking, eventId: string, payment: { paymentIntentId: string | null; amountMinor: number; currency: string }, effects: Effects) {
@@ -66,7 +74,7 @@ async function applyPayment(tx: Transaction, booking: Booking, eventId: string, 
     });
     return false;
   }
-  const set = { paymentIntentId: booking.paymentIntentId ?? payment.paymentIntentId, paidAt: booking.paidAt ?? new Date() };
+  const set = { paymentIntentId: booking.paymentIntentId ?? payment.paymentIntentId, paidAt: booking.paidAt ?? new Date(), paymentProcessingSince: null };
   if (booking.status === "awaiting_payment") {
     await transition(tx, booking, "paid", { kind: "payment_received", stripeEventId: eventId }, set);
     effects.notices.push({ kind: "paid" });
@@ -101,15 +109,42 @@ async function apply(tx: Transaction, event: Stripe.Event, booking: Booking, eff
     case "checkout.session.async_payment_succeeded": {
       const session = event.data.object;
       if (session.payment_status !== "paid") {
+        // A method that settles later (a bank debit): the slot stays held while it processes (docs/decisions/payment-processing.md).
         await logBookingEvent(tx, booking.id, { kind: "payment_pending", stripeEventId: event.id, note: "Checkout finished; the payment is still being processed." });
-        return false;
+        if (booking.status !== "awaiting_payment" || booking.paymentProcessingSince) return false;
+        const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+        await tx.update(bookings).set({ paymentProcessingSince: new Date(), paymentIntentId: booking.paymentIntentId ?? paymentIntentId, updatedAt: new Date() }).where(eq(bookings.id, booking.id));
+        effects.notices.push({ kind: "payment_processing" });
+        return true;
       }
       const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
       return applyPayment(tx, booking, event.id, { paymentIntentId, amountMinor: session.amount_total ?? 0, currency: session.currency ?? "" }, effects);
     }
     case "payment_intent.succeeded": {
       const intent = event.data.object;
+      const chargeId = typeof intent.latest_charge === "string" ? intent.latest_charge : (intent.latest_charge?.id ?? null);
+      if (chargeId && !booking.chargeId) await tx.update(bookings).set({ chargeId }).where(eq(bookings.id, booking.id));
       return applyPayment(tx, booking, event.id, { paymentIntentId: intent.id, amountMinor: intent.amount_received, currency: intent.currency }, effects);
+    }
+    case "charge.succeeded": {
+      const charge = event.data.object;
+      if (!booking.chargeId && (!booking.paymentIntentId || booking.paymentIntentId === charge.payment_intent)) {
+        await tx.update(bookings).set({ chargeId: charge.id }).where(eq(bookings.id, booking.id));
+      }
+      return false;
+    }
+    case "refund.created":
+    case "refund.updated":
+    case "refund.failed":
+    case "charge.refund.updated": {
+      const refund = event.data.object;
+      const recordId = refund.metadata?.refund_record;
+      const [record] = await tx
+        .select()
+        .from(bookingRefunds)
+        .where(recordId && /^[0-9a-f-]{36}$/i.test(recordId) ? or(eq(bookingRefunds.stripeRefundId, refund.id), eq(bookingRefunds.id, recordId)) : eq(bookingRefunds.stripeRefundId, refund.id));
+      if (!record || record.bookingId !== booking.id) return false;
+      return applyRefundState(tx, booking, record, summariseRefund(refund), effects.refunds, event.id);
     }
     case "checkout.session.expired":
       if (booking.status !== "awaiting_payment") return false;
@@ -117,6 +152,14 @@ async function apply(tx: Transaction, event: Stripe.Event, booking: Booking, eff
       effects.notices.push({ kind: "expired" });
       return true;
     case "checkout.session.async_payment_failed":
+      if (booking.status === "awaiting_payment" && booking.paymentProcessingSince) {
+        // The bank debit did not pay: the slot goes back, and the buyer hears why (not "expired").
+        await transition(tx, booking, "cancelled", { kind: "payment_failed", stripeEventId: event.id, note: "The bank debit failed." }, { paymentProcessingSince: null });
+        effects.notices.push({ kind: "payment_failed" });
+        return true;
+      }
+      await logBookingEvent(tx, booking.id, { kind: "payment_failed", stripeEventId: event.id, note: "The payment failed." });
+      return false;
     case "payment_intent.payment_failed": {
       // A declined card leaves the booking unpaid; the buyer may try another card until the session lapses.
       const message =
@@ -135,7 +178,8 @@ async function apply(tx: Transaction, event: Stripe.Event, booking: Booking, eff
 /** Applies one verified event; safe to call any number of times, concurrently, in any order. */
 export async function handleStripeEvent(db: Database, event: Stripe.Event): Promise<{ outcome: WebhookOutcome; bookingId?: string }> {
   const target = targetOf(event);
-  const effects: Effects = { notices: [], refund: false };
+  const effects: Effects = { notices: [], refund: false, refunds: { reverseShare: false, failed: [] } };
+  let releaseFor: string | null = null;
   const result = await db.transaction(async (tx) => {
     // A concurrent copy of this event waits on the primary key here until the first one commits, then skips.
     const claimed = await tx
@@ -146,6 +190,13 @@ export async function handleStripeEvent(db: Database, event: Stripe.Event): Prom
     if (!claimed.length) return { outcome: "duplicate" as const };
     const record = (outcome: WebhookOutcome, bookingId?: string) =>
       tx.update(processedWebhookEvents).set({ outcome, bookingId }).where(eq(processedWebhookEvents.eventId, event.id));
+    if (event.type === "account.updated") {
+      // The inspector's connected account: its state on our side; an older event than the stored state changes nothing.
+      const applied = await applyAccountUpdated(tx, event.data.object, event.created);
+      releaseFor = applied.releaseFor;
+      await record(applied.changed ? "applied" : "no_change");
+      return { outcome: applied.changed ? ("applied" as const) : ("no_change" as const) };
+    }
     if (!target) {
       await record("ignored");
       return { outcome: "ignored" as const };
@@ -164,6 +215,8 @@ export async function handleStripeEvent(db: Database, event: Stripe.Event): Prom
     // After the commit: mail and refunds go through the queue, so the answer to Stripe stays quick.
     await notify(db, effects.notices.map((notice) => ({ bookingId: result.bookingId!, notice })));
     if (effects.refund) await enqueue(SETTLE_REFUND_QUEUE, { bookingId: result.bookingId, actorId: null }, { singletonKey: result.bookingId });
+    await afterRefundStates(db, result.bookingId, effects.refunds);
   }
+  await afterAccountUpdated(db, releaseFor);
   return result;
 }

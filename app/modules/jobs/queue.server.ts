@@ -67,6 +67,9 @@ async function createQueueOnce(boss: PgBoss, name: string) {
 }
 
 async function ensureQueue(boss: PgBoss, name: string) {
+  // pg-boss refuses a queue whose dead-letter queue does not exist yet.
+  const deadLetter = queueSettings.get(name)?.deadLetter;
+  if (deadLetter) await ensureQueue(boss, deadLetter);
   let created = createdQueues.get(name);
   if (!created) {
     created = creationChain.then(() => createQueueOnce(boss, name));

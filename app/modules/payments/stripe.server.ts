@@ -50,6 +50,13 @@ const webhookEventShape = z.object({
   data: z.object({ object: z.record(z.string(), z.unknown()) }),
 });
 
+/**
+ * Stripe refuses a Checkout session whose `expires_at` is less than 30 minutes after it receives the request,
+ * with no slack, and the SDK resends the same body when it retries; so the shortest session asked for is this
+ * many minutes longer than 30.
+ */
+export const checkoutExpiryMarginMinutes = 5;
+
 /** Seconds a webhook signature stays valid: Stripe's own default tolerance. */
 export const webhookToleranceSeconds = 300;
 
@@ -90,7 +97,7 @@ const checkoutInput = z
     successUrl: z.url(),
     cancelUrl: z.url(),
     customerEmail: z.email().optional(),
-    /** Stripe allows 30 minutes to 24 hours. */
+    /** Stripe allows 30 minutes to 24 hours; below 30 + the margin, the margin is added. */
     expiresInMinutes: z.number().int().min(30).max(1440).default(30),
     idempotencyKey: z.string().min(1).max(255).optional(),
   })
@@ -103,7 +110,11 @@ const refundInput = z.object({
   /** Our own words for why (kept in the refund's metadata; Stripe's `reason` is a fixed list). */
   reason: z.string().trim().min(1).max(500),
   bookingId: z.string().min(1).max(200),
-  idempotencyKey: z.string().min(1).max(255).optional(),
+  /**
+   * Our record of this refund, written before the request: its id is the idempotency key, so a retry of this
+   * refund is answered with the same refund, and a second refund of the same amount is a refund of its own.
+   */
+  refundRecordId: z.string().min(1).max(200),
 });
 
 const transferInput = z.object({
@@ -112,17 +123,40 @@ const transferInput = z.object({
     .string()
     .regex(/^[A-Za-z]{3}$/)
     .transform((code) => code.toLowerCase()),
-  /** The inspector's connected account (`acct_…`). */
-  destination: z.string().startsWith("acct_"),
+  /** The inspector's connected account (`acct_…`), as stored when they set up payouts. */
+  destination: z.string().regex(/^acct_[A-Za-z0-9]+$/),
   bookingId: z.string().min(1).max(200),
-  /** The charge the money came from: lets Stripe pay out before the charge's funds are available. */
-  sourceChargeId: z.string().startsWith("ch_").optional(),
-  idempotencyKey: z.string().min(1).max(255).optional(),
+  /**
+   * The charge the money came from (`source_transaction`): Stripe makes the transfer at once, even while the
+   * charge's funds are still pending, and the inspector's money becomes available when the charge's does.
+   */
+  sourceChargeId: z.string().startsWith("ch_").or(z.string().startsWith("py_")),
+});
+
+const reversalInput = z.object({
+  transferId: z.string().startsWith("tr_"),
+  amountMinor: z.number().int().positive(),
+  bookingId: z.string().min(1).max(200),
+  /** Our record of the reversal; its id is the idempotency key. */
+  reversalRecordId: z.string().min(1).max(200),
+});
+
+const payoutAccountInput = z.object({
+  userId: z.string().min(1).max(200),
+  email: z.email(),
+  country: z.string().regex(/^[A-Z]{2}$/).default("DE"),
+});
+
+const onboardingLinkInput = z.object({
+  accountId: z.string().regex(/^acct_[A-Za-z0-9]+$/),
+  returnUrl: z.url(),
+  refreshUrl: z.url(),
 });
 
 export type CheckoutSessionInput = z.input<typeof checkoutInput>;
 export type RefundInput = z.input<typeof refundInput>;
 export type TransferInput = z.input<typeof transferInput>;
+export type ReversalInput = z.input<typeof reversalInput>;
 
 export type CheckoutSessionSummary = {
   id: string;
@@ -151,8 +185,57 @@ export type PaymentSummary = {
   lastPaymentError: string | null;
 };
 
-export type RefundSummary = { id: string; amountMinor: number; currency: string; status: string | null; paymentIntentId: string | null };
-export type TransferSummary = { id: string; amountMinor: number; currency: string; destination: string; transferGroup: string | null };
+export type RefundStatus = "pending" | "succeeded" | "failed" | "canceled";
+
+export type RefundSummary = {
+  id: string;
+  amountMinor: number;
+  currency: string;
+  /** Card refunds usually answer `succeeded`; bank debits and some cards answer `pending` and settle later, or fail. */
+  status: RefundStatus;
+  failureReason: string | null;
+  paymentIntentId: string | null;
+  bookingId: string | null;
+};
+export type TransferSummary = { id: string; amountMinor: number; amountReversedMinor: number; currency: string; destination: string; transferGroup: string | null };
+export type ReversalSummary = { id: string; amountMinor: number; currency: string; transferId: string };
+
+/** A connected account's state in the words the app needs. */
+export type PayoutAccountState = {
+  accountId: string;
+  detailsSubmitted: boolean;
+  transfersCapability: "active" | "inactive" | "pending";
+  payoutsEnabled: boolean;
+  /** Stripe's `currently_due` and `past_due`, without repeats. */
+  requirementsDue: string[];
+  disabledReason: string | null;
+};
+
+export function summariseAccount(account: Stripe.Account): PayoutAccountState {
+  const due = [...(account.requirements?.currently_due ?? []), ...(account.requirements?.past_due ?? [])];
+  const transfers = account.capabilities?.transfers;
+  return {
+    accountId: account.id,
+    detailsSubmitted: account.details_submitted,
+    transfersCapability: transfers === "active" ? "active" : transfers === "pending" ? "pending" : "inactive",
+    payoutsEnabled: account.payouts_enabled,
+    requirementsDue: [...new Set(due)].sort(),
+    disabledReason: account.requirements?.disabled_reason ?? null,
+  };
+}
+
+export function summariseRefund(refund: Stripe.Refund): RefundSummary {
+  const status = refund.status === "pending" || refund.status === "failed" || refund.status === "canceled" ? refund.status : "succeeded";
+  return {
+    id: refund.id,
+    amountMinor: refund.amount,
+    currency: refund.currency,
+    status: refund.status === "requires_action" ? "pending" : status,
+    failureReason: refund.failure_reason ?? null,
+    paymentIntentId: idOf(refund.payment_intent),
+    bookingId: refund.metadata?.booking_id ?? null,
+  };
+}
 
 export const transferGroupOf = (bookingId: string) => `booking_${bookingId}`;
 
@@ -237,7 +320,7 @@ export function createPaymentsClient(config: PaymentsConfig) {
             cancel_url: booking.cancelUrl,
             client_reference_id: booking.bookingId,
             ...(booking.customerEmail ? { customer_email: booking.customerEmail } : {}),
-            expires_at: Math.floor(Date.now() / 1000) + booking.expiresInMinutes * 60,
+            expires_at: Math.floor(Date.now() / 1000) + Math.max(booking.expiresInMinutes, 30 + checkoutExpiryMarginMinutes) * 60,
             metadata,
             payment_intent_data: { description: booking.description, metadata, transfer_group: transferGroupOf(booking.bookingId) },
           },
@@ -275,31 +358,70 @@ export function createPaymentsClient(config: PaymentsConfig) {
     /** Refunds a payment in full (no amount) or in part; the same request twice refunds once. */
     async refundPayment(input: RefundInput): Promise<RefundSummary> {
       const refund = refundInput.parse(input);
-      const idempotencyKey = refund.idempotencyKey ?? `refund:${refund.bookingId}:${refund.paymentIntentId}:${refund.amountMinor ?? "rest"}`;
       const created = await call(() =>
         stripe.refunds.create(
           {
             payment_intent: refund.paymentIntentId,
             ...(refund.amountMinor ? { amount: refund.amountMinor } : {}),
             reason: "requested_by_customer",
-            metadata: { booking_id: refund.bookingId, refund_reason: refund.reason },
+            metadata: { booking_id: refund.bookingId, refund_record: refund.refundRecordId, refund_reason: refund.reason },
           },
-          { idempotencyKey },
+          { idempotencyKey: `refund:${refund.refundRecordId}` },
         ),
       );
-      return {
-        id: created.id,
-        amountMinor: created.amount,
-        currency: created.currency,
-        status: created.status,
-        paymentIntentId: idOf(created.payment_intent),
-      };
+      return summariseRefund(created);
+    },
+
+    /** An Express connected account for an inspector; one per person (the key is their user id). */
+    async createPayoutAccount(input: z.input<typeof payoutAccountInput>): Promise<PayoutAccountState> {
+      const person = payoutAccountInput.parse(input);
+      const account = await call(() =>
+        stripe.accounts.create(
+          {
+            type: "express",
+            country: person.country,
+            email: person.email,
+            business_type: "individual",
+            capabilities: { transfers: { requested: true } },
+            metadata: { user_id: person.userId },
+          },
+          { idempotencyKey: `payout-account:${person.userId}` },
+        ),
+      );
+      return summariseAccount(account);
+    },
+
+    async retrievePayoutAccount(accountId: string): Promise<PayoutAccountState> {
+      return summariseAccount(await call(() => stripe.accounts.retrieve(accountId)));
+    },
+
+    /** A short-lived, single-use link to the hosted onboarding (or update) of the account. */
+    async createOnboardingLink(input: z.input<typeof onboardingLinkInput>): Promise<{ url: string; expiresAt: Date }> {
+      const link = onboardingLinkInput.parse(input);
+      const created = await call(() =>
+        stripe.accountLinks.create({ account: link.accountId, type: "account_onboarding", return_url: link.returnUrl, refresh_url: link.refreshUrl }),
+      );
+      return { url: created.url, expiresAt: new Date(created.expires_at * 1000) };
+    },
+
+    /** Takes back part of a transfer (a refund after the payout); the same record twice reverses once. */
+    async reverseTransfer(input: ReversalInput): Promise<ReversalSummary> {
+      const reversal = reversalInput.parse(input);
+      const created = await call(() =>
+        stripe.transfers.createReversal(
+          reversal.transferId,
+          { amount: reversal.amountMinor, metadata: { booking_id: reversal.bookingId, reversal_record: reversal.reversalRecordId } },
+          { idempotencyKey: `reversal:${reversal.reversalRecordId}` },
+        ),
+      );
+      return { id: created.id, amountMinor: created.amount, currency: created.currency, transferId: idOf(created.transfer) ?? reversal.transferId };
     },
 
     /** Records the inspector's payout for a booking as a transfer to their connected account. */
     async recordTransfer(input: TransferInput): Promise<TransferSummary> {
       const payout = transferInput.parse(input);
-      const idempotencyKey = payout.idempotencyKey ?? `transfer:${payout.bookingId}:${payout.destination}:${payout.amountMinor}`;
+      // One transfer per booking, ever: the key names the booking alone.
+      const idempotencyKey = `transfer:${payout.bookingId}`;
       const transfer = await call(() =>
         stripe.transfers.create(
           {
@@ -307,7 +429,7 @@ export function createPaymentsClient(config: PaymentsConfig) {
             currency: payout.currency,
             destination: payout.destination,
             transfer_group: transferGroupOf(payout.bookingId),
-            ...(payout.sourceChargeId ? { source_transaction: payout.sourceChargeId } : {}),
+            source_transaction: payout.sourceChargeId,
             metadata: { booking_id: payout.bookingId },
           },
           { idempotencyKey },
@@ -316,6 +438,7 @@ export function createPaymentsClient(config: PaymentsConfig) {
       return {
         id: transfer.id,
         amountMinor: transfer.amount,
+        amountReversedMinor: transfer.amount_reversed,
         currency: transfer.currency,
         destination: idOf(transfer.destination) ?? payout.destination,
         transferGroup: transfer.transfer_group,
@@ -367,4 +490,8 @@ export const expireCheckoutSession = (id: string) => payments().expireCheckoutSe
 export const retrievePayment = (paymentIntentId: string) => payments().retrievePayment(paymentIntentId);
 export const refundPayment = (input: RefundInput) => payments().refundPayment(input);
 export const recordTransfer = (input: TransferInput) => payments().recordTransfer(input);
+export const reverseTransfer = (input: ReversalInput) => payments().reverseTransfer(input);
+export const createPayoutAccount = (input: z.input<typeof payoutAccountInput>) => payments().createPayoutAccount(input);
+export const retrievePayoutAccount = (accountId: string) => payments().retrievePayoutAccount(accountId);
+export const createOnboardingLink = (input: z.input<typeof onboardingLinkInput>) => payments().createOnboardingLink(input);
 export const verifyWebhook = (rawBody: string, signatureHeader: string | null) => payments().verifyWebhook(rawBody, signatureHeader);

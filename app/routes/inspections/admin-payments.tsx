@@ -28,7 +28,12 @@ export async function action({ request, context }: Route.ActionArgs) {
   if (!parsed.success) return data<Result>({ bookingId, errors: z.flattenError(parsed.error).fieldErrors }, { status: 422 });
   try {
     const refunded = await refundAsAdmin(context.get(databaseContext), admin, bookingId, parsed.data.amount, parsed.data.reason);
-    return { bookingId, errors: null, message: refunded ? "Refund issued." : "Nothing was owed." } satisfies Result;
+    const message = refunded.queued
+      ? "The payment service is not answering: the refund is recorded and will be sent when it is back."
+      : refunded.issuedMinor
+        ? "Refund issued."
+        : "Nothing was owed.";
+    return { bookingId, errors: null, message } satisfies Result;
   } catch (error) {
     if (error instanceof BookingRuleError) return data<Result>({ bookingId, errors: { [error.field ?? "amount"]: [error.message] } }, { status: error.status });
     if (error instanceof PaymentsUnavailableError || error instanceof PaymentsRejectedError) return data<Result>({ bookingId, errors: { amount: [error.message] } }, { status: 503 });

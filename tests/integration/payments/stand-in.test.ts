@@ -251,11 +251,11 @@ describe("refunds and transfers", () => {
     const { session, paymentIntentId } = await paidSession();
     const bookingId = session.bookingId!;
 
-    const partial = await harness.client.refundPayment({ paymentIntentId, amountMinor: 5_000, reason: "Inspector declined after travel costs", bookingId });
+    const partial = await harness.client.refundPayment({ paymentIntentId, amountMinor: 5_000, reason: "Inspector declined after travel costs", bookingId, refundRecordId: "rf-1" });
     expect(partial).toMatchObject({ amountMinor: 5_000, currency: "eur", status: "succeeded", paymentIntentId });
     expect(partial.id).toMatch(/^re_/);
     const refund = await stripe.refunds.retrieve(partial.id);
-    expect(refund.metadata).toEqual({ booking_id: bookingId, refund_reason: "Inspector declined after travel costs" });
+    expect(refund.metadata).toEqual({ booking_id: bookingId, refund_record: "rf-1", refund_reason: "Inspector declined after travel costs" });
 
     const over = await fetch(`${harness.standIn.url}/v1/refunds`, {
       method: "POST",
@@ -269,18 +269,18 @@ describe("refunds and transfers", () => {
       param: "amount",
       message: "Refund amount (€135.01) is greater than unrefunded amount on charge (€135.00)",
     });
-    await expect(harness.client.refundPayment({ paymentIntentId, amountMinor: 99_999, reason: "too much", bookingId })).rejects.toMatchObject({
+    await expect(harness.client.refundPayment({ paymentIntentId, amountMinor: 99_999, reason: "too much", bookingId, refundRecordId: "rf-2" })).rejects.toMatchObject({
       name: "PaymentsRejectedError",
       code: "amount_too_large",
     });
 
-    const rest = await harness.client.refundPayment({ paymentIntentId, reason: "Booking cancelled by the buyer", bookingId });
+    const rest = await harness.client.refundPayment({ paymentIntentId, reason: "Booking cancelled by the buyer", bookingId, refundRecordId: "rf-3" });
     expect(rest.amountMinor).toBe(13_500);
     expect(await harness.client.retrievePayment(paymentIntentId)).toMatchObject({ amountRefundedMinor: 18_500 });
-    // The same request again (same idempotency key) refunds nothing more.
-    expect((await harness.client.refundPayment({ paymentIntentId, reason: "Booking cancelled by the buyer", bookingId })).id).toBe(rest.id);
+    // The same record again (same idempotency key) refunds nothing more.
+    expect((await harness.client.refundPayment({ paymentIntentId, reason: "Booking cancelled by the buyer", bookingId, refundRecordId: "rf-3" })).id).toBe(rest.id);
     await expect(
-      harness.client.refundPayment({ paymentIntentId, reason: "again", bookingId, idempotencyKey: randomUUID() }),
+      harness.client.refundPayment({ paymentIntentId, reason: "again", bookingId, refundRecordId: randomUUID() }),
     ).rejects.toBeInstanceOf(PaymentsRejectedError);
 
     await waitFor(() => (eventsFor(paymentIntentId, "refund.created").length === 2 ? true : undefined), { what: "two refund.created" });
@@ -295,7 +295,7 @@ describe("refunds and transfers", () => {
     const session = await harness.client.createCheckoutSession(newBooking());
     await pay(session.id, "4000000000000002");
     const { paymentIntentId, bookingId } = await harness.client.retrieveCheckoutSession(session.id);
-    await expect(harness.client.refundPayment({ paymentIntentId: paymentIntentId!, reason: "x", bookingId: bookingId! })).rejects.toMatchObject({
+    await expect(harness.client.refundPayment({ paymentIntentId: paymentIntentId!, reason: "x", bookingId: bookingId!, refundRecordId: randomUUID() })).rejects.toMatchObject({
       code: "charge_not_refundable",
     });
   });
@@ -303,18 +303,21 @@ describe("refunds and transfers", () => {
   it("records the inspector's payout as a transfer in the booking's transfer group", async () => {
     const { session, paymentIntentId } = await paidSession();
     const payment = await harness.client.retrievePayment(paymentIntentId);
+    const account = await harness.client.createPayoutAccount({ userId: randomUUID(), email: "inspector@example.test" });
+    await fetch(`${harness.standIn.url}/__stand-in/accounts/${account.accountId}/state`, { method: "POST", headers: { "content-type": "application/json" }, body: '{"state":"complete"}' });
+    const destination = account.accountId;
     const transfer = await harness.client.recordTransfer({
       amountMinor: 15_725,
       currency: "eur",
-      destination: "acct_1InspectorDemo",
+      destination,
       bookingId: session.bookingId!,
       sourceChargeId: payment.latestChargeId!,
     });
-    expect(transfer).toMatchObject({ amountMinor: 15_725, currency: "eur", destination: "acct_1InspectorDemo", transferGroup: `booking_${session.bookingId}` });
+    expect(transfer).toMatchObject({ amountMinor: 15_725, currency: "eur", destination, transferGroup: `booking_${session.bookingId}` });
     const retrieved = await stripe.transfers.retrieve(transfer.id);
     expect(retrieved).toMatchObject({ object: "transfer", amount: 15_725, metadata: { booking_id: session.bookingId } });
     await expect(
-      harness.client.recordTransfer({ amountMinor: 5_000, currency: "eur", destination: "acct_1InspectorDemo", bookingId: session.bookingId!, sourceChargeId: payment.latestChargeId! }),
+      stripe.transfers.create({ amount: 5_000, currency: "eur", destination, source_transaction: payment.latestChargeId! }),
     ).rejects.toMatchObject({ code: "amount_too_large" });
     await expect(stripe.transfers.create({ amount: 100, currency: "eur", destination: "not-an-account" })).rejects.toMatchObject({ param: "destination" });
     await waitFor(() => harness.receiver.received.find((webhook) => webhook.event.type === "transfer.created" && webhook.event.data.object.id === transfer.id), {
@@ -459,7 +462,7 @@ describe("the stand-in across a restart", () => {
       maxDeliveryAttempts: 5,
     });
     expect(await harness.client.retrieveCheckoutSession(session.id)).toMatchObject({ status: "complete", paymentStatus: "paid", paymentIntentId });
-    const refund = await harness.client.refundPayment({ paymentIntentId, amountMinor: 1_000, reason: "after restart", bookingId: session.bookingId! });
+    const refund = await harness.client.refundPayment({ paymentIntentId, amountMinor: 1_000, reason: "after restart", bookingId: session.bookingId!, refundRecordId: randomUUID() });
     expect(refund.amountMinor).toBe(1_000);
   });
 });
