@@ -107,7 +107,7 @@ export function renderCheckoutPage(session: CheckoutSession, options: { error?: 
     <label>Bank account (IBAN)
       <input name="iban" autocomplete="off" placeholder="DE89 3704 0044 0532 0130 00" value="${escape(values.iban ?? "")}">
     </label>
-    <button type="submit" name="method" value="bank_debit" class="secondary">Pay ${escape(total)} by bank debit</button>
+    <button type="submit" name="method" value="bank_debit" class="secondary">Debit ${escape(total)} from this account</button>
   </form>`
       : ""
   }

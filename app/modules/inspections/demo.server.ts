@@ -8,6 +8,7 @@ import type Stripe from "stripe";
 import { getDatabase, type Database } from "~/db/client.server";
 import { env } from "~/env.server";
 import type { MachineCategory } from "~/modules/listings/catalogue";
+import { checkoutExpiryMarginMinutes } from "~/modules/payments/stripe.server";
 import { listings } from "~/modules/listings/schema";
 import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking, releaseLapsedCheckouts } from "./bookings.server";
 import { getPayoutAccount, refreshPayoutAccount, startPayoutOnboarding } from "./payouts.server";
@@ -188,7 +189,7 @@ export async function seedDemoInspections(inspectors: Record<DemoInspectorKey, D
 
   // Not paid in time: the checkout lapsed and the slot went back (first, so that no other hold of hers lapses with it).
   const lapsed = await book(greta, "mirelle", "FV 5 Vertical", { pay: false });
-  await releaseLapsedCheckouts(db, inspectors.mirelle.id, addMinutes(now, 31));
+  await releaseLapsedCheckouts(db, inspectors.mirelle.id, addMinutes(now, 30 + checkoutExpiryMarginMinutes + 1));
   made.push(lapsed.bookingId);
 
   // Released by the buyer before paying.
