@@ -103,7 +103,9 @@ async function releaseHeldShares(db: Executor, inspectorId: string) {
     .select({ bookingId: payouts.bookingId })
     .from(payouts)
     .where(and(eq(payouts.inspectorId, inspectorId), inArray(payouts.status, ["held", "unclaimed"])));
-  for (const { bookingId } of held) await enqueue(PAYOUT_QUEUE, { bookingId }, { singletonKey: bookingId });
+  // No singleton key: a payout job of this booking may be running right now and about to find it held.
+  // Paying is idempotent (row locks, one transfer key per booking), so a second job is harmless.
+  for (const { bookingId } of held) await enqueue(PAYOUT_QUEUE, { bookingId });
 }
 
 /**

@@ -124,7 +124,7 @@ describe("the inspector's share", () => {
     const paid = await until(async () => {
       const payout = await payoutOf(held.bookingId);
       return payout?.status === "transferred" ? payout : undefined;
-    }, "the held share transferred after account.updated");
+    }, "the held share transferred after account.updated", 20_000);
     expect(paid).toMatchObject({ destination: due.stripeAccountId, transferredMinor: held.booking.inspectorShareMinor });
     expect((await bookingRow(held.bookingId)).status).toBe("closed");
     const transfer = await fetch(`${process.env.STRIPE_STAND_IN_URL}/v1/transfers/${paid.stripeTransferId}`, { headers: { authorization: `Bearer ${process.env.STRIPE_SECRET_KEY}` } }).then((response) => response.json());
@@ -135,7 +135,7 @@ describe("the inspector's share", () => {
   it("a refund after the payout reverses the transfer in proportion, recorded on both sides", async () => {
     const held = await filedBooking();
     await onboard(held.inspector, "complete");
-    await until(async () => (await payoutOf(held.bookingId))?.status === "transferred", "the transfer");
+    await until(async () => (await payoutOf(held.bookingId))?.status === "transferred", "the transfer", 20_000);
     const admin = await createTestUser({ roles: ["admin"] });
     await refundAsAdmin(db, admin, held.bookingId, 10_500, "A quarter back after a dispute about the visit");
     const expected = Math.round((held.booking.inspectorShareMinor * 10_500) / held.booking.feeMinor);
