@@ -130,7 +130,7 @@ export const environmentSchema = z.object({
       code: "custom",
       input: context.value,
       path: ["SESSION_SECRET"],
-      message: "is required (or BETTER_AUTH_SECRET): `npm start` and `npm test` generate it; elsewhere `openssl rand -hex 32`",
+      message: "is required (`npm start` and `npm test` generate it; elsewhere `openssl rand -hex 32`), or BETTER_AUTH_SECRET",
     });
   }
 });
