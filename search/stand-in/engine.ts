@@ -483,7 +483,8 @@ export class SearchEngine {
     if (!withWords) {
       matches = allowed ? allowed.members() : Array.from({ length: table.size }, (_, n) => n);
     } else {
-      textMatches = state.text.search(query, request.matchingStrategy);
+      const measures = new Set(rankingSteps(state.settings.rankingRules as string[], [], true, request.matchingStrategy).flatMap((step) => (step.kind === "text" ? [step.key] : [])));
+      textMatches = state.text.search(query, request.matchingStrategy, measures);
       matches = [];
       for (const id of textMatches.keys()) {
         const n = table.numberOfKey(id);

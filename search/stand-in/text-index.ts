@@ -214,8 +214,11 @@ export class TextIndex {
     return found;
   }
 
-  /** The matching documents (by key) with what the ranking rules compare. */
-  search(query: string, matchingStrategy: MatchingStrategy): Map<string, TextMatch> {
+  /**
+   * The matching documents (by key) with what the ranking rules compare; `wanted` names the measures the
+   * index's ranking rules use (the others are left at 0, which saves their cost).
+   */
+  search(query: string, matchingStrategy: MatchingStrategy, wanted: ReadonlySet<keyof TextMatch> = allMeasures): Map<string, TextMatch> {
     this.built ??= this.build();
     const built = this.built;
     const terms = tokenize(query).slice(0, MAX_QUERY_WORDS);
@@ -226,8 +229,8 @@ export class TextIndex {
     const exactOnly = new Set(this.typo.disableOnAttributes.map((attribute) => built.fields.indexOf(attribute)).filter((index) => index >= 0));
 
     // Per query word: for each document, the fewest typos it matched with, whether it matched as typed,
-    // and where.
-    type WordHit = { typos: number; asTyped: boolean; occurrences: Occurrence[] };
+    // and where (`own` once the occurrences list is a copy that may be extended).
+    type WordHit = { typos: number; asTyped: boolean; occurrences: Occurrence[]; own: boolean };
     const hits = terms.map((term, index) => {
       const prefix = lastIsPrefix && index === terms.length - 1;
       const perDocument = new Map<string, WordHit>();
@@ -238,11 +241,13 @@ export class TextIndex {
           const usable = typos > 0 && exactOnly.size ? occurrences.filter((occurrence) => !exactOnly.has(occurrence.field)) : occurrences;
           if (!usable.length) continue;
           const hit = perDocument.get(key);
-          if (!hit) perDocument.set(key, { typos, asTyped, occurrences: [...usable] });
-          else {
+          if (!hit) {
+            perDocument.set(key, { typos, asTyped, occurrences: usable, own: false });
+          } else {
             hit.typos = Math.min(hit.typos, typos);
             hit.asTyped ||= asTyped;
-            hit.occurrences.push(...usable);
+            if (!hit.own) [hit.occurrences, hit.own] = [[...hit.occurrences], true];
+            for (const occurrence of usable) hit.occurrences.push(occurrence);
           }
         }
       }
@@ -258,38 +263,56 @@ export class TextIndex {
         : matchingStrategy === "last"
           ? indexes.slice(1).reverse()
           : [...indexes].sort((a, b) => hits[b]!.size - hits[a]!.size || b - a).slice(0, -1);
+    // How many words must be dropped before word i is: never-dropped words cannot be missing.
+    const dropsBefore = indexes.map((index) => removal.indexOf(index));
 
     const candidates = new Set<string>();
     for (const perDocument of hits) for (const key of perDocument.keys()) candidates.add(key);
+    const keptHits: WordHit[] = [];
+    const keptTerms: string[] = [];
     for (const key of candidates) {
-      let dropped = -1;
-      for (let stage = 0; stage <= removal.length; stage += 1) {
-        const removed = new Set(removal.slice(0, stage));
-        if (indexes.every((index) => removed.has(index) || hits[index]!.has(key))) {
-          dropped = stage;
+      // The fewest words dropped: every missing word must be among them.
+      let dropped = 0;
+      let matches = true;
+      for (const index of indexes) {
+        if (hits[index]!.has(key)) continue;
+        if (dropsBefore[index]! < 0) {
+          matches = false;
           break;
         }
+        dropped = Math.max(dropped, dropsBefore[index]! + 1);
       }
-      if (dropped < 0) continue;
-      const removed = new Set(removal.slice(0, dropped));
-      const kept = indexes.filter((index) => !removed.has(index));
-      const keptHits = kept.map((index) => hits[index]!.get(key)!);
-      let proximity = 0;
-      for (let i = 1; i < keptHits.length; i += 1) proximity += pairProximity(keptHits[i - 1]!.occurrences, keptHits[i]!.occurrences);
-      const keptTerms = kept.map((index) => terms[index]!);
-      result.set(key, {
-        dropped,
-        typos: keptHits.reduce((sum, hit) => sum + hit.typos, 0),
-        proximity,
-        attributeRank: keptHits.reduce((sum, hit) => sum + Math.min(...hit.occurrences.map((occurrence) => occurrence.field)), 0),
-        wordPosition: keptHits.reduce((sum, hit) => sum + Math.min(...hit.occurrences.map((occurrence) => occurrence.position)), 0),
-        exactAttribute: exactAttribute(built.fieldWords.get(key) ?? [], keptTerms),
-        inexactWords: keptHits.filter((hit) => !hit.asTyped).length,
-      });
+      if (!matches) continue;
+      keptHits.length = 0;
+      keptTerms.length = 0;
+      for (const index of indexes) {
+        if (dropsBefore[index]! >= 0 && dropsBefore[index]! < dropped) continue;
+        keptHits.push(hits[index]!.get(key)!);
+        keptTerms.push(terms[index]!);
+      }
+      const match: TextMatch = { dropped, typos: 0, proximity: 0, attributeRank: 0, wordPosition: 0, exactAttribute: 0, inexactWords: 0 };
+      for (const hit of keptHits) {
+        match.typos += hit.typos;
+        if (!hit.asTyped) match.inexactWords += 1;
+        if (wanted.has("attributeRank") || wanted.has("wordPosition")) {
+          let [field, position] = [Infinity, Infinity];
+          for (const occurrence of hit.occurrences) {
+            if (occurrence.field < field) field = occurrence.field;
+            if (occurrence.position < position) position = occurrence.position;
+          }
+          match.attributeRank += field;
+          match.wordPosition += position;
+        }
+      }
+      if (wanted.has("proximity")) for (let i = 1; i < keptHits.length; i += 1) match.proximity += pairProximity(keptHits[i - 1]!.occurrences, keptHits[i]!.occurrences);
+      if (wanted.has("exactAttribute")) match.exactAttribute = exactAttribute(built.fieldWords.get(key) ?? [], keptTerms);
+      result.set(key, match);
     }
     return result;
   }
 }
+
+const allMeasures: ReadonlySet<keyof TextMatch> = new Set(["dropped", "typos", "proximity", "attributeRank", "wordPosition", "exactAttribute", "inexactWords"]);
 
 /** 1 for adjacent words in order, more the further apart (reversed order costs one more), 8 at most. */
 function pairProximity(left: Occurrence[], right: Occurrence[]): number {
