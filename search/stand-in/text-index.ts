@@ -30,7 +30,7 @@ export type TextMatch = {
   dropped: number;
   /** Typos summed over the words kept (`typo`). */
   typos: number;
-  /** Distance between consecutive kept words, 1 (adjacent) to 8 (apart or in other attributes) each (`proximity`). */
+  /** Distance between consecutive kept words, 0 (adjacent) to 3 (apart or in other attributes) each (`proximity`). */
   proximity: number;
   /** Rank of the best searchable attribute of each kept word, summed (`attributeRank`). */
   attributeRank: number;
@@ -44,8 +44,8 @@ export type TextMatch = {
 
 /** The engine considers the first ten words of a query. */
 export const MAX_QUERY_WORDS = 10;
-/** The proximity of two words that are not near each other, as the engine caps it. */
-const FAR = 8;
+/** The proximity cost of two words that are not near each other, as the engine caps it. */
+const FAR = 3;
 
 /** Lower case, compatibility-decomposed, without marks: “Präzision”, “PRÄZISION” and “prazision” are one word. */
 export function normalizeText(text: string): string {
@@ -57,6 +57,27 @@ export function tokenize(text: string): string[] {
   return normalizeText(text)
     .split(/[^\p{L}\p{N}]+/u)
     .filter((word) => word !== "");
+}
+
+// The engine's hard separators (its documentation, “Data types”): words they part are 8 positions apart,
+// as are the values of an array; other separators part words by 1.
+const hardSeparator = /[.;,!?()[\]{}|]/;
+const HARD_GAP = 8;
+
+/** The words of a text with their positions, the first at `start`; returns the position after the last. */
+function positionedWords(text: string, start: number, into: Array<[string, number]>): number {
+  const pieces = normalizeText(text).split(/([^\p{L}\p{N}]+)/u);
+  let position = start;
+  let first = true;
+  for (let i = 0; i < pieces.length; i += 2) {
+    const word = pieces[i]!;
+    const separator = pieces[i - 1] ?? "";
+    if (word === "") continue;
+    if (!first) position += hardSeparator.test(separator) ? HARD_GAP : 1;
+    into.push([word, position]);
+    first = false;
+  }
+  return first ? start : position + HARD_GAP;
 }
 
 /**
@@ -184,9 +205,11 @@ export class TextIndex {
       const perField: string[][] = [];
       fields.forEach((field, fieldIndex) => {
         const leaves = leafValues(lookUp(document, field)).filter((value) => typeof value === "string" || typeof value === "number");
-        const words = leaves.flatMap((leaf) => tokenize(String(leaf)));
-        perField.push(words);
-        words.forEach((word, position) => {
+        const positioned: Array<[string, number]> = [];
+        let next = 0;
+        for (const leaf of leaves) next = positionedWords(String(leaf), next, positioned);
+        perField.push(positioned.map(([word]) => word));
+        positioned.forEach(([word, position]) => {
           let posting = postings.get(word);
           if (!posting) postings.set(word, (posting = new Map()));
           let occurrences = posting.get(key);
@@ -270,6 +293,7 @@ export class TextIndex {
     for (const perDocument of hits) for (const key of perDocument.keys()) candidates.add(key);
     const keptHits: WordHit[] = [];
     const keptTerms: string[] = [];
+    const keptIndexes: number[] = [];
     for (const key of candidates) {
       // The fewest words dropped: every missing word must be among them.
       let dropped = 0;
@@ -285,10 +309,12 @@ export class TextIndex {
       if (!matches) continue;
       keptHits.length = 0;
       keptTerms.length = 0;
+      keptIndexes.length = 0;
       for (const index of indexes) {
         if (dropsBefore[index]! >= 0 && dropsBefore[index]! < dropped) continue;
         keptHits.push(hits[index]!.get(key)!);
         keptTerms.push(terms[index]!);
+        keptIndexes.push(index);
       }
       const match: TextMatch = { dropped, typos: 0, proximity: 0, attributeRank: 0, wordPosition: 0, exactAttribute: 0, inexactWords: 0 };
       for (const hit of keptHits) {
@@ -304,7 +330,12 @@ export class TextIndex {
           match.wordPosition += position;
         }
       }
-      if (wanted.has("proximity")) for (let i = 1; i < keptHits.length; i += 1) match.proximity += pairProximity(keptHits[i - 1]!.occurrences, keptHits[i]!.occurrences);
+      // Only words next to each other in the query count (a dropped word between them leaves no pair).
+      if (wanted.has("proximity")) {
+        for (let i = 1; i < keptHits.length; i += 1) {
+          if (keptIndexes[i] === keptIndexes[i - 1]! + 1) match.proximity += pairProximity(keptHits[i - 1]!.occurrences, keptHits[i]!.occurrences);
+        }
+      }
       if (wanted.has("exactAttribute")) match.exactAttribute = exactAttribute(built.fieldWords.get(key) ?? [], keptTerms);
       result.set(key, match);
     }
@@ -314,14 +345,18 @@ export class TextIndex {
 
 const allMeasures: ReadonlySet<keyof TextMatch> = new Set(["dropped", "typos", "proximity", "attributeRank", "wordPosition", "exactAttribute", "inexactWords"]);
 
-/** 1 for adjacent words in order, more the further apart (reversed order costs one more), 8 at most. */
+/**
+ * The engine's proximity cost of two consecutive query words (milli `proximity.rs`, `MAX_DISTANCE` 4, and
+ * `ranking_rule_graph/proximity/`): 0 when the second follows the first, one more per word between them,
+ * 1 more when in reverse order; 3 at most, and 3 when they are not in the same attribute.
+ */
 function pairProximity(left: Occurrence[], right: Occurrence[]): number {
   let best = FAR;
   for (const a of left) {
     for (const b of right) {
       if (a.field !== b.field) continue;
-      const distance = b.position > a.position ? b.position - a.position : a.position - b.position + 1;
-      if (distance < best) best = distance;
+      const cost = b.position > a.position ? b.position - a.position - 1 : a.position - b.position;
+      if (cost < best) best = cost;
     }
   }
   return Math.min(best, FAR);

@@ -123,6 +123,35 @@ const SORT_SETTINGS = { searchableAttributes: ["text"], sortableAttributes: ["ra
 
 const allTypo = (q: string) => ({ q, matchingStrategy: "all" });
 
+// crates/milli/src/search/new/tests/words_tms.rs — create_index().
+const WORDS_DOCUMENTS: Json[] = [
+  "",
+  "the",
+  "the quick",
+  "the quick brown",
+  "the quick brown fox",
+  "the quick brown fox jumps",
+  "the quick brown fox jumps over",
+  "the quick brown fox jumps over the",
+  "the quick brown fox jumps over the lazy",
+  "the quick brown fox jumps over the lazy dog",
+  "the brown quick fox jumps over the lazy dog",
+  "the quick brown fox talks to the lazy and slow dog",
+  "the quick brown fox talks to the lazy dog",
+  "the mighty and quick brown fox jumps over the lazy dog",
+  "the great quick brown fox jumps over the lazy dog",
+  "this quick brown and very scary fox jumps over the lazy dog",
+  "this quick brown and scary fox jumps over the lazy dog",
+  "the quick brown fox jumps over the really lazy dog",
+  "the brown quick fox jumps over the really lazy dog",
+  "the brown quick fox immediately jumps over the really lazy dog",
+  "the brown quick fox immediately jumps over the really lazy blue dog",
+  "the quick brown. quick brown fox. brown fox jumps. fox jumps over. over the lazy. the lazy dog.",
+  "the, quick, brown, fox, jumps, over, the, lazy, dog",
+].map((text, id): Json => ({ id, text }));
+const WORDS_SETTINGS = { searchableAttributes: ["text"], rankingRules: ["words"] };
+const FOX = "the quick brown fox jumps over the lazy dog";
+
 export const engineCases: EngineCase[] = [
   // ---------------------------------------------------------------------------------------------------
   // Filters
@@ -354,6 +383,51 @@ export const engineCases: EngineCase[] = [
     documents: SORT_DOCUMENTS,
     settings: { sortableAttributes: ["letter"], rankingRules: ["words", "typo", "proximity", "attribute", "exactness"] },
     searches: [{ request: { q: "hello", sort: ["letter:asc"] }, expect: { status: 400, code: "invalid_search_sort" } }],
+  },
+
+  // ---------------------------------------------------------------------------------------------------
+  // Matching strategies and the words ranking rule
+  {
+    from: `${MILLI_NEW}/words_tms.rs › test_words_tms_last_simple`,
+    documents: WORDS_DOCUMENTS,
+    settings: WORDS_SETTINGS,
+    searches: [
+      { request: { q: FOX, matchingStrategy: "last" }, expect: { ids: [9, 10, 13, 14, 15, 16, 17, 18, 19, 20, 21, 22, 8, 6, 7, 5, 4, 11, 12, 3] } },
+      { request: { q: `extravagant ${FOX}`, matchingStrategy: "last" }, expect: { ids: [] } },
+    ],
+  },
+  {
+    from: `${MILLI_NEW}/words_tms.rs › test_words_tms_attribute_rank_word_position_order_keeps_hits`,
+    documents: WORDS_DOCUMENTS,
+    settings: { ...WORDS_SETTINGS, rankingRules: ["attributeRank", "words", "typo", "proximity", "wordPosition", "exactness"] },
+    searches: [{ request: { q: FOX, matchingStrategy: "last", limit: 100 }, expect: { count: 22 } }],
+  },
+  {
+    from: `${MILLI_NEW}/words_tms.rs › test_words_tms_attribute_rank_word_position_order_keeps_hits (wordPosition first)`,
+    documents: WORDS_DOCUMENTS,
+    settings: { ...WORDS_SETTINGS, rankingRules: ["wordPosition", "words", "typo", "proximity", "attributeRank", "exactness"] },
+    searches: [{ request: { q: FOX, matchingStrategy: "last", limit: 100 }, expect: { count: 22 } }],
+  },
+  {
+    from: `${MILLI_NEW}/words_tms.rs › test_words_proximity_tms_last_simple`,
+    documents: WORDS_DOCUMENTS,
+    settings: { ...WORDS_SETTINGS, rankingRules: ["words", "proximity"] },
+    searches: [
+      { request: { q: FOX, matchingStrategy: "last" }, expect: { ids: [9, 21, 14, 17, 13, 10, 18, 16, 19, 15, 20, 22, 8, 7, 6, 5, 4, 11, 12, 3] } },
+      {
+        request: { q: "the brown quick fox jumps over the lazy dog", matchingStrategy: "last" },
+        expect: { ids: [10, 18, 19, 9, 20, 21, 14, 17, 13, 15, 16, 22, 8, 7, 6, 5, 4, 11, 12, 3] },
+      },
+    ],
+  },
+  {
+    from: `${MILLI_NEW}/words_tms.rs › test_words_tms_all`,
+    documents: WORDS_DOCUMENTS,
+    settings: { ...WORDS_SETTINGS, rankingRules: ["words", "proximity"] },
+    searches: [
+      { request: { q: FOX, matchingStrategy: "all" }, expect: { ids: [9, 21, 14, 17, 13, 10, 18, 16, 19, 15, 20, 22] } },
+      { request: { q: "extravagant", matchingStrategy: "all" }, expect: { ids: [] } },
+    ],
   },
 
   // ---------------------------------------------------------------------------------------------------
