@@ -49,10 +49,10 @@ export async function insertListings(rows: Array<Partial<typeof listings.$inferI
 }
 
 /** A search stand-in of this test's own, with the search module pointed at it. */
-export async function ownSearch(options: { searchTimeoutMs?: number; port?: number } = {}) {
+export async function ownSearch(options: { searchTimeoutMs?: number; port?: number; masterKey?: string } = {}) {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-search-own-"));
   const port = options.port ?? (await freePort());
-  let standIn: SearchStandIn | null = await startSearchStandIn({ port, dataDir, appOrigin: testAppOrigin });
+  let standIn: SearchStandIn | null = await startSearchStandIn({ port, dataDir, appOrigin: testAppOrigin, masterKey: options.masterKey });
   const masterKey = standIn.env.MEILISEARCH_API_KEY;
   const connection = { host: `http://127.0.0.1:${port}`, apiKey: standIn.env.MEILISEARCH_API_KEY!, searchTimeoutMs: options.searchTimeoutMs ?? 500, writeTimeoutMs: 3_000 };
   return {

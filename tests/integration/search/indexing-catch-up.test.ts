@@ -50,8 +50,8 @@ describe("indexing while the search service is down", () => {
     }
     expect(states).toContain("retry");
 
-    // The service comes back on the same address, with an empty index.
-    const own = await ownSearch({ port });
+    // The service comes back on the same address and with the key the worker uses, with an empty index.
+    const own = await ownSearch({ port, masterKey: process.env.MEILISEARCH_API_KEY });
     dispose = own.dispose;
     let found = 0;
     // The start-up re-index (also queued in this schema) may index it first; the update's own retry must still complete.
