@@ -8,7 +8,9 @@ import { acceptBooking, createBooking } from "~/modules/inspections/bookings.ser
 import { saveProfile } from "~/modules/inspections/profiles.server";
 import { bookings, inspectorSlots } from "~/modules/inspections/schema";
 import { listings } from "~/modules/listings/schema";
+import type { ReportContent } from "~/modules/reports/content";
 import { reports } from "~/modules/reports/schema";
+import { canonicalJson, sha256Hex } from "~/modules/reports/seal.server";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "./accounts";
 
 export const db = getDatabase();
@@ -170,4 +172,59 @@ export async function fileAndSign(cookie: string, bookingId: string, form: unkno
   if (signed.status !== 302) throw new Error(`signing answered ${signed.status}: ${(await signed.text()).slice(0, 400)}`);
   const [row] = await db.select().from(reports).where(eq(reports.id, draftReport.id));
   return row!;
+}
+
+/** A good signed report's content, turned into what the old code stored for a sweep of ±1e308 and a bed read at 1e308. */
+function asStoredBeforeTheLimits(good: ReportContent, reportId: string, bookingId: string): ReportContent {
+  const content = structuredClone(good);
+  content.reportId = reportId;
+  content.booking = { ...content.booking, id: bookingId };
+  for (const measurements of [content.measurements, content.measurementsAsEntered]) {
+    measurements.tests["L-SP-NOSE"] = { kind: "sweep", readings: [1e308, -1e308] };
+    measurements.tests["L-BED-V"] = { kind: "profile", points: [{ station: 0, reading: 0 }, { station: 500, reading: 1e308 }, { station: 1000, reading: -1e308 }] };
+  }
+  const results = content.score.results as unknown as Array<Record<string, unknown>>;
+  const nose = results.find((result) => result.code === "L-SP-NOSE")!;
+  // Infinity, as JSON stores it.
+  Object.assign(nose, { value: null, ratio: null, pass: false });
+  const bed = results.find((result) => result.code === "L-BED-V")!;
+  Object.assign(bed, { value: 1.5e308, ratio: 7.5e306, pass: false });
+  (content.score as unknown as Record<string, unknown>).worstRatio = null;
+  content.score.keyFigures.spindleRunOut = null;
+  content.score.keyFigures.bedStraightness = 1.5e308;
+  content.score.grade = "D";
+  return content;
+}
+
+/**
+ * A good report filed and signed on one booking, and on a second booking a signed row written directly with
+ * that content as the code before the reading limits stored it (±1e308 readings, an Infinity stored as null).
+ */
+export async function signedReportAsStoredBeforeTheLimits() {
+  const good = await acceptedBooking();
+  const signedGood = await fileAndSign(await inspectorCookie(good.inspector), good.bookingId, completeForm());
+  const broken = await acceptedBooking();
+  const id = randomUUID();
+  const signedAt = new Date();
+  const content = { ...asStoredBeforeTheLimits(JSON.parse(signedGood.canonicalJson!) as ReportContent, id, broken.bookingId), signedAt: signedAt.toISOString() };
+  content.machine = { ...content.machine, listingId: broken.listing.id, slug: broken.listing.slug };
+  const canonical = canonicalJson(content);
+  await db.insert(reports).values({
+    id,
+    bookingId: broken.bookingId,
+    listingId: broken.listing.id,
+    inspectorId: broken.inspector.id,
+    status: "signed",
+    profileKey: content.profile.key,
+    profileVersion: content.profile.version,
+    grade: "D",
+    keyFigures: content.score.keyFigures,
+    measuredOn: content.measuredOn,
+    draftVersion: 1,
+    content: JSON.parse(canonical),
+    canonicalJson: canonical,
+    contentHash: sha256Hex(canonical),
+    signedAt,
+  });
+  return { id, canonical, broken, signedGood };
 }

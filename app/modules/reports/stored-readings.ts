@@ -13,6 +13,14 @@ function nonFiniteIn(value: unknown, path: string, optional = false): string | n
   return isFiniteNumber(value) ? null : path;
 }
 
+/** "point 2, reading" for ["points", 1, "reading"]: positions counted from 1, as the page lists them. */
+function fieldName(path: readonly (string | number)[]): string {
+  return path
+    .map((part, i) => (typeof part === "number" ? `${part + 1}` : i === 0 && typeof path[1] === "number" ? part.replace(/s$/, "") : part))
+    .join(" ")
+    .replace(/^(point \d+) /, "$1, ");
+}
+
 /**
  * Why a signed report's results cannot be scored or drawn, in words, or null when they can: a reading beyond
  * what the tests can read, or a result, ratio or key figure that is not a finite number.
@@ -24,7 +32,7 @@ export function unrenderableReason(content: ReportContent): string | null {
     const parsed = testMeasurementSchema.safeParse(measurement);
     if (!parsed.success) return `${code}: ${parsed.error.issues[0]?.message ?? "the readings cannot be read"}`;
     const [beyond] = measurementLimitIssues(parsed.data, "mm");
-    if (beyond) return `${code}, ${beyond.path.join(" ")}: ${beyond.message}`;
+    if (beyond) return `${code}, ${fieldName(beyond.path)}: ${beyond.message}`;
   }
   const score = content.score as unknown as Record<string, unknown> | undefined;
   if (!score || !Array.isArray(score.results)) return "the results are missing";

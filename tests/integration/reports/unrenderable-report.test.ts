@@ -2,65 +2,16 @@
 // result that overflowed to Infinity and was stored as null. Signed reports never change, so such a report
 // is not repaired in place: its page, JSON and certificate show the readings as signed with a notice, and
 // none of them answers 500. The row is written here directly, as the old code stored it.
-import { randomUUID } from "node:crypto";
 import { PDFParse } from "pdf-parse";
 import { describe, expect, it } from "vitest";
 import type { ReportContent } from "~/modules/reports/content";
-import { reports } from "~/modules/reports/schema";
 import { canonicalJson, sha256Hex } from "~/modules/reports/seal.server";
 import { testAppOrigin } from "../../support/accounts";
-import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
-
-/** A good signed report's content, turned into what the old code stored for a sweep of ±1e308 and a bed read at 1e308. */
-function asStoredBeforeTheLimits(good: ReportContent, reportId: string, bookingId: string): ReportContent {
-  const content = structuredClone(good);
-  content.reportId = reportId;
-  content.booking = { ...content.booking, id: bookingId };
-  for (const measurements of [content.measurements, content.measurementsAsEntered]) {
-    measurements.tests["L-SP-NOSE"] = { kind: "sweep", readings: [1e308, -1e308] };
-    measurements.tests["L-BED-V"] = { kind: "profile", points: [{ station: 0, reading: 0 }, { station: 500, reading: 1e308 }, { station: 1000, reading: -1e308 }] };
-  }
-  const results = content.score.results as unknown as Array<Record<string, unknown>>;
-  const nose = results.find((result) => result.code === "L-SP-NOSE")!;
-  // Infinity, as JSON stores it.
-  Object.assign(nose, { value: null, ratio: null, pass: false });
-  const bed = results.find((result) => result.code === "L-BED-V")!;
-  Object.assign(bed, { value: 1.5e308, ratio: 7.5e306, pass: false });
-  (content.score as unknown as Record<string, unknown>).worstRatio = null;
-  content.score.keyFigures.spindleRunOut = null;
-  content.score.keyFigures.bedStraightness = 1.5e308;
-  content.score.grade = "D";
-  return content;
-}
+import { signedReportAsStoredBeforeTheLimits } from "../../support/reports";
 
 describe("a signed report that holds a number no page can draw", () => {
   it("shows its readings and a notice on its page, in its JSON and on its certificate, and never answers 500", async () => {
-    const good = await acceptedBooking();
-    const signedGood = await fileAndSign(await inspectorCookie(good.inspector), good.bookingId, completeForm());
-
-    const broken = await acceptedBooking();
-    const id = randomUUID();
-    const signedAt = new Date();
-    const content = { ...asStoredBeforeTheLimits(JSON.parse(signedGood.canonicalJson!) as ReportContent, id, broken.bookingId), signedAt: signedAt.toISOString() };
-    content.machine = { ...content.machine, listingId: broken.listing.id, slug: broken.listing.slug };
-    const canonical = canonicalJson(content);
-    await db.insert(reports).values({
-      id,
-      bookingId: broken.bookingId,
-      listingId: broken.listing.id,
-      inspectorId: broken.inspector.id,
-      status: "signed",
-      profileKey: content.profile.key,
-      profileVersion: content.profile.version,
-      grade: "D",
-      keyFigures: content.score.keyFigures,
-      measuredOn: content.measuredOn,
-      draftVersion: 1,
-      content: JSON.parse(canonical),
-      canonicalJson: canonical,
-      contentHash: sha256Hex(canonical),
-      signedAt,
-    });
+    const { id, canonical, broken, signedGood } = await signedReportAsStoredBeforeTheLimits();
 
     const page = await fetch(`${testAppOrigin}/reports/${id}`);
     expect(page.status).toBe(200);
