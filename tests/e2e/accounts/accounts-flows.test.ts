@@ -1,6 +1,10 @@
 import { randomUUID } from "node:crypto";
 import type { Browser } from "playwright-core";
+import { eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { getDatabase } from "~/db/client.server";
+import { WRONG_PASSWORD_LIMIT } from "~/modules/accounts/limits.server";
+import { passwordFailure } from "~/modules/accounts/schema";
 import { createTestUser, signInPage } from "../../support/accounts";
 import { appOrigin, launchBrowser, newRecordedPage } from "../../support/browser";
 import { latestEmailTo, linkIn } from "../../support/mailbox";
@@ -60,6 +64,30 @@ describe("signing in", () => {
     await page.getByLabel("Password", { exact: true }).fill(person.password);
     await Promise.all([page.waitForURL((url) => url.pathname !== "/sign-in"), page.getByRole("button", { name: "Sign in" }).click()]);
     await page.locator("[data-slot=account] summary").first().waitFor();
+    await context.close();
+  });
+
+  it("after five wrong passwords asks to wait seconds, not to come back later, and then lets the owner in", async () => {
+    const person = await createTestUser();
+    const { context, page } = await newRecordedPage(browser, { width: 390, height: 844 });
+    await page.goto("/sign-in");
+    await page.getByLabel("E-mail address").fill(person.email);
+    const alert = page.getByRole("alert");
+    for (let attempt = 1; attempt <= WRONG_PASSWORD_LIMIT + 1; attempt++) {
+      await page.getByLabel("Password", { exact: true }).fill(`not my password ${attempt}`);
+      await Promise.all([page.waitForResponse((response) => response.request().method() === "POST"), page.getByRole("button", { name: "Sign in" }).click()]);
+    }
+    await expect(alert.textContent()).resolves.toMatch(/Too many wrong passwords for this account\. Wait (2\d|30) seconds and try again, or reset your password/);
+    if (process.env.SCREENSHOT_DIR) await page.screenshot({ path: `${process.env.SCREENSHOT_DIR}/sign-in-wait-phone.png`, fullPage: true });
+
+    // The wait is over (moved into the past rather than slept through).
+    await getDatabase()
+      .update(passwordFailure)
+      .set({ failedAt: sql`${passwordFailure.failedAt} - interval '31 seconds'` })
+      .where(eq(passwordFailure.email, person.email));
+    await page.getByLabel("Password", { exact: true }).fill(person.password);
+    await Promise.all([page.waitForURL((url) => url.pathname !== "/sign-in"), page.getByRole("button", { name: "Sign in" }).click()]);
+    expect((await context.cookies()).some((cookie) => cookie.name.endsWith("session_token"))).toBe(true);
     await context.close();
   });
 
