@@ -18,6 +18,10 @@ export default [
   // Staff
   route("admin/users", "routes/admin/users.tsx"),
   route("admin/inspector-applications", "routes/admin/inspector-applications.tsx"),
+  route("admin/profiles", "routes/admin/profiles.tsx"),
+  route("admin/profiles/:key/:version", "routes/admin/profile-version.tsx"),
+  route("admin/profiles/:key/:version/settings", "routes/admin/profile-settings.tsx"),
+  route("admin/profiles/:key/:version/tests/:code", "routes/admin/profile-test.tsx"),
 
   // Search: buyers find machines by verified accuracy, save searches and hear about new matches
   route("machines", "routes/search/machines.tsx"),

@@ -32,6 +32,8 @@ type DemoAccount = {
 // Other domains find their people here by `key` (e.g. a dealer's listings) through `demoAccountId(key)`.
 export const demoAccounts = [
   { key: "admin", role: "admin", name: "Maren Tolvstad (staff)", email: "staff@example.test", password: "demo-staff-4471", roles: ["admin"], printed: true },
+  // A second staff member: a tolerance profile drafted by one is published by the other (four eyes).
+  { key: "reviewer", role: "admin (second staff)", name: "Edvin Saltholm (staff)", email: "staff.review@example.test", password: "demo-review-4471", roles: ["admin"] },
   { key: "dealer", role: "seller (dealer)", name: "Kessling & Daughters Machine Tools", email: "dealer@example.test", password: "demo-dealer-4471", roles: ["seller"], printed: true },
   { key: "buyer", role: "buyer", name: "Ilse Varga", email: "buyer@example.test", password: "demo-buyer-4471", roles: [], printed: true },
   { key: "inspector", role: "inspector", name: "Tobiah Renner", email: "inspector@example.test", password: "demo-inspector-4471", roles: ["inspector"], printed: true },

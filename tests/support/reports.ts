@@ -29,7 +29,7 @@ async function waitForStatus(bookingId: string, status: string) {
  * A published centre lathe (330 mm swing, 1000 mm between centres), a certified inspector serving its
  * region, and a buyer's booking of that inspector, paid on the stand-in and accepted.
  */
-export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string } = {}) {
+export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string; swingOverBedMm?: number } = {}) {
   const region = `Oderland ${randomUUID().slice(0, 6)}`;
   const inspector = await createTestUser({ roles: ["inspector"], inspectorStatus: "certified", name: "Aldo Verrin", displayUnits: options.inspectorUnits });
   await saveProfile(db, inspector.id, {
@@ -57,7 +57,7 @@ export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch";
       model: options.model ?? "DL 330",
       year: 1991,
       serialNumber: "DL330-1187",
-      swingOverBedMm: 330,
+      swingOverBedMm: options.swingOverBedMm ?? 330,
       distanceBetweenCentresMm: 1000,
       city: "Brennwald",
       region,

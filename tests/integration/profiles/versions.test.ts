@@ -122,4 +122,14 @@ describe("tolerance profiles in the database", () => {
     expect(entry.suggestion.profile).toMatchObject({ key: chart.key, version: 2, makersChart: chart.chart });
     expect(entry.form.profile).toMatchObject({ key: chart.key, version: 2 });
   });
+
+  it("tells the inspector of a lathe beyond every profile's scope that none covers it yet, instead of a dead end", async () => {
+    // Normal class up to 800 mm swing (ISO 1708:1989, from memory): a 900 mm lathe is not covered.
+    const booked = await acceptedBooking({ swingOverBedMm: 900 });
+    const entry = await getReportEntry(db, { ...booked.inspector, emailVerified: true, roles: ["inspector"], displayUnits: "mm", inspectorStatus: "certified" } as never, booked.bookingId);
+    expect(entry.suggestion).toMatchObject({ profile: null, uncovered: true });
+    expect(entry.suggestion.reason).toMatch(/No profile covers this machine yet; staff can add one/);
+    // The form still opens, on the nearest class, so the inspector can file with a reason.
+    expect(entry.form.profile.key).toBe("centre-lathe-normal");
+  });
 });

@@ -1,10 +1,11 @@
 import { Link } from "react-router";
 
 /** Tabs of the staff pages. */
-export function StaffNav({ current }: { current: "users" | "applications" }) {
+export function StaffNav({ current }: { current: "users" | "applications" | "profiles" }) {
   const items = [
     { key: "users", to: "/admin/users", label: "People" },
     { key: "applications", to: "/admin/inspector-applications", label: "Inspector applications" },
+    { key: "profiles", to: "/admin/profiles", label: "Tolerance profiles" },
   ] as const;
   return (
     <nav aria-label="Staff" className="flex flex-wrap gap-1 border-b border-ink-200">
