@@ -123,6 +123,30 @@ const SORT_SETTINGS = { searchableAttributes: ["text"], sortableAttributes: ["ra
 
 const allTypo = (q: string) => ({ q, matchingStrategy: "all" });
 
+// crates/milli/tests/assets/test_set.ndjson — the searchable fields of its documents, as
+// crates/milli/tests/search/mod.rs indexes them (searchable: title, description).
+const TEST_SET: Json[] = [
+  { id: "A", title: "hell o", description: "hell o is the fourteenth episode of the american television series glee performing songs with this word" },
+  { id: "B", title: "hello", description: "hello is a song recorded by english singer songwriter adele" },
+  { id: "C", title: "hell on earth", description: "hell on earth is the third studio album by american hip hop duo mobb deep" },
+  { id: "D", title: "hell on wheels tv series", description: "the construction of the first transcontinental railroad across the united states in the world" },
+  { id: "E", title: "hello kitty", description: "also known by her full name kitty white is a fictional character produced by the japanese company sanrio" },
+  { id: "F", title: "laptop orchestra", description: "a laptop orchestra lork or lo is a chamber music ensemble consisting primarily of laptops like helo huddersfield experimental laptop orchestra" },
+  { id: "G", title: "hello world film", description: "hello world is a 2019 japanese animated sci fi romantic drama film directed by tomohiko ito and produced by graphinica" },
+  { id: "H", title: "world hello day", description: "holiday observed on november 21 to express that conflicts should be resolved through communication rather than the use of force" },
+  { id: "I", title: "hello world song", description: "hello world is a song written by tom douglas tony lane and david lee and recorded by american country music group lady antebellum" },
+  { id: "J", title: "hello cruel world", description: "hello cruel world is an album by new zealand band tall dwarfs" },
+  { id: "K", title: "hallo creation system", description: "in few word hallo was a construction toy created by the american company mattel to engage girls in construction play" },
+  { id: "L", title: "good morning world", description: "good morning world is an american sitcom broadcast on cbs tv during the 1967 1968 season" },
+  { id: "M", title: "hello world america", description: "a perfect match for a perfect engine using the query hello world america" },
+  { id: "N", title: "hello world america unleashed", description: "a very good match for a very good engine using the query hello world america" },
+  { id: "O", title: "a perfect match for a perfect engine using the query hello world america", description: "hello world america" },
+  { id: "P", title: "a very good match for a very good engine using the query hello world america", description: "hello world america unleashed" },
+  { id: "Q", title: "hello world", description: "a hello world program generally is a computer program that outputs or displays the message hello world" },
+];
+const TEST_SET_SETTINGS = { searchableAttributes: ["title", "description"], rankingRules: ["typo"] };
+const MILLI_TYPO = "crates/milli/tests/search/typo_tolerance.rs";
+
 // crates/milli/src/search/new/tests/words_tms.rs — create_index().
 const WORDS_DOCUMENTS: Json[] = [
   "",
@@ -327,6 +351,15 @@ export const engineCases: EngineCase[] = [
     ],
   },
   {
+    from: "crates/milli/tests/search/facet_distribution.rs › test_facet_distribution_with_no_facet_values",
+    documents: [
+      { id: 123, title: "What a week, hu...", genres: [], tags: ["blue"] },
+      { id: 345, title: "I am the pig!", tags: ["red"] },
+    ],
+    settings: { filterableAttributes: ["genres", "tags"] },
+    searches: [{ request: { facets: ["genres", "tags"] }, expect: { facetSizes: { genres: 0, tags: 2 } } }],
+  },
+  {
     from: `${TESTS}/search/mod.rs › faceting_max_values_per_facet`,
     documents: Array.from({ length: 10_000 }, (_, id) => ({ id, number: id * 10 })),
     settings: { filterableAttributes: ["number"] },
@@ -432,6 +465,60 @@ export const engineCases: EngineCase[] = [
 
   // ---------------------------------------------------------------------------------------------------
   // Typo tolerance and the words and typo ranking rules
+  {
+    from: `${MILLI_TYPO} › test_typo_tolerance_one_typo`,
+    documents: TEST_SET,
+    settings: TEST_SET_SETTINGS,
+    searches: [
+      { request: { q: "zeal", limit: 10 }, expect: { count: 1 } },
+      { request: { q: "zean", limit: 10 }, expect: { count: 0 } },
+    ],
+  },
+  {
+    from: `${MILLI_TYPO} › test_typo_tolerance_one_typo (minWordSizeForTypos.oneTypo 4)`,
+    documents: TEST_SET,
+    settings: { ...TEST_SET_SETTINGS, typoTolerance: { minWordSizeForTypos: { oneTypo: 4 } } },
+    searches: [{ request: { q: "zean", limit: 10 }, expect: { count: 1 } }],
+  },
+  {
+    from: `${MILLI_TYPO} › test_typo_tolerance_two_typo`,
+    documents: TEST_SET,
+    settings: TEST_SET_SETTINGS,
+    searches: [
+      { request: { q: "zealand", limit: 10 }, expect: { count: 1 } },
+      { request: { q: "zealemd", limit: 10 }, expect: { count: 0 } },
+    ],
+  },
+  {
+    from: `${MILLI_TYPO} › test_typo_tolerance_two_typo (minWordSizeForTypos.twoTypos 7)`,
+    documents: TEST_SET,
+    settings: { ...TEST_SET_SETTINGS, typoTolerance: { minWordSizeForTypos: { twoTypos: 7 } } },
+    searches: [{ request: { q: "zealemd", limit: 10 }, expect: { count: 1 } }],
+  },
+  {
+    from: `${MILLI_TYPO} › test_typo_disabled_on_word`,
+    documents: [{ id: 1, data: "zealand" }, { id: 2, data: "zearand" }],
+    settings: {},
+    searches: [{ request: { q: "zealand" }, expect: { count: 2 } }],
+  },
+  {
+    from: `${MILLI_TYPO} › test_typo_disabled_on_word (disableOnWords)`,
+    documents: [{ id: 1, data: "zealand" }, { id: 2, data: "zearand" }],
+    settings: { typoTolerance: { disableOnWords: ["zealand"] } },
+    searches: [{ request: { q: "zealand" }, expect: { count: 1 } }],
+  },
+  {
+    from: `${MILLI_TYPO} › test_disable_typo_on_attribute`,
+    documents: TEST_SET,
+    settings: TEST_SET_SETTINGS,
+    searches: [{ request: { q: "antebelum", limit: 10 }, expect: { count: 1 } }],
+  },
+  {
+    from: `${MILLI_TYPO} › test_disable_typo_on_attribute (disableOnAttributes)`,
+    documents: TEST_SET,
+    settings: { ...TEST_SET_SETTINGS, typoTolerance: { disableOnAttributes: ["description"] } },
+    searches: [{ request: { q: "antebelum", limit: 10 }, expect: { count: 0 } }],
+  },
   {
     from: `${MILLI_NEW}/typo.rs › test_no_typo`,
     documents: TYPO_DOCUMENTS,
