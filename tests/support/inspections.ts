@@ -7,7 +7,7 @@ import Stripe from "stripe";
 import { getDatabase } from "~/db/client.server";
 import { createBooking } from "~/modules/inspections/bookings.server";
 import { saveProfile } from "~/modules/inspections/profiles.server";
-import { bookings, inspectorSlots } from "~/modules/inspections/schema";
+import { bookings, inspectorProfiles, inspectorSlots } from "~/modules/inspections/schema";
 import { listings } from "~/modules/listings/schema";
 import { createTestUser, type TestUser } from "./accounts";
 
@@ -33,7 +33,14 @@ export async function certifiedInspector(options: { region?: string; feeMinor?: 
     .insert(inspectorSlots)
     .values({ inspectorId: person.id, startsAt, endsAt: addHours(startsAt, 4) })
     .returning();
-  return { ...person, region, slot: slot! };
+  return { ...person, publicId: await publicIdOf(person.id), region, slot: slot! };
+}
+
+/** The public id of an inspector's profile: what public pages, links and the booking form use. */
+export async function publicIdOf(inspectorUserId: string) {
+  const [profile] = await db.select({ publicId: inspectorProfiles.publicId }).from(inspectorProfiles).where(eq(inspectorProfiles.userId, inspectorUserId));
+  if (!profile) throw new Error(`no inspector profile for ${inspectorUserId}`);
+  return profile.publicId;
 }
 
 /** A published centre lathe in `region`, listed by a new seller (or the one given). */

@@ -19,7 +19,7 @@ import {
 import { bookingFor, historyFor, refundsFor } from "./booking-view.server";
 import { BookingRuleError, isExclusionViolation, SlotTakenError } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
-import { findListingBySlug, listPublicInspectors, regionMatches, type Executor } from "./profiles.server";
+import { findListingBySlug, inspectorUserIdFor, listCertifiedInspectors, regionMatches, type Executor } from "./profiles.server";
 import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule } from "./rules";
 import {
   HELD_REVIEW_QUEUE,
@@ -122,6 +122,17 @@ export async function releaseLapsedCheckouts(db: Database, inspectorId?: string,
  * first, under the exclusion constraint: the loser of a race gets SlotTakenError and no session, so is
  * never charged.
  */
+/** The booking form's request: the inspector by the public id the page showed, then `createBooking`. */
+export async function createBookingWithPublicInspector(
+  db: Database,
+  input: { booker: Person; listingSlug: string; inspectorPublicId: string; slotId: string },
+  now = new Date(),
+) {
+  const inspectorId = await inspectorUserIdFor(db, input.inspectorPublicId);
+  if (!inspectorId) throw new BookingRuleError("Choose one of the inspectors on this page.", 422, "inspectorId");
+  return createBooking(db, { booker: input.booker, listingSlug: input.listingSlug, inspectorId, slotId: input.slotId }, now);
+}
+
 export async function createBooking(
   db: Database,
   input: { booker: Person; listingSlug: string; inspectorId: string; slotId: string },
@@ -131,7 +142,7 @@ export async function createBooking(
   if (!listing || (listing.status !== "published" && listing.sellerId !== input.booker.id)) throw new BookingRuleError("No such listing.", 404);
   if (input.inspectorId === listing.sellerId) throw new BookingRuleError("An inspector cannot inspect a listing of their own.", 403, "inspectorId");
   if (input.inspectorId === input.booker.id) throw new BookingRuleError("You cannot book yourself.", 403, "inspectorId");
-  const [inspector] = (await listPublicInspectors(db, { category: listing.category })).filter((candidate) => candidate.id === input.inspectorId);
+  const [inspector] = (await listCertifiedInspectors(db, { category: listing.category })).filter((candidate) => candidate.userId === input.inspectorId);
   const fee = inspector?.fees.find((candidate) => candidate.category === listing.category);
   if (!inspector || !fee || !regionMatches(inspector.regions, listing)) {
     throw new BookingRuleError("This inspector does not take bookings for this machine or region.", 422, "inspectorId");
@@ -139,11 +150,11 @@ export async function createBooking(
   const [slot] = await db
     .select()
     .from(inspectorSlots)
-    .where(and(eq(inspectorSlots.id, input.slotId), eq(inspectorSlots.inspectorId, inspector.id)));
+    .where(and(eq(inspectorSlots.id, input.slotId), eq(inspectorSlots.inspectorId, inspector.userId)));
   if (!slot) throw new BookingRuleError("Choose one of the inspector's slots.", 422, "slotId");
   if (slot.startsAt <= now) throw new BookingRuleError("This slot has already begun; choose a later one.", 422, "slotId");
 
-  await releaseLapsedCheckouts(db, inspector.id, now);
+  await releaseLapsedCheckouts(db, inspector.userId, now);
 
   const { platformFeeMinor, inspectorShareMinor } = splitFee(fee.amountMinor);
   let booking: Booking;
@@ -151,14 +162,14 @@ export async function createBooking(
     booking = await db.transaction(async (tx) => {
       // Holds for one inspector take turns. Concurrent inserts checked by one exclusion constraint can
       // otherwise deadlock on each other's speculative rows; in turn, each loser meets the constraint cleanly.
-      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`booking-holds:${inspector.id}`}))`);
+      await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`booking-holds:${inspector.userId}`}))`);
       const [created] = await tx
         .insert(bookings)
         .values({
           reference: bookingReference(),
           listingId: listing.id,
           buyerId: input.booker.id,
-          inspectorId: inspector.id,
+          inspectorId: inspector.userId,
           slotId: slot.id,
           category: listing.category,
           startsAt: slot.startsAt,

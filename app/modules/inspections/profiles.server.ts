@@ -17,6 +17,7 @@ import type { ProfileInput, SlotInput } from "./validation";
 export type Executor = Database | Parameters<Parameters<Database["transaction"]>[0]>[0];
 
 export type PublicInspector = {
+  /** The profile's public id (never the account id): links, the booking form and public JSON use it. */
   id: string;
   name: string;
   headline: string;
@@ -55,10 +56,23 @@ export function regionMatches(regions: string[], place: { region: string | null;
 }
 
 /** Certified inspectors with a profile, optionally only those serving a category and a region. */
-export async function listPublicInspectors(
+/** A certified inspector with the account id behind the public profile, for server code only. */
+export type CertifiedInspector = PublicInspector & { userId: string };
+
+/** Certified inspectors as public pages show them: no account ids. */
+export async function listPublicInspectors(db: Executor, filter: { category?: string; region?: string } = {}): Promise<PublicInspector[]> {
+  return (await listCertifiedInspectors(db, filter)).map(publicView);
+}
+
+function publicView({ userId: _userId, ...inspector }: CertifiedInspector): PublicInspector {
+  return inspector;
+}
+
+/** Certified inspectors with their account ids, for bookings and slots; never returned to a page as they are. */
+export async function listCertifiedInspectors(
   db: Executor,
   filter: { category?: string; region?: string } = {},
-): Promise<PublicInspector[]> {
+): Promise<CertifiedInspector[]> {
   const rows = await db
     .select({ profile: inspectorProfiles, name: user.name })
     .from(inspectorProfiles)
@@ -72,7 +86,8 @@ export async function listPublicInspectors(
   return rows
     .filter((row) => !filter.region || regionMatches(row.profile.regions, { region: filter.region, country: "", city: "" }))
     .map(({ profile, name }) => ({
-      id: profile.userId,
+      id: profile.publicId,
+      userId: profile.userId,
       name,
       headline: profile.headline,
       bio: profile.bio,
@@ -104,11 +119,18 @@ export async function freeSlots(db: Executor, inspectorId: string, now = new Dat
     .limit(60);
 }
 
-/** A certified inspector's public page; null when there is no such certified inspector. */
-export async function getPublicInspector(db: Executor, inspectorId: string) {
-  const [inspector] = (await listPublicInspectors(db)).filter((candidate) => candidate.id === inspectorId);
+/** A certified inspector's public page by the profile's public id; null when there is no such certified inspector. */
+export async function getPublicInspector(db: Executor, publicId: string) {
+  const [inspector] = (await listCertifiedInspectors(db)).filter((candidate) => candidate.id === publicId);
   if (!inspector) return null;
-  return { inspector, slots: await freeSlots(db, inspectorId) };
+  return { inspector: publicView(inspector), slots: await freeSlots(db, inspector.userId) };
+}
+
+/** The account behind a certified inspector's public id (what the booking form sends); null if none. */
+export async function inspectorUserIdFor(db: Executor, publicId: string): Promise<string | null> {
+  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(publicId)) return null;
+  const [profile] = await db.select({ userId: inspectorProfiles.userId }).from(inspectorProfiles).where(and(eq(inspectorProfiles.publicId, publicId), isCertified));
+  return profile?.userId ?? null;
 }
 
 export type BookableListing = {
@@ -148,19 +170,19 @@ export async function findListingBySlug(db: Executor, slug: string): Promise<Boo
  * its category, and never the listing's own seller (nor the person booking).
  */
 export async function eligibleInspectors(db: Executor, listing: BookableListing, bookerId: string | null) {
-  const candidates = await listPublicInspectors(db, { category: listing.category });
+  const candidates = await listCertifiedInspectors(db, { category: listing.category });
   const eligible = candidates.filter(
     (inspector) =>
-      inspector.id !== listing.sellerId &&
-      inspector.id !== bookerId &&
+      inspector.userId !== listing.sellerId &&
+      inspector.userId !== bookerId &&
       regionMatches(inspector.regions, listing) &&
       inspector.fees.some((fee) => fee.category === listing.category),
   );
   return Promise.all(
     eligible.map(async (inspector) => ({
-      ...inspector,
+      ...publicView(inspector),
       feeMinor: inspector.fees.find((fee) => fee.category === listing.category)!.amountMinor,
-      slots: await freeSlots(db, inspector.id),
+      slots: await freeSlots(db, inspector.userId),
     })),
   );
 }
@@ -263,11 +285,14 @@ export async function setCertificate(db: Database, userId: string, certificate: 
     .where(eq(inspectorProfiles.userId, userId));
 }
 
-export async function getCertificate(db: Executor, inspectorId: string) {
+/** A certified inspector's certificate by the profile's public id. */
+export async function getCertificate(db: Executor, publicId: string) {
+  const userId = await inspectorUserIdFor(db, publicId);
+  if (!userId) return null;
   const [profile] = await db
     .select({ fileKey: inspectorProfiles.certificateFileKey, fileName: inspectorProfiles.certificateFileName })
     .from(inspectorProfiles)
-    .where(and(eq(inspectorProfiles.userId, inspectorId), isCertified));
+    .where(and(eq(inspectorProfiles.userId, userId), isCertified));
   return profile?.fileKey ? { fileKey: profile.fileKey, fileName: profile.fileName ?? "certificate.pdf" } : null;
 }
 
@@ -276,7 +301,9 @@ export async function bookingPageFor(db: Executor, slug: string, viewerId: strin
   const listing = await findListingBySlug(db, slug);
   if (!listing || (listing.status !== "published" && listing.sellerId !== viewerId)) return null;
   const inspectors = await eligibleInspectors(db, listing, viewerId);
-  return { listing, inspectors };
+  // The page is public: the machine by its slug, and whether the viewer is its seller, but no account or row ids.
+  const { id: _listingId, sellerId, status: _status, ...machine } = listing;
+  return { listing: machine, inspectors, viewerIsSeller: viewerId !== null && viewerId === sellerId };
 }
 
 /** Checks an uploaded certificate (a PDF within the document limit, by its first bytes) and stores it on the profile. */
@@ -293,8 +320,8 @@ export async function storeCertificate(db: Database, userId: string, file: File)
 }
 
 /** The certificate of a certified inspector as a stream, or null. */
-export async function openCertificate(db: Executor, inspectorId: string) {
-  const certificate = await getCertificate(db, inspectorId);
+export async function openCertificate(db: Executor, publicId: string) {
+  const certificate = await getCertificate(db, publicId);
   if (!certificate) return null;
   const object = await openObject(certificate.fileKey);
   return object ? { ...object, fileName: certificate.fileName } : null;

@@ -5,7 +5,7 @@ import { alias } from "drizzle-orm/pg-core";
 import { user } from "~/modules/accounts/schema";
 import { listings } from "~/modules/listings/schema";
 import type { Executor } from "./profiles.server";
-import { bookings } from "./schema";
+import { bookings, inspectorProfiles } from "./schema";
 
 const inspectorUser = alias(user, "report_inspector");
 const buyerUser = alias(user, "report_buyer");
@@ -41,13 +41,14 @@ export async function getBookingForReport(db: Executor, bookingId: string) {
         region: listings.region,
         country: listings.country,
       },
-      inspector: { name: inspectorUser.name, email: inspectorUser.email },
+      inspector: { name: inspectorUser.name, email: inspectorUser.email, publicId: inspectorProfiles.publicId },
       buyer: { name: buyerUser.name, email: buyerUser.email },
       seller: { name: sellerUser.name, email: sellerUser.email },
     })
     .from(bookings)
     .innerJoin(listings, eq(listings.id, bookings.listingId))
     .innerJoin(inspectorUser, eq(inspectorUser.id, bookings.inspectorId))
+    .innerJoin(inspectorProfiles, eq(inspectorProfiles.userId, bookings.inspectorId))
     .innerJoin(buyerUser, eq(buyerUser.id, bookings.buyerId))
     .innerJoin(sellerUser, eq(sellerUser.id, listings.sellerId))
     .where(eq(bookings.id, bookingId));

@@ -12,6 +12,8 @@ export const inspectorProfiles = pgTable("inspector_profiles", {
   userId: text("user_id")
     .primaryKey()
     .references(() => user.id, { onDelete: "cascade" }),
+  /** The id public pages and links use, so that no page shows the account id behind it. */
+  publicId: uuid("public_id").notNull().unique().defaultRandom(),
   headline: text("headline").notNull().default(""),
   bio: text("bio").notNull().default(""),
   qualifications: text("qualifications").notNull().default(""),

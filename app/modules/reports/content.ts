@@ -25,6 +25,7 @@ export interface ReportContent {
     distanceBetweenCentresMm: number | null;
     location: string;
   };
+  /** `id` is the public id of the inspector's profile (/inspectors/:id), never an account id. */
   inspector: { id: string; name: string };
   measuredOn: string;
   profile: {

@@ -427,7 +427,8 @@ function buildContent(
       distanceBetweenCentresMm: found.listing.distanceBetweenCentresMm,
       location: [found.listing.city, found.listing.region, found.listing.country].filter(Boolean).join(", "),
     },
-    inspector: { id: found.booking.inspectorId, name: found.inspector.name },
+    // The profile's public id: a signed report is public and carries no account id.
+    inspector: { id: found.inspector.publicId, name: found.inspector.name },
     measuredOn: form.measuredOn,
     profile: {
       key: profile.key,

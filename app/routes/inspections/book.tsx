@@ -4,7 +4,7 @@ import { z } from "zod";
 import { Badge, Button, ButtonLink, Card, CardBody, CardHeader, CheckboxField, cx } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
-import { createBooking } from "~/modules/inspections/bookings.server";
+import { createBookingWithPublicInspector } from "~/modules/inspections/bookings.server";
 import { InspectionSafetyNotice, RefundRules, SlotTime } from "~/modules/inspections/components/parts";
 import { BookingRuleError, SlotTakenError } from "~/modules/inspections/errors";
 import { bookingPageFor } from "~/modules/inspections/profiles.server";
@@ -22,7 +22,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   const page = await bookingPageFor(context.get(databaseContext), params.slug, user?.id ?? null);
   if (!page) throw data("There is no such machine, or it is not offered any more.", { status: 404 });
-  return { ...page, signedIn: Boolean(user), isSeller: user?.id === page.listing.sellerId };
+  return { listing: page.listing, inspectors: page.inspectors, signedIn: Boolean(user), isSeller: page.viewerIsSeller };
 }
 
 type Errors = Partial<Record<"inspectorId" | "slotId" | "acceptTerms" | "form", string[]>>;
@@ -34,10 +34,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors as Errors }, { status: 422 });
   }
   try {
-    const { checkoutUrl } = await createBooking(context.get(databaseContext), {
+    const { checkoutUrl } = await createBookingWithPublicInspector(context.get(databaseContext), {
       booker: user,
       listingSlug: params.slug,
-      inspectorId: parsed.data.inspectorId,
+      inspectorPublicId: parsed.data.inspectorId,
       slotId: parsed.data.slotId,
     });
     return redirect(checkoutUrl);

@@ -17,7 +17,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Your inspector profile 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireRole(request, "inspector");
   const own = await getOwnProfile(context.get(databaseContext), user.id);
-  return { ...own, userId: user.id };
+  return own;
 }
 
 type Errors = Record<string, string[] | undefined>;
@@ -66,7 +66,9 @@ export async function action({ request, context }: Route.ActionArgs) {
 }
 
 export default function InspectorProfileEdit() {
-  const { profile, fees, slots, fromApplication, userId } = useLoaderData<typeof loader>();
+  const { profile, fees, slots, fromApplication } = useLoaderData<typeof loader>();
+  // The public page's address uses the profile's public id, which a profile has once it is saved.
+  const publicId = profile && "publicId" in profile ? profile.publicId : null;
   const actionData = useActionData<typeof action>();
   const busy = useNavigation().state !== "idle";
   const errorsFor = (intent: string) => (actionData?.intent === intent ? (actionData.errors ?? {}) : {});
@@ -87,8 +89,8 @@ export default function InspectorProfileEdit() {
           <p className="mt-1 text-ink-600">What buyers see before they book you, your fees, and the times you offer.</p>
         </div>
         <div className="flex gap-2">
-          {saved ? (
-            <Link to={`/inspectors/${userId}`} className="text-sm font-semibold text-ink-800 underline underline-offset-2">
+          {saved && publicId ? (
+            <Link to={`/inspectors/${publicId}`} className="text-sm font-semibold text-ink-800 underline underline-offset-2">
               See your public page
             </Link>
           ) : null}
@@ -212,7 +214,7 @@ export default function InspectorProfileEdit() {
               {saved?.certificateFileName ? (
                 <p className="text-sm text-ink-700">
                   On file:{" "}
-                  <a className="font-semibold underline underline-offset-2" href={`/inspectors/${userId}/certificate`}>
+                  <a className="font-semibold underline underline-offset-2" href={`/inspectors/${publicId}/certificate`}>
                     {saved.certificateFileName}
                   </a>
                 </p>

@@ -29,7 +29,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
   const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
-  return { ...found, accuracy, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, viewer: viewer ? { id: viewer.id } : null };
+  return { ...found, accuracy, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
@@ -61,7 +61,7 @@ export async function action({ request, context }: Route.ActionArgs) {
 }
 
 export default function MachinePage({ loaderData }: Route.ComponentProps) {
-  const { listing, photos, documents, sellerName, isManager, isWatching, units, viewer } = loaderData;
+  const { listing, photos, documents, sellerName, isManager, isWatching, units, signedIn } = loaderData;
   const place = [listing.city, listing.region, countryName(listing.country)].filter(Boolean).join(", ");
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
@@ -98,7 +98,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           </div>
           <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
           {listing.status === "published" && !isManager ? (
-            <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={Boolean(viewer)} />
+            <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={signedIn} />
           ) : null}
         </div>
 
@@ -149,7 +149,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
           <AccuracyPanel slug={listing.slug} report={loaderData.accuracy} units={units} now={loaderData.now} />
 
-          {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={Boolean(viewer)} /> : null}
+          {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={signedIn} /> : null}
         </aside>
       </div>
     </div>

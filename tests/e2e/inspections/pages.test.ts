@@ -38,7 +38,7 @@ describe("inspections pages on phone and desktop", () => {
     const inspector = await certifiedInspector();
     await visit(null, [
       { path: "/inspectors", heading: /Certified inspectors/, shot: "inspectors" },
-      { path: `/inspectors/${inspector.id}`, heading: new RegExp(inspector.name), shot: "inspector-public" },
+      { path: `/inspectors/${inspector.publicId}`, heading: new RegExp(inspector.name), shot: "inspector-public" },
     ]);
   });
 

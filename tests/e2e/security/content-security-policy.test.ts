@@ -7,6 +7,7 @@ import { launchBrowser, newRecordedPage } from "../../support/browser";
 import { jpegWithGps } from "../../support/images";
 import { createListingAs } from "../../support/listings";
 import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
+import { publicIdOf } from "../../support/inspections";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -43,7 +44,7 @@ describe("under the Content-Security-Policy", () => {
     const booking = await acceptedBooking();
     const report = await fileAndSign(await inspectorCookie(booking.inspector), booking.bookingId, completeForm());
     const { page, context, problems } = await watchedPage();
-    for (const path of ["/", "/machines", `/machines/${booking.listing.slug}`, "/inspectors", `/inspectors/${booking.inspector.id}`, "/how-scoring-works", `/reports/${report.id}`, "/sign-in"]) {
+    for (const path of ["/", "/machines", `/machines/${booking.listing.slug}`, "/inspectors", `/inspectors/${await publicIdOf(booking.inspector.id)}`, "/how-scoring-works", `/reports/${report.id}`, "/sign-in"]) {
       await visitHydrated(page, path);
     }
     // A client-side navigation (fetching `.data`) and a search through the API.

@@ -16,7 +16,7 @@ import { listingDocuments, listingPhotos, listings } from "~/modules/listings/sc
 import { reportDrafts, reports } from "~/modules/reports/schema";
 import { savedSearches } from "~/modules/search/saved-searches/schema";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
-import { certifiedInspector } from "../../support/inspections";
+import { certifiedInspector, publicIdOf } from "../../support/inspections";
 import { jpegWithGps } from "../../support/images";
 import { createListingAs, uploadFileAs, validListingFields } from "../../support/listings";
 import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
@@ -50,6 +50,7 @@ type Fixture = {
   reportId: string;
   savedSearchId: string;
   freeSlotId: string; // inspector A's
+  inspectorAPublicId: string;
 };
 let fx: Fixture;
 
@@ -117,6 +118,7 @@ beforeAll(async () => {
   fx = {
     people,
     cookies,
+    inspectorAPublicId: await publicIdOf(people.inspectorA.id),
     publishedSlug: filed.listing.slug,
     publishedListingId: filed.listing.id,
     draftListingId,
@@ -558,7 +560,7 @@ function defaultParams(): Params {
   return {
     slug: fx.publishedSlug,
     listingId: fx.draftListingId,
-    inspectorId: fx.people.inspectorA.id,
+    inspectorId: fx.inspectorAPublicId,
     bookingId: fx.bookingId,
     reportId: fx.reportId,
     photoId: randomId(),

@@ -111,7 +111,7 @@ describe("payments down, slow or failing while a buyer books", () => {
     const lathe = await publishedLathe(inspector.region);
     const buyer = await createTestUser();
     const cookie = await signIn(buyer);
-    const book = () => post(`/machines/${lathe.slug}/book`, cookie, { inspectorId: inspector.id, slotId: inspector.slot.id, acceptTerms: "on" });
+    const book = () => post(`/machines/${lathe.slug}/book`, cookie, { inspectorId: inspector.publicId, slotId: inspector.slot.id, acceptTerms: "on" });
     const activeBookings = () =>
       db.select().from(bookings).where(and(eq(bookings.inspectorId, inspector.id), inArray(bookings.status, ["awaiting_payment", "paid", "accepted"])));
 

@@ -1,0 +1,2 @@
+ALTER TABLE "inspector_profiles" ADD COLUMN "public_id" uuid DEFAULT gen_random_uuid() NOT NULL;--> statement-breakpoint
+ALTER TABLE "inspector_profiles" ADD CONSTRAINT "inspector_profiles_public_id_unique" UNIQUE("public_id");
