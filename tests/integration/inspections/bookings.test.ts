@@ -68,9 +68,10 @@ describe("booking an inspector's slot", () => {
     const elsewhere = await certifiedInspector();
     const applicant = await createTestUser({ inspectorStatus: "pending" });
     const offered = (await eligibleInspectors(db, ownListing, null)).map((inspector) => inspector.id);
-    expect(offered).toContain(colleague.id);
-    expect(offered).not.toContain(dealerInspector.id);
-    expect(offered).not.toContain(elsewhere.id);
+    // The page offers inspectors by their profiles' public ids.
+    expect(offered).toContain(colleague.publicId);
+    expect(offered).not.toContain(dealerInspector.publicId);
+    expect(offered).not.toContain(elsewhere.publicId);
     expect(offered).not.toContain(applicant.id);
     const buyer = await createTestUser();
     await expect(
