@@ -175,7 +175,7 @@ export async function fileAndSign(cookie: string, bookingId: string, form: unkno
 }
 
 /** A good signed report's content, turned into what the old code stored for a sweep of ±1e308 and a bed read at 1e308. */
-function asStoredBeforeTheLimits(good: ReportContent, reportId: string, bookingId: string): ReportContent {
+export function asStoredBeforeTheLimits(good: ReportContent, reportId: string, bookingId: string): ReportContent {
   const content = structuredClone(good);
   content.reportId = reportId;
   content.booking = { ...content.booking, id: bookingId };

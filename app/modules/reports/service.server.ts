@@ -48,7 +48,7 @@ import { SAFETY_CAUTIONS } from "./safety";
 import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
 import { reportUrl, verificationUrl } from "./links.server";
 import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
-import { unrenderableNotice } from "./stored-readings";
+import { unrenderableNotice, unrenderableReason } from "./stored-readings";
 import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
 import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";
 
@@ -515,6 +515,7 @@ export async function getReviewReport(db: Database, inspector: SessionUser, book
     kind: "review" as const,
     reportId: report.id,
     content: report.content as ReportContent,
+    notice: unrenderableNotice(report.content as ReportContent),
     stale: draft.version !== report.draftVersion,
     booking: { id: found.booking.id, reference: found.booking.reference },
     photos: await photosOfBooking(db, bookingId),
@@ -541,6 +542,11 @@ export async function signReport(db: Database, inspector: SessionUser, bookingId
     const mode = await entryMode(tx, found, draft);
     if (mode.kind === "locked") throw new ReportRuleError(mode.reason, 409);
     const content: ReportContent = { ...(report.content as ReportContent), signedAt: now.toISOString() };
+    // A result scored before readings were bounded may hold a number no page can draw: never seal one.
+    const unrenderable = unrenderableReason(content);
+    if (unrenderable) {
+      throw new ReportRuleError(`This result cannot be signed: ${unrenderable} Go back to the readings and submit them again.`, 422);
+    }
     const { canonical, hash } = sealContent(content);
     const credential = await issueCredential(tx, content, hash);
     // The successor is signed first: the database lets a report become superseded only by a signed successor.

@@ -6,6 +6,7 @@ import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
 import { SafetyCautions } from "~/modules/reports/components/safety";
+import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { setupPhotoUrl } from "~/modules/reports/content";
 import { getReviewReport, ReportRuleError, signReport } from "~/modules/reports/service.server";
 import type { Route } from "./+types/review";
@@ -71,7 +72,7 @@ export default function ReviewPage() {
       ) : null}
 
       <div className="mt-6 space-y-6">
-        <GradeCard content={content} units={units} now={new Date(now)} />
+        {review.notice ? <StoredReadings content={content} notice={review.notice} /> : <GradeCard content={content} units={units} now={new Date(now)} />}
         {content.score.warnings.length || content.instruments.some((instrument) => instrument.calibrationOverdue) ? (
           <Card className="border-caution/40">
             <CardHeader title="Warnings" />
@@ -91,11 +92,15 @@ export default function ReviewPage() {
             </CardBody>
           </Card>
         ) : null}
-        <section>
-          <h2 className="mb-3 text-xl font-bold text-ink-900">Results</h2>
-          <ResultsTable content={content} units={units} />
-        </section>
-        <TestDetails content={content} units={units} photoUrls={photoUrls} />
+        {review.notice ? null : (
+          <>
+            <section>
+              <h2 className="mb-3 text-xl font-bold text-ink-900">Results</h2>
+              <ResultsTable content={content} units={units} />
+            </section>
+            <TestDetails content={content} units={units} photoUrls={photoUrls} />
+          </>
+        )}
         <ConditionsAndInstruments content={content} units={units} />
         <SafetyCautions heading="Safety on this visit" />
 
@@ -117,7 +122,7 @@ export default function ReviewPage() {
                 </p>
               ) : null}
               <div className="flex flex-wrap gap-3">
-                <Button type="submit" size="lg" disabled={signing || review.stale || !attested}>
+                <Button type="submit" size="lg" disabled={signing || review.stale || !attested || Boolean(review.notice)}>
                   {signing ? "Signing…" : "Sign and publish"}
                 </Button>
                 <ButtonLink to={`/inspector/bookings/${review.booking.id}/report`} variant="secondary" size="lg">

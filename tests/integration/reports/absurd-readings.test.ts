@@ -3,8 +3,20 @@
 // is stored: such a report could never be scored, signed or shown.
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
-import { reportDrafts } from "~/modules/reports/schema";
-import { acceptedBooking, completeForm, db, inspectorCookie, reportRows, saveDraftOverHttp, submitOverHttp } from "../../support/reports";
+import type { ReportContent } from "~/modules/reports/content";
+import { reportDrafts, reports } from "~/modules/reports/schema";
+import { testAppOrigin } from "../../support/accounts";
+import {
+  acceptedBooking,
+  asStoredBeforeTheLimits,
+  completeForm,
+  db,
+  inspectorCookie,
+  reportRows,
+  saveDraftOverHttp,
+  signOverHttp,
+  submitOverHttp,
+} from "../../support/reports";
 
 const absurd = completeForm({
   "L-BED-V": { kind: "profile", points: [{ station: "0", reading: "0" }, { station: "500", reading: "1e308" }, { station: "1000", reading: "0" }], instrumentId: "i1" },
@@ -43,5 +55,26 @@ describe("absurd readings", () => {
     expect(response.status).toBe(422);
     const body = (await response.json()) as { errors: Record<string, string[]> };
     expect(body.errors["tests.L-SP-SLIP.max"]![0]).toMatch(/±3.937 in \(100 mm\)/);
+  });
+
+  it("scored into a result before they were refused cannot be signed; the review shows the readings and a notice", async () => {
+    const booked = await acceptedBooking();
+    const cookie = await inspectorCookie(booked.inspector);
+    expect((await submitOverHttp(cookie, booked.bookingId, completeForm())).status).toBe(302);
+    const [scored] = await reportRows(booked.bookingId);
+    // What the code before the limits scored and stored for ±1e308 readings.
+    const content = asStoredBeforeTheLimits(scored!.content as ReportContent, scored!.id, booked.bookingId);
+    await db.update(reports).set({ content }).where(eq(reports.id, scored!.id));
+
+    const review = await fetch(`${testAppOrigin}/inspector/bookings/${booked.bookingId}/report/review`, { headers: { cookie } });
+    expect(review.status).toBe(200);
+    expect(await review.text()).toContain("cannot be scored or drawn");
+
+    const signing = await signOverHttp(cookie, booked.bookingId, scored!.id);
+    expect(signing.status).toBe(422);
+    expect(await signing.text()).toContain("This result cannot be signed");
+    const [after] = await reportRows(booked.bookingId);
+    expect(after!.status).toBe("draft");
+    expect(after!.canonicalJson).toBeNull();
   });
 });
