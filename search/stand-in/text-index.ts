@@ -42,6 +42,9 @@ export type TextMatch = {
   inexactWords: number;
 };
 
+/** How many query words' derivations are kept between searches. */
+const MAX_CACHED_DERIVATIONS = 10_000;
+
 /** The engine considers the first ten words of a query. */
 export const MAX_QUERY_WORDS = 10;
 /** The proximity cost of two words that are not near each other, as the engine caps it. */
@@ -233,6 +236,8 @@ export class TextIndex {
       const typos = derivationTypos(word, candidate, allowed, prefix);
       if (typos !== null) found.push([candidate, typos]);
     }
+    // Bounded, so that a stream of distinct query words cannot grow it without end.
+    if (built.derivations.size >= MAX_CACHED_DERIVATIONS) built.derivations.clear();
     built.derivations.set(cacheKey, found);
     return found;
   }

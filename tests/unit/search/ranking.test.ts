@@ -7,7 +7,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { SearchEngine, type SearchRequest } from "../../../search/stand-in/engine.ts";
 import { rankingSteps } from "../../../search/stand-in/ranking.ts";
-import { derivationTypos, normalizeText, typoDistance, typosAllowed, type TypoSettings } from "../../../search/stand-in/text-index.ts";
+import { derivationTypos, normalizeText, TextIndex, typoDistance, typosAllowed, type TypoSettings } from "../../../search/stand-in/text-index.ts";
 
 const defaults: TypoSettings = { enabled: true, oneTypo: 5, twoTypos: 9, disableOnWords: [], disableOnAttributes: [], disableOnNumbers: false };
 
@@ -133,5 +133,16 @@ describe("the stand-in's search", () => {
   it("answers page 0 with counts and no hits", () => {
     const answer = search({ page: 0, hitsPerPage: 2 });
     expect(answer).toMatchObject({ hits: [], page: 0, totalHits: 4, totalPages: 2 });
+  });
+});
+
+describe("hostile queries", () => {
+  it("take a very long word and hundreds of words", () => {
+    const words = Array.from({ length: 2_000 }, (_, n) => `w${n.toString(36)}lathe`);
+    const documents: Array<[string, Record<string, unknown>]> = words.map((word, n) => [String(n), { text: `${word} spindle` }]);
+    const text = new TextIndex(["text"], defaults, () => documents);
+    expect(text.search("x".repeat(50_000), "last").size).toBe(0);
+    expect(text.search(Array.from({ length: 500 }, (_, n) => `spindel${n}`).join(" "), "last").size).toBe(0);
+    expect(text.search("spindel", "last").size).toBe(2_000);
   });
 });
