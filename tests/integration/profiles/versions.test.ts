@@ -14,9 +14,9 @@ import {
   scorableProfile,
 } from "~/modules/profiles/service.server";
 import type { ReportContent } from "~/modules/reports/content";
-import { getReportEntry } from "~/modules/reports/service.server";
+import { currentReportForListing, getReportEntry } from "~/modules/reports/service.server";
 import { definitionOf, publishedMakersChart, twoStaff, db } from "../../support/profiles";
-import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
+import { acceptedBooking, completeForm, fileAndSign, inspectorCookie, submitOverHttp } from "../../support/reports";
 
 /** The database's own refusal (Drizzle wraps PostgreSQL's error as its cause). */
 async function refusedByDatabase(attempt: Promise<unknown>, pattern: RegExp) {
@@ -110,6 +110,10 @@ describe("tolerance profiles in the database", () => {
     const { revision } = await saveDraftVersion(db, staff.author, chart.key, 2, { definition: tightened, revision: 1 });
     await publishDraftVersion(db, staff.reviewer, chart.key, 2, revision);
 
+    // The listing's report says it was scored against the maker's chart.
+    const onListing = await currentReportForListing(db, booked.listing.id);
+    expect(onListing?.profile).toMatchObject({ key: chart.key, version: 1, makersChart: chart.chart });
+
     // The signed report still names v1 and re-scores identically with the stored v1.
     const content = JSON.parse(signed.canonicalJson!) as ReportContent;
     expect(content.profile).toMatchObject({ key: chart.key, version: 1, makersChart: chart.chart });
@@ -131,5 +135,26 @@ describe("tolerance profiles in the database", () => {
     expect(entry.suggestion.reason).toMatch(/No profile covers this machine yet; staff can add one/);
     // The form still opens, on the nearest class, so the inspector can file with a reason.
     expect(entry.form.profile.key).toBe("centre-lathe-normal");
+  });
+
+  it("takes no new report on a retired version; a report already signed with it keeps it", async () => {
+    const staff = await twoStaff();
+    const chart = await publishedMakersChart(staff);
+    const first = await acceptedBooking({ make: chart.make, model: chart.model });
+    const signed = await fileAndSign(await inspectorCookie(first.inspector), first.bookingId, { ...completeForm(), profile: { key: chart.key, version: 1, reason: "" } });
+    await retireVersion(db, staff.reviewer, chart.key, 1, "The maker withdrew this chart.");
+
+    const next = await acceptedBooking({ make: chart.make, model: chart.model });
+    const refused = await submitOverHttp(await inspectorCookie(next.inspector), next.bookingId, { ...completeForm(), profile: { key: chart.key, version: 1, reason: "" } });
+    expect(refused.status).toBe(422);
+    expect(await refused.text()).toMatch(/has been retired by staff; choose a current profile/);
+    // No longer suggested: the machine falls back to the general class.
+    const entry = await getReportEntry(db, { ...next.inspector, emailVerified: true, roles: ["inspector"], displayUnits: "mm", inspectorStatus: "certified" } as never, next.bookingId);
+    expect(entry.suggestion.profile?.key).toBe("centre-lathe-normal");
+    // The signed report is untouched and still re-scores the same with the retired version.
+    const content = JSON.parse(signed.canonicalJson!) as ReportContent;
+    const retired = await scorableProfile(db, chart.key, 1);
+    expect(retired?.status).toBe("retired");
+    expect(scoreReport(retired!.profile, content.measurements)).toEqual(content.score);
   });
 });
