@@ -70,3 +70,23 @@ export {
 } from "./schema";
 export type * from "./types";
 export { MEASUREMENT_LIMITS, beyondLimit, measurementLimitIssues, type Quantity } from "./limits";
+export {
+  flatnessDeviation,
+  flatnessEvaluation,
+  FLATNESS_REFERENCES,
+  FLATNESS_LIMITS,
+  type FlatnessEvaluation,
+  type FlatnessReference,
+  type SurfacePoint,
+} from "./flatness";
+export {
+  levelGridHeights,
+  UNION_JACK_LINES,
+  type LevelGrid,
+  type LevelGridHeights,
+  type RowsColumnsLevelGrid,
+  type UnionJackLevelGrid,
+  type UnionJackLine,
+} from "./level-grid";
+export { squarenessOfTravels, travelSlope, type SquarenessEvaluation, type TravelReading } from "./squareness";
+export { parallelismToTravel, type ParallelismEvaluation } from "./parallelism";
