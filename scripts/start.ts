@@ -47,12 +47,14 @@ async function main() {
   const secrets = secretsForDataFolder(dataDir);
   const standIns = await startStandIns({ dataDir, appOrigin, secrets, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
   for (const standIn of standIns) onStop(() => standIn.stop());
-  // What the environment (or .env) sets wins over a stand-in: that is how a hosted service is chosen.
-  const unlessSet = (settings: Record<string, string>) => Object.fromEntries(Object.entries(settings).filter(([key]) => !process.env[key]));
+  // What the environment (or .env) sets wins over a stand-in, even an empty value: that is how a hosted
+  // service is chosen. An empty secret is no secret: the generated one is used.
+  const standInSettings = Object.fromEntries(Object.entries(standInEnvironment(standIns)).filter(([key]) => process.env[key] === undefined));
+  const generatedSecrets = Object.fromEntries(Object.entries(secrets).filter(([key]) => !process.env[key]));
   const environment = {
     ...process.env,
-    ...unlessSet(secrets),
-    ...unlessSet(standInEnvironment(standIns)),
+    ...generatedSecrets,
+    ...standInSettings,
     NODE_ENV: "production",
     DATABASE_URL: databaseUrl,
     REPORT_SIGNING_KEY: signingKey,
