@@ -30,6 +30,7 @@ import {
   REVERSAL_QUEUE,
   reverseShareForRefunds,
   reviewHeldShares,
+  shareOfBooking,
 } from "./payouts.server";
 import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payoutReversals, payouts, type RefundStatus } from "./schema";
 import { categoryLabel } from "./validation";
@@ -265,7 +266,8 @@ export async function getBookingView(db: Executor, bookingId: string, viewer: Vi
     ? refundFor({ by: "buyer", status: row.booking.status, feeMinor: row.booking.feeMinor, startsAt: row.booking.startsAt, at: now })
     : null;
   // Each party loads only its part of the booking (booking-view.server.ts).
-  return { ...bookingFor(role, row), history: historyFor(role, history), refunds: refundsFor(role, refunds), refundIfCancelledNow };
+  const share = role === "inspector" || role === "admin" ? await shareOfBooking(db, bookingId, row.booking.inspectorId) : null;
+  return { ...bookingFor(role, row), history: historyFor(role, history), refunds: refundsFor(role, refunds), refundIfCancelledNow, share };
 }
 
 export type BookingView = Awaited<ReturnType<typeof getBookingView>>;
@@ -521,24 +523,65 @@ export async function recordReportFiled(db: Database, input: { bookingId: string
 export async function listPayments(db: Executor) {
   const rows = await bookingSummaryQuery(db).where(isNotNull(bookings.paidAt)).orderBy(desc(bookings.paidAt)).limit(200);
   const ids = rows.map((row) => row.booking.id);
-  const refunds = ids.length ? await db.select().from(bookingRefunds).where(inArray(bookingRefunds.bookingId, ids)) : [];
-  const transfers = ids.length ? await db.select().from(payouts).where(inArray(payouts.bookingId, ids)) : [];
-  const totals = new Map<string, { paid: number; platform: number; refunded: number; paidOut: number }>();
-  for (const { booking } of rows) {
-    const total = totals.get(booking.currency) ?? { paid: 0, platform: 0, refunded: 0, paidOut: 0 };
-    total.paid += booking.feeMinor;
-    total.platform += booking.platformFeeMinor;
-    total.refunded += booking.refundedMinor;
-    totals.set(booking.currency, total);
+  const refunds = ids.length ? await db.select().from(bookingRefunds).where(inArray(bookingRefunds.bookingId, ids)).orderBy(asc(bookingRefunds.createdAt)) : [];
+  const shares = ids.length ? await db.select().from(payouts).where(inArray(payouts.bookingId, ids)) : [];
+  const reversals = shares.length ? await db.select().from(payoutReversals).where(inArray(payoutReversals.payoutId, shares.map((share) => share.id))) : [];
+
+  // Every movement of money, dated, for the per-booking list and the monthly totals.
+  type Movement = { bookingId: string; at: Date; kind: "paid" | "refunded" | "refund_pending" | "refund_failed" | "transferred" | "reversed"; amountMinor: number; currency: string; ref: string | null };
+  const movements: Movement[] = [];
+  for (const { booking } of rows) movements.push({ bookingId: booking.id, at: booking.paidAt!, kind: "paid", amountMinor: booking.feeMinor, currency: booking.currency, ref: booking.paymentIntentId });
+  for (const refund of refunds) {
+    const kind = refund.status === "succeeded" ? "refunded" : refund.status === "failed" || refund.status === "canceled" ? "refund_failed" : "refund_pending";
+    movements.push({ bookingId: refund.bookingId, at: refund.createdAt, kind, amountMinor: refund.amountMinor, currency: refund.currency, ref: refund.stripeRefundId });
   }
-  for (const payout of transfers) totals.get(payout.currency)!.paidOut += payout.amountMinor;
+  for (const share of shares) {
+    if (share.status === "transferred" && share.transferredMinor > 0) {
+      movements.push({ bookingId: share.bookingId, at: share.transferredAt ?? share.updatedAt, kind: "transferred", amountMinor: share.transferredMinor, currency: share.currency, ref: share.stripeTransferId });
+    }
+  }
+  for (const reversal of reversals) {
+    const share = shares.find((candidate) => candidate.id === reversal.payoutId)!;
+    if (reversal.stripeReversalId) movements.push({ bookingId: share.bookingId, at: reversal.updatedAt, kind: "reversed", amountMinor: reversal.amountMinor, currency: reversal.currency, ref: reversal.stripeReversalId });
+  }
+  movements.sort((a, b) => a.at.getTime() - b.at.getTime());
+
+  type Totals = { paid: number; platform: number; refunded: number; refundsOpen: number; paidOut: number; reversed: number; held: number };
+  const empty = (): Totals => ({ paid: 0, platform: 0, refunded: 0, refundsOpen: 0, paidOut: 0, reversed: 0, held: 0 });
+  const totals = new Map<string, Totals>();
+  const monthly = new Map<string, Totals & { month: string; currency: string }>();
+  for (const movement of movements) {
+    const all = totals.get(movement.currency) ?? empty();
+    totals.set(movement.currency, all);
+    const key = `${movement.at.toISOString().slice(0, 7)} ${movement.currency}`;
+    const month = monthly.get(key) ?? { ...empty(), month: movement.at.toISOString().slice(0, 7), currency: movement.currency };
+    monthly.set(key, month);
+    for (const sum of [all, month]) {
+      if (movement.kind === "paid") sum.paid += movement.amountMinor;
+      else if (movement.kind === "refunded") sum.refunded += movement.amountMinor;
+      else if (movement.kind === "refund_pending") sum.refundsOpen += movement.amountMinor;
+      else if (movement.kind === "transferred") sum.paidOut += movement.amountMinor;
+      else if (movement.kind === "reversed") sum.reversed += movement.amountMinor;
+    }
+  }
+  for (const { booking } of rows) totals.get(booking.currency)!.platform += booking.platformFeeMinor;
+  for (const share of shares) {
+    if (share.status !== "transferred") totals.get(share.currency)!.held += share.amountMinor - share.reversedMinor;
+  }
   return {
     rows: rows.map((row) => ({
       ...row,
       refunds: refunds.filter((refund) => refund.bookingId === row.booking.id),
-      payout: transfers.find((payout) => payout.bookingId === row.booking.id) ?? null,
+      payout: shares.find((share) => share.bookingId === row.booking.id) ?? null,
+      movements: movements.filter((movement) => movement.bookingId === row.booking.id),
     })),
     totals: [...totals.entries()].map(([currency, total]) => ({ currency, ...total })),
+    monthly: [...monthly.values()].sort((a, b) => b.month.localeCompare(a.month) || a.currency.localeCompare(b.currency)),
+    attention: {
+      failedRefunds: refunds.filter((refund) => refund.status === "failed" || refund.status === "canceled").length,
+      failedPayouts: shares.filter((share) => share.status === "failed").length,
+      unclaimedShares: shares.filter((share) => share.status === "unclaimed").length,
+    },
   };
 }
 

@@ -146,7 +146,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
           notice.pending
             ? `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. Your bank is still processing it (refund pending); it can take a few more working days.`
             : `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. It shows on your statement within a few working days.`,
-          `Your receipt for the refund: ${origin}/bookings/${booking.id}/receipts`,
+          "Your receipt for the refund (PDF) is on the booking page.",
         ],
         action: buyerLink,
         reason: forBuyer,

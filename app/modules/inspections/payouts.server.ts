@@ -18,6 +18,7 @@ import {
   type PayoutAccountState,
 } from "~/modules/payments/stripe.server";
 import { BookingRuleError } from "./errors";
+import { ledgerTotals, statementMonths, type LedgerEntry } from "./ledger";
 import { sendBookingNotice } from "./notices.server";
 import type { Executor } from "./profiles.server";
 import { bookingEvents, bookingRefunds, bookings, payoutAccounts, payoutReversals, payouts } from "./schema";
@@ -355,3 +356,63 @@ export async function reviewHeldShares(db: Database, now = new Date()) {
   return overdue.length;
 }
 
+
+// ── the inspector's earnings ───────────────────────────────────────────────────────────────────────────
+
+/** The inspector's ledger: every movement of their shares, and each booking's money in one row. */
+export async function listEarnings(db: Executor, inspectorId: string) {
+  const rows = await db
+    .select({ payout: payouts, reference: bookings.reference, feeMinor: bookings.feeMinor, platformFeeMinor: bookings.platformFeeMinor, bookingStatus: bookings.status })
+    .from(payouts)
+    .innerJoin(bookings, eq(bookings.id, payouts.bookingId))
+    .where(eq(payouts.inspectorId, inspectorId))
+    .orderBy(asc(payouts.createdAt));
+  const reversals = rows.length
+    ? await db.select().from(payoutReversals).where(inArray(payoutReversals.payoutId, rows.map((row) => row.payout.id))).orderBy(asc(payoutReversals.createdAt))
+    : [];
+  const entries: LedgerEntry[] = [];
+  const perBooking = rows.map(({ payout, reference, feeMinor, platformFeeMinor }) => {
+    const base = { bookingId: payout.bookingId, reference, currency: payout.currency };
+    entries.push({ ...base, at: payout.createdAt, kind: "earned", amountMinor: payout.amountMinor });
+    let heldReversed = 0;
+    let transferReversed = 0;
+    for (const reversal of reversals.filter((candidate) => candidate.payoutId === payout.id && candidate.amountMinor > 0)) {
+      if (reversal.stripeReversalId) {
+        transferReversed += reversal.amountMinor;
+        entries.push({ ...base, at: reversal.updatedAt, kind: "transfer_reversed", amountMinor: reversal.amountMinor });
+      } else if (reversal.status === "done") {
+        heldReversed += reversal.amountMinor;
+        entries.push({ ...base, at: reversal.createdAt, kind: "held_reversed", amountMinor: reversal.amountMinor });
+      }
+    }
+    const transferred = payout.status === "transferred" ? payout.transferredMinor : 0;
+    if (transferred > 0) entries.push({ ...base, at: payout.transferredAt ?? payout.updatedAt, kind: "transferred", amountMinor: transferred });
+    return {
+      bookingId: payout.bookingId,
+      reference,
+      currency: payout.currency,
+      feeMinor,
+      platformFeeMinor,
+      earnedMinor: payout.amountMinor,
+      heldMinor: payout.amountMinor - heldReversed - transferred,
+      transferredMinor: transferred,
+      reversedMinor: heldReversed + transferReversed,
+      status: payout.status,
+      heldSince: payout.heldSince,
+      transferredAt: payout.transferredAt,
+    };
+  });
+  return { entries, perBooking: perBooking.reverse(), totals: ledgerTotals(entries), months: statementMonths(entries) };
+}
+
+/** The share of one booking as its inspector (and staff) see it, with the inspector's set-up in plain words. */
+export async function shareOfBooking(db: Executor, bookingId: string, inspectorId: string) {
+  const [payout] = await db.select().from(payouts).where(eq(payouts.bookingId, bookingId));
+  const words = payoutStateWords(await getPayoutAccount(db, inspectorId));
+  return {
+    setUp: words,
+    share: payout
+      ? { status: payout.status, earnedMinor: payout.amountMinor, takenBackMinor: payout.reversedMinor, transferredMinor: payout.status === "transferred" ? payout.transferredMinor : 0, currency: payout.currency }
+      : null,
+  };
+}

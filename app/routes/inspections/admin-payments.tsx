@@ -4,6 +4,8 @@ import { Button, Card, CardBody, Table, Td, Th, Tr } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { listPayments, refundAsAdmin } from "~/modules/inspections/bookings.server";
+import { refundStateWords } from "~/modules/inspections/components/booking-detail";
+import { retryFailedPayout } from "~/modules/inspections/payouts.server";
 import { BookingStatusBadge } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { adminRefundSchema } from "~/modules/inspections/validation";
@@ -24,6 +26,15 @@ export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(request, "admin");
   const form = Object.fromEntries(await request.formData());
   const bookingId = String(form.bookingId ?? "");
+  if (form.intent === "retry-payout") {
+    try {
+      await retryFailedPayout(context.get(databaseContext), bookingId);
+      return { bookingId, errors: null, message: "The transfer is queued again." } satisfies Result;
+    } catch (error) {
+      if (error instanceof BookingRuleError) return data<Result>({ bookingId, errors: { amount: [error.message] } }, { status: error.status });
+      throw error;
+    }
+  }
   const parsed = adminRefundSchema.safeParse(form);
   if (!parsed.success) return data<Result>({ bookingId, errors: z.flattenError(parsed.error).fieldErrors }, { status: 422 });
   try {
@@ -42,7 +53,7 @@ export async function action({ request, context }: Route.ActionArgs) {
 }
 
 export default function AdminPayments() {
-  const { rows, totals } = useLoaderData<typeof loader>();
+  const { rows, totals, monthly, attention } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
   const busy = useNavigation().state !== "idle";
   return (
@@ -54,6 +65,12 @@ export default function AdminPayments() {
       </nav>
       <h1 className="mt-4 text-3xl font-extrabold tracking-tight text-ink-950">Payments</h1>
       <p className="mt-1 text-ink-600">Inspection fees taken through Stripe, their refunds and the inspectors' transfers.</p>
+      {attention.failedRefunds || attention.failedPayouts || attention.unclaimedShares ? (
+        <p role="alert" className="mt-4 rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm font-semibold text-beyond">
+          Needs attention: {attention.failedRefunds} failed refund{attention.failedRefunds === 1 ? "" : "s"}, {attention.failedPayouts} failed transfer
+          {attention.failedPayouts === 1 ? "" : "s"}, {attention.unclaimedShares} share{attention.unclaimedShares === 1 ? "" : "s"} unclaimed for 90 days.
+        </p>
+      ) : null}
       <div className="mt-5 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {totals.map((total) => (
           <Card key={total.currency}>
@@ -61,11 +78,42 @@ export default function AdminPayments() {
               <p className="font-bold text-ink-900">{total.currency}</p>
               <p className="text-ink-700">Paid: <span className="tabular">{formatMoney(total.paid, total.currency)}</span></p>
               <p className="text-ink-700">Refunded: <span className="tabular">{formatMoney(total.refunded, total.currency)}</span></p>
+              <p className="text-ink-700">Refunds pending: <span className="tabular">{formatMoney(total.refundsOpen, total.currency)}</span></p>
               <p className="text-ink-700">Platform fees: <span className="tabular">{formatMoney(total.platform, total.currency)}</span></p>
               <p className="text-ink-700">Transferred: <span className="tabular">{formatMoney(total.paidOut, total.currency)}</span></p>
+              <p className="text-ink-700">Reversed: <span className="tabular">{formatMoney(total.reversed, total.currency)}</span></p>
+              <p className="text-ink-700">Shares held: <span className="tabular">{formatMoney(total.held, total.currency)}</span></p>
             </CardBody>
           </Card>
         ))}
+      </div>
+      <div className="mt-6">
+        <Table caption="Totals per month">
+          <thead>
+            <tr>
+              <Th>Month</Th>
+              <Th>Paid</Th>
+              <Th>Refunded</Th>
+              <Th>Refunds pending</Th>
+              <Th>Transferred</Th>
+              <Th>Reversed</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {monthly.map((month) => (
+              <Tr key={`${month.month}-${month.currency}`}>
+                <Td className="whitespace-nowrap text-sm font-semibold">
+                  {month.month} · {month.currency}
+                </Td>
+                <Td className="tabular text-sm">{formatMoney(month.paid, month.currency)}</Td>
+                <Td className="tabular text-sm">{formatMoney(month.refunded, month.currency)}</Td>
+                <Td className="tabular text-sm">{formatMoney(month.refundsOpen, month.currency)}</Td>
+                <Td className="tabular text-sm">{formatMoney(month.paidOut, month.currency)}</Td>
+                <Td className="tabular text-sm">{formatMoney(month.reversed, month.currency)}</Td>
+              </Tr>
+            ))}
+          </tbody>
+        </Table>
       </div>
       <div className="mt-6">
         <Table caption="Payments">
@@ -107,14 +155,30 @@ export default function AdminPayments() {
                   </Td>
                   <Td className="whitespace-nowrap tabular text-xs">
                     {formatMoney(booking.feeMinor, booking.currency)} / {formatMoney(booking.platformFeeMinor, booking.currency)} / {formatMoney(booking.inspectorShareMinor, booking.currency)}
-                    {payout ? <div className="text-within">transferred {payout.stripeTransferId}</div> : null}
+                    {payout ? (
+                      <div className={payout.status === "transferred" ? "text-within" : payout.status === "failed" ? "font-semibold text-beyond" : "text-caution"}>
+                        share {payout.status === "transferred" ? `transferred ${payout.stripeTransferId ?? ""}` : payout.status === "failed" ? `transfer failed: ${payout.lastError ?? ""}` : payout.status}
+                        {payout.reversedMinor ? ` · ${formatMoney(payout.reversedMinor, payout.currency)} taken back` : ""}
+                      </div>
+                    ) : null}
+                    {payout?.status === "failed" ? (
+                      <Form method="post">
+                        <input type="hidden" name="bookingId" value={booking.id} />
+                        <input type="hidden" name="intent" value="retry-payout" />
+                        <Button type="submit" size="sm" variant="secondary" disabled={busy}>
+                          Try the transfer again
+                        </Button>
+                      </Form>
+                    ) : null}
                   </Td>
                   <Td className="text-xs">
                     {refunds.length === 0
                       ? "—"
                       : refunds.map((refund) => (
-                          <div key={refund.id} className="tabular">
-                            {formatMoney(refund.amountMinor, refund.currency)} ({refund.rule})
+                          <div key={refund.id} className="tabular" data-testid="staff-refund">
+                            {formatMoney(refund.amountMinor, refund.currency)} ({refund.rule}) ·{" "}
+                            <span className={`font-semibold ${refundStateWords[refund.status]?.tone ?? ""}`}>{refundStateWords[refund.status]?.label ?? refund.status}</span>
+                            {refund.failureReason ? <span className="text-ink-500"> ({refund.failureReason})</span> : null}
                           </div>
                         ))}
                   </Td>

@@ -3,7 +3,7 @@ import { Button, Card, CardBody, CardHeader, TextAreaField } from "~/components/
 import { databaseContext } from "~/db/context";
 import { requireUser } from "~/modules/accounts/guards.server";
 import { cancelBookingAsBuyer, getBookingView } from "~/modules/inspections/bookings.server";
-import { BookingFacts, BookingHistory } from "~/modules/inspections/components/booking-detail";
+import { BookingFacts, BookingHistory, RefundList } from "~/modules/inspections/components/booking-detail";
 import { InspectionSafetyNotice, RefundRules } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { cancelSchema } from "~/modules/inspections/validation";
@@ -49,9 +49,30 @@ export default function BookingPage() {
       <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="space-y-6">
           <BookingFacts detail={detail} />
+          <RefundList detail={detail} receipts={detail.role === "buyer"} />
           <BookingHistory detail={detail} />
         </div>
         <aside className="space-y-4">
+          {detail.role === "buyer" && detail.booking.status === "awaiting_payment" && detail.booking.paymentProcessingSince ? (
+            <Card>
+              <CardHeader title="Payment processing" />
+              <CardBody className="space-y-2 text-sm text-ink-700">
+                <p>Your bank payment is on its way. The slot stays held for you while your bank processes it, which can take a few working days.</p>
+                <p>We e-mail you when it arrives, or if it does not.</p>
+              </CardBody>
+            </Card>
+          ) : null}
+          {detail.role === "buyer" && detail.booking.paidAt ? (
+            <Card>
+              <CardHeader title="Receipts" />
+              <CardBody className="space-y-2 text-sm text-ink-700">
+                <a className="font-semibold underline underline-offset-2" href={`/bookings/${detail.booking.id}/receipts/payment.pdf`}>
+                  Receipt for your payment (PDF)
+                </a>
+                {detail.refunds.length ? <p>Each refund has its receipt beside it under Refunds.</p> : null}
+              </CardBody>
+            </Card>
+          ) : null}
           {detail.role === "buyer" && detail.booking.status === "awaiting_payment" && detail.booking.checkoutUrl ? (
             <Card>
               <CardHeader title="Payment not finished" />

@@ -1,4 +1,4 @@
-import { data, Form, useActionData, useLoaderData, useNavigation } from "react-router";
+import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
 import { z } from "zod";
 import { Button, ButtonLink, Card, CardBody, CardHeader, TextAreaField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
@@ -8,6 +8,7 @@ import { BookingFacts, BookingHistory } from "~/modules/inspections/components/b
 import { InspectionSafetyNotice } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { declineSchema } from "~/modules/inspections/validation";
+import { formatMoney } from "~/modules/units/format";
 import type { Route } from "./+types/inspector-booking";
 
 export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ? `Request ${loaded.detail.booking.reference} — Tenthmark` : "Request — Tenthmark" }];
@@ -69,6 +70,40 @@ export default function InspectorBooking() {
           <BookingHistory detail={detail} />
         </div>
         <aside className="space-y-4">
+          {detail.share ? (
+            <Card>
+              <CardHeader title="Your share" />
+              <CardBody className="space-y-2 text-sm text-ink-700" data-testid="share">
+                {detail.share.share ? (
+                  <p>
+                    {formatMoney(detail.share.share.earnedMinor - detail.share.share.takenBackMinor, detail.share.share.currency)}:{" "}
+                    {detail.share.share.status === "transferred"
+                      ? "transferred to your payout account."
+                      : detail.share.share.status === "held" || detail.share.share.status === "unclaimed"
+                        ? "held until your payout set-up is finished."
+                        : detail.share.share.status === "failed"
+                          ? "the transfer failed; our staff have been told and will try again."
+                          : "being transferred."}
+                    {detail.share.share.takenBackMinor ? ` (${formatMoney(detail.share.share.takenBackMinor, detail.share.share.currency)} taken back after a refund.)` : ""}
+                  </p>
+                ) : (
+                  <p>Your share is paid once you file the report.</p>
+                )}
+                {!detail.share.setUp.ready ? (
+                  <p className="rounded-control border border-brass-200 bg-brass-100 px-3 py-2 text-ink-800">
+                    {detail.share.setUp.headline}{" "}
+                    <Link to="/inspector/profile" className="font-semibold underline underline-offset-2">
+                      Finish payout set-up
+                    </Link>
+                  </p>
+                ) : (
+                  <Link to="/inspector/earnings" className="font-semibold underline underline-offset-2">
+                    Your earnings
+                  </Link>
+                )}
+              </CardBody>
+            </Card>
+          ) : null}
           {cancellable || booking.reportId ? (
             <ButtonLink to={cancellable ? `/inspector/bookings/${booking.id}/report` : `/reports/${booking.reportId}`} size="lg" className="w-full">
               {cancellable ? "File the report" : "Read the signed report"}

@@ -1,10 +1,12 @@
-import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
+import { data, Form, Link, redirect, useActionData, useLoaderData, useNavigation } from "react-router";
 import { Badge, Button, Card, CardBody, CardHeader, CheckboxField, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { formatSlot, InspectionSafetyNotice } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { addSlots, getOwnProfile, removeSlot, saveProfile, storeCertificate } from "~/modules/inspections/profiles.server";
+import { getPayoutAccount, payoutStateWords, startPayoutOnboarding } from "~/modules/inspections/payouts.server";
+import { PaymentsRejectedError, PaymentsUnavailableError } from "~/modules/payments/stripe.server";
 import { categoryLabel, inspectionCategories, parseProfileForm, SLOT_DURATIONS, slotSchema } from "~/modules/inspections/validation";
 import { DOCUMENT_MAX_BYTES, documentLimitText } from "~/modules/files/limits";
 import { StorageUnavailableError } from "~/modules/files/storage.server";
@@ -16,8 +18,10 @@ export const meta: Route.MetaFunction = () => [{ title: "Your inspector profile 
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireRole(request, "inspector");
-  const own = await getOwnProfile(context.get(databaseContext), user.id);
-  return own;
+  const db = context.get(databaseContext);
+  const own = await getOwnProfile(db, user.id);
+  const returned = new URL(request.url).searchParams.get("payouts");
+  return { ...own, payouts: payoutStateWords(await getPayoutAccount(db, user.id)), payoutsReturned: returned === "returned" };
 }
 
 type Errors = Record<string, string[] | undefined>;
@@ -49,6 +53,10 @@ export async function action({ request, context }: Route.ActionArgs) {
         await removeSlot(db, user.id, String(form.get("slotId") ?? ""));
         return { intent, errors: null, message: "Slot removed." } satisfies Result;
       }
+      case "payouts": {
+        // Off to the payment provider's hosted set-up; it sends the inspector back to /inspector/payouts/return.
+        return redirect(await startPayoutOnboarding(db, user));
+      }
       case "certificate": {
         const file = form.get("certificate");
         if (!(file instanceof File)) return result(intent, { certificate: ["Choose a PDF file to upload."] }, 422);
@@ -61,12 +69,16 @@ export async function action({ request, context }: Route.ActionArgs) {
   } catch (error) {
     if (error instanceof BookingRuleError) return result(intent, { [error.field ?? "form"]: [error.message] }, error.status);
     if (error instanceof StorageUnavailableError) return result(intent, { certificate: [error.message] }, 503);
+    if (error instanceof PaymentsUnavailableError) {
+      return result(intent, { payouts: ["The payment provider is not answering, so payout set-up could not start. Nothing was lost: try again in a few minutes."] }, 503);
+    }
+    if (error instanceof PaymentsRejectedError) return result(intent, { payouts: [`The payment provider refused to start set-up: ${error.message}`] }, 502);
     throw error;
   }
 }
 
 export default function InspectorProfileEdit() {
-  const { profile, fees, slots, fromApplication } = useLoaderData<typeof loader>();
+  const { profile, fees, slots, fromApplication, payouts, payoutsReturned } = useLoaderData<typeof loader>();
   // The public page's address uses the profile's public id, which a profile has once it is saved.
   const publicId = profile && "publicId" in profile ? profile.publicId : null;
   const actionData = useActionData<typeof action>();
@@ -75,6 +87,7 @@ export default function InspectorProfileEdit() {
   const profileErrors = errorsFor("profile");
   const slotErrors = errorsFor("add-slot");
   const certificateErrors = errorsFor("certificate");
+  const payoutErrors = errorsFor("payouts");
   const saved = profile && "headline" in profile ? profile : null;
   const feeOf = (category: string) => {
     const fee = fees.find((candidate) => candidate.category === category);
@@ -205,6 +218,43 @@ export default function InspectorProfileEdit() {
                   </li>
                 ))}
               </ul>
+            </CardBody>
+          </Card>
+
+          <Card>
+            <CardHeader title="Payouts" description="Your share of each fee is paid to your own account with our payment provider." />
+            <CardBody className="space-y-3 text-sm text-ink-700">
+              {payoutsReturned && !payouts.ready ? <p role="status">Back from set-up. If you finished it, this page updates as soon as the provider confirms.</p> : null}
+              <p className={payouts.ready ? "font-semibold text-within" : "font-semibold text-ink-900"} data-testid="payout-state">
+                {payouts.headline}
+              </p>
+              {payouts.missing.length ? (
+                <div>
+                  <p>Still needed:</p>
+                  <ul className="mt-1 list-disc space-y-0.5 pl-5">
+                    {payouts.missing.map((item) => (
+                      <li key={item}>{item}</li>
+                    ))}
+                  </ul>
+                </div>
+              ) : null}
+              {payouts.ready ? (
+                <Link to="/inspector/earnings" className="font-semibold underline underline-offset-2">
+                  Your earnings and statements
+                </Link>
+              ) : (
+                <Form method="post" className="space-y-2">
+                  <input type="hidden" name="intent" value="payouts" />
+                  <Button type="submit" className="w-full" disabled={busy}>
+                    {payouts.headline.startsWith("Payouts are not set up") ? "Set up payouts" : "Continue payout set-up"}
+                  </Button>
+                  {payoutErrors.payouts ? (
+                    <p role="alert" className="text-sm font-medium text-beyond">
+                      {payoutErrors.payouts.join(" ")}
+                    </p>
+                  ) : null}
+                </Form>
+              )}
             </CardBody>
           </Card>
 

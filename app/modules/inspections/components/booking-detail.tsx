@@ -26,7 +26,7 @@ type Detail = {
   /** Null in the seller's view: who booked is between the buyer, the inspector and us. */
   buyerName: string | null;
   history: Array<{ id: string; kind: string; toStatus: BookingStatus | null; note: string | null; createdAt: string | Date }>;
-  refunds: Array<{ id: string; amountMinor: number; currency: string; rule: string; createdAt: string | Date }>;
+  refunds: Array<{ id: string; amountMinor: number; currency: string; rule: string; status: string; failureReason?: string | null; createdAt: string | Date }>;
 };
 
 const historyWords: Record<string, string> = {
@@ -52,12 +52,60 @@ const historyWords: Record<string, string> = {
   slot_lost: "Slot lost to another booking",
   report_filed: "Report filed",
   payout_recorded: "Inspector's share transferred",
+  refund_pending: "Refund pending at the bank",
+  refund_succeeded: "Refund completed",
+  refund_failed: "Refund failed — staff notified",
+  share_held: "Inspector's share held until payout set-up",
+  share_unclaimed: "Inspector's share unclaimed for 90 days",
+  share_reversed: "Part of the inspector's share taken back",
+  payout_failed: "Transfer to the inspector failed — staff notified",
 };
+
+/** A refund's state in the buyer's words. */
+export const refundStateWords: Record<string, { label: string; tone: string }> = {
+  requested: { label: "Refund on its way", tone: "text-ink-700" },
+  pending: { label: "Refund pending", tone: "text-caution" },
+  succeeded: { label: "Refunded", tone: "text-within" },
+  failed: { label: "Refund failed — staff notified", tone: "text-beyond" },
+  canceled: { label: "Refund cancelled — staff notified", tone: "text-beyond" },
+};
+
+/** Each refund with its state; the buyer gets a receipt for each one that was sent. */
+export function RefundList({ detail, receipts = false }: { detail: Detail; receipts?: boolean }) {
+  if (!detail.refunds.length) return null;
+  return (
+    <Card>
+      <CardHeader title="Refunds" />
+      <CardBody>
+        <ul className="divide-y divide-ink-100 text-sm">
+          {detail.refunds.map((refund) => {
+            const state = refundStateWords[refund.status] ?? { label: refund.status, tone: "text-ink-700" };
+            return (
+              <li key={refund.id} className="flex flex-wrap items-baseline justify-between gap-2 py-2" data-testid="refund">
+                <span className="tabular font-semibold text-ink-900">{formatMoney(refund.amountMinor, refund.currency)}</span>
+                <span className={`font-semibold ${state.tone}`}>{state.label}</span>
+                <span className="text-xs text-ink-500">
+                  {new Date(refund.createdAt).toISOString().slice(0, 10)}
+                  {refund.failureReason ? ` · ${refund.failureReason}` : ""}
+                </span>
+                {receipts && refund.status !== "failed" && refund.status !== "canceled" ? (
+                  <a className="text-xs font-semibold underline underline-offset-2" href={`/bookings/${detail.booking.id}/receipts/refund-${refund.id}.pdf`}>
+                    Receipt (PDF)
+                  </a>
+                ) : null}
+              </li>
+            );
+          })}
+        </ul>
+      </CardBody>
+    </Card>
+  );
+}
 
 export function BookingFacts({ detail, showSplit = false }: { detail: Detail; showSplit?: boolean }) {
   const { booking, listing } = detail;
   const rows: Array<[string, React.ReactNode]> = [
-    ["Status", <BookingStatusBadge key="status" status={booking.status} />],
+    ["Status", <BookingStatusBadge key="status" status={booking.status} className="whitespace-normal" />],
     ["Reference", <span key="ref" className="font-mono">{booking.reference}</span>],
     [
       "Machine",
@@ -83,7 +131,7 @@ export function BookingFacts({ detail, showSplit = false }: { detail: Detail; sh
       <CardBody>
         <dl className="divide-y divide-ink-100 text-sm">
           {rows.map(([label, value]) => (
-            <div key={label} className="grid grid-cols-[9rem_1fr] gap-3 py-2">
+            <div key={label} className="grid grid-cols-[6.5rem_minmax(0,1fr)] gap-3 py-2 sm:grid-cols-[9rem_minmax(0,1fr)]">
               <dt className="text-ink-500">{label}</dt>
               <dd className="text-ink-900">{value}</dd>
             </div>

@@ -24,8 +24,12 @@ export function SlotTime({ startsAt, endsAt, place }: { startsAt: Date | string;
   );
 }
 
-export function BookingStatusBadge({ status }: { status: BookingStatus }) {
-  return <Badge tone={bookingStatusTones[status]}>{bookingStatusLabels[status]}</Badge>;
+export function BookingStatusBadge({ status, className }: { status: BookingStatus; className?: string }) {
+  return (
+    <Badge tone={bookingStatusTones[status]} className={className}>
+      {bookingStatusLabels[status]}
+    </Badge>
+  );
 }
 
 export function RefundRules({ className }: { className?: string }) {
