@@ -33,3 +33,15 @@ export const svgDrawing = Buffer.from(
 );
 
 export const textPretendingToBeJpeg = Buffer.from("This is a shopping list, not a photo of a lathe.\n");
+
+/** A real one-page PDF (made with pdf-lib), as a reader would open it. */
+export async function onePagePdf(text = "Operator manual") {
+  const { PDFDocument, StandardFonts } = await import("pdf-lib");
+  const document = await PDFDocument.create();
+  const page = document.addPage([595, 842]);
+  page.drawText(text, { x: 72, y: 760, size: 18, font: await document.embedFont(StandardFonts.Helvetica) });
+  return Buffer.from(await document.save());
+}
+
+/** The PDF header, then a web page: what a content sniffer by first bytes would take for a PDF. */
+export const htmlBehindPdfHeader = Buffer.from("%PDF-1.7\n<html><body><script>alert(document.cookie)</script></body></html>\n");

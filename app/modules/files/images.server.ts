@@ -1,5 +1,6 @@
 // Checks uploaded files by their content and turns photos into the variants pages show.
 import { createHash } from "node:crypto";
+import { PDFDocument } from "pdf-lib";
 import sharp, { type Metadata } from "sharp";
 import { DOCUMENT_MAX_BYTES, formatBytes, PHOTO_MAX_BYTES, PHOTO_MAX_PIXELS } from "./limits";
 import { deleteObjects, readObject, statObject, writeObject } from "./storage.server";
@@ -64,8 +65,19 @@ export async function makePhotoVariants(bytes: Buffer) {
   }
 }
 
-export function looksLikePdf(bytes: Buffer) {
-  return bytes.subarray(0, 5).toString("latin1") === "%PDF-";
+/**
+ * Whether the bytes are a PDF a reader can open: the header, then a document pdf-lib can parse to a
+ * catalogue with at least one page. "%PDF-" followed by HTML or anything else is refused.
+ */
+export async function isPdf(bytes: Buffer): Promise<boolean> {
+  if (bytes.subarray(0, 5).toString("latin1") !== "%PDF-") return false;
+  try {
+    // Encrypted PDFs are documents too (a certificate may be protected); only their structure is read here.
+    const document = await PDFDocument.load(bytes, { ignoreEncryption: true, updateMetadata: false });
+    return document.getPageCount() > 0;
+  } catch {
+    return false;
+  }
 }
 
 /** Throws RejectedFileError when the uploaded object is missing or over `maxBytes`, after deleting it. */
@@ -114,7 +126,7 @@ export async function acceptUploadedDocument({ uploadKey, destinationKey }: { up
   await requireUploaded(uploadKey, DOCUMENT_MAX_BYTES, "document");
   try {
     const bytes = await readObject(uploadKey);
-    if (!looksLikePdf(bytes)) throw new RejectedFileError("This file is not a PDF. Send manuals and earlier reports as PDF.");
+    if (!(await isPdf(bytes))) throw new RejectedFileError("This file is not a PDF. Send manuals and earlier reports as PDF.");
     await writeObject({ key: destinationKey, body: bytes, contentType: "application/pdf" });
     return { key: destinationKey, bytes: bytes.length };
   } finally {

@@ -4,7 +4,7 @@ import { addMinutes, addWeeks } from "date-fns";
 import { and, asc, eq, gt, inArray, sql } from "drizzle-orm";
 import type { Database } from "~/db/client.server";
 import { inspectorApplication, user, userRole } from "~/modules/accounts/schema";
-import { looksLikePdf } from "~/modules/files/images.server";
+import { isPdf } from "~/modules/files/images.server";
 import { DOCUMENT_MAX_BYTES, formatBytes } from "~/modules/files/limits";
 import { openObject, writeObject } from "~/modules/files/storage.server";
 import { countryName } from "~/modules/listings/catalogue";
@@ -312,7 +312,7 @@ export async function storeCertificate(db: Database, userId: string, file: File)
   if (file.size === 0) throw new BookingRuleError("Choose a PDF file to upload.", 422, "certificate");
   if (file.size > DOCUMENT_MAX_BYTES) throw new BookingRuleError(`This file is ${formatBytes(file.size)}; the limit is ${formatBytes(DOCUMENT_MAX_BYTES)}.`, 422, "certificate");
   const bytes = Buffer.from(await file.arrayBuffer());
-  if (!looksLikePdf(bytes)) throw new BookingRuleError("This file is not a PDF. Upload your certificate as PDF.", 422, "certificate");
+  if (!(await isPdf(bytes))) throw new BookingRuleError("This file is not a PDF. Upload your certificate as PDF.", 422, "certificate");
   const fileKey = `inspectors/${userId}/certificate-${randomUUID()}.pdf`;
   await writeObject({ key: fileKey, body: bytes, contentType: "application/pdf" });
   const fileName = file.name.replace(/[^\w .()-]/g, "_").slice(0, 120) || "certificate.pdf";

@@ -11,7 +11,7 @@ import { formatBytes, PHOTO_MAX_BYTES, PHOTO_TYPES } from "~/modules/files/limit
 import { deleteObjects, openObject, presignUpload } from "~/modules/files/storage.server";
 import { getBookingForReport } from "~/modules/inspections/report-queries.server";
 import { reportDrafts, reportPhotos, reports } from "./schema";
-import { ReportRuleError, setupPhotoUrl } from "./service.server";
+import { ReportRuleError, setupPhotoUrl, testCodesOfReport } from "./service.server";
 
 const PHOTOS_PER_TEST = 4;
 
@@ -41,8 +41,15 @@ async function requireWritable(db: Database, inspector: SessionUser, bookingId: 
 
 const uploadKeyPattern = (bookingId: string) => new RegExp(`^uploads/reports/${bookingId.replace(/[^A-Za-z0-9-]/g, "")}/[0-9a-f-]{36}$`);
 
+/** A photo is kept under a test of the report's profile only (not under any code a client makes up). */
+async function requireTestOfReport(db: Database, found: Awaited<ReturnType<typeof requireWritable>>, bookingId: string, testCode: string) {
+  const codes = await testCodesOfReport(db, bookingId, found.listing);
+  if (!codes.has(testCode)) throw new RejectedFileError(`"${testCode}" is not a test of this report's profile; add the photo under one of its tests.`);
+}
+
 export async function startSetupPhotoUpload(db: Database, inspector: SessionUser, bookingId: string, file: { testCode: string; fileName: string; size: number; contentType: string }) {
-  await requireWritable(db, inspector, bookingId);
+  const found = await requireWritable(db, inspector, bookingId);
+  await requireTestOfReport(db, found, bookingId, file.testCode);
   if (!(PHOTO_TYPES as readonly string[]).includes(file.contentType)) throw new RejectedFileError(`${file.fileName} is not a JPEG, PNG or WebP photo.`);
   if (file.size > PHOTO_MAX_BYTES) throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(PHOTO_MAX_BYTES)} limit.`);
   const uploadKey = `uploads/reports/${bookingId.replace(/[^A-Za-z0-9-]/g, "")}/${randomUUID()}`;
@@ -50,8 +57,9 @@ export async function startSetupPhotoUpload(db: Database, inspector: SessionUser
 }
 
 export async function confirmSetupPhotoUpload(db: Database, inspector: SessionUser, bookingId: string, upload: { testCode: string; uploadKey: string }) {
-  await requireWritable(db, inspector, bookingId);
+  const found = await requireWritable(db, inspector, bookingId);
   if (!uploadKeyPattern(bookingId).test(upload.uploadKey)) throw new RejectedFileError("This upload does not belong to this report.");
+  await requireTestOfReport(db, found, bookingId, upload.testCode);
   const [{ photos }] = await db
     .select({ photos: count() })
     .from(reportPhotos)

@@ -182,6 +182,22 @@ async function profileOfForm(db: Executor, form: Pick<ReportForm, "profile">) {
   return scorableProfile(db, form.profile.key, form.profile.version);
 }
 
+/**
+ * The test codes of the profile this booking's report is filed with: the draft's profile, or (before the first
+ * save) the one the entry page opens on. Set-up photos are kept only under these codes.
+ */
+export async function testCodesOfReport(db: Executor, bookingId: string, listing: BookingForReport["listing"]): Promise<Set<string>> {
+  const draft = await draftOf(db, bookingId);
+  const form = draft ? reportFormSchema.safeParse(draft.form) : null;
+  let profile: ToleranceProfile | undefined = form?.success ? (await profileOfForm(db, form.data))?.profile : undefined;
+  if (!profile) {
+    const offered = await profilesForNewReports(db);
+    const suggested = suggestionFor(listing, offered).profile;
+    profile = (suggested && findProfile(offered, suggested.key, suggested.version)) || newestVersions(offered).find((candidate) => !candidate.scope.maker) || offered[0];
+  }
+  return new Set(profile?.tests.map((test) => test.code) ?? []);
+}
+
 // ————— The entry page —————
 
 export function machineTitle(listing: Pick<BookingForReport["listing"], "make" | "model">) {

@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import { acceptUploadedDocument, acceptUploadedPhoto, RejectedFileError } from "~/modules/files/images.server";
 import { PHOTO_MAX_BYTES } from "~/modules/files/limits";
 import { presignUpload, readObject, statObject } from "~/modules/files/storage.server";
-import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg } from "../../support/images";
+import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg, onePagePdf } from "../../support/images";
 
 /** Puts bytes into the bucket the way a browser does: a PUT to a presigned URL. */
 async function uploadAsBrowser(bytes: Buffer, contentType: string) {
@@ -79,8 +79,8 @@ describe("photo pipeline", () => {
     await expectRejected(png, "image/png", /20000 × 20000 pixels \(400 megapixels\); the limit is 40 megapixels/);
   });
 
-  it("accepts a PDF by its first bytes and rejects a JPEG sent as a document", async () => {
-    const pdf = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
+  it("accepts a PDF that parses and rejects a JPEG sent as a document", async () => {
+    const pdf = await onePagePdf();
     const pdfKey = await uploadAsBrowser(pdf, "application/pdf");
     const destinationKey = `listings/${randomUUID()}/documents/${randomUUID()}.pdf`;
     await acceptUploadedDocument({ uploadKey: pdfKey, destinationKey });

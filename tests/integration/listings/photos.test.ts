@@ -2,7 +2,7 @@ import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import { PHOTO_MAX_BYTES } from "~/modules/files/limits";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
-import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg } from "../../support/images";
+import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg, onePagePdf } from "../../support/images";
 import { createListingAs, listingRow, objectKeysUnder, photoRows, postForm, uploadFileAs } from "../../support/listings";
 import { getListingsApi, uniqueWord } from "../../support/search";
 
@@ -147,7 +147,7 @@ describe("a real photo", () => {
 
   it("accepts a PDF document and refuses a photo sent as one", async () => {
     const listingId = await createListingAs(cookie);
-    const pdf = Buffer.from("%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n");
+    const pdf = await onePagePdf();
     const accepted = await uploadFileAs(cookie, listingId, "documents", { bytes: pdf, name: "Operator manual.pdf", type: "application/pdf" });
     expect(accepted.status).toBe(200);
     expect(accepted.body.document.title).toBe("Operator manual");
