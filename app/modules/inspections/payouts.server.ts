@@ -281,14 +281,14 @@ export async function payInspector(db: Database, bookingId: string): Promise<"he
   }
 
   const { booking, payout } = plan;
-  let chargeId = booking.chargeId;
-  if (!chargeId && booking.paymentIntentId) {
-    chargeId = (await retrievePayment(booking.paymentIntentId)).latestChargeId;
-    if (chargeId) await db.update(bookings).set({ chargeId }).where(eq(bookings.id, bookingId));
-  }
-  if (!chargeId) throw new Error(`booking ${bookingId} has no charge to tie its transfer to`);
   let transfer;
   try {
+    let chargeId = booking.chargeId;
+    if (!chargeId && booking.paymentIntentId) {
+      chargeId = (await retrievePayment(booking.paymentIntentId)).latestChargeId;
+      if (chargeId) await db.update(bookings).set({ chargeId }).where(eq(bookings.id, bookingId));
+    }
+    if (!chargeId) throw new Error(`booking ${bookingId} has no charge to tie its transfer to`);
     transfer = await recordTransfer({ amountMinor: payout.transferredMinor, currency: payout.currency, destination: payout.destination!, bookingId, sourceChargeId: chargeId });
   } catch (error) {
     await db.update(payouts).set({ lastError: error instanceof Error ? error.message : String(error), updatedAt: new Date() }).where(eq(payouts.id, payout.id));

@@ -10,7 +10,9 @@ import { and, eq, inArray } from "drizzle-orm";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
-import { bookings } from "~/modules/inspections/schema";
+import { acceptBooking } from "~/modules/inspections/bookings.server";
+import { startPayoutOnboarding } from "~/modules/inspections/payouts.server";
+import { bookings, payoutAccounts, payouts } from "~/modules/inspections/schema";
 import { listingPhotos, listings } from "~/modules/listings/schema";
 import { startSearchStandIn } from "../../../search/stand-in/index.ts";
 import { freePort } from "../../../scripts/lib/ports.ts";
@@ -18,7 +20,7 @@ import { waitForHttp } from "../../../scripts/lib/processes.ts";
 import { createTestUser, type TestUser } from "../../support/accounts";
 import { startFaultProxy, type FaultProxy } from "../../support/fault-proxy";
 import { jpegWithGps } from "../../support/images";
-import { certifiedInspector, publishedLathe } from "../../support/inspections";
+import { certifiedInspector, paidBooking, publishedLathe } from "../../support/inspections";
 import { validListingFields } from "../../support/listings";
 import { emailsTo, latestEmailTo } from "../../support/mailbox";
 
@@ -130,6 +132,60 @@ describe("payments down, slow or failing while a buyer books", () => {
     expect(booked.status).toBe(302);
     expect(booked.headers.get("location")).toMatch(/\/pay\//);
     expect(await activeBookings()).toHaveLength(1);
+  });
+});
+
+describe("payments down while an inspector sets up payouts or is paid", () => {
+  it("says so when set-up cannot start, keeps nothing half-made, and starts it once the service is back", async () => {
+    const inspector = await createTestUser({ roles: ["inspector"], inspectorStatus: "certified" });
+    const cookie = await signIn(inspector);
+    for (const fault of [{ kind: "down" } as const, { kind: "error" } as const]) {
+      proxies.payments.set(fault);
+      const refused = await post("/inspector/profile", cookie, { intent: "payouts" });
+      expect(refused.status, fault.kind).toBe(503);
+      expect(await refused.text()).toContain("The payment provider is not answering, so payout set-up could not start. Nothing was lost");
+      expect(await db.select().from(payoutAccounts).where(eq(payoutAccounts.userId, inspector.id))).toEqual([]);
+    }
+    proxies.payments.set({ kind: "pass" });
+    const started = await post("/inspector/profile", cookie, { intent: "payouts" });
+    expect(started.status).toBe(302);
+    expect(started.headers.get("location")).toMatch(/\/connect\/onboarding\//);
+    expect(await db.select().from(payoutAccounts).where(eq(payoutAccounts.userId, inspector.id))).toHaveLength(1);
+  });
+
+  it("a transfer that cannot reach the service is retried by the queue and made once it is back", async () => {
+    const held = await paidBooking();
+    await acceptBooking(db, held.inspector, held.bookingId);
+    // The inspector's account is ready; the share's first transfer attempt failed earlier and staff retry it here.
+    const url = await startPayoutOnboarding(db, held.inspector);
+    await fetch(url, { method: "POST", body: new URLSearchParams({ choice: "complete" }), redirect: "manual" });
+    const account = await until("account ready", async () => {
+      const [row] = await db.select().from(payoutAccounts).where(eq(payoutAccounts.userId, held.inspector.id));
+      return row?.payoutsEnabled ? row : undefined;
+    });
+    await db.update(bookings).set({ status: "report_filed" }).where(eq(bookings.id, held.bookingId));
+    await db.insert(payouts).values({ bookingId: held.bookingId, inspectorId: held.inspector.id, amountMinor: held.booking.inspectorShareMinor, currency: "EUR", status: "failed", destination: account.stripeAccountId, transferredMinor: held.booking.inspectorShareMinor });
+    const admin = await createTestUser({ roles: ["admin"] });
+    const adminCookie = await signIn(admin);
+
+    proxies.payments.set({ kind: "down" });
+    const retried = await post("/admin/payments", adminCookie, { intent: "retry-payout", bookingId: held.bookingId });
+    expect(retried.status).toBe(200);
+    const waiting = await until("a failed attempt recorded", async () => {
+      const [row] = await db.select().from(payouts).where(eq(payouts.bookingId, held.bookingId));
+      return row?.lastError ? row : undefined;
+    });
+    expect(waiting).toMatchObject({ status: "due", stripeTransferId: null });
+    expect(waiting.lastError).toMatch(/unavailable/);
+
+    proxies.payments.set({ kind: "pass" });
+    const paid = await until("the transfer made on a retry", async () => {
+      const [row] = await db.select().from(payouts).where(eq(payouts.bookingId, held.bookingId));
+      return row?.status === "transferred" ? row : undefined;
+    });
+    expect(paid.stripeTransferId).toMatch(/^tr_/);
+    const [booking] = await db.select().from(bookings).where(eq(bookings.id, held.bookingId));
+    expect(booking!.status).toBe("closed");
   });
 });
 
