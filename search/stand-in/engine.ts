@@ -483,8 +483,10 @@ export class SearchEngine {
     if (!withWords) {
       matches = allowed ? allowed.members() : Array.from({ length: table.size }, (_, n) => n);
     } else {
-      const measures = new Set(rankingSteps(state.settings.rankingRules as string[], [], true, request.matchingStrategy).flatMap((step) => (step.kind === "text" ? [step.key] : [])));
-      textMatches = state.text.search(query, request.matchingStrategy, measures);
+      const order = rankingSteps(state.settings.rankingRules as string[], [], true, request.matchingStrategy).flatMap((step) => (step.kind === "text" ? [step.key] : []));
+      const firstPositional = order.findIndex((key) => key === "proximity" || key === "attributeRank" || key === "wordPosition");
+      const before = (key: keyof TextMatch) => firstPositional >= 0 && order.indexOf(key) >= 0 && order.indexOf(key) < firstPositional;
+      textMatches = state.text.search(query, request.matchingStrategy, new Set(order), { byTypo: before("typos"), byExactness: before("inexactWords") });
       matches = [];
       for (const id of textMatches.keys()) {
         const n = table.numberOfKey(id);

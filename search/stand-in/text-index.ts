@@ -246,7 +246,12 @@ export class TextIndex {
    * The matching documents (by key) with what the ranking rules compare; `wanted` names the measures the
    * index's ranking rules use (the others are left at 0, which saves their cost).
    */
-  search(query: string, matchingStrategy: MatchingStrategy, wanted: ReadonlySet<keyof TextMatch> = allMeasures): Map<string, TextMatch> {
+  search(
+    query: string,
+    matchingStrategy: MatchingStrategy,
+    wanted: ReadonlySet<keyof TextMatch> = allMeasures,
+    narrowing: Narrowing = { byTypo: false, byExactness: false },
+  ): Map<string, TextMatch> {
     this.built ??= this.build();
     const built = this.built;
     const terms = tokenize(query).slice(0, MAX_QUERY_WORDS);
@@ -258,7 +263,11 @@ export class TextIndex {
 
     // Per query word: for each document, the fewest typos it matched with, whether it matched as typed,
     // and where (`own` once the occurrences list is a copy that may be extended).
-    type WordHit = { typos: number; asTyped: boolean; occurrences: Occurrence[]; own: boolean };
+    // `occurrences` are those of the derivations the positional measures may use: as the engine's rules
+    // hand a narrower query to the rules after them, a `typo` rule before them keeps each word's
+    // fewest-typo derivations, an `exactness` rule its as-typed one.
+    type WordHit = { typos: number; asTyped: boolean; occurrences: Occurrence[]; own: boolean; rank: number };
+    const rankOf = (typos: number, asTyped: boolean) => (narrowing.byExactness && asTyped ? -1 : narrowing.byTypo ? typos : 0);
     const hits = terms.map((term, index) => {
       const prefix = lastIsPrefix && index === terms.length - 1;
       const perDocument = new Map<string, WordHit>();
@@ -270,12 +279,17 @@ export class TextIndex {
           if (!usable.length) continue;
           const hit = perDocument.get(key);
           if (!hit) {
-            perDocument.set(key, { typos, asTyped, occurrences: usable, own: false });
+            perDocument.set(key, { typos, asTyped, occurrences: usable, own: false, rank: rankOf(typos, asTyped) });
           } else {
             hit.typos = Math.min(hit.typos, typos);
             hit.asTyped ||= asTyped;
-            if (!hit.own) [hit.occurrences, hit.own] = [[...hit.occurrences], true];
-            for (const occurrence of usable) hit.occurrences.push(occurrence);
+            const rank = rankOf(typos, asTyped);
+            if (rank < hit.rank) {
+              [hit.occurrences, hit.own, hit.rank] = [usable, false, rank];
+            } else if (rank === hit.rank) {
+              if (!hit.own) [hit.occurrences, hit.own] = [[...hit.occurrences], true];
+              for (const occurrence of usable) hit.occurrences.push(occurrence);
+            }
           }
         }
       }
@@ -347,6 +361,9 @@ export class TextIndex {
     return result;
   }
 }
+
+/** Which earlier rules narrow the words the positional measures (proximity, attribute rank, position) see. */
+export type Narrowing = { byTypo: boolean; byExactness: boolean };
 
 const allMeasures: ReadonlySet<keyof TextMatch> = new Set(["dropped", "typos", "proximity", "attributeRank", "wordPosition", "exactAttribute", "inexactWords"]);
 

@@ -144,6 +144,55 @@ const TEST_SET: Json[] = [
   { id: "P", title: "a very good match for a very good engine using the query hello world america", description: "hello world america unleashed" },
   { id: "Q", title: "hello world", description: "a hello world program generally is a computer program that outputs or displays the message hello world" },
 ];
+// crates/milli/src/search/new/tests/exactness.rs — the indexes its tests below use (searchable: text).
+const texts = (list: string[]): Json[] => list.map((text, id) => ({ id, text }));
+const ORDERED_WITH_TYPOS = texts([
+  "",
+  "the",
+  "the quack",
+  "the quack briwn",
+  "the quack briwn fox",
+  "the quack briwn fox jlmps",
+  "the quack briwn fox jlmps over",
+  "the quack briwn fox jlmps over the",
+  "the quack briwn fox jlmps over the lazy",
+  "the quack briwn fox jlmps over the lazy dog",
+  "",
+  "the",
+  "the quick",
+  "the quick brown",
+  "the quick brown fox",
+  "the quick brown fox jumps",
+  "the quick brown fox jumps over",
+  "the quick brown fox jumps over the",
+  "the quick brown fox jumps over the lazy",
+  "the quick brown fox jumps over the lazy dog",
+]);
+const VARYING_PROXIMITIES = texts([
+  "lazy jumps dog brown quick the over fox the",
+  "the quick brown fox jumps over the very lazy dog",
+  "the quick brown fox jumps over the lazy dog",
+  "dog brown quick the over fox the lazy",
+  "the quick brown fox over the very lazy dog",
+  "the quick brown fox over the lazy dog",
+  "brown quick the over fox",
+  "the very quick brown fox over",
+  "the quick brown fox over",
+]);
+const TYPO_AND_PREFIX = texts([
+  "expraordinarily quick brown fox",
+  "extraordinarily quick brown fox",
+  "extra quick brown fox",
+  "expraordinarily quack brown fox",
+  "expraordinapily quick brown fox",
+]);
+const PROXIMITY_BETWEEN_IGNORED = texts([
+  "lazy jumps dog brown quick the over fox the",
+  "lazy jumps dog brown quick the over fox the. quack briwn jlmps",
+  "lazy jumps dog brown quick the over fox the. quack briwn jlmps overt",
+]);
+const MILLI_EXACTNESS = `${MILLI_NEW}/exactness.rs`;
+
 const TEST_SET_SETTINGS = { searchableAttributes: ["title", "description"], rankingRules: ["typo"] };
 const MILLI_TYPO = "crates/milli/tests/search/typo_tolerance.rs";
 
@@ -461,6 +510,33 @@ export const engineCases: EngineCase[] = [
       { request: { q: FOX, matchingStrategy: "all" }, expect: { ids: [9, 21, 14, 17, 13, 10, 18, 16, 19, 15, 20, 22] } },
       { request: { q: "extravagant", matchingStrategy: "all" }, expect: { ids: [] } },
     ],
+  },
+
+  // ---------------------------------------------------------------------------------------------------
+  // Exactness (and `words` put before it when it is listed first)
+  {
+    from: `${MILLI_EXACTNESS} › test_words_after_exactness`,
+    documents: ORDERED_WITH_TYPOS,
+    settings: { searchableAttributes: ["text"], rankingRules: ["exactness", "words"] },
+    searches: [{ request: { q: FOX, matchingStrategy: "last" }, expect: { ids: [19, 9, 18, 8, 17, 16, 6, 7, 15, 5, 14, 4, 13, 3, 12, 2, 1, 11] } }],
+  },
+  {
+    from: `${MILLI_EXACTNESS} › test_proximity_after_exactness`,
+    documents: VARYING_PROXIMITIES,
+    settings: { searchableAttributes: ["text"], rankingRules: ["exactness", "words", "proximity"] },
+    searches: [{ request: { q: FOX, matchingStrategy: "last" }, expect: { ids: [2, 1, 0, 4, 5, 8, 7, 3, 6] } }],
+  },
+  {
+    from: `${MILLI_EXACTNESS} › test_proximity_after_exactness (proximity between ignored terms)`,
+    documents: PROXIMITY_BETWEEN_IGNORED,
+    settings: { searchableAttributes: ["text"], rankingRules: ["exactness", "words", "proximity"] },
+    searches: [{ request: { q: FOX, matchingStrategy: "last" }, expect: { ids: [0, 1, 2] } }],
+  },
+  {
+    from: `${MILLI_EXACTNESS} › test_exactness_followed_by_typo_prefer_no_typo_prefix`,
+    documents: TYPO_AND_PREFIX,
+    settings: { searchableAttributes: ["text"], rankingRules: ["exactness", "words", "typo"] },
+    searches: [{ request: { q: "quick brown fox extra", matchingStrategy: "last" }, expect: { ids: [2, 1, 0, 4, 3] } }],
   },
 
   // ---------------------------------------------------------------------------------------------------
