@@ -45,7 +45,7 @@ const styles = `
   .due { margin: 12px 0 0; padding-left: 18px; font-size: 14px; color: #46514b; }
 `;
 
-function page(title: string, body: string): string {
+function page(title: string, body: string, notice = "<strong>Test payment page — local stand-in.</strong> No real card is charged."): string {
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -55,7 +55,7 @@ function page(title: string, body: string): string {
 <style>${styles}</style>
 </head>
 <body>
-<div class="notice" role="note"><strong>Test payment page — local stand-in.</strong> No real card is charged.</div>
+<div class="notice" role="note">${notice}</div>
 <main>${body}</main>
 </body>
 </html>`;
@@ -163,5 +163,5 @@ export function renderOnboardingPage(account: Account | undefined, token?: strin
   </form>
 </section>
 <p class="meta">Account ${escape(account.id)}</p>`;
-  return page("Set up payouts", body);
+  return page("Set up payouts", body, "<strong>Test set-up page — local stand-in.</strong> No identity or bank details are collected.");
 }
