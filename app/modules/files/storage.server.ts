@@ -53,10 +53,15 @@ async function call<T>(operation: () => Promise<T>): Promise<T> {
   }
 }
 
-/** A URL the browser can PUT one object to, valid for `expiresInSeconds`. */
-export function presignUpload({ key, contentType, expiresInSeconds = 900 }: { key: string; contentType: string; expiresInSeconds?: number }) {
-  return getSignedUrl(storage(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), {
+/**
+ * A URL the browser can PUT one object to, valid for `expiresInSeconds`. The declared size and type are
+ * signed (Content-Length and Content-Type in SignedHeaders), so S3 refuses a body of another size or type.
+ * The local stand-in (s3rver) does not check V4 signatures; the size is checked again when the upload is confirmed.
+ */
+export function presignUpload({ key, contentType, contentLength, expiresInSeconds = 900 }: { key: string; contentType: string; contentLength: number; expiresInSeconds?: number }) {
+  return getSignedUrl(storage(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType, ContentLength: contentLength }), {
     expiresIn: expiresInSeconds,
+    signableHeaders: new Set(["content-type", "content-length"]),
   });
 }
 

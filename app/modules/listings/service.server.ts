@@ -257,9 +257,9 @@ function refuseOversized(file: UploadRequest, maxBytes: number) {
 }
 
 /** A fresh upload key of the shape `uploadKeyPattern` accepts, and its presigned PUT address. */
-async function presignListingUpload(listingId: string, contentType: string) {
+async function presignListingUpload(listingId: string, file: UploadRequest) {
   const uploadKey = `uploads/${listingId}/${randomUUID()}`;
-  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType }), contentType };
+  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType, contentLength: file.size }), contentType: file.contentType };
 }
 
 export type UploadRequest = { fileName: string; size: number; contentType: string };
@@ -273,7 +273,7 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
   refuseOversized(file, PHOTO_MAX_BYTES);
   const [{ photos }] = await db.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
   if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
-  return presignListingUpload(listing.id, file.contentType);
+  return presignListingUpload(listing.id, file);
 }
 
 /** Checks the uploaded object by its content and keeps its variants; a rejected file leaves nothing behind. */
@@ -358,7 +358,7 @@ export async function startDocumentUpload(db: Database, actor: SessionUser, list
   refuseOversized(file, DOCUMENT_MAX_BYTES);
   const [{ documents }] = await db.select({ documents: count() }).from(listingDocuments).where(eq(listingDocuments.listingId, listing.id));
   if (documents >= DOCUMENTS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${DOCUMENTS_PER_LISTING} documents; delete one first.`);
-  return presignListingUpload(listing.id, file.contentType);
+  return presignListingUpload(listing.id, file);
 }
 
 export async function confirmDocumentUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {

@@ -53,7 +53,7 @@ export async function startSetupPhotoUpload(db: Database, inspector: SessionUser
   if (!(PHOTO_TYPES as readonly string[]).includes(file.contentType)) throw new RejectedFileError(`${file.fileName} is not a JPEG, PNG or WebP photo.`);
   if (file.size > PHOTO_MAX_BYTES) throw new RejectedFileError(`${file.fileName} is ${formatBytes(file.size)}, over the ${formatBytes(PHOTO_MAX_BYTES)} limit.`);
   const uploadKey = `uploads/reports/${bookingId.replace(/[^A-Za-z0-9-]/g, "")}/${randomUUID()}`;
-  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType }), contentType: file.contentType };
+  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType, contentLength: file.size }), contentType: file.contentType };
 }
 
 export async function confirmSetupPhotoUpload(db: Database, inspector: SessionUser, bookingId: string, upload: { testCode: string; uploadKey: string }) {

@@ -9,7 +9,7 @@ import { hasGpsPointer, hugePng, jpegWithGps, svgDrawing, textPretendingToBeJpeg
 /** Puts bytes into the bucket the way a browser does: a PUT to a presigned URL. */
 async function uploadAsBrowser(bytes: Buffer, contentType: string) {
   const uploadKey = `uploads/${randomUUID()}/${randomUUID()}`;
-  const url = await presignUpload({ key: uploadKey, contentType });
+  const url = await presignUpload({ key: uploadKey, contentType, contentLength: bytes.length });
   const response = await fetch(url, { method: "PUT", body: new Uint8Array(bytes), headers: { "content-type": contentType } });
   expect(response.status).toBe(200);
   return uploadKey;

@@ -69,3 +69,15 @@ describe("set-up photos are filed under a test of the report's profile", () => {
     expect((await confirm.json()).error).toMatch(/not a test of this report's profile/);
   });
 });
+
+describe("the presigned upload address", () => {
+  it("signs the declared size and type, so storage refuses another body (S3 checks; the local stand-in does not)", async () => {
+    const seller = await createTestUser({ roles: ["seller"] });
+    const cookie = await signInCookie(seller.email, seller.password);
+    const listingId = await createListingAs(cookie);
+    const presign = await postForm(`/sell/listings/${listingId}/photos`, cookie, { intent: "presign", fileName: "bed.jpg", size: "123456", contentType: "image/jpeg" });
+    expect(presign.status).toBe(200);
+    const url = new URL(((await presign.json()) as { uploadUrl: string }).uploadUrl);
+    expect(url.searchParams.get("X-Amz-SignedHeaders")?.split(";")).toEqual(expect.arrayContaining(["content-length", "content-type", "host"]));
+  });
+});
