@@ -6,6 +6,7 @@ import {
   profileShape,
   sortedProfile,
   straightnessEvaluation,
+  runRanges,
   windowRuns,
   type ProfilePoint,
   type StraightnessReference,
@@ -121,31 +122,14 @@ function range(points: readonly ProfilePoint[]): number {
   return max - min;
 }
 
-/**
- * Worst max − min of the readings over any window of `window` mm. The runs slide forwards (both ends only
- * move right), so two monotonic queues give each run's highest and lowest reading in O(1): O(n) in all.
- */
+/** Worst max − min of the readings over any window of `window` mm, O(n). */
 function worstRangeOver(sorted: readonly ProfilePoint[], window: number): { value: number; from: number; to: number } | null {
+  const runs = windowRuns(sorted, window);
+  const ranges = runRanges(sorted, runs);
   let worst: { value: number; from: number; to: number } | null = null;
-  const highest: number[] = []; // indices, readings decreasing
-  const lowest: number[] = []; // indices, readings increasing
-  let highHead = 0;
-  let lowHead = 0;
-  let added = -1;
-  for (const run of windowRuns(sorted, window)) {
-    while (added < run.to) {
-      added++;
-      const y = sorted[added]!.y;
-      while (highest.length > highHead && sorted[highest[highest.length - 1]!]!.y <= y) highest.pop();
-      highest.push(added);
-      while (lowest.length > lowHead && sorted[lowest[lowest.length - 1]!]!.y >= y) lowest.pop();
-      lowest.push(added);
-    }
-    while (highest[highHead]! < run.from) highHead++;
-    while (lowest[lowHead]! < run.from) lowHead++;
-    const value = sorted[highest[highHead]!]!.y - sorted[lowest[lowHead]!]!.y;
-    if (worst === null || value > worst.value) worst = { value, from: sorted[run.from]!.x, to: sorted[run.to]!.x };
-  }
+  runs.forEach((run, i) => {
+    if (worst === null || ranges[i]! > worst.value) worst = { value: ranges[i]!, from: sorted[run.from]!.x, to: sorted[run.to]!.x };
+  });
   return worst;
 }
 

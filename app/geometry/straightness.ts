@@ -245,8 +245,37 @@ export function windowRuns(sorted: readonly ProfilePoint[], window: number): Run
 }
 
 /**
+ * Max − min of the readings of each run, in order. The runs slide forwards (both ends only move right), so
+ * two monotonic queues give each run's highest and lowest reading in O(1): O(n) in all.
+ */
+export function runRanges(sorted: readonly ProfilePoint[], runs: readonly Run[]): number[] {
+  const ranges: number[] = [];
+  const highest: number[] = []; // indices, readings decreasing
+  const lowest: number[] = []; // indices, readings increasing
+  let highHead = 0;
+  let lowHead = 0;
+  let added = -1;
+  for (const run of runs) {
+    while (added < run.to) {
+      added++;
+      const y = sorted[added]!.y;
+      while (highest.length > highHead && sorted[highest[highest.length - 1]!]!.y <= y) highest.pop();
+      highest.push(added);
+      while (lowest.length > lowHead && sorted[lowest[lowest.length - 1]!]!.y >= y) lowest.pop();
+      lowest.push(added);
+    }
+    while (highest[highHead]! < run.from) highHead++;
+    while (lowest[lowHead]! < run.from) lowHead++;
+    ranges.push(sorted[highest[highHead]!]!.y - sorted[lowest[lowHead]!]!.y);
+  }
+  return ranges;
+}
+
+/**
  * Worst straightness over any window of `window` mm, each window judged against its own reference line.
- * O(n · k) for k stations per window; the counts in limits.ts keep that small.
+ * O(n · k) for k stations per window at worst; the counts in limits.ts keep that small. A minimum zone is
+ * never wider than the window's own range (the band at slope 0), so windows whose range cannot beat the
+ * worst so far are skipped.
  */
 export function localStraightness(
   points: readonly ProfilePoint[],
@@ -255,7 +284,10 @@ export function localStraightness(
 ): { deviation: number; from: number; to: number } | null {
   const sorted = sortedProfile(points);
   let worst: { deviation: number; from: number; to: number } | null = null;
-  for (const run of windowRuns(sorted, window)) {
+  const runs = windowRuns(sorted, window);
+  const ranges = reference === "minimum-zone" ? runRanges(sorted, runs) : null;
+  for (const [i, run] of runs.entries()) {
+    if (ranges && worst !== null && ranges[i]! <= worst.deviation) continue;
     const { deviation } = evaluateRun(sorted, run, reference);
     if (worst === null || deviation > worst.deviation) {
       worst = { deviation, from: sorted[run.from]!.x, to: sorted[run.to]!.x };
