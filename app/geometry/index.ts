@@ -90,3 +90,10 @@ export {
 } from "./level-grid";
 export { squarenessOfTravels, travelSlope, type SquarenessEvaluation, type TravelReading } from "./squareness";
 export { parallelismToTravel, type ParallelismEvaluation } from "./parallelism";
+export {
+  positioningAccuracy,
+  POSITIONING_LIMITS,
+  type PositioningAtTarget,
+  type PositioningEvaluation,
+  type PositioningInput,
+} from "./positioning";
