@@ -12,6 +12,7 @@ import {
   type StraightnessReference,
 } from "./straightness";
 import { sourceLabel } from "./sources";
+import { evaluateSurface } from "./surface-tests";
 import { toleranceOver } from "./tolerance";
 import type {
   Conditions,
@@ -37,6 +38,7 @@ export const KINDS_FOR_METHOD: Readonly<Record<EvaluationMethod, readonly Measur
   "mandrel-inclination": ["mandrel"],
   "near-far": ["near-far"],
   "centre-height": ["centre-height"],
+  flatness: ["surface"],
 };
 
 // Comparisons allow for binary floating-point noise (e.g. 0.0008 in × 25 400), never for rounding.
@@ -167,6 +169,7 @@ interface Evaluated {
   measuringLength: number | null;
   local: { value: number; from: number; to: number } | null | undefined;
   straightness?: TestResult["straightness"];
+  flatness?: TestResult["flatness"];
   window?: { from: number; to: number };
   direction: Omit<DirectionVerdict, "allowed">;
   warnings: Warning[];
@@ -242,6 +245,8 @@ function evaluateReadings(test: ProfileTest, measurement: TestMeasurement, resol
     }
     case "profile":
       return evaluateProfile(test, measurement.points, measurement.reference, resolution);
+    case "surface":
+      return { ...evaluateSurface(test, measurement), local: undefined, direction: UNSIGNED_DIRECTION };
   }
 }
 
@@ -396,6 +401,7 @@ export function evaluateTest(
     local,
     ...(evaluated.straightness ? { straightness: evaluated.straightness } : {}),
     ...(evaluated.window ? { window: evaluated.window } : {}),
+    ...(evaluated.flatness ? { flatness: evaluated.flatness } : {}),
     resolution,
     warnings,
     sources: {

@@ -45,6 +45,8 @@ function convertMeasurement(m: TestMeasurement): TestMeasurement {
       };
     case "centre-height":
       return { ...m, ...resolution, headstockEnd: um(m.headstockEnd), tailstockEnd: um(m.tailstockEnd) };
+    case "surface":
+      return { ...m, ...resolution, points: m.points.map((p) => ({ x: mm(p.x), y: mm(p.y), z: um(p.z) })) };
   }
 }
 

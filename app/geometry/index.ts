@@ -30,6 +30,8 @@ export {
   CENTRE_LATHE_NORMAL,
   CENTRE_LATHE_PRECISION,
   CENTRE_LATHE_PRECISION_V1,
+  KNEE_MILL_NORMAL,
+  SURFACE_GRINDER_NORMAL,
   findProfile,
   newestVersions,
   makerChartFits,

@@ -95,6 +95,15 @@ export function* numbersOf(measurement: {
         }
       }
       return;
+    case "surface":
+      if (Array.isArray(measurement.points)) {
+        for (const [i, point] of (measurement.points as Array<Record<string, unknown>>).entries()) {
+          yield [["points", i, "x"], point?.x, "station"];
+          yield [["points", i, "y"], point?.y, "station"];
+          yield [["points", i, "z"], point?.z, "reading"];
+        }
+      }
+      return;
     case "mandrel":
       for (const end of ["near", "far"] as const) {
         const pair = measurement[end] as Record<string, unknown> | undefined;

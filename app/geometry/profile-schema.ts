@@ -13,8 +13,8 @@ import type {
   ToleranceProfile,
 } from "./types";
 
-export const MACHINE_CATEGORIES = ["centre-lathe", "toolroom-lathe"] as const satisfies readonly MachineCategory[];
-export const MACHINE_DIMENSIONS = ["swingOverBedMm", "distanceBetweenCentresMm"] as const satisfies readonly MachineDimension[];
+export const MACHINE_CATEGORIES = ["centre-lathe", "toolroom-lathe", "milling-machine", "surface-grinder"] as const satisfies readonly MachineCategory[];
+export const MACHINE_DIMENSIONS = ["swingOverBedMm", "distanceBetweenCentresMm", "tableLengthMm"] as const satisfies readonly MachineDimension[];
 export const EVALUATION_METHODS = [
   "run-out",
   "straightness",
@@ -24,6 +24,7 @@ export const EVALUATION_METHODS = [
   "mandrel-inclination",
   "near-far",
   "centre-height",
+  "flatness",
 ] as const satisfies readonly EvaluationMethod[];
 export const ALLOWED_DIRECTIONS = ["any", "either", "positive", "convex", "concave"] as const satisfies readonly AllowedDirection[];
 export const KEY_FIGURE_NAMES = [
@@ -33,6 +34,8 @@ export const KEY_FIGURE_NAMES = [
   "spindleParallelismHorizontal",
   "centreHeight",
   "bedStraightness",
+  "tableFlatness",
+  "travelSquareness",
 ] as const satisfies readonly KeyFigureName[];
 const CONFIDENCES = ["published", "manufacturer", "common-practice", "from-memory"] as const satisfies readonly SourceConfidence[];
 

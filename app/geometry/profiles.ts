@@ -1,6 +1,7 @@
 import { GeometryInputError, requirePositive } from "./errors";
 import { compareSerials, MACHINE_CATEGORIES } from "./profile-schema";
 import { roundToStep } from "./tolerance";
+import { KNEE_MILL_NORMAL as KNEE_MILL_DATA, SURFACE_GRINDER_NORMAL as SURFACE_GRINDER_DATA } from "./profiles-milling-grinding";
 import type { MachineForProfile, ProfileTest, ToleranceProfile, ToleranceSpec, ValueSource } from "./types";
 
 // The built-in profiles: the engine's own data, seeded into the database as published versions (the app
@@ -502,7 +503,16 @@ export const CENTRE_LATHE_PRECISION: ToleranceProfile = deepFreeze({
 });
 
 /** Every built-in profile version, oldest first; the seed publishes each once. */
-export const BUILT_IN_PROFILES: readonly ToleranceProfile[] = Object.freeze([CENTRE_LATHE_NORMAL, CENTRE_LATHE_PRECISION_V1, CENTRE_LATHE_PRECISION]);
+export const KNEE_MILL_NORMAL: ToleranceProfile = deepFreeze(KNEE_MILL_DATA);
+export const SURFACE_GRINDER_NORMAL: ToleranceProfile = deepFreeze(SURFACE_GRINDER_DATA);
+
+export const BUILT_IN_PROFILES: readonly ToleranceProfile[] = Object.freeze([
+  CENTRE_LATHE_NORMAL,
+  CENTRE_LATHE_PRECISION_V1,
+  CENTRE_LATHE_PRECISION,
+  KNEE_MILL_NORMAL,
+  SURFACE_GRINDER_NORMAL,
+]);
 
 export function findProfile(profiles: readonly ToleranceProfile[], key: string, version: number): ToleranceProfile | undefined {
   return profiles.find((profile) => profile.key === key && profile.version === version);

@@ -3,6 +3,7 @@ import { KINDS_FOR_METHOD } from "./acceptance-tests";
 import { MEASUREMENT_LIMITS, measurementLimitIssues } from "./limits";
 import { findProfile } from "./profiles";
 import { STRAIGHTNESS_REFERENCES } from "./straightness";
+import { FLATNESS_LIMITS, FLATNESS_REFERENCES } from "./flatness";
 import type { ReportMeasurements, TestMeasurement, ToleranceProfile } from "./types";
 
 // One schema per measurement kind, shared by the API and the forms. Values are in the request's units:
@@ -137,7 +138,45 @@ export const centreHeightMeasurementSchema = z.object({
   resolution,
 });
 
-const MEASUREMENT_KINDS = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height"] as const;
+export const surfaceMeasurementSchema = z.object({
+  kind: z.literal("surface"),
+  points: z
+    .array(
+      z.object({
+        x: numberField("The x of a point", LENGTH_UNIT),
+        y: numberField("The y of a point", LENGTH_UNIT),
+        z: numberField("The height", READING_UNIT),
+      }),
+      { error: "Give the heights as a list of { x, y, z } points." },
+    )
+    .min(3, "Give heights at three places at least, not all on one line.")
+    .max(
+      FLATNESS_LIMITS.pointsPerSurface,
+      `At most ${thousands(FLATNESS_LIMITS.pointsPerSurface)} points per surface (a 50 × 50 grid); read a coarser grid.`,
+    )
+    .superRefine((points, ctx) => {
+      const seen = new Map<string, number>();
+      points.forEach((point, i) => {
+        const key = `${point.x}|${point.y}`;
+        const first = seen.get(key);
+        if (first !== undefined) {
+          ctx.addIssue({
+            code: "custom",
+            path: [i, "x"],
+            message: `The place x ${point.x}, y ${point.y} is given twice (points ${first + 1} and ${i + 1}); read each place once.`,
+          });
+        } else seen.set(key, i);
+      });
+    }),
+  reference: z
+    .enum(FLATNESS_REFERENCES as unknown as ["least-squares", "minimum-zone"], {
+      error: `The reference plane must be one of ${FLATNESS_REFERENCES.join(", ")}.`,
+    })
+    .optional(),
+  resolution,
+});
+
+const MEASUREMENT_KINDS = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface"] as const;
 
 export const testMeasurementSchema = z.discriminatedUnion(
   "kind",
@@ -149,6 +188,7 @@ export const testMeasurementSchema = z.discriminatedUnion(
     mandrelMeasurementSchema,
     nearFarMeasurementSchema,
     centreHeightMeasurementSchema,
+    surfaceMeasurementSchema,
   ],
   { error: `Say which kind of readings these are: one of ${MEASUREMENT_KINDS.join(", ")}.` },
 );

@@ -1,3 +1,4 @@
+import type { FlatnessReference } from "./flatness";
 import type { ProfileShape, ReferenceLine, StraightnessReference } from "./straightness";
 
 // ---------------------------------------------------------------------------------------------
@@ -49,7 +50,8 @@ export type EvaluationMethod =
   | "level-range" // max − min of level tilts along the travel, µm/m
   | "mandrel-inclination" // mean(far) − mean(near), 0° and 180°
   | "near-far" // far − near, element that does not turn
-  | "centre-height"; // tailstock end − headstock end
+  | "centre-height" // tailstock end − headstock end
+  | "flatness"; // width of the zone holding a surface's heights (least squares or minimum zone)
 
 /** "any": the value has no sign (run-out); "either": signed, both ways allowed. */
 export type AllowedDirection = "any" | "either" | "positive" | "convex" | "concave";
@@ -80,13 +82,15 @@ export type KeyFigureName =
   | "spindleParallelismVertical"
   | "spindleParallelismHorizontal"
   | "centreHeight"
-  | "bedStraightness";
+  | "bedStraightness"
+  | "tableFlatness"
+  | "travelSquareness";
 
 /** Machine kinds the engine has evaluation methods for; a new kind is a new entry here plus its profiles. */
-export type MachineCategory = "centre-lathe" | "toolroom-lathe";
+export type MachineCategory = "centre-lathe" | "toolroom-lathe" | "milling-machine" | "surface-grinder";
 
 /** Sizes a profile's scope can be bounded by, in mm, named as the listing names them. */
-export type MachineDimension = "swingOverBedMm" | "distanceBetweenCentresMm";
+export type MachineDimension = "swingOverBedMm" | "distanceBetweenCentresMm" | "tableLengthMm";
 
 /** The machine a report is for, as far as choosing a profile needs it. */
 export interface MachineForProfile {
@@ -207,6 +211,13 @@ export interface CentreHeightMeasurement extends MeasurementBase {
   tailstockEnd: number;
 }
 
+/** Heights (µm) at places (x, y mm) over a surface, e.g. a grid read with a level and summed (levelGridHeights). */
+export interface SurfaceMeasurement extends MeasurementBase {
+  kind: "surface";
+  points: { x: number; y: number; z: number }[];
+  reference?: FlatnessReference;
+}
+
 export type TestMeasurement =
   | SweepMeasurement
   | ExtremesMeasurement
@@ -214,7 +225,8 @@ export type TestMeasurement =
   | LevelMeasurement
   | MandrelMeasurement
   | NearFarMeasurement
-  | CentreHeightMeasurement;
+  | CentreHeightMeasurement
+  | SurfaceMeasurement;
 
 export type MeasurementKind = TestMeasurement["kind"];
 
@@ -286,6 +298,14 @@ export interface TestResult {
     reference: StraightnessReference;
     line: ReferenceLine;
     shape: ProfileShape;
+    above: number;
+    below: number;
+  };
+  flatness?: {
+    reference: FlatnessReference;
+    /** The reference plane: z = slopeX·x + slopeY·y + offset (µm, mm). */
+    plane: { slopeX: number; slopeY: number; offset: number };
+    /** Highest and lowest height above the plane, µm. */
     above: number;
     below: number;
   };

@@ -94,7 +94,7 @@ export function settingsFromForm(value: unknown): unknown {
   const scope = isObject(value.scope) ? value.scope : {};
   const rules = isObject(value.rules) ? value.rules : {};
   const maker = isObject(scope.maker) ? scope.maker : {};
-  const limits = (["swingOverBedMm", "distanceBetweenCentresMm"] as const).flatMap((dimension) => {
+  const limits = (["swingOverBedMm", "distanceBetweenCentresMm", "tableLengthMm"] as const).flatMap((dimension) => {
     const typed = isObject(scope.limits) ? scope.limits[dimension] : undefined;
     return blank(typed) ? [] : [{ dimension, maxMm: typedNumber(typed) }];
   });
@@ -183,7 +183,7 @@ export function settingsToForm(profile: ToleranceProfile) {
     category: profile.category,
     accuracyClass: profile.accuracyClass,
     scope: {
-      limits: { swingOverBedMm: limit("swingOverBedMm"), distanceBetweenCentresMm: limit("distanceBetweenCentresMm") },
+      limits: { swingOverBedMm: limit("swingOverBedMm"), distanceBetweenCentresMm: limit("distanceBetweenCentresMm"), tableLengthMm: limit("tableLengthMm") },
       maker: {
         make: profile.scope.maker?.make ?? "",
         model: profile.scope.maker?.model ?? "",
@@ -268,7 +268,7 @@ export function settingsRows(profile: ToleranceProfile): Array<[string, string]>
   return [
     ["Title", profile.title],
     ["Category and class", `${profile.category}, ${profile.accuracyClass}`],
-    ["Size covered", profile.scope.limits.map((limit) => `${limit.dimension === "swingOverBedMm" ? "swing" : "between centres"} ≤ ${limit.maxMm} mm`).join(", ") || "any size"],
+    ["Size covered", profile.scope.limits.map((limit) => `${limit.dimension === "swingOverBedMm" ? "swing" : limit.dimension === "tableLengthMm" ? "table length" : "between centres"} ≤ ${limit.maxMm} mm`).join(", ") || "any size"],
     ["Maker's chart", maker ? `${maker.make} ${maker.model}${maker.serialFrom || maker.serialTo ? `, serial ${maker.serialFrom ?? "…"} to ${maker.serialTo ?? "…"}` : ""}: ${maker.chart}` : "none (a general class)"],
     ["Scope source", describeSource(profile.scope.source)],
     ["Minimum tolerance", `${µm(profile.rules.minimumTolerance.value)} — ${describeSource(profile.rules.minimumTolerance.source)}`],

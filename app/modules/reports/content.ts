@@ -68,6 +68,8 @@ export interface ReportContent {
 export function engineCategory(listingCategory: string): MachineCategory | null {
   if (listingCategory === "centre_lathe") return "centre-lathe";
   if (listingCategory === "toolroom_lathe") return "toolroom-lathe";
+  if (listingCategory === "milling_machine") return "milling-machine";
+  if (listingCategory === "surface_grinder") return "surface-grinder";
   return null;
 }
 

@@ -232,6 +232,8 @@ const text = (value: number) => String(value);
 export function entryOf(measurement: TestMeasurement, instrumentId: string, notes = ""): Partial<TestEntry> & Pick<TestEntry, "kind"> {
   const base = { instrumentId, notes };
   switch (measurement.kind) {
+    case "surface":
+      throw new Error("Heights over a surface are not entered through the form.");
     case "sweep":
       return { ...base, kind: "sweep", readings: measurement.readings.map(text) };
     case "extremes":

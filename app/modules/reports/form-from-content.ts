@@ -1,11 +1,12 @@
 // A correction starts from the signed readings: the signed content turned back into the entry form.
 import { micrometresToInches, type TestMeasurement } from "~/geometry";
 import type { ReportContent } from "./content";
-import { emptyTestEntry, instrumentReads, reportFormSchema, type ReportForm, type TestEntry } from "./form";
+import { emptyTestEntry, instrumentReads, isEntryKind, reportFormSchema, type ReportForm, type TestEntry } from "./form";
 
 const text = (value: number | null | undefined) => (value === null || value === undefined ? "" : String(value));
 
 function entryOf(measurement: TestMeasurement): TestEntry {
+  if (!isEntryKind(measurement.kind)) throw new Error("Heights over a surface are not entered through the form.");
   const entry = emptyTestEntry(measurement.kind);
   switch (measurement.kind) {
     case "sweep":

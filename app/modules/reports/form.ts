@@ -62,7 +62,10 @@ export const instrumentEntrySchema = z.object({
   calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
 });
 
+// Heights over a surface ("surface") are scored by the engine and the API; the form does not enter grids yet.
 const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height"] as const;
+export type EntryKind = (typeof kinds)[number];
+export const isEntryKind = (kind: MeasurementKind): kind is EntryKind => (kinds as readonly string[]).includes(kind);
 
 export const testEntrySchema = z.object({
   kind: z.enum(kinds, { error: "Choose how the readings were taken." }),
@@ -117,7 +120,7 @@ export type ReportForm = z.output<typeof reportFormSchema>;
 export type TestEntry = z.output<typeof testEntrySchema>;
 export type InstrumentEntry = z.output<typeof instrumentEntrySchema>;
 
-export function emptyTestEntry(kind: MeasurementKind): TestEntry {
+export function emptyTestEntry(kind: EntryKind): TestEntry {
   return testEntrySchema.parse({ kind });
 }
 
@@ -351,7 +354,7 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
 }
 
 function incompleteMessage(entry: TestEntry): Record<string, string[]> {
-  const message: Record<MeasurementKind, string> = {
+  const message: Record<EntryKind, string> = {
     sweep: "Give at least two readings over a full revolution.",
     extremes: "Give both the highest and the lowest reading.",
     profile: "Give readings at two stations at least.",

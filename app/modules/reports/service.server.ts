@@ -127,8 +127,10 @@ const NO_PROFILE_YET = "No profile covers this machine yet; staff can add one. U
 
 const briefOf = (profile: ToleranceProfile) => ({ key: profile.key, version: profile.version, title: profile.title, makersChart: profile.scope.maker?.chart ?? null });
 
+const DIMENSION_WORDS = { swingOverBedMm: "swing", distanceBetweenCentresMm: "between centres", tableLengthMm: "table length" } as const;
+
 function scopeText(profile: ToleranceProfile) {
-  const limits = profile.scope.limits.map((limit) => `${limit.dimension === "swingOverBedMm" ? "swing" : "between centres"} up to ${limit.maxMm} mm`);
+  const limits = profile.scope.limits.map((limit) => `${DIMENSION_WORDS[limit.dimension]} up to ${limit.maxMm} mm`);
   return limits.length ? limits.join(", ") : "any size";
 }
 
@@ -141,6 +143,16 @@ export function suggestionFor(listing: BookingForReport["listing"], offered: rea
   const category = engineCategory(listing.category);
   if (!category) {
     return { profile: null, reason: `No tolerance profile covers a ${categoryName} yet; staff can add one. Until then, choose the nearest one and say why.`, uncovered: true };
+  }
+  if (category === "milling-machine" || category === "surface-grinder") {
+    // Listings do not record a table length yet: the profile is chosen by category, and the inspector checks the size.
+    const profile = suggestProfile(offered, { category, dimensions: {}, make: listing.make, model: listing.model, serialNumber: listing.serialNumber });
+    if (!profile) return { profile: null, reason: `No ${categoryName} profile yet. ${NO_PROFILE_YET}`, uncovered: true };
+    return {
+      profile: briefOf(profile),
+      reason: `The listing gives no table length, so the size could not be checked; measure the table and confirm the profile fits (${scopeText(profile)}).`,
+      uncovered: false,
+    };
   }
   const swing = listing.swingOverBedMm;
   const centres = listing.distanceBetweenCentresMm;

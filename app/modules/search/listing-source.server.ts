@@ -83,6 +83,8 @@ const emptyFigures: KeyFigures = {
   spindleParallelismHorizontal: null,
   centreHeight: null,
   bedStraightness: null,
+  tableFlatness: null,
+  travelSquareness: null,
 };
 
 function toSource(row: JoinedRow): SourceListing {

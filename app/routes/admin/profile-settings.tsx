@@ -83,6 +83,7 @@ export default function ProfileSettingsPage() {
               values={values}
               errors={{ ...errors, "scope.limits.distanceBetweenCentresMm": errors["scope.limits[1].maxMm"] }}
             />
+            <Field name="scope.limits.tableLengthMm" label="Longest table (mm)" hint="Empty: not limited. Milling machines and grinders" inputMode="decimal" values={values} errors={{ ...errors, "scope.limits.tableLengthMm": errors["scope.limits[2].maxMm"] }} />
             <div className="sm:col-span-2">
               <SourceFields name="scope.source" legend="Source of the scope" values={values} errors={errors} />
             </div>

@@ -61,6 +61,7 @@ const METHOD_LABELS: Record<(typeof EVALUATION_METHODS)[number], string> = {
   "mandrel-inclination": "Mandrel at 0° and 180°, near and far",
   "near-far": "Near and far reading",
   "centre-height": "Centre height, tailstock against headstock",
+  flatness: "Flatness of a surface (zone holding its heights)",
 };
 
 export default function ProfileTestPage() {

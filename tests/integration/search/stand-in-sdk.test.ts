@@ -55,6 +55,8 @@ function report(id: string, grade: SearchableReport["grade"], spindleRunOut: num
       spindleParallelismHorizontal: 4,
       centreHeight: 12,
       bedStraightness: 9,
+      tableFlatness: null,
+      travelSquareness: null,
     },
   };
 }

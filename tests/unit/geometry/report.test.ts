@@ -49,6 +49,8 @@ describe("scoring a whole report", () => {
       spindleParallelismHorizontal: 5, // mean(6, 4) − mean(1, −1)
       centreHeight: 15,
       bedStraightness: 10,
+      tableFlatness: null,
+      travelSquareness: null,
     });
     expect(score.missing).toEqual([]);
     expect(score.outOfTolerance).toEqual([]);

@@ -41,6 +41,8 @@ const report: SearchableReport = {
     spindleParallelismHorizontal: 3,
     centreHeight: 11,
     bedStraightness: null,
+    tableFlatness: null,
+    travelSquareness: null,
   },
 };
 

@@ -4,7 +4,7 @@ import { useId, useState, type ReactNode } from "react";
 import { Badge, Button, cx, SelectField, TextAreaField } from "~/components/ui";
 import { KINDS_FOR_METHOD, toMetric, type MeasurementKind, type ProfileTest } from "~/geometry";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, isSignedValue } from "../../format";
-import { emptyTestEntry, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestPreview } from "../../form";
+import { emptyTestEntry, isEntryKind, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestPreview } from "../../form";
 import { RatioBar } from "../grade";
 import { TestPlot } from "../plots";
 import { SetupPhoto, type SetupPhotoView } from "./setup-photo";
@@ -17,6 +17,7 @@ const KIND_LABELS: Record<MeasurementKind, string> = {
   mandrel: "Near and far, 0° and 180°",
   "near-far": "Near and far",
   "centre-height": "Both ends",
+  surface: "Heights over a grid",
 };
 
 type Errors = Record<string, string[]>;
@@ -445,7 +446,7 @@ export function TestCard({
   disabled: boolean;
 }) {
   const { test, result } = preview;
-  const kinds = KINDS_FOR_METHOD[test.method];
+  const kinds = KINDS_FOR_METHOD[test.method].filter(isEntryKind);
   const current = entry ?? emptyTestEntry(kinds[0]!);
   const errors = { ...preview.check.errors, ...serverErrors };
   const labels = unitLabels(units);
