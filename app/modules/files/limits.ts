@@ -9,6 +9,10 @@ export const PHOTOS_PER_LISTING = 24;
 export const DOCUMENT_MAX_BYTES = 20 * 1024 * 1024;
 export const DOCUMENT_TYPES = ["application/pdf"] as const;
 export const DOCUMENTS_PER_LISTING = 10;
+/** Presigned upload addresses a listing may have outstanding (handed out, not yet confirmed or expired). */
+export const OUTSTANDING_UPLOADS_PER_LISTING = 30;
+/** How long a presigned upload address stays valid. */
+export const UPLOAD_URL_SECONDS = 900;
 
 export function formatBytes(bytes: number): string {
   const megabytes = bytes / (1024 * 1024);

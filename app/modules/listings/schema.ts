@@ -92,6 +92,19 @@ export const listingPhotos = pgTable(
 );
 
 // Manuals, earlier inspection reports and the like, as PDF.
+/** A presigned upload address handed out and not yet confirmed; a listing may have only so many at once. */
+export const uploadTickets = pgTable(
+  "upload_tickets",
+  {
+    uploadKey: text("upload_key").primaryKey(),
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+  },
+  (table) => [index("upload_tickets_listing_idx").on(table.listingId)],
+);
+
 export const listingDocuments = pgTable(
   "listing_documents",
   {

@@ -1,7 +1,7 @@
 // The listings domain: a seller's machines from draft to sale, their photos and documents, and what
 // buyers do with them (browse, ask, watch). Every function that changes a listing checks its owner.
 import { randomBytes, randomUUID } from "node:crypto";
-import { and, asc, count, desc, eq, inArray, max, sql } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, lt, max, sql } from "drizzle-orm";
 import { data } from "react-router";
 import type { Database } from "~/db/client.server";
 import { env } from "~/env.server";
@@ -12,10 +12,12 @@ import {
   DOCUMENT_MAX_BYTES,
   DOCUMENT_TYPES,
   DOCUMENTS_PER_LISTING,
+  OUTSTANDING_UPLOADS_PER_LISTING,
   formatBytes,
   PHOTO_MAX_BYTES,
   PHOTO_TYPES,
   PHOTOS_PER_LISTING,
+  UPLOAD_URL_SECONDS,
 } from "~/modules/files/limits";
 import { fileUrl } from "~/modules/files/serve.server";
 import { deleteObjects, presignUpload } from "~/modules/files/storage.server";
@@ -27,7 +29,7 @@ import { powerToKilowatts, weightToKilograms } from "~/modules/units/weight-powe
 import { labelOf, machineCategories } from "./catalogue";
 import type { ListingStatus } from "./statuses";
 import { InquiryEmail } from "./emails/inquiry";
-import { listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, type Listing } from "./schema";
+import { listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
 import type { ListingFormValues } from "./validation";
 
 export { RejectedFileError };
@@ -257,9 +259,26 @@ function refuseOversized(file: UploadRequest, maxBytes: number) {
 }
 
 /** A fresh upload key of the shape `uploadKeyPattern` accepts, and its presigned PUT address. */
-async function presignListingUpload(listingId: string, file: UploadRequest) {
+async function presignListingUpload(db: Database, listingId: string, file: UploadRequest, now = new Date()) {
   const uploadKey = `uploads/${listingId}/${randomUUID()}`;
-  return { uploadKey, uploadUrl: await presignUpload({ key: uploadKey, contentType: file.contentType, contentLength: file.size }), contentType: file.contentType };
+  // Each address handed out is a ticket; a listing holds only so many at once, so presigning in a loop cannot
+  // hand out storage without end.
+  await db.transaction(async (tx) => {
+    await tx.execute(sql`select id from ${listings} where ${listings.id} = ${listingId} for update`);
+    await tx.delete(uploadTickets).where(and(eq(uploadTickets.listingId, listingId), lt(uploadTickets.expiresAt, now)));
+    const [{ outstanding }] = await tx.select({ outstanding: count() }).from(uploadTickets).where(eq(uploadTickets.listingId, listingId));
+    if (outstanding >= OUTSTANDING_UPLOADS_PER_LISTING) {
+      throw new RejectedFileError(`${OUTSTANDING_UPLOADS_PER_LISTING} uploads to this listing are already under way; finish them, or wait ${UPLOAD_URL_SECONDS / 60} minutes.`);
+    }
+    await tx.insert(uploadTickets).values({ uploadKey, listingId, expiresAt: new Date(now.getTime() + UPLOAD_URL_SECONDS * 1000) });
+  });
+  const uploadUrl = await presignUpload({ key: uploadKey, contentType: file.contentType, contentLength: file.size, expiresInSeconds: UPLOAD_URL_SECONDS });
+  return { uploadKey, uploadUrl, contentType: file.contentType };
+}
+
+/** A confirmed (or refused) upload gives its ticket back. */
+async function returnTicket(db: Database, uploadKey: string) {
+  await db.delete(uploadTickets).where(eq(uploadTickets.uploadKey, uploadKey));
 }
 
 export type UploadRequest = { fileName: string; size: number; contentType: string };
@@ -273,13 +292,14 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
   refuseOversized(file, PHOTO_MAX_BYTES);
   const [{ photos }] = await db.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
   if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
-  return presignListingUpload(listing.id, file);
+  return presignListingUpload(db, listing.id, file);
 }
 
 /** Checks the uploaded object by its content and keeps its variants; a rejected file leaves nothing behind. */
 export async function confirmPhotoUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {
   const listing = await managedListing(db, actor, listingId);
   if (!uploadKeyPattern(listing.id).test(upload.uploadKey)) throw new RejectedFileError("This upload does not belong to this listing.");
+  await returnTicket(db, upload.uploadKey);
   const photoId = randomUUID();
   const accepted = await acceptUploadedPhoto({ uploadKey: upload.uploadKey, destinationPrefix: `listings/${listing.id}/photos/${photoId}` });
   try {
@@ -358,12 +378,13 @@ export async function startDocumentUpload(db: Database, actor: SessionUser, list
   refuseOversized(file, DOCUMENT_MAX_BYTES);
   const [{ documents }] = await db.select({ documents: count() }).from(listingDocuments).where(eq(listingDocuments.listingId, listing.id));
   if (documents >= DOCUMENTS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${DOCUMENTS_PER_LISTING} documents; delete one first.`);
-  return presignListingUpload(listing.id, file);
+  return presignListingUpload(db, listing.id, file);
 }
 
 export async function confirmDocumentUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {
   const listing = await managedListing(db, actor, listingId);
   if (!uploadKeyPattern(listing.id).test(upload.uploadKey)) throw new RejectedFileError("This upload does not belong to this listing.");
+  await returnTicket(db, upload.uploadKey);
   const documentId = randomUUID();
   const accepted = await acceptUploadedDocument({ uploadKey: upload.uploadKey, destinationKey: `listings/${listing.id}/documents/${documentId}.pdf` });
   const title = upload.fileName.replace(/\.pdf$/i, "").trim().slice(0, 120) || "Document";

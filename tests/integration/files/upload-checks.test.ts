@@ -3,6 +3,7 @@
 // profile. Each is refused with a message and leaves nothing stored.
 import { beforeAll, describe, expect, it } from "vitest";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
+import { OUTSTANDING_UPLOADS_PER_LISTING } from "~/modules/files/limits";
 import { htmlBehindPdfHeader, onePagePdf } from "../../support/images";
 import { certifiedInspector } from "../../support/inspections";
 import { createListingAs, objectKeysUnder, postForm, uploadFileAs } from "../../support/listings";
@@ -79,5 +80,20 @@ describe("the presigned upload address", () => {
     expect(presign.status).toBe(200);
     const url = new URL(((await presign.json()) as { uploadUrl: string }).uploadUrl);
     expect(url.searchParams.get("X-Amz-SignedHeaders")?.split(";")).toEqual(expect.arrayContaining(["content-length", "content-type", "host"]));
+  });
+});
+
+describe("outstanding upload addresses per listing", () => {
+  it("hands out at most the cap, and gives one back when an upload is confirmed", async () => {
+    const seller = await createTestUser({ roles: ["seller"] });
+    const cookie = await signInCookie(seller.email, seller.password);
+    const listingId = await createListingAs(cookie);
+    const presign = () => postForm(`/sell/listings/${listingId}/documents`, cookie, { intent: "presign", fileName: "manual.pdf", size: "1000", contentType: "application/pdf" });
+    const answers: number[] = [];
+    for (let i = 0; i < OUTSTANDING_UPLOADS_PER_LISTING; i++) answers.push((await presign()).status);
+    expect(answers.every((status) => status === 200)).toBe(true);
+    const refused = await presign();
+    expect(refused.status).toBe(422);
+    expect((await refused.json()).error).toMatch(/already under way/);
   });
 });
