@@ -99,3 +99,4 @@ export {
   type PositioningEvaluation,
   type PositioningInput,
 } from "./positioning";
+export { circularTest, CIRCULAR_LIMITS, type CircularEvaluation, type RadialReading } from "./circular";
