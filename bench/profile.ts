@@ -47,7 +47,7 @@ async function main() {
   try {
     const environment = await startBenchServices();
     buildForBench(environment);
-    await seedBenchData(environment.databaseUrl, { listings, reports: Math.min(3_000, listings), seed: 20_260_501 });
+    await seedBenchData(environment.ownerUrl, { listings, reports: Math.min(3_000, listings), seed: 20_260_501 });
     await indexListings(environment.databaseUrl, 5_000);
     const app = await startBenchApp(environment, { nodeFlags: ["--cpu-prof", `--cpu-prof-dir=${profileDir}`] }).catch((error: unknown) => {
       console.error(readFileSync(path.join(environment.workDir, "app.log"), "utf8").slice(-3000));

@@ -209,7 +209,7 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     result.timingsMs.build = environment.buildMs;
 
     log("bench", `seeding ${config.listings} listings and ${config.reports} signed reports`);
-    const seeded = await seedBenchData(environment.databaseUrl, config);
+    const seeded = await seedBenchData(environment.ownerUrl, config);
     const { timingsMs: seedTimings, ...seedFacts } = seeded;
     result.seed = seedFacts;
     result.timingsMs.seed = seedTimings;

@@ -3,6 +3,7 @@
 import { existsSync, mkdirSync } from "node:fs";
 import path from "node:path";
 import { buildIfNeeded } from "./lib/build.ts";
+import { roleOf } from "./lib/database-roles.ts";
 import { runMigrations } from "./lib/migrate.ts";
 import { log } from "./lib/output.ts";
 import { secretsForDataFolder } from "./lib/local-secrets.ts";
@@ -24,8 +25,10 @@ async function main() {
   const dataDir = path.resolve(root, process.env.TENTHMARK_DATA_DIR ?? ".data");
   mkdirSync(dataDir, { recursive: true });
 
-  // A DATABASE_URL in the environment (or .env) means a PostgreSQL of your own: no local cluster then.
+  // A DATABASE_URL in the environment (or .env) means a PostgreSQL of your own: no local cluster then. The
+  // app connects with DATABASE_URL; migrations and the signing key's registration use DATABASE_OWNER_URL.
   let databaseUrl = process.env.DATABASE_URL;
+  let ownerUrl = process.env.DATABASE_OWNER_URL;
   if (!databaseUrl) {
     const cluster = await startCluster({
       dataDir: path.join(dataDir, "postgres"),
@@ -34,12 +37,16 @@ async function main() {
     });
     onStop(() => cluster.stop());
     databaseUrl = cluster.url;
+    ownerUrl = cluster.ownerUrl;
+  } else if (!ownerUrl) {
+    log("postgres", "DATABASE_OWNER_URL is not set: migrations run as DATABASE_URL's role, which then owns the tables (not for production)");
+    ownerUrl = databaseUrl;
   }
   log("postgres", `ready at ${databaseUrl}`);
-  await runMigrations(databaseUrl);
+  await runMigrations(ownerUrl, roleOf(databaseUrl));
   // The data folder's report signing key (made once), unless the environment gives one; registered as current.
   const signingKey = process.env.REPORT_SIGNING_KEY || localSigningKey(dataDir);
-  const registered = await registerKey(databaseUrl, signingKey);
+  const registered = await registerKey(ownerUrl, signingKey, { coverPastDays: 800 });
   if (registered.added) log("app", `report signing key ${registered.id} registered`);
 
   // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).

@@ -6,6 +6,7 @@ import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { buildIfNeeded } from "./lib/build.ts";
+import { roleOf } from "./lib/database-roles.ts";
 import { runMigrations } from "./lib/migrate.ts";
 import { log } from "./lib/output.ts";
 import { freshSecrets } from "./lib/local-secrets.ts";
@@ -26,10 +27,10 @@ async function main(): Promise<number> {
 
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_test" });
   onStop(() => cluster.stop());
-  await runMigrations(cluster.url);
+  await runMigrations(cluster.ownerUrl, roleOf(cluster.url));
   // A signing key of this run's own, registered as current.
   const signingKey = newSigningKeyMultibase();
-  await registerKey(cluster.url, signingKey);
+  await registerKey(cluster.ownerUrl, signingKey);
 
   const port = await freePort();
   const appOrigin = `http://localhost:${port}`;
@@ -43,6 +44,8 @@ async function main(): Promise<number> {
     ...secrets,
     ...standInEnvironment(standIns),
     DATABASE_URL: cluster.url,
+    // For the tests that act as the owner role (an attacker with the migrations' rights, or the bulk fixtures).
+    TEST_DATABASE_OWNER_URL: cluster.ownerUrl,
     REPORT_SIGNING_KEY: signingKey,
     APP_ORIGIN: appOrigin,
     TEST_APP_ORIGIN: appOrigin,

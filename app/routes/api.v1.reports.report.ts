@@ -1,5 +1,5 @@
 import { databaseContext } from "~/db/context";
-import { reportForApi } from "~/modules/reports/service.server";
+import { reportForApi, unsealedMessage } from "~/modules/reports/service.server";
 import type { Route } from "./+types/api.v1.reports.report";
 
 const ALLOW = { Allow: "GET" };
@@ -8,6 +8,9 @@ const ALLOW = { Allow: "GET" };
 export async function loader({ params, context }: Route.LoaderArgs) {
   const report = await reportForApi(context.get(databaseContext), params.reportId);
   if (!report) return Response.json({ errors: { reportId: ["No signed report has this id."] } }, { status: 404 });
+  if (report.kind === "unsealed") {
+    return Response.json({ id: report.id, intact: false, mismatched: report.mismatched, errors: { report: [unsealedMessage(report.reason)] } }, { status: 409 });
+  }
   return Response.json(report, { headers: { "cache-control": report.status === "signed" ? "public, max-age=60" : "public, max-age=3600" } });
 }
 

@@ -6,6 +6,7 @@ import { createWriteStream, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { buildIfNeeded } from "../../scripts/lib/build.ts";
+import { roleOf } from "../../scripts/lib/database-roles.ts";
 import { runMigrations } from "../../scripts/lib/migrate.ts";
 import { log } from "../../scripts/lib/output.ts";
 import { freshSecrets } from "../../scripts/lib/local-secrets.ts";
@@ -21,6 +22,8 @@ const root = path.resolve(import.meta.dirname, "../..");
 export type BenchEnvironment = {
   workDir: string;
   databaseUrl: string;
+  /** The owner role's connection: the bulk seed writes and analyzes as the tables' owner. */
+  ownerUrl: string;
   /** The environment that points app code at this run's database and stand-ins. */
   appEnvironment: Record<string, string>;
   standIns: StandIn[];
@@ -36,10 +39,10 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
 
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_bench" });
   onStop(() => cluster.stop());
-  await runMigrations(cluster.url);
+  await runMigrations(cluster.ownerUrl, roleOf(cluster.url));
   // A signing key of the run's own, in use from 1970 so that the invented reports signed in the past fall inside it.
   const signingKey = newSigningKeyMultibase();
-  await registerKey(cluster.url, signingKey, new Date(0));
+  await registerKey(cluster.ownerUrl, signingKey, { now: new Date(0) });
 
   // The app's origin is fixed before the stand-ins start (they are told where it lives).
   const appPort = await freePort();
@@ -58,7 +61,7 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
   };
   Object.assign(process.env, appEnvironment);
   const buildDirectory = `build-test/bench-${path.basename(workDir).replace(/^tenthmark-bench-/, "")}`;
-  return { workDir, databaseUrl: cluster.url, appEnvironment, standIns, buildDirectory, buildMs: 0 };
+  return { workDir, databaseUrl: cluster.url, ownerUrl: cluster.ownerUrl, appEnvironment, standIns, buildDirectory, buildMs: 0 };
 }
 
 /** Builds the production bundle into the run's own folder (removed at the end). */

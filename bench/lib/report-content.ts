@@ -4,7 +4,9 @@
 import { CENTRE_LATHE_NORMAL, CENTRE_LATHE_PRECISION, scoreReport, type ReportMeasurements, type TestMeasurement } from "../../app/geometry/index.ts";
 import { REPORT_FORMAT, type ReportContent } from "../../app/modules/reports/content.ts";
 import { SAFETY_CAUTIONS } from "../../app/modules/reports/safety.ts";
-import { sealContent } from "../../app/modules/reports/seal.server.ts";
+import { canonicalJson, sealContent } from "../../app/modules/reports/seal.server.ts";
+import { buildReportCredential, didWebOf } from "../../app/modules/reports/credential.ts";
+import { keyFragment, signCredential, signingKeyFromMultibase } from "../../app/modules/reports/signing.server.ts";
 import type { SeededRandom } from "./random.ts";
 
 export type ReportedMachine = {
@@ -165,4 +167,12 @@ export function signedReport(
     contentHash: hash,
     signedAt: input.signedAt,
   };
+}
+
+/** The report's signed credential, as signing issues it, with the run's key (REPORT_SIGNING_KEY, APP_ORIGIN). */
+export async function credentialFor(report: SignedReportRow): Promise<string> {
+  const origin = process.env.APP_ORIGIN!;
+  const key = signingKeyFromMultibase(process.env.REPORT_SIGNING_KEY!);
+  const credential = buildReportCredential(report.content, report.contentHash, origin);
+  return canonicalJson(await signCredential(credential, key, `${didWebOf(origin)}#${keyFragment(key.publicKeyMultibase)}`, report.content.signedAt!));
 }

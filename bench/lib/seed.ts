@@ -4,7 +4,7 @@
 // from one seed, so every run seeds the same machines, places, ids and readings.
 import pg from "pg";
 import { seededRandom, weighted, type SeededRandom } from "./random.ts";
-import { signedReport, type ReportedMachine, type SignedReportRow } from "./report-content.ts";
+import { credentialFor, signedReport, type ReportedMachine, type SignedReportRow } from "./report-content.ts";
 import * as words from "./vocabulary.ts";
 
 export type SeedOptions = { listings: number; reports: number; seed: number };
@@ -255,13 +255,14 @@ export async function seedBenchData(databaseUrl: string, options: SeedOptions): 
         updated_at: new Date(startsAt.getTime() + 6 * 3_600_000),
       });
     }
+    const credentials = await Promise.all(reportRows.map((report) => credentialFor(report)));
     await client.query("begin");
     await insertRows(client, "bookings", Object.keys(bookingRows[0] ?? { id: 0 }), bookingRows);
     await insertRows(
       client,
       "reports",
-      ["id", "booking_id", "listing_id", "inspector_id", "revision", "status", "profile_key", "profile_version", "grade", "key_figures", "measured_on", "draft_version", "content", "canonical_json", "content_hash", "signed_at", "created_at", "updated_at"],
-      reportRows.map((report) => ({
+      ["id", "booking_id", "listing_id", "inspector_id", "revision", "status", "profile_key", "profile_version", "grade", "key_figures", "measured_on", "draft_version", "content", "canonical_json", "content_hash", "signed_at", "credential", "created_at", "updated_at"],
+      reportRows.map((report, index) => ({
         id: report.id,
         booking_id: report.bookingId,
         listing_id: report.listingId,
@@ -278,6 +279,7 @@ export async function seedBenchData(databaseUrl: string, options: SeedOptions): 
         canonical_json: report.canonicalJson,
         content_hash: report.contentHash,
         signed_at: report.signedAt,
+        credential: credentials[index],
         created_at: report.signedAt,
         updated_at: report.signedAt,
       })),

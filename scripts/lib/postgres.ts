@@ -4,6 +4,7 @@ import { execFileSync, spawnSync } from "node:child_process";
 import { chmodSync, existsSync, mkdirSync, readdirSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import pg from "pg";
+import { APP_ROLE, ensureLocalRoles, OWNER_ROLE } from "./database-roles.ts";
 import { log } from "./output.ts";
 
 const isRoot = typeof process.getuid === "function" && process.getuid() === 0;
@@ -52,7 +53,10 @@ export type Cluster = {
   dataDir: string;
   port: number;
   database: string;
+  /** The app's connection: a role that owns no table and is not a superuser. */
   url: string;
+  /** The owner role's connection: migrations, the signing key's registration, bulk seeding. */
+  ownerUrl: string;
   stop: () => void;
 };
 
@@ -101,19 +105,22 @@ export async function startCluster(options: { dataDir: string; port: number; dat
       "start",
     ]);
   }
-  const url = `postgres://app@127.0.0.1:${port}/${database}`;
+  // `app` is the cluster's bootstrap superuser (its name kept for data folders made before the two roles).
+  const superuserUrl = `postgres://app@127.0.0.1:${port}/${database}`;
   await waitForConnection(`postgres://app@127.0.0.1:${port}/postgres`);
   const admin = new pg.Client({ connectionString: `postgres://app@127.0.0.1:${port}/postgres` });
   await admin.connect();
   const exists = await admin.query("select 1 from pg_database where datname = $1", [database]);
   if (exists.rowCount === 0) await admin.query(`create database "${database}"`);
   await admin.end();
-  await waitForConnection(url);
+  await waitForConnection(superuserUrl);
+  await ensureLocalRoles(superuserUrl, database);
   return {
     dataDir,
     port,
     database,
-    url,
+    url: `postgres://${APP_ROLE}@127.0.0.1:${port}/${database}`,
+    ownerUrl: `postgres://${OWNER_ROLE}@127.0.0.1:${port}/${database}`,
     stop: () => {
       try {
         asServerUser(bin, "pg_ctl", ["-D", pgData, "-m", "fast", "-w", "stop"]);

@@ -26,13 +26,22 @@ export function writeLocalSigningKey(dataDir: string, key: string): string {
   return key;
 }
 
-/** Registers the key as current (the previous one is retired from now); a key already current is left as it is. */
-export async function registerKey(ownerDatabaseUrl: string, privateKeyMultibase: string, now = new Date()) {
+/**
+ * Registers the key as current (the previous one is retired from now); a key already current is left as it is.
+ * `coverPastDays`: on a database with no accounts yet (the demo scenario is about to be loaded, with reports
+ * signed in its past), the key's period starts that many days back.
+ */
+export async function registerKey(ownerDatabaseUrl: string, privateKeyMultibase: string, options: { now?: Date; coverPastDays?: number } = {}) {
   const pool = new pg.Pool({ connectionString: ownerDatabaseUrl, max: 1 });
   try {
     const db = drizzle(pool, { schema });
     const key = signingKeyFromMultibase(privateKeyMultibase);
-    return { ...(await registerSigningKey(db, key.publicKeyMultibase, now)), publicKeyMultibase: key.publicKeyMultibase };
+    let from = options.now ?? new Date();
+    if (options.coverPastDays) {
+      const { rows } = await pool.query<{ empty: boolean }>(`select not exists (select 1 from "user") as empty`);
+      if (rows[0]?.empty) from = new Date(from.getTime() - options.coverPastDays * 86_400_000);
+    }
+    return { ...(await registerSigningKey(db, key.publicKeyMultibase, from)), publicKeyMultibase: key.publicKeyMultibase };
   } finally {
     await pool.end();
   }

@@ -33,7 +33,8 @@ export interface ReportCredentialSubject {
   revision: number;
   /** The revision this one corrects: its credential, report and content hash. */
   supersedes: { id: string; reportId: string; contentHash: string } | null;
-  machine: { title: string; make: string; model: string; serialNumber: string | null; year: number | null; category: string };
+  /** `listingId`: the listing the report was filed for (the same id as in the report's public JSON). */
+  machine: { title: string; make: string; model: string; serialNumber: string | null; year: number | null; category: string; listingId: string };
   inspector: { name: string };
   measuredOn: string;
   signedAt: string;
@@ -257,6 +258,7 @@ export function buildReportCredential(content: ReportContent, contentHash: strin
         serialNumber: content.machine.serialNumber,
         year: content.machine.year,
         category: content.machine.category,
+        listingId: content.machine.listingId,
       },
       inspector: { name: content.inspector.name },
       measuredOn: content.measuredOn,

@@ -3,7 +3,7 @@
 // so every row is what the product itself would write. Readings are invented (see demo-readings.ts), and
 // each set is scored by the engine before filing: a plan that does not score to its grade stops the seed.
 import { addDays, addHours, addMinutes } from "date-fns";
-import { and, eq, isNull } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { getDatabase, type Database } from "~/db/client.server";
 import type { Grade } from "~/geometry";
 import type { SessionUser } from "~/modules/accounts/guards.server";
@@ -14,7 +14,7 @@ import type { DemoInspectorKey } from "./demo-plans";
 import { listings } from "~/modules/listings/schema";
 import { demoReportPlans, formFor, type DemoBookerKey, type DemoReportPlan } from "./demo-plans";
 import { expectDemoGrade } from "./demo-readings";
-import { reports, reportSigningKeys } from "./schema";
+import { reports } from "./schema";
 import { signReport, startCorrection, submitReport } from "./service.server";
 
 const asInspector = (person: DemoPerson): SessionUser => ({
@@ -87,8 +87,6 @@ export async function seedDemoReports(
   now = new Date(),
 ) {
   const db = getDatabase();
-  // The archive is signed in the scenario's past: the data folder's first key is dated back to cover it.
-  if (which === "archive") await db.update(reportSigningKeys).set({ validFrom: addDays(now, -800) }).where(isNull(reportSigningKeys.validUntil));
   let filed = 0;
   for (const plan of demoReportPlans) {
     if (Boolean(plan.fresh) !== (which === "fresh")) continue;

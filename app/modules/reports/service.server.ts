@@ -50,6 +50,7 @@ import { reportUrl, verificationUrl } from "./links.server";
 import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
 import { unrenderableNotice, unrenderableReason } from "./stored-readings";
 import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
+import { readSealedReport } from "./sealed-read.server";
 import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";
 
 /** An expected refusal: the route answers with `status` and shows `errors` at their fields. */
@@ -637,6 +638,9 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
   if (report.status === "draft") {
     return viewer?.id === report.inspectorId ? { kind: "draft" as const, bookingId: report.bookingId } : null;
   }
+  // Shown only as signed: the credential's proof, the content hash it seals and every copied column must agree.
+  const seal = await readSealedReport(db, report, { checkContent: true });
+  if (!seal.ok) return { kind: "unsealed" as const, id: report.id, reason: seal.reason, mismatched: seal.mismatched };
   const content = JSON.parse(report.canonicalJson!) as ReportContent;
   const revisions = await db
     .select({ id: reports.id, revision: reports.revision, status: reports.status, signedAt: reports.signedAt, grade: reports.grade, supersedesId: reports.supersedesId })
@@ -651,7 +655,8 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     content,
     contentHash: report.contentHash!,
     intact: sealHolds(report.canonicalJson!, report.contentHash!),
-    signedAt: report.signedAt!.toISOString(),
+    signedAt: seal.subject.signedAt,
+    keyId: seal.keyId,
     supersededBy: supersededBy ? { id: supersededBy.id, revision: supersededBy.revision } : null,
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
     isInspector: viewer?.id === report.inspectorId,
@@ -667,14 +672,21 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
   };
 }
 
+/** What a page says instead of a report whose stored copy no longer matches what was signed. */
+export function unsealedMessage(reason: string) {
+  return `This report is not shown: what is stored no longer matches what its inspector signed. ${reason} The signed credential, if you have it, still tells what was signed.`;
+}
+
 export type PublicReport = Extract<NonNullable<Awaited<ReturnType<typeof getPublicReport>>>, { kind: "published" }>;
 
 /** GET /api/v1/reports/:id: the signed content exactly as hashed, with its status and links. Null for drafts. */
 export async function reportForApi(db: Database, reportId: string) {
   const report = await getPublicReport(db, reportId, null);
-  if (!report || report.kind !== "published") return null;
+  if (!report || report.kind === "draft") return null;
+  if (report.kind === "unsealed") return report;
   const origin = env().APP_ORIGIN;
   return {
+    kind: "published" as const,
     id: report.id,
     status: report.status,
     revision: report.content.revision,
@@ -683,6 +695,7 @@ export async function reportForApi(db: Database, reportId: string) {
     signedAt: report.signedAt,
     contentHash: report.contentHash,
     hashAlgorithm: "SHA-256 of the RFC 8785 canonical JSON of `content`",
+    signatureKey: report.keyId,
     intact: report.intact,
     /** Null, or why the signed results cannot be scored or drawn (then read the readings in `content`). */
     notice: report.notice,
@@ -710,24 +723,33 @@ export async function verifyReportHash(db: Database, hash: string) {
   if (!HASH_PATTERN.test(hash)) throw new ReportRuleError("Give the hash as 64 hexadecimal characters (SHA-256), lower case.", 400);
   const [report] = await db.select().from(reports).where(eq(reports.contentHash, hash));
   if (!report || report.status === "draft" || !report.canonicalJson) return { match: false as const, hash };
+  const seal = await readSealedReport(db, report, { checkContent: true });
+  if (!seal.ok) {
+    // Nothing stored is shown as this report's: the copies disagree with what was signed.
+    return { match: true as const, hash, intact: false as const, mismatched: seal.mismatched, reason: seal.reason, photos: null, report: null };
+  }
   const content = JSON.parse(report.canonicalJson) as ReportContent;
   const [successor] = await db.select({ id: reports.id }).from(reports).where(eq(reports.supersedesId, report.id));
+  const { subject } = seal;
   return {
     match: true as const,
     hash,
     intact: sealHolds(report.canonicalJson, hash),
+    mismatched: [] as string[],
+    reason: null,
     photos: await checkSealedPhotos(db, content),
     report: {
       id: report.id,
       status: report.status,
-      revision: report.revision,
-      signedAt: report.signedAt!.toISOString(),
-      measuredOn: report.measuredOn,
-      grade: report.grade,
-      machine: content.machine.title,
-      inspector: content.inspector.name,
+      revision: subject.revision,
+      signedAt: subject.signedAt,
+      measuredOn: subject.measuredOn,
+      grade: subject.grade,
+      machine: subject.machine.title,
+      inspector: subject.inspector.name,
       supersededBy: successor?.id ?? null,
       url: reportUrl(report.id),
+      credential: credentialUrl(env().APP_ORIGIN, report.id),
     },
   };
 }
@@ -786,22 +808,30 @@ export async function currentReportsForListings(db: Executor, listingIds: string
       signedAt: reports.signedAt,
       profileKey: reports.profileKey,
       profileVersion: reports.profileVersion,
-      inspectorName: sql<string>`${reports.content} -> 'inspector' ->> 'name'`,
       makersChart: sql<string | null>`${reports.content} -> 'profile' ->> 'makersChart'`,
+      contentHash: reports.contentHash,
+      credential: reports.credential,
     })
     .from(reports)
     .where(and(inArray(reports.listingId, listingIds), eq(reports.status, "signed")))
     .orderBy(desc(reports.signedAt));
+  const seen = new Set<string>();
   for (const row of rows) {
-    if (found.has(row.listingId)) continue;
+    if (seen.has(row.listingId)) continue;
+    seen.add(row.listingId);
+    // The figures come from the signed credential; a row whose copies no longer match it is not shown.
+    const { makersChart: _chart, ...stored } = row;
+    const reading = await readSealedReport(db, { ...stored, canonicalJson: null });
+    if (!reading.ok) continue;
+    const { subject } = reading;
     found.set(row.listingId, {
       id: row.id,
-      grade: row.grade,
-      keyFigures: row.keyFigures as KeyFigures,
-      measuredOn: row.measuredOn,
-      signedAt: row.signedAt!.toISOString(),
-      profile: { key: row.profileKey, version: row.profileVersion, makersChart: row.makersChart },
-      inspectorName: row.inspectorName,
+      grade: subject.grade,
+      keyFigures: subject.keyFigures as KeyFigures,
+      measuredOn: subject.measuredOn,
+      signedAt: subject.signedAt,
+      profile: { key: subject.profile.key, version: subject.profile.version, makersChart: row.makersChart },
+      inspectorName: subject.inspector.name,
     });
   }
   return found;

@@ -11,6 +11,7 @@ import { fileUrl } from "~/modules/files/serve.server";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { listingPhotos, listings } from "~/modules/listings/schema";
 import { reports } from "~/modules/reports/schema";
+import { readSealedReport } from "~/modules/reports/sealed-read.server";
 import {
   gradeRanks,
   listingToSearchDocument,
@@ -35,6 +36,10 @@ function currentReports(db: Database) {
       keyFigures: reports.keyFigures,
       measuredOn: reports.measuredOn,
       signedAt: reports.signedAt,
+      contentHash: reports.contentHash,
+      credential: reports.credential,
+      profileKey: reports.profileKey,
+      profileVersion: reports.profileVersion,
       spindleRunoutUm: figure("spindleRunOut").as("spindle_runout_um"),
       axialSlipUm: figure("axialSlip").as("axial_slip_um"),
       parallelismVerticalUm: figure("spindleParallelismVertical").as("parallelism_vertical_um"),
@@ -62,6 +67,10 @@ function joinedSelection(current: ReturnType<typeof currentReports>) {
     keyFigures: current.keyFigures,
     measuredOn: current.measuredOn,
     signedAt: current.signedAt,
+    contentHash: current.contentHash,
+    credential: current.credential,
+    profileKey: current.profileKey,
+    profileVersion: current.profileVersion,
   };
 }
 
@@ -74,7 +83,27 @@ type JoinedRow = {
   keyFigures: unknown;
   measuredOn: string | null;
   signedAt: Date | null;
+  contentHash: string | null;
+  credential: string | null;
+  profileKey: string | null;
+  profileVersion: number | null;
 };
+
+/**
+ * The report figures of each row as its signed credential seals them: a report whose stored columns no longer
+ * match its credential (or whose credential fails) is left out, so neither the index nor a page shows it.
+ */
+async function sealed(db: Database, rows: JoinedRow[]): Promise<JoinedRow[]> {
+  return Promise.all(
+    rows.map(async (row) => {
+      if (!row.reportId || !row.grade || !row.measuredOn) return row;
+      const reading = await readSealedReport(db, { id: row.reportId, listingId: row.listing.id, grade: row.grade, keyFigures: row.keyFigures, measuredOn: row.measuredOn, signedAt: row.signedAt, contentHash: row.contentHash, canonicalJson: null, credential: row.credential, profileKey: row.profileKey ?? undefined, profileVersion: row.profileVersion ?? undefined });
+      if (!reading.ok) return { ...row, reportId: null, grade: null, keyFigures: null, measuredOn: null, signedAt: null };
+      const { subject } = reading;
+      return { ...row, grade: subject.grade, keyFigures: subject.keyFigures, measuredOn: subject.measuredOn, signedAt: new Date(subject.signedAt) };
+    }),
+  );
+}
 
 const emptyFigures: KeyFigures = {
   spindleRunOut: null,
@@ -138,7 +167,7 @@ export async function loadSearchableListings(db: Database, ids: string[]): Promi
     .innerJoin(user, eq(user.id, listings.sellerId))
     .leftJoin(current, eq(current.listingId, listings.id))
     .where(inArray(listings.id, valid));
-  return new Map(rows.map((row) => [row.listing.id, toSource(row)]));
+  return new Map((await sealed(db, rows)).map((row) => [row.listing.id, toSource(row)]));
 }
 
 /** One page of listing ids in id order, for the full re-index to walk every listing without holding them all. */
@@ -318,7 +347,7 @@ export async function searchListingsInDatabase(db: Database, query: ListingSearc
       .where(where)
       .groupBy(sql`grouping sets ((${columns.category}), (${columns.grade}), (${columns.verified}), (${columns.country}), ())`);
   };
-  const [rows, grouped] = await Promise.all([pageRows(), facetRows()]);
+  const [rows, grouped] = await Promise.all([pageRows().then((found) => sealed(db, found)), facetRows()]);
 
   const facets = Object.fromEntries(facetNames.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
   let total = 0;

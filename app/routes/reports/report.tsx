@@ -8,7 +8,7 @@ import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "
 import { SafetyCautions } from "~/modules/reports/components/safety";
 import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
-import { getPublicReport } from "~/modules/reports/service.server";
+import { getPublicReport, unsealedMessage } from "~/modules/reports/service.server";
 import { formatLength, type DisplayUnits } from "~/modules/units/format";
 import type { Route } from "./+types/report";
 
@@ -25,6 +25,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const report = await getPublicReport(context.get(databaseContext), params.reportId, viewer);
   if (!report) throw data("There is no signed report at this address.", { status: 404 });
   if (report.kind === "draft") throw redirect(`/inspector/bookings/${report.bookingId}/report/review`);
+  if (report.kind === "unsealed") throw data(unsealedMessage(report.reason), { status: 409 });
   const requested = new URL(request.url).searchParams.get("units");
   const units: DisplayUnits = requested === "inch" || requested === "mm" ? requested : (viewer?.displayUnits ?? "mm");
   const qrSvg = await QRCode.toString(report.verificationUrl, { type: "svg", margin: 1, errorCorrectionLevel: "M", color: { dark: "#17212b", light: "#ffffff" } });
@@ -148,8 +149,8 @@ export default function ReportPage() {
           <Card>
             <CardHeader
               title="Verification"
-              description="The SHA-256 hash of this report's RFC 8785 canonical JSON. Anyone can recompute it from the JSON and check it here."
-              action={<Badge tone={report.intact ? "within" : "beyond"}>{report.intact ? "Hash verified" : "Hash mismatch"}</Badge>}
+              description="The SHA-256 hash of this report's RFC 8785 canonical JSON, sealed in a credential signed with Tenthmark's Ed25519 key. Anyone can check the credential in their browser or offline."
+              action={<Badge tone={report.intact ? "within" : "beyond"}>{report.intact ? "Signature and hash verified" : "Hash mismatch"}</Badge>}
             />
             <CardBody className="space-y-3 text-sm">
               <p className="break-all font-mono text-ink-900" data-testid="content-hash">
@@ -161,6 +162,9 @@ export default function ReportPage() {
                 </a>
                 <a href={`/api/v1/reports/${report.id}`} className="font-semibold text-ink-900 underline underline-offset-2">
                   JSON
+                </a>
+                <a href={`/api/v1/reports/${report.id}/credential`} download className="font-semibold text-ink-900 underline underline-offset-2" data-testid="credential-link">
+                  Signed credential
                 </a>
               </div>
               {report.revisions.length > 1 ? (

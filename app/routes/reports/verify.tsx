@@ -33,7 +33,14 @@ export default function VerifyPage() {
       {result ? (
         <Card className="mt-6" data-testid="verification-result">
           <CardBody className="space-y-2">
-            {result.match ? (
+            {result.match && !result.report ? (
+              <>
+                <Badge tone="beyond">Stored report no longer matches what was signed</Badge>
+                <p className="text-sm text-ink-700" data-testid="seal-mismatch">
+                  {result.reason} Tenthmark does not show it until this is put right.
+                </p>
+              </>
+            ) : result.match ? (
               <>
                 <div className="flex flex-wrap items-center gap-2">
                   <Badge tone={result.intact ? "within" : "beyond"}>{result.intact ? "Matches a signed report" : "Stored report fails its own hash"}</Badge>
@@ -43,7 +50,7 @@ export default function VerifyPage() {
                 <p className="text-sm text-ink-700">
                   Grade {result.report.grade} · measured {formatReportDate(result.report.measuredOn)} by {result.report.inspector} · signed {formatSignedAt(result.report.signedAt)} · revision {result.report.revision}
                 </p>
-                {result.photos.sealed ? (
+                {result.photos?.sealed ? (
                   <p className={`text-sm ${result.photos.changed.length ? "font-semibold text-beyond" : "text-ink-700"}`} data-testid="photo-check">
                     {!result.photos.checked
                       ? `Its ${result.photos.sealed} set-up photo(s) could not be checked just now: file storage is not answering. Try again in a moment.`

@@ -536,6 +536,11 @@ const table: Record<string, RouteRow> = {
     get: everyone(200),
     actions: [{ intent: "any change", body: () => ({ json: {} }), expect: everyone(405), unchanged: () => rowsOf.reports(fx.reportBookingId) }],
   },
+  "api/v1/reports/:reportId/credential": {
+    get: everyone(200),
+    actions: [{ intent: "any change", body: () => ({ json: {} }), expect: everyone(405), unchanged: () => rowsOf.reports(fx.reportBookingId) }],
+  },
+  ".well-known/did.json": { get: everyone(200), actions: "none" },
   "api/webhooks/stripe": {
     get: everyone(405),
     actions: [{ intent: "unsigned event", body: () => ({ json: { type: "checkout.session.completed" } }), expect: everyone(400), unchanged: () => rowsOf.booking(fx.bookingId) }],

@@ -1,0 +1,128 @@
+// Reading a signed report's figures from its seal, not from the row's copies. Every read that shows a grade,
+// key figure or date (listings, search, the API, the report page) checks the stored credential's Ed25519
+// proof against the issuer's registered keys, that it seals this row's content hash, and that the row's
+// columns still say what the credential says; a report that fails is not shown as verified.
+import { asc } from "drizzle-orm";
+import type { Executor } from "~/modules/inspections/profiles.server";
+import { publicKeyFromMultibase, verifyDataIntegrityProof, type ReportCredential, type ReportCredentialSubject } from "./credential";
+import type { ReportContent } from "./content";
+import { reportSigningKeys } from "./schema";
+import { canonicalJson, sha256Hex } from "./seal.server";
+
+/** The stored columns of a signed report that pages read or that the seal covers. */
+export interface StoredSealedReport {
+  id: string;
+  bookingId?: string;
+  listingId?: string;
+  inspectorId?: string;
+  supersedesId?: string | null;
+  revision?: number;
+  profileKey?: string;
+  profileVersion?: number;
+  grade: string;
+  keyFigures: unknown;
+  measuredOn: string;
+  signedAt: Date | null;
+  content?: unknown;
+  canonicalJson: string | null;
+  contentHash: string | null;
+  credential: string | null;
+}
+
+export type SealedReading =
+  | { ok: true; subject: ReportCredentialSubject; keyId: string }
+  | { ok: false; reason: string; mismatched: string[] };
+
+type KnownKey = { publicKey: Uint8Array; validFrom: number; validUntil: number };
+let keyCache: { at: number; keys: Map<string, KnownKey> } | undefined;
+const KEY_CACHE_MS = 60_000;
+
+async function registeredKeys(db: Executor): Promise<Map<string, KnownKey>> {
+  if (keyCache && Date.now() - keyCache.at < KEY_CACHE_MS) return keyCache.keys;
+  const rows = await db.select().from(reportSigningKeys).orderBy(asc(reportSigningKeys.validFrom));
+  const keys = new Map<string, KnownKey>();
+  for (const row of rows) {
+    const publicKey = publicKeyFromMultibase(row.publicKeyMultibase);
+    if (publicKey) keys.set(row.id, { publicKey, validFrom: row.validFrom.getTime(), validUntil: row.validUntil?.getTime() ?? Number.POSITIVE_INFINITY });
+  }
+  keyCache = { at: Date.now(), keys };
+  return keys;
+}
+
+/** Forgets the cached keys (after a registration in this process, and in tests). */
+export function forgetSigningKeys() {
+  keyCache = undefined;
+}
+
+// A proof already checked, by report id, with the exact credential text it was checked on: a row read again
+// unchanged is not verified again, and any changed byte misses the cache.
+const verified = new Map<string, { credential: string; subject: ReportCredentialSubject; keyId: string }>();
+const VERIFIED_CACHE_SIZE = 50_000;
+
+function sameFigures(a: unknown, b: unknown) {
+  return canonicalJson(a ?? null) === canonicalJson(b ?? null);
+}
+
+async function verifiedCredential(db: Executor, id: string, text: string): Promise<{ ok: true; subject: ReportCredentialSubject; keyId: string } | { ok: false; reason: string }> {
+  const cached = verified.get(id);
+  if (cached && cached.credential === text) return { ok: true, subject: cached.subject, keyId: cached.keyId };
+  let credential: ReportCredential;
+  try {
+    credential = JSON.parse(text) as ReportCredential;
+  } catch {
+    return { ok: false, reason: "The stored credential is not JSON." };
+  }
+  const proofOf = credential.proof;
+  const keyId = typeof proofOf?.verificationMethod === "string" ? proofOf.verificationMethod.split("#")[1] : undefined;
+  const key = keyId ? (await registeredKeys(db)).get(keyId) : undefined;
+  if (!key || !keyId) return { ok: false, reason: "The credential names no registered signing key." };
+  const created = Date.parse(proofOf!.created);
+  if (!(created >= key.validFrom && created < key.validUntil)) return { ok: false, reason: "The signing key was not in use at the signing time." };
+  const proof = await verifyDataIntegrityProof(credential as unknown as Record<string, unknown>, key.publicKey);
+  if (!proof.verified) return { ok: false, reason: proof.reason };
+  if (verified.size >= VERIFIED_CACHE_SIZE) verified.clear();
+  verified.set(id, { credential: text, subject: credential.credentialSubject, keyId });
+  return { ok: true, subject: credential.credentialSubject, keyId };
+}
+
+/**
+ * Checks one stored signed report against its credential. `checkContent` also re-hashes the stored canonical
+ * JSON and compares the JSONB copy and the identity columns (the report page and the API); lists check the
+ * proof and the figures they show.
+ */
+export async function readSealedReport(db: Executor, row: StoredSealedReport, options: { checkContent?: boolean } = {}): Promise<SealedReading> {
+  if (!row.credential) return refuse(row.id, "The report has no signed credential.", ["credential"]);
+  const credential = await verifiedCredential(db, row.id, row.credential);
+  if (!credential.ok) return refuse(row.id, credential.reason, ["credential"]);
+  const { subject, keyId } = credential;
+
+  const mismatched: string[] = [];
+  if (subject.reportId !== row.id) mismatched.push("id");
+  if (subject.content.sha256 !== row.contentHash) mismatched.push("content_hash");
+  if (subject.grade !== row.grade) mismatched.push("grade");
+  if (!sameFigures(subject.keyFigures, row.keyFigures)) mismatched.push("key_figures");
+  if (subject.measuredOn !== row.measuredOn) mismatched.push("measured_on");
+  if (subject.signedAt !== row.signedAt?.toISOString()) mismatched.push("signed_at");
+  if (row.listingId !== undefined && subject.machine.listingId !== row.listingId) mismatched.push("listing_id");
+  if (row.revision !== undefined && subject.revision !== row.revision) mismatched.push("revision");
+  if (row.profileKey !== undefined && subject.profile.key !== row.profileKey) mismatched.push("profile_key");
+  if (row.profileVersion !== undefined && subject.profile.version !== row.profileVersion) mismatched.push("profile_version");
+  if (row.supersedesId !== undefined && (subject.supersedes?.reportId ?? null) !== row.supersedesId) mismatched.push("supersedes_id");
+  if (options.checkContent) {
+    const canonical = row.canonicalJson;
+    if (!canonical || sha256Hex(canonical) !== subject.content.sha256) mismatched.push("canonical_json");
+    else {
+      const content = JSON.parse(canonical) as ReportContent;
+      if (row.content !== undefined && canonicalJson(row.content) !== canonical) mismatched.push("content");
+      if (row.bookingId !== undefined && content.booking.id !== row.bookingId) mismatched.push("booking_id");
+      if (row.inspectorId !== undefined && content.inspector.id !== row.inspectorId) mismatched.push("inspector_id");
+    }
+  }
+  if (mismatched.length) return refuse(row.id, `The stored ${mismatched.join(", ").replaceAll("_", " ")} no longer match what was signed.`, mismatched);
+  return { ok: true, subject, keyId };
+}
+
+function refuse(id: string, reason: string, mismatched: string[]): SealedReading {
+  console.warn(`[reports] report ${id} is not shown as verified: ${reason}`);
+  return { ok: false, reason, mismatched };
+}
