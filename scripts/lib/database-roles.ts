@@ -23,6 +23,8 @@ export async function ensureLocalRoles(superuserUrl: string, database: string) {
       const exists = await client.query("select 1 from pg_roles where rolname = $1", [role]);
       if (exists.rowCount === 0) await client.query(`create role ${identifier(role)} login nosuperuser nocreatedb nocreaterole noreplication nobypassrls`);
     }
+    // Locally the owner may create databases (tests make throwaway ones); the app role never.
+    await client.query(`alter role ${identifier(OWNER_ROLE)} createdb`);
     await client.query(`alter database ${identifier(database)} owner to ${identifier(OWNER_ROLE)}`);
     await client.query(`alter schema public owner to ${identifier(OWNER_ROLE)}`);
     await client.query(`revoke create on schema public from public`);
@@ -75,6 +77,11 @@ export async function grantAppRole(ownerUrl: string, appRole: string) {
   await client.connect();
   try {
     const role = identifier(appRole);
+    const { rows } = await client.query<{ database: string; owns: boolean }>(
+      `select current_database() as database, (select datdba from pg_database where datname = current_database()) = (select oid from pg_roles where rolname = current_user) as owns`,
+    );
+    // The job queue's schemas are the app's own (see ensureLocalRoles); a managed database may grant this itself.
+    if (rows[0]?.owns) await client.query(`grant connect, create, temporary on database ${identifier(rows[0].database)} to ${role}`);
     await client.query(`grant usage on schema public to ${role}`);
     await client.query(`grant select, insert, update, delete on all tables in schema public to ${role}`);
     await client.query(`grant usage, select on all sequences in schema public to ${role}`);

@@ -10,16 +10,21 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { freePort } from "../../../scripts/lib/ports.ts";
 import { runMigrations } from "../../../scripts/lib/migrate.ts";
+import { roleOf } from "../../../scripts/lib/database-roles.ts";
+import { registerKey } from "../../../scripts/lib/signing-key.ts";
 import { startSearchStandIn, type SearchStandIn } from "../../../search/stand-in/index.ts";
 
 const root = path.resolve(import.meta.dirname, "../../..");
 const databaseName = `demo_${randomBytes(5).toString("hex")}`;
-const adminUrl = process.env.DATABASE_URL!;
-const demoUrl = (() => {
-  const url = new URL(adminUrl);
+// The owner role makes the database and runs the migrations; the seed, like the app, connects as the app's role.
+const adminUrl = process.env.TEST_DATABASE_OWNER_URL!;
+const inDemoDatabase = (base: string) => {
+  const url = new URL(base);
   url.pathname = `/${databaseName}`;
   return url.toString();
-})();
+};
+const demoOwnerUrl = inDemoDatabase(adminUrl);
+const demoUrl = inDemoDatabase(process.env.DATABASE_URL!);
 
 let search: SearchStandIn;
 let searchDir: string;
@@ -52,7 +57,8 @@ beforeAll(async () => {
   await admin.connect();
   await admin.query(`CREATE DATABASE ${databaseName}`);
   await admin.end();
-  await runMigrations(demoUrl);
+  await runMigrations(demoOwnerUrl, roleOf(demoUrl));
+  await registerKey(demoOwnerUrl, process.env.REPORT_SIGNING_KEY!, { coverPastDays: 800 });
   searchDir = mkdtempSync(path.join(os.tmpdir(), "tenthmark-demo-search-"));
   search = await startSearchStandIn({ port: await freePort(), dataDir: searchDir });
   firstRun = await runSeed();
