@@ -48,3 +48,6 @@ CREATE CONSTRAINT TRIGGER reports_correction_supersedes_at_commit
   AFTER INSERT OR UPDATE ON "reports"
   DEFERRABLE INITIALLY DEFERRED
   FOR EACH ROW EXECUTE FUNCTION reports_correction_supersedes();
+--> statement-breakpoint
+-- A signed row written directly (not signed from a draft) must carry its credential too.
+ALTER TABLE "reports" ADD CONSTRAINT "reports_signed_has_credential" CHECK ("status" = 'draft' OR "credential" IS NOT NULL) NOT VALID;

@@ -6,7 +6,8 @@
 //   show       print the public key of REPORT_SIGNING_KEY (or of the data folder's key)
 import path from "node:path";
 import { newSigningKeyMultibase, signingKeyFromMultibase } from "../app/modules/reports/signing.server.ts";
-import { localSigningKey, registerKey, signingKeyFile, writeLocalSigningKey } from "./lib/signing-key.ts";
+import { renewSecretOfDataFolder, secretsForDataFolder, SECRETS_FILE } from "./lib/local-secrets.ts";
+import { registerKey } from "./lib/signing-key.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
 const dataDir = path.resolve(root, process.env.TENTHMARK_DATA_DIR ?? ".data");
@@ -29,13 +30,13 @@ async function main(command: string | undefined) {
       return;
     }
     case "rotate": {
-      const key = writeLocalSigningKey(dataDir, newSigningKeyMultibase());
-      console.log(`new key written to ${signingKeyFile(dataDir)} (public key ${signingKeyFromMultibase(key).publicKeyMultibase}).`);
+      const key = renewSecretOfDataFolder(dataDir, "REPORT_SIGNING_KEY");
+      console.log(`new key written to ${path.join(dataDir, SECRETS_FILE)} (public key ${signingKeyFromMultibase(key).publicKeyMultibase}).`);
       console.log("The next `npm start` registers it; reports signed with the old key keep verifying.");
       return;
     }
     case "show": {
-      const key = process.env.REPORT_SIGNING_KEY ?? localSigningKey(dataDir);
+      const key = process.env.REPORT_SIGNING_KEY || secretsForDataFolder(dataDir).REPORT_SIGNING_KEY;
       console.log(signingKeyFromMultibase(key).publicKeyMultibase);
       return;
     }

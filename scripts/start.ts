@@ -11,7 +11,7 @@ import { isPortFree } from "./lib/ports.ts";
 import { startCluster } from "./lib/postgres.ts";
 import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/processes.ts";
 import { seedDemoDataIfEmpty, demoSignIns } from "./lib/seed.ts";
-import { localSigningKey, registerKey } from "./lib/signing-key.ts";
+import { registerKey } from "./lib/signing-key.ts";
 import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
@@ -44,14 +44,14 @@ async function main() {
   }
   log("postgres", `ready at ${databaseUrl}`);
   await runMigrations(ownerUrl, roleOf(databaseUrl));
-  // The data folder's report signing key (made once), unless the environment gives one; registered as current.
-  const signingKey = process.env.REPORT_SIGNING_KEY || localSigningKey(dataDir);
+  // Random secrets made once for this data folder and kept beside its data; the stand-ins check and sign with them.
+  const secrets = secretsForDataFolder(dataDir);
+  // The report signing key (the environment's, or the data folder's), registered as the current key.
+  const signingKey = process.env.REPORT_SIGNING_KEY || secrets.REPORT_SIGNING_KEY;
   const registered = await registerKey(ownerUrl, signingKey, { coverPastDays: 800 });
   if (registered.added) log("app", `report signing key ${registered.id} registered`);
 
   // Fixed stand-in ports by default; TENTHMARK_FREE_PORTS=1 takes free ones (a second copy side by side).
-  // Random secrets made once for this data folder and kept beside its data; the stand-ins check and sign with them.
-  const secrets = secretsForDataFolder(dataDir);
   const standIns = await startStandIns({ dataDir, appOrigin, secrets, ports: process.env.TENTHMARK_FREE_PORTS ? undefined : {} });
   for (const standIn of standIns) onStop(() => standIn.stop());
   // What the environment (or .env) sets wins over a stand-in, even an empty value: that is how a hosted

@@ -16,7 +16,6 @@ import { onStop, startChild, stopAll, stopOnSignals, waitForHttp } from "./lib/p
 import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
 import { ensureChromium } from "./lib/chromium.ts";
 import { registerKey } from "./lib/signing-key.ts";
-import { newSigningKeyMultibase } from "../app/modules/reports/signing.server.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
 
@@ -28,14 +27,13 @@ async function main(): Promise<number> {
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_test" });
   onStop(() => cluster.stop());
   await runMigrations(cluster.ownerUrl, roleOf(cluster.url));
-  // A signing key of this run's own, registered as current.
-  const signingKey = newSigningKeyMultibase();
-  await registerKey(cluster.ownerUrl, signingKey);
 
   const port = await freePort();
   const appOrigin = `http://localhost:${port}`;
   // Fresh random secrets for this run, whatever the shell or .env holds.
   const secrets = freshSecrets();
+  const signingKey = secrets.REPORT_SIGNING_KEY;
+  await registerKey(cluster.ownerUrl, signingKey);
   const standIns = await startStandIns({ dataDir: workDir, appOrigin, secrets });
   for (const standIn of standIns) onStop(() => standIn.stop());
 

@@ -15,7 +15,6 @@ import { startCluster } from "../../scripts/lib/postgres.ts";
 import { onStop, stopAll, stopOnSignals, waitForHttp } from "../../scripts/lib/processes.ts";
 import { standInEnvironment, startStandIns, type StandIn } from "../../scripts/lib/stand-ins.ts";
 import { registerKey } from "../../scripts/lib/signing-key.ts";
-import { newSigningKeyMultibase } from "../../app/modules/reports/signing.server.ts";
 
 const root = path.resolve(import.meta.dirname, "../..");
 
@@ -40,14 +39,14 @@ export async function startBenchServices(): Promise<BenchEnvironment> {
   const cluster = await startCluster({ dataDir: path.join(workDir, "postgres"), port: await freePort(), database: "tenthmark_bench" });
   onStop(() => cluster.stop());
   await runMigrations(cluster.ownerUrl, roleOf(cluster.url));
-  // A signing key of the run's own, in use from 1970 so that the invented reports signed in the past fall inside it.
-  const signingKey = newSigningKeyMultibase();
-  await registerKey(cluster.ownerUrl, signingKey, { now: new Date(0) });
 
   // The app's origin is fixed before the stand-ins start (they are told where it lives).
   const appPort = await freePort();
   const appOrigin = `http://127.0.0.1:${appPort}`;
   const secrets = freshSecrets();
+  const signingKey = secrets.REPORT_SIGNING_KEY;
+  // In use from 1970, so that the invented reports signed in the past fall inside its period.
+  await registerKey(cluster.ownerUrl, signingKey, { now: new Date(0) });
   const standIns = await startStandIns({ dataDir: workDir, appOrigin, secrets });
   for (const standIn of standIns) onStop(() => standIn.stop());
 

@@ -5,6 +5,7 @@
 import { randomBytes } from "node:crypto";
 import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
+import { newSigningKeyMultibase } from "../../app/modules/reports/signing.server.ts";
 
 const random = (bytes: number) => randomBytes(bytes).toString("hex");
 
@@ -15,6 +16,8 @@ const generators = {
   STRIPE_WEBHOOK_SECRET: () => `whsec_${random(32)}`,
   POSTMARK_SERVER_TOKEN: () => random(24),
   MEILISEARCH_API_KEY: () => random(24),
+  // The Ed25519 key that signs report credentials (an Ed25519 Multikey); `npm run signing-key -- rotate` replaces it.
+  REPORT_SIGNING_KEY: () => newSigningKeyMultibase(),
 } satisfies Record<string, () => string>;
 
 export type LocalSecrets = { [name in keyof typeof generators]: string };
@@ -48,4 +51,15 @@ export function secretsForDataFolder(dataDir: string): LocalSecrets {
   // A file copied in or made by hand may be readable by others: tighten it every time.
   chmodSync(file, 0o600);
   return secrets as LocalSecrets;
+}
+
+/** Replaces one secret of a data folder with a new generated value (a key rotation); returns the new value. */
+export function renewSecretOfDataFolder(dataDir: string, name: keyof LocalSecrets): string {
+  secretsForDataFolder(dataDir);
+  const file = path.join(dataDir, SECRETS_FILE);
+  const stored = JSON.parse(readFileSync(file, "utf8")) as Record<string, string>;
+  stored[name] = generators[name]();
+  writeFileSync(file, `${JSON.stringify(stored, null, 2)}\n`, { mode: 0o600 });
+  chmodSync(file, 0o600);
+  return stored[name];
 }

@@ -1,30 +1,9 @@
-// The report signing key on a developer's machine and in tests: one Ed25519 key per data folder, kept in a
-// file only its owner can read, and the registration of a key as the one signing from now on.
-import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
-import path from "node:path";
+// Registering a report signing key as the one signing from now on (the key itself is one of the local
+// secrets of a data folder or run, scripts/lib/local-secrets.ts, or REPORT_SIGNING_KEY in production).
 import { drizzle } from "drizzle-orm/node-postgres";
 import pg from "pg";
-import { newSigningKeyMultibase, registerSigningKey, signingKeyFromMultibase } from "../../app/modules/reports/signing.server.ts";
+import { registerSigningKey, signingKeyFromMultibase } from "../../app/modules/reports/signing.server.ts";
 import * as schema from "../../app/db/schema.ts";
-
-export function signingKeyFile(dataDir: string) {
-  return path.join(dataDir, "secrets", "report-signing-key");
-}
-
-/** The data folder's signing key, made on first use. */
-export function localSigningKey(dataDir: string): string {
-  const file = signingKeyFile(dataDir);
-  if (existsSync(file)) return readFileSync(file, "utf8").trim();
-  return writeLocalSigningKey(dataDir, newSigningKeyMultibase());
-}
-
-export function writeLocalSigningKey(dataDir: string, key: string): string {
-  const file = signingKeyFile(dataDir);
-  mkdirSync(path.dirname(file), { recursive: true, mode: 0o700 });
-  writeFileSync(file, `${key}\n`, { mode: 0o600 });
-  chmodSync(file, 0o600);
-  return key;
-}
 
 /**
  * Registers the key as current (the previous one is retired from now); a key already current is left as it is.

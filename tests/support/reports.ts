@@ -10,7 +10,9 @@ import { bookings, inspectorSlots } from "~/modules/inspections/schema";
 import { listings } from "~/modules/listings/schema";
 import type { ReportContent } from "~/modules/reports/content";
 import { reports } from "~/modules/reports/schema";
+import { buildReportCredential, didWebOf } from "~/modules/reports/credential";
 import { canonicalJson, sha256Hex } from "~/modules/reports/seal.server";
+import { keyFragment, signCredential, signingKeyFromMultibase } from "~/modules/reports/signing.server";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "./accounts";
 
 export const db = getDatabase();
@@ -208,6 +210,7 @@ export async function signedReportAsStoredBeforeTheLimits() {
   const signedAt = new Date();
   const content = { ...asStoredBeforeTheLimits(JSON.parse(signedGood.canonicalJson!) as ReportContent, id, broken.bookingId), signedAt: signedAt.toISOString() };
   content.machine = { ...content.machine, listingId: broken.listing.id, slug: broken.listing.slug };
+  content.inspector = { ...content.inspector, id: broken.inspector.id };
   const canonical = canonicalJson(content);
   await db.insert(reports).values({
     id,
@@ -225,6 +228,15 @@ export async function signedReportAsStoredBeforeTheLimits() {
     canonicalJson: canonical,
     contentHash: sha256Hex(canonical),
     signedAt,
+    // Every signed report carries its credential: the old numbers are signed as they were stored.
+    credential: await credentialFor(content, sha256Hex(canonical)),
   });
   return { id, canonical, broken, signedGood };
+}
+
+/** The signed credential a signed content gets, made with this run's key (for rows a test writes directly). */
+export async function credentialFor(content: ReportContent, contentHash: string): Promise<string> {
+  const key = signingKeyFromMultibase(process.env.REPORT_SIGNING_KEY!);
+  const credential = buildReportCredential(content, contentHash, testAppOrigin);
+  return canonicalJson(await signCredential(credential, key, `${didWebOf(testAppOrigin)}#${keyFragment(key.publicKeyMultibase)}`, content.signedAt!));
 }

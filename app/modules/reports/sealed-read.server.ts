@@ -118,7 +118,7 @@ export async function readSealedReport(db: Executor, row: StoredSealedReport, op
       if (row.inspectorId !== undefined && content.inspector.id !== row.inspectorId) mismatched.push("inspector_id");
     }
   }
-  if (mismatched.length) return refuse(row.id, `The stored ${mismatched.join(", ").replaceAll("_", " ")} no longer match what was signed.`, mismatched);
+  if (mismatched.length) return refuse(row.id, `What is stored (${mismatched.join(", ").replaceAll("_", " ")}) no longer matches what was signed.`, mismatched);
   return { ok: true, subject, keyId };
 }
 

@@ -46,7 +46,6 @@ describe("local secrets", () => {
         DATABASE_URL: "postgres://app@127.0.0.1:54329/tenthmark",
         S3_ACCESS_KEY_ID: "AKIAEXAMPLEACCESS",
         S3_SECRET_ACCESS_KEY: "bucket-account-key",
-        REPORT_SIGNING_KEY: "z3u2en7t5LR2WtQH5PfFqMqwVHBeXouLzo6haApm8XHqvjxq",
         ...one,
       }),
     ).not.toThrow();
