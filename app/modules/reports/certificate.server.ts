@@ -10,6 +10,7 @@ import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
 import { renderReadingsCertificate } from "./certificate-readings.server";
 import { fromMemoryNotice, HOW_SCORING_WORKS_SOURCES, makersChartLine, resultSources } from "./sources";
 import type { PublicReport } from "./service.server";
+import { CREDENTIAL_ATTACHMENT_NAME, CREDENTIAL_MEDIA_TYPE } from "./credential-file";
 
 const require = createRequire(import.meta.url);
 const fonts = {
@@ -33,11 +34,35 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   if (report.notice) return renderReadingsCertificate({ ...report, notice: report.notice });
   const { content } = report;
   const qr = await QRCode.toBuffer(report.verificationUrl, { type: "png", margin: 1, width: 240, errorCorrectionLevel: "M" });
+  // PDF/A-3b (ISO 19005-3): fonts embedded (Manrope from the start, never a standard font), sRGB output
+  // intent and XMP metadata from pdfkit, and the signed credential as an associated file, so the certificate
+  // can be checked offline years later with nothing but the issuer's public keys.
   const doc = new PDFDocument({
     size: "A4",
-    margins: { top: 48, bottom: 48, left: 48, right: 48 },
-    info: { Title: `Accuracy certificate: ${content.machine.title}`, Author: "Tenthmark", Subject: `Report ${report.id}, revision ${content.revision}` },
+    margins: { top: 48, bottom: 60, left: 48, right: 48 },
+    subset: "PDF/A-3b",
+    pdfVersion: "1.7",
+    lang: "en-GB",
+    font: fonts.regular,
+    bufferPages: true,
+    info: {
+      Title: `Accuracy certificate: ${content.machine.title}`,
+      Author: "Tenthmark",
+      Subject: `Report ${report.id}, revision ${content.revision}`,
+      CreationDate: now,
+      ModDate: now,
+    },
   });
+  const signedAt = new Date(report.signedAt);
+  // `relationship` (AFRelationship, required by PDF/A-3) is pdfkit's, missing from its type definitions.
+  doc.file(Buffer.from(report.credential, "utf8"), {
+    name: CREDENTIAL_ATTACHMENT_NAME,
+    type: CREDENTIAL_MEDIA_TYPE,
+    description: "The report as a W3C Verifiable Credential with its eddsa-jcs-2022 proof (Ed25519). Check it at the verification page or with any Data Integrity verifier.",
+    relationship: "Source",
+    creationDate: signedAt,
+    modifiedDate: signedAt,
+  } as PDFKit.Mixins.PDFAttachmentOptions);
   const chunks: Buffer[] = [];
   doc.on("data", (chunk: Buffer) => chunks.push(chunk));
   const finished = new Promise<void>((resolve, reject) => {
@@ -106,7 +131,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
     .font("regular")
     .fontSize(9)
     .fillColor(age.expired ? beyond : muted)
-    .text(`Measured ${formatReportDate(content.measuredOn)} (${age.label})${age.expired ? " — older than 12 months: the machine may have changed since." : ""}`, left + 80, doc.y, { width: width - 80 });
+    .text(`Measured ${formatReportDate(content.measuredOn)}${age.expired ? ` — more than 12 months before this certificate was made (${formatReportDate(now.toISOString())}): the machine may have changed since.` : ""}`, left + 80, doc.y, { width: width - 80 });
   doc.y = Math.max(doc.y, gradeY + 46);
   doc.moveDown(0.4);
   table(
@@ -229,6 +254,30 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   doc.font("regular").fontSize(8.5).fillColor(ink).text(report.verificationUrl, left + 125, doc.y, { width: width - 125, link: report.verificationUrl });
   doc.y = Math.max(doc.y, qrY + 115);
 
+  heading("Signature");
+  const keyId = report.keyId;
+  facts([
+    ["Signed by", `${content.inspector.name} (inspector), issued by Tenthmark`],
+    ["Signing time", formatSignedAt(report.signedAt)],
+    ["Signature", "Ed25519, W3C Data Integrity eddsa-jcs-2022 (RFC 8785 JSON, SHA-256)"],
+    ["Key", `${keyId} — public keys and their periods at /.well-known/did.json`],
+    ["Content hash (SHA-256)", report.contentHash],
+    ["Credential", `embedded in this PDF as ${CREDENTIAL_ATTACHMENT_NAME}; drop this file on the verification page to check it in your browser`],
+  ]);
+
+  // "Page X of Y" on every page, once the page count is known.
+  const range = doc.bufferedPageRange();
+  for (let index = range.start; index < range.start + range.count; index += 1) {
+    doc.switchToPage(index);
+    const bottom = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    doc
+      .font("regular")
+      .fontSize(7.5)
+      .fillColor(muted)
+      .text(`Tenthmark accuracy certificate · report ${report.id} · revision ${content.revision} · page ${index - range.start + 1} of ${range.count}`, left, doc.page.height - 36, { width, align: "center", lineBreak: false });
+    doc.page.margins.bottom = bottom;
+  }
   doc.end();
   await finished;
   return Buffer.concat(chunks);

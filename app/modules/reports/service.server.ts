@@ -661,6 +661,8 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
     isInspector: viewer?.id === report.inspectorId,
     hasCredential: report.credential !== null,
+    /** The signed credential's text, as stored (its proof checked above); embedded in the certificate. */
+    credential: report.credential!,
     /** Set when the signed results cannot be scored or drawn: the readings are shown instead, with this notice. */
     notice: unrenderableNotice(content),
     photoUrls: Object.fromEntries(

@@ -1,11 +1,12 @@
 import { data, Form, Link, useLoaderData } from "react-router";
 import { Badge, Button, Card, CardBody, TextField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
+import { CredentialCheck } from "~/modules/reports/components/credential-check";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
 import { ReportRuleError, verifyReportHash } from "~/modules/reports/service.server";
 import type { Route } from "./+types/verify";
 
-export const meta: Route.MetaFunction = () => [{ title: "Check a report's hash — Tenthmark" }];
+export const meta: Route.MetaFunction = () => [{ title: "Verify a report — Tenthmark" }];
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const hash = new URL(request.url).searchParams.get("hash")?.trim().toLowerCase() ?? "";
@@ -22,7 +23,9 @@ export default function VerifyPage() {
   const { hash, result, error } = useLoaderData<typeof loader>();
   return (
     <div className="mx-auto max-w-3xl px-4 py-10 sm:px-6">
-      <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">Check a report's hash</h1>
+      <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">Verify a report</h1>
+      <CredentialCheck />
+      <h2 className="mt-10 text-xl font-extrabold tracking-tight text-ink-950">Check a report's hash</h2>
       <p className="mt-2 text-ink-600">
         Every signed report carries the SHA-256 hash of its canonical JSON (RFC 8785). Paste the hash from a certificate, or scan its QR code, to see whether it belongs to a report signed on Tenthmark.
       </p>
