@@ -57,7 +57,7 @@ describe("the verify page", () => {
     for (const name of ["signature", "key-validity", "current"]) expect(await result.locator(`[data-check="${name}"]`).getAttribute("data-state")).toBe("passed");
     expect(await result.textContent()).toContain("asked of Tenthmark's server");
     // The file stays in the browser: only the public keys and the report's status were fetched.
-    const fetched = requests.slice(before).map((url) => new URL(url).pathname).filter((path) => !path.startsWith("/assets/"));
+    const fetched = requests.slice(before).map((url) => new URL(url).pathname).filter((path) => !path.startsWith("/assets/") && path !== "/__manifest" && path !== "/favicon.svg");
     expect(fetched.sort()).toEqual(["/.well-known/did.json", `/api/v1/reports/${signed.id}`]);
     await page.setViewportSize({ width: 1280, height: 900 });
     await page.screenshot({ path: `${shots}/verify-valid-desktop.png`, fullPage: true });
