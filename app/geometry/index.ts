@@ -100,3 +100,4 @@ export {
   type PositioningInput,
 } from "./positioning";
 export { circularTest, CIRCULAR_LIMITS, type CircularEvaluation, type RadialReading } from "./circular";
+export { parseDeviationCsv, DEVIATION_CSV_LIMITS, type DeviationColumns } from "./deviation-csv";
