@@ -236,6 +236,48 @@ const table: Record<string, RouteRow> = {
     actions: [{ intent: "decide with nothing chosen", body: () => ({ form: {} }), expect: by({ ...STAFF_ONLY, admin: 422 }) }],
   },
 
+  // Tolerance profiles: staff only; a published version cannot be edited (409), only drafted from.
+  "admin/profiles": {
+    get: by(STAFF_ONLY),
+    actions: [{ intent: "draft from nothing chosen", body: () => ({ form: {} }), expect: by({ ...STAFF_ONLY, admin: 422 }) }],
+  },
+  "admin/profiles/:key/:version": {
+    get: by(STAFF_ONLY),
+    getParams: () => ({ key: "centre-lathe-normal", version: "1" }),
+    actions: [
+      {
+        intent: "retire with no reason",
+        params: () => ({ key: "centre-lathe-normal", version: "1" }),
+        body: () => ({ form: { intent: "retire" } }),
+        expect: by({ ...STAFF_ONLY, admin: 422 }),
+      },
+    ],
+  },
+  "admin/profiles/:key/:version/settings": {
+    get: by({ ...STAFF_ONLY, admin: 409 }),
+    getParams: () => ({ key: "centre-lathe-normal", version: "1" }),
+    actions: [
+      {
+        intent: "change a published version's settings",
+        params: () => ({ key: "centre-lathe-normal", version: "1" }),
+        body: () => ({ form: {} }),
+        expect: by({ ...STAFF_ONLY, admin: 409 }),
+      },
+    ],
+  },
+  "admin/profiles/:key/:version/tests/:code": {
+    get: by({ ...STAFF_ONLY, admin: 409 }),
+    getParams: () => ({ key: "centre-lathe-normal", version: "1", code: "L-SP-NOSE" }),
+    actions: [
+      {
+        intent: "change a published version's test",
+        params: () => ({ key: "centre-lathe-normal", version: "1", code: "L-SP-NOSE" }),
+        body: () => ({ form: {} }),
+        expect: by({ ...STAFF_ONLY, admin: 409 }),
+      },
+    ],
+  },
+
   // Search
   machines: { get: everyone(200), query: "?verified=1&runoutMax=10", actions: "none" },
   "account/saved-searches": {
@@ -439,6 +481,22 @@ const table: Record<string, RouteRow> = {
     ],
   },
 
+  // Payouts and money: the inspector's own earnings, the buyer's own receipts (staff may read any receipt).
+  "inspector/payouts/return": { get: by({ ...INSPECTOR_ONLY, inspectorA: "→/inspector/profile", inspectorB: "→/inspector/profile" }), actions: "none" },
+  // A fresh onboarding link at the payments provider (the stand-in, on loopback).
+  "inspector/payouts/refresh": { get: by({ ...INSPECTOR_ONLY, inspectorA: "→http://127.0.0.1", inspectorB: "→http://127.0.0.1" }), actions: "none" },
+  "inspector/earnings": { get: by({ ...INSPECTOR_ONLY, inspectorA: 200, inspectorB: 200 }), actions: "none" },
+  "inspector/earnings/statements/:file": {
+    get: by({ ...INSPECTOR_ONLY, inspectorA: 200, inspectorB: 200 }),
+    getParams: () => ({ file: "2026-01-eur.csv" }),
+    actions: "none",
+  },
+  "bookings/:bookingId/receipts/:file": {
+    get: by({ visitor: "sign-in", rest: 404, buyer: 200, admin: 200 }),
+    getParams: () => ({ file: "payment.pdf" }),
+    actions: "none",
+  },
+
   // Accuracy reports
   "inspector/bookings/:bookingId/report": {
     get: by({ ...INSPECTOR_ONLY, inspectorA: 200, inspectorB: 404 }),
@@ -570,6 +628,7 @@ function defaultParams(): Params {
     reportId: fx.reportId,
     photoId: randomId(),
     variant: "thumb",
+    file: "payment.pdf",
     "*": fx.photoKey,
   };
 }
