@@ -466,7 +466,7 @@ export async function settleRefund(db: Database, bookingId: string, actorId: str
     });
     if (refund.status !== "failed" && refund.status !== "canceled") {
       asked += record.amountMinor;
-      await notify(db, [{ bookingId, notice: { kind: "refunded", amountMinor: record.amountMinor, pending: refund.status === "pending" } }]);
+      await notify(db, [{ bookingId, notice: { kind: "refunded", amountMinor: record.amountMinor, pending: refund.status === "pending", refundId: record.id } }]);
     }
     await afterRefundStates(db, bookingId, effects);
   }

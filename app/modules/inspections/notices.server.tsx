@@ -17,7 +17,7 @@ export type BookingNotice =
   | { kind: "declined"; reason: string }
   | { kind: "cancelled_by_buyer"; reason: string }
   | { kind: "cancelled_by_inspector"; reason: string }
-  | { kind: "refunded"; amountMinor: number; pending?: boolean }
+  | { kind: "refunded"; amountMinor: number; pending?: boolean; refundId?: string }
   | { kind: "refund_failed"; amountMinor: number; reason: string }
   | { kind: "expired" }
   | { kind: "payment_processing" }
@@ -57,6 +57,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
   const seller = machine.sellerId !== booking.buyerId ? person(machine.sellerId) : undefined;
   const origin = env().APP_ORIGIN;
   const buyerLink = { href: `${origin}/bookings/${booking.id}`, label: "Open the booking" };
+  const receiptAddress = (file: string) => `${origin}/bookings/${booking.id}/receipts/${file}.pdf`;
   const inspectorLink = { href: `${origin}/inspector/bookings/${booking.id}`, label: "Open the request" };
   const what = `${machine.make} ${machine.model} in ${machine.city}`;
   // The visit's time where the machine stands, with UTC beside it.
@@ -74,7 +75,11 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
         to: buyer.email,
         subject: `Inspection ${ref} paid — waiting for ${inspector.name}`,
         heading: "Your inspection is paid",
-        paragraphs: [`We received ${fee} for the inspection of the ${what} on ${slot}.`, `${inspector.name} will accept or decline shortly; if they decline, the whole fee is refunded.`],
+        paragraphs: [
+          `We received ${fee} for the inspection of the ${what} on ${slot}.`,
+          `${inspector.name} will accept or decline shortly; if they decline, the whole fee is refunded.`,
+          `Your receipt (PDF, after signing in): ${receiptAddress("payment")}`,
+        ],
         action: buyerLink,
         reason: forBuyer,
       });
@@ -146,7 +151,9 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
           notice.pending
             ? `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. Your bank is still processing it (refund pending); it can take a few more working days.`
             : `We refunded ${formatMoney(notice.amountMinor, booking.currency)} for the inspection of the ${what}. It shows on your statement within a few working days.`,
-          "Your receipt for the refund (PDF) is on the booking page.",
+          notice.refundId
+            ? `Your receipt for the refund (PDF, after signing in): ${receiptAddress(`refund-${notice.refundId}`)}`
+            : "Your receipt for the refund (PDF) is on the booking page.",
         ],
         action: buyerLink,
         reason: forBuyer,

@@ -5,8 +5,8 @@ import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking } fr
 import { SlotTakenError } from "~/modules/inspections/errors";
 import { eligibleInspectors } from "~/modules/inspections/profiles.server";
 import { bookingRefunds, bookings } from "~/modules/inspections/schema";
-import { createTestUser } from "../../support/accounts";
-import { latestEmailTo } from "../../support/mailbox";
+import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
+import { latestEmailTo, linkIn } from "../../support/mailbox";
 import { bookingRow, certifiedInspector, completedSession, db, heldBooking, postWebhook, publishedLathe, signedEvent } from "../../support/inspections";
 
 async function paidBooking() {
@@ -93,6 +93,14 @@ describe("booking an inspector's slot", () => {
     expect(declined.text).toContain("I am at another site that week.");
     const refunded = await latestEmailTo(held.buyer.email, { matching: (message) => message.subject.startsWith("Refund of") });
     expect(refunded.subject).toContain("€420");
+    // The e-mails link the buyer's receipts (PDF), which open for the buyer once signed in.
+    const paidMail = await latestEmailTo(held.buyer.email, { matching: (message) => message.subject.includes("paid") });
+    const buyerCookie = await signInCookie(held.buyer.email, held.buyer.password);
+    for (const receipt of [linkIn(paidMail, `${testAppOrigin}/bookings/${held.bookingId}/receipts/payment.pdf`), linkIn(refunded, `${testAppOrigin}/bookings/${held.bookingId}/receipts/refund-${refunds[0]!.id}.pdf`)]) {
+      const response = await fetch(receipt, { headers: { cookie: buyerCookie } });
+      expect(response.status, receipt).toBe(200);
+      expect(response.headers.get("content-type")).toContain("application/pdf");
+    }
     // Declining again changes nothing and refunds nothing more.
     await declineBooking(db, held.inspector, held.bookingId, "Again");
     expect(await db.select().from(bookingRefunds).where(eq(bookingRefunds.bookingId, held.bookingId))).toHaveLength(1);
