@@ -105,6 +105,8 @@ describe("payouts and refunds in the browser", () => {
     for (const size of sizes) {
       const { context, page } = await newRecordedPage(browser, size);
       await signInPage(page, held.buyer.email, held.buyer.password, `/bookings/${held.bookingId}`);
+      // The URL leaves /sign-in before the booking page has rendered: wait for its refunds.
+      await page.getByTestId("refund").nth(1).waitFor();
       const states = await page.getByTestId("refund").allTextContents();
       expect(states.join(" | ")).toMatch(/Refund pending/);
       expect(states.join(" | ")).toMatch(/Refund failed — staff notified/);
@@ -123,6 +125,7 @@ describe("payouts and refunds in the browser", () => {
 
     const { context, page } = await newRecordedPage(browser, sizes[2]);
     await signInPage(page, admin.email, admin.password, "/admin/payments");
+    await page.getByTestId("staff-refund").first().waitFor();
     const staffView = (await page.getByTestId("staff-refund").allTextContents()).join(" | ");
     expect(staffView).toMatch(/Refund pending/);
     expect(staffView).toMatch(/Refund failed — staff notified/);
