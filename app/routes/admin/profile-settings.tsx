@@ -6,22 +6,16 @@ import { databaseContext } from "~/db/context";
 import { MACHINE_CATEGORIES } from "~/geometry";
 import { FormMessage } from "~/modules/accounts/components/auth-card";
 import { StaffNav } from "~/modules/accounts/components/staff-nav";
-import { requireRole } from "~/modules/accounts/guards.server";
 import { Choice, Field, SourceFields } from "~/modules/profiles/components/fields";
 import { settingsFormSchema, settingsToForm } from "~/modules/profiles/editor";
-import { getProfileVersion, ProfileRuleError, saveDraftSettings } from "~/modules/profiles/service.server";
+import { requireOwnDraft } from "~/modules/profiles/guards.server";
+import { ProfileRuleError, saveDraftSettings } from "~/modules/profiles/service.server";
 import type { Route } from "./+types/profile-settings";
 
 export const meta: Route.MetaFunction = () => [{ title: "Scope and rules — Tenthmark staff" }];
 
-async function draftOf(request: Request, context: Route.LoaderArgs["context"], params: Route.LoaderArgs["params"]) {
-  const staff = await requireRole(request, "admin");
-  const version = Number(params.version);
-  const found = Number.isInteger(version) && version > 0 ? await getProfileVersion(context.get(databaseContext), params.key, version) : null;
-  if (!found) throw data("There is no such version.", { status: 404 });
-  if (found.summary.status !== "draft") throw data("A published version cannot be changed; draft a new version.", { status: 409 });
-  if (found.summary.authorId !== staff.id) throw data("Only the draft's author edits it; a second staff member reviews and publishes.", { status: 403 });
-  return { staff, found, version };
+function draftOf(request: Request, context: Route.LoaderArgs["context"], params: Route.LoaderArgs["params"]) {
+  return requireOwnDraft(request, context.get(databaseContext), params.key, params.version);
 }
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {

@@ -6,24 +6,18 @@ import { databaseContext } from "~/db/context";
 import { ALLOWED_DIRECTIONS, EVALUATION_METHODS, STRAIGHTNESS_REFERENCES } from "~/geometry";
 import { FormMessage } from "~/modules/accounts/components/auth-card";
 import { StaffNav } from "~/modules/accounts/components/staff-nav";
-import { requireRole } from "~/modules/accounts/guards.server";
 import { Choice, Field, SourceFields } from "~/modules/profiles/components/fields";
 import { blankTest, DIRECTION_NAMES, STEP_ROWS, testFormSchema, testToForm } from "~/modules/profiles/editor";
-import { getProfileVersion, ProfileRuleError, saveDraftTest } from "~/modules/profiles/service.server";
+import { requireOwnDraft } from "~/modules/profiles/guards.server";
+import { ProfileRuleError, saveDraftTest } from "~/modules/profiles/service.server";
 import type { Route } from "./+types/profile-test";
 
 export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ? `${loaded.isNew ? "New test" : loaded.code} — Tenthmark staff` : "Test — Tenthmark staff" }];
 
 const NEW = "new";
 
-async function draftOf(request: Request, context: Route.LoaderArgs["context"], params: Route.LoaderArgs["params"]) {
-  const staff = await requireRole(request, "admin");
-  const version = Number(params.version);
-  const found = Number.isInteger(version) && version > 0 ? await getProfileVersion(context.get(databaseContext), params.key, version) : null;
-  if (!found) throw data("There is no such version.", { status: 404 });
-  if (found.summary.status !== "draft") throw data("A published version cannot be changed; draft a new version.", { status: 409 });
-  if (found.summary.authorId !== staff.id) throw data("Only the draft's author edits it; a second staff member reviews and publishes.", { status: 403 });
-  return { staff, found, version };
+function draftOf(request: Request, context: Route.LoaderArgs["context"], params: Route.LoaderArgs["params"]) {
+  return requireOwnDraft(request, context.get(databaseContext), params.key, params.version);
 }
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {

@@ -11,6 +11,7 @@ import { categoryLabel, inspectionCategories, parseProfileForm, SLOT_DURATIONS, 
 import { DOCUMENT_MAX_BYTES, documentLimitText } from "~/modules/files/limits";
 import { StorageUnavailableError } from "~/modules/files/storage.server";
 import { currencies, fromMinorUnits } from "~/modules/units/format";
+import { formId } from "~/modules/validation/text";
 import { z } from "zod";
 import type { Route } from "./+types/inspector-profile-edit";
 
@@ -50,7 +51,9 @@ export async function action({ request, context }: Route.ActionArgs) {
         return { intent, errors: null, message: added === 1 ? "Slot added." : `${added} slots added.` } satisfies Result;
       }
       case "remove-slot": {
-        await removeSlot(db, user.id, String(form.get("slotId") ?? ""));
+        const slotId = formId("slot").safeParse(form.get("slotId"));
+        if (!slotId.success) return result(intent, { slotId: slotId.error.issues.map((issue) => issue.message) }, 422);
+        await removeSlot(db, user.id, slotId.data);
         return { intent, errors: null, message: "Slot removed." } satisfies Result;
       }
       case "payouts": {
