@@ -13,6 +13,7 @@ export { totalIndicatorReading, mandrelInclination, type MandrelReadings } from 
 export {
   straightnessDeviation,
   straightnessEvaluation,
+  straightnessReferenceLine,
   profileShape,
   localStraightness,
   STRAIGHTNESS_REFERENCES,

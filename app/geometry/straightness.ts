@@ -191,6 +191,33 @@ export function straightnessEvaluation(
   return evaluateRun(sorted, whole(sorted), reference);
 }
 
+/**
+ * The reference line itself, where each method puts it (ISO 230-1 §3.4 on reference lines, from memory):
+ * end points, the line through the first and last station; least squares, the regression line, through the
+ * mean station and mean reading; minimum zone, the centre line of the narrowest band. `slope` is the
+ * evaluation's (a signed report's sealed slope), so a plot drawn from it sits where the score was computed.
+ */
+export function straightnessReferenceLine(
+  points: readonly ProfilePoint[],
+  reference: StraightnessReference,
+  slope: number,
+): ReferenceLine {
+  const sorted = [...points].sort((a, b) => a.x - b.x);
+  switch (reference) {
+    case "end-points":
+      return { slope, intercept: sorted[0]!.y - slope * sorted[0]!.x };
+    case "least-squares": {
+      const meanX = sorted.reduce((sum, point) => sum + point.x, 0) / sorted.length;
+      const meanY = sorted.reduce((sum, point) => sum + point.y, 0) / sorted.length;
+      return { slope, intercept: meanY - slope * meanX };
+    }
+    default: {
+      const { top, bottom } = bandAround(sorted, whole(sorted), slope);
+      return { slope, intercept: (top + bottom) / 2 };
+    }
+  }
+}
+
 /** Width (µm) of the band parallel to the reference line that holds every point. */
 export function straightnessDeviation(points: readonly ProfilePoint[], reference: StraightnessReference): number {
   return straightnessEvaluation(points, reference).deviation;

@@ -1,7 +1,7 @@
 // Plots as inline SVG: a straightness profile with its reference line and tolerance band, mandrel readings
 // near and far at 0° and 180°, and indicator readings around a revolution. No chart library needed.
 import type { TestMeasurement, TestResult } from "~/geometry";
-import { micrometresToInches } from "~/geometry";
+import { micrometresToInches, straightnessReferenceLine } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
 
 const W = 640;
@@ -119,7 +119,13 @@ function linear(domain: [number, number], range: [number, number]): Scale {
 export function ProfilePlot({ points, result, units, title }: { points: { station: number; reading: number }[]; result: TestResult | null; units: DisplayUnits; title: string }) {
   if (points.length < 2) return null;
   const sorted = [...points].sort((a, b) => a.station - b.station);
+  // The engine's line is the middle of the band holding the readings; the reference itself sits where its
+  // method puts it (through the end points, through the mean, or the minimum zone's centre line).
   const line = result?.straightness?.line;
+  const reference =
+    line && result?.straightness
+      ? straightnessReferenceLine(sorted.map((point) => ({ x: point.station, y: point.reading })), result.straightness.reference, line.slope)
+      : null;
   const tolerance = result?.tolerance ?? 0;
   const xs = sorted.map((point) => point.station);
   const [xMin, xMax] = [Math.min(...xs), Math.max(...xs)];
@@ -154,15 +160,17 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
           {line ? (
             <>
               <polygon points={[at(xMin, tolerance / 2), at(xMax, tolerance / 2), at(xMax, -tolerance / 2), at(xMin, -tolerance / 2)].join(" ")} fill={colours.withinSoft} opacity="0.9" />
-              <line x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept)} y2={y(line.slope * xMax + line.intercept)} stroke={colours.brass} strokeWidth="1.5" />
               {[result!.value / 2, -result!.value / 2].map((offset) => (
-                <line key={offset} x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept + offset)} y2={y(line.slope * xMax + line.intercept + offset)} stroke={result!.pass ? colours.ink : colours.beyond} strokeDasharray="4 3" strokeWidth="1" />
+                <line key={offset} data-plot="band-edge" x1={x(xMin)} x2={x(xMax)} y1={y(line.slope * xMin + line.intercept + offset)} y2={y(line.slope * xMax + line.intercept + offset)} stroke={result!.pass ? colours.ink : colours.beyond} strokeDasharray="4 3" strokeWidth="1" />
               ))}
             </>
           ) : null}
+          {reference ? (
+            <line data-plot="reference-line" x1={x(xMin)} x2={x(xMax)} y1={y(reference.slope * xMin + reference.intercept)} y2={y(reference.slope * xMax + reference.intercept)} stroke={colours.brass} strokeWidth="1.5" />
+          ) : null}
           <polyline points={sorted.map((point) => `${x(point.station)},${y(point.reading)}`).join(" ")} fill="none" stroke={colours.ink} strokeWidth="1.5" />
           {sorted.map((point) => (
-            <circle key={point.station} cx={x(point.station)} cy={y(point.reading)} r="3.5" fill="white" stroke={colours.ink} strokeWidth="1.5" />
+            <circle key={point.station} data-plot="reading" cx={x(point.station)} cy={y(point.reading)} r="3.5" fill="white" stroke={colours.ink} strokeWidth="1.5" />
           ))}
         </svg>
         {line ? (
