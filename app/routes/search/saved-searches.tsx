@@ -66,7 +66,7 @@ export default function SavedSearches({ loaderData }: Route.ComponentProps) {
         <div>
           <h1 className="text-3xl font-extrabold text-ink-900">Saved searches</h1>
           <p className="mt-1 max-w-2xl text-ink-600">
-            We e-mail you once when a machine matching a saved search is listed, and once more when it is verified by an inspector.
+            We e-mail you once when a machine matching a saved search is listed, and once more when it is verified by an inspector: one message per machine, naming every search of yours it matches.
           </p>
         </div>
         <ButtonLink to="/machines" variant="secondary">

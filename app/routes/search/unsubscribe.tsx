@@ -12,7 +12,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const token = new URL(request.url).searchParams.get("token") ?? "";
   const found = await savedSearchForToken(context.get(databaseContext), token);
   // A cut-short or forged link shows the page that says so, as a 404.
-  return data({ token, found: found ? { name: found.name, alertsEnabled: found.alertsEnabled } : null }, { status: found ? 200 : 404 });
+  return data({ token, found: found ? { names: found.names, alertsEnabled: found.alertsEnabled } : null }, { status: found ? 200 : 404 });
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
@@ -24,8 +24,15 @@ export async function action({ request, context }: Route.ActionArgs) {
   return data({ stopped }, { status: stopped ? 200 : 404 });
 }
 
+/** “A”, “A” and “B”, “A”, “B” and “C”. */
+function quoted(names: string[]) {
+  const each = names.map((name) => `“${name}”`);
+  return each.length <= 1 ? (each[0] ?? "") : `${each.slice(0, -1).join(", ")} and ${each.at(-1)}`;
+}
+
 export default function Unsubscribe({ loaderData, actionData }: Route.ComponentProps) {
   const { token, found } = loaderData;
+  const several = (found?.names.length ?? 0) > 1;
   return (
     <div className="mx-auto max-w-xl px-4 py-16 sm:px-6">
       <Card className="p-6 sm:p-8">
@@ -33,7 +40,7 @@ export default function Unsubscribe({ loaderData, actionData }: Route.ComponentP
           <>
             <h1 className="text-2xl font-extrabold text-ink-900">Alerts stopped</h1>
             <p className="mt-2 text-ink-700">
-              You will get no more e-mails for {found ? `“${found.name}”` : "this saved search"}. The search itself is still saved; turn its alerts on again
+              You will get no more e-mails for {found ? quoted(found.names) : "this saved search"}. {several ? "The searches are" : "The search itself is"} still saved; turn alerts on again
               under{" "}
               <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
                 Saved searches
@@ -43,8 +50,8 @@ export default function Unsubscribe({ loaderData, actionData }: Route.ComponentP
           </>
         ) : found ? (
           <>
-            <h1 className="text-2xl font-extrabold text-ink-900">Stop alerts for “{found.name}”?</h1>
-            <p className="mt-2 text-ink-700">We will stop e-mailing you about new machines that match this saved search.</p>
+            <h1 className="text-2xl font-extrabold text-ink-900">Stop alerts for {quoted(found.names)}?</h1>
+            <p className="mt-2 text-ink-700">We will stop e-mailing you about new machines that match {several ? "these saved searches" : "this saved search"}.</p>
             <Form method="post" className="mt-6">
               <input type="hidden" name="token" value={token} />
               <Button type="submit">Stop these alerts</Button>

@@ -9,30 +9,37 @@ export type AlertedMachine = {
   listingUrl: string;
 };
 
+/** “A”, “A” and “B”, “A”, “B” and “C”. */
+export function quotedList(names: string[]): string {
+  const quoted = names.map((name) => `“${name}”`);
+  return quoted.length <= 1 ? (quoted[0] ?? "") : `${quoted.slice(0, -1).join(", ")} and ${quoted.at(-1)}`;
+}
+
+/** One message per machine and person, naming every saved search of theirs that it matches. */
 export function SavedSearchAlertEmail({
-  searchName,
+  searches,
   occasion,
   machine,
-  searchUrl,
   unsubscribeUrl,
 }: {
-  searchName: string;
+  searches: { name: string; url: string }[];
   occasion: "listed" | "verified";
   machine: AlertedMachine;
-  searchUrl: string;
   unsubscribeUrl: string;
 }) {
   const heading = occasion === "verified" ? `Now verified: ${machine.title}` : `Newly listed: ${machine.title}`;
+  const names = quotedList(searches.map((search) => search.name));
+  const which = searches.length === 1 ? `your saved search ${names}` : `your saved searches ${names}`;
   return (
     <EmailLayout
-      preview={`${machine.title} matches your saved search “${searchName}”.`}
-      reason={`You receive this because you saved the search “${searchName}” on Tenthmark with e-mail alerts. Stop these alerts with one click: ${unsubscribeUrl}`}
+      preview={`${machine.title} matches ${which}.`}
+      reason={`You receive this because you saved ${searches.length === 1 ? "the search" : "the searches"} ${names} on Tenthmark with e-mail alerts. Stop ${searches.length === 1 ? "these alerts" : "alerts for them"} with one click: ${unsubscribeUrl}`}
     >
       <EmailHeading>{heading}</EmailHeading>
       <EmailParagraph>
         {occasion === "verified"
-          ? `An inspector has signed an accuracy report for this machine, and it now matches your saved search “${searchName}”.`
-          : `This machine was just listed and matches your saved search “${searchName}”.`}
+          ? `An inspector has signed an accuracy report for this machine, and it now matches ${which}.`
+          : `This machine was just listed and matches ${which}.`}
       </EmailParagraph>
       <EmailPanel>
         <strong>{machine.title}</strong>
@@ -43,9 +50,11 @@ export function SavedSearchAlertEmail({
         {machine.accuracy ?? "Not yet verified"}
       </EmailPanel>
       <EmailAction href={machine.listingUrl}>Open the listing</EmailAction>
-      <EmailParagraph>
-        See everything that matches: {searchUrl}
-      </EmailParagraph>
+      {searches.map((search) => (
+        <EmailParagraph key={search.url}>
+          Everything that matches “{search.name}”: {search.url}
+        </EmailParagraph>
+      ))}
     </EmailLayout>
   );
 }

@@ -1,13 +1,18 @@
 // Saved searches: a buyer keeps a search under a name and hears by e-mail when a listing that matches it is
 // newly listed or newly verified. Each alert is sent once (a row per saved search, listing and occasion),
-// through the mail queue, with a signed one-click unsubscribe link.
+// through the mail queue, with a signed one-click unsubscribe link. One event makes at most one e-mail per
+// person: every matching search of theirs is named in it, and nothing is sent to the people the report
+// notice already told.
 import { createHmac, timingSafeEqual } from "node:crypto";
-import { and, asc, count, eq, lt, notExists, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, lt, notExists, sql } from "drizzle-orm";
 import { data } from "react-router";
 import type { Database } from "~/db/client.server";
 import { env, sessionSecret } from "~/env.server";
 import type { SessionUser } from "~/modules/accounts/guards.server";
 import { user } from "~/modules/accounts/schema";
+import { bookings } from "~/modules/inspections/schema";
+import { listings } from "~/modules/listings/schema";
+import { reports } from "~/modules/reports/schema";
 import { countryName } from "~/modules/listings/catalogue";
 import { queueEmail } from "~/modules/mail/mail.server";
 import { renderEmail } from "~/modules/mail/render.server";
@@ -35,6 +40,16 @@ function queryOf(queryString: string): ListingSearchQuery | null {
   return parsed.success ? parsed.query : null;
 }
 
+/**
+ * What makes two searches the same: the canonical parameters (µm and mm, whatever units the form sent),
+ * with list values in a fixed order. Inch and metric forms of one search compare equal.
+ */
+export function searchIdentity(query: ListingSearchQuery): string {
+  const params = paramsFromQuery(query);
+  const pairs = [...params.entries()].sort(([a, x], [b, y]) => (a === b ? x.localeCompare(y) : a.localeCompare(b)));
+  return new URLSearchParams(pairs).toString();
+}
+
 export async function saveSearch(db: Database, owner: SessionUser, input: { name: string; queryString: string }) {
   const query = queryOf(input.queryString);
   if (!query) throw new SavedSearchRuleError("This search has a filter that is not valid any more; change it and save again.");
@@ -42,8 +57,19 @@ export async function saveSearch(db: Database, owner: SessionUser, input: { name
   return db.transaction(async (tx) => {
     // Serialises one person's saves, so the limit holds with two tabs.
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`saved-searches:${owner.id}`}))`);
-    const [{ saved }] = await tx.select({ saved: count() }).from(savedSearches).where(eq(savedSearches.userId, owner.id));
-    if (saved >= SAVED_SEARCHES_PER_USER) {
+    const existing = await tx
+      .select({ name: savedSearches.name, queryString: savedSearches.queryString })
+      .from(savedSearches)
+      .where(eq(savedSearches.userId, owner.id));
+    const identity = searchIdentity(query);
+    const same = existing.find((row) => {
+      const kept = queryOf(row.queryString);
+      return kept !== null && searchIdentity(kept) === identity;
+    });
+    if (same) {
+      throw new SavedSearchRuleError(`You already keep this search as “${same.name}” (the same filters, whatever units they were given in).`);
+    }
+    if (existing.length >= SAVED_SEARCHES_PER_USER) {
       throw new SavedSearchRuleError(`You can keep up to ${SAVED_SEARCHES_PER_USER} saved searches; delete one you no longer need first.`);
     }
     const [created] = await tx
@@ -93,40 +119,47 @@ export async function setSavedSearchAlerts(db: Database, owner: SessionUser, sav
 
 // ————— One-click unsubscribe —————
 
-function signature(savedSearchId: string) {
-  return createHmac("sha256", sessionSecret()).update(`saved-search-unsubscribe:${savedSearchId}`).digest("base64url");
+const MAX_SEARCHES_PER_TOKEN = SAVED_SEARCHES_PER_USER;
+
+function signature(ids: string[]) {
+  return createHmac("sha256", sessionSecret()).update(`saved-search-unsubscribe:${ids.join("~")}`).digest("base64url");
 }
 
-/** `<id>.<HMAC>`: stops one saved search's alerts without signing in, and nothing else. */
-export function unsubscribeToken(savedSearchId: string) {
-  return `${savedSearchId}.${signature(savedSearchId)}`;
+/** `<id>[~<id>…].<HMAC>`: stops the alerts of these saved searches without signing in, and nothing else. */
+export function unsubscribeToken(savedSearchIds: string | string[]) {
+  const ids = typeof savedSearchIds === "string" ? [savedSearchIds] : savedSearchIds;
+  return `${ids.join("~")}.${signature(ids)}`;
 }
 
-function savedSearchIdOf(token: string): string | null {
-  const [id, mac] = token.split(".");
-  if (!id || !mac || !/^[0-9a-f-]{36}$/i.test(id)) return null;
-  const expected = Buffer.from(signature(id));
+function savedSearchIdsOf(token: string): string[] | null {
+  if (token.length > 40 * MAX_SEARCHES_PER_TOKEN + 100) return null;
+  const [joined, mac, extra] = token.split(".");
+  if (!joined || !mac || extra !== undefined) return null;
+  const ids = joined.split("~");
+  if (ids.length > MAX_SEARCHES_PER_TOKEN || !ids.every((id) => /^[0-9a-f-]{36}$/i.test(id))) return null;
+  const expected = Buffer.from(signature(ids));
   const given = Buffer.from(mac);
-  return expected.length === given.length && timingSafeEqual(expected, given) ? id : null;
+  return expected.length === given.length && timingSafeEqual(expected, given) ? ids : null;
 }
 
-/** What the unsubscribe page shows for a token; null for a forged token or a deleted search. */
+/** What the unsubscribe page shows for a token; null for a forged token or deleted searches. */
 export async function savedSearchForToken(db: Database, token: string) {
-  const id = savedSearchIdOf(token);
-  if (!id) return null;
-  const [row] = await db
-    .select({ name: savedSearches.name, alertsEnabled: savedSearches.alertsEnabled, email: user.email })
+  const ids = savedSearchIdsOf(token);
+  if (!ids) return null;
+  const rows = await db
+    .select({ name: savedSearches.name, alertsEnabled: savedSearches.alertsEnabled })
     .from(savedSearches)
-    .innerJoin(user, eq(user.id, savedSearches.userId))
-    .where(eq(savedSearches.id, id));
-  return row ?? null;
+    .where(inArray(savedSearches.id, ids))
+    .orderBy(asc(savedSearches.createdAt));
+  if (!rows.length) return null;
+  return { names: rows.map((row) => row.name), alertsEnabled: rows.some((row) => row.alertsEnabled) };
 }
 
-/** Turns the alerts of the token's saved search off; false when the token is not valid (or the search is gone). */
+/** Turns the alerts of the token's saved searches off; false when the token is not valid (or the searches are gone). */
 export async function unsubscribeWithToken(db: Database, token: string): Promise<boolean> {
-  const id = savedSearchIdOf(token);
-  if (!id) return false;
-  const updated = await db.update(savedSearches).set({ alertsEnabled: false }).where(eq(savedSearches.id, id)).returning({ id: savedSearches.id });
+  const ids = savedSearchIdsOf(token);
+  if (!ids) return false;
+  const updated = await db.update(savedSearches).set({ alertsEnabled: false }).where(inArray(savedSearches.id, ids)).returning({ id: savedSearches.id });
   return updated.length > 0;
 }
 
@@ -144,10 +177,25 @@ function accuracyLine(source: SourceListing, units: DisplayUnits): string | null
   return [`Grade ${document.grade}`, ...figures].join(" · ");
 }
 
+/** The people a signed report's own notice goes to (the buyer who booked, the seller): they hear of it once, there. */
+async function toldByReportNotice(db: Database, reportId: string): Promise<Set<string>> {
+  const [row] = await db
+    .select({ buyerId: bookings.buyerId, sellerId: listings.sellerId })
+    .from(reports)
+    .innerJoin(bookings, eq(bookings.id, reports.bookingId))
+    .innerJoin(listings, eq(listings.id, reports.listingId))
+    .where(eq(reports.id, reportId));
+  return new Set(row ? [row.buyerId, row.sellerId] : []);
+}
+
+type OwedAlert = { search: typeof savedSearches.$inferSelect; email: string; units: DisplayUnits; occasion: Occasion };
+
 /**
  * Sends the alerts a just-indexed published listing owes: to every saved search (alerts on) made before
  * the listing was published, or before its current report was signed, that matches it and has not heard
  * about it for that occasion. Matching asks the index (or PostgreSQL) with `id = <listing> AND <search>`.
+ * A person with several matching searches gets one e-mail naming them all; a person the report notice
+ * told about the verification gets none (their searches are marked as told).
  */
 export async function alertSavedSearchesAbout(db: Database, finder: ListingFinder, source: SourceListing, now: Date): Promise<number> {
   const { listing } = source;
@@ -157,7 +205,7 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
   if (verified && source.reportSignedAt) occasions.push({ occasion: "verified", at: source.reportSignedAt });
   if (listing.publishedAt) occasions.push({ occasion: "listed", at: listing.publishedAt });
 
-  const owed = new Map<string, { search: typeof savedSearches.$inferSelect; email: string; units: DisplayUnits; occasion: Occasion }>();
+  const owed = new Map<string, OwedAlert>();
   for (const { occasion, at } of occasions) {
     const candidates = await db
       .select({ search: savedSearches, email: user.email, units: user.displayUnits })
@@ -185,48 +233,70 @@ export async function alertSavedSearchesAbout(db: Database, finder: ListingFinde
     for (const candidate of candidates) if (!owed.has(candidate.search.id)) owed.set(candidate.search.id, { ...candidate, occasion });
   }
 
-  let sent = 0;
-  for (const { search, email, units, occasion } of owed.values()) {
-    const query = queryOf(search.queryString);
+  // The matching searches, by person.
+  const byPerson = new Map<string, OwedAlert[]>();
+  for (const alert of owed.values()) {
+    const query = queryOf(alert.search.queryString);
     if (!query) continue;
     const match = await finder.find({ ...query, ids: [listing.id], page: 1, hitsPerPage: 1, facets: [] });
     if (match.totalHits === 0) continue;
-    const origin = env().APP_ORIGIN;
-    const unsubscribeUrl = `${origin}/saved-searches/unsubscribe?token=${encodeURIComponent(unsubscribeToken(search.id))}`;
-    const message = await renderEmail(
-      SavedSearchAlertEmail({
-        searchName: search.name,
-        occasion,
-        machine: {
-          title: `${listing.make} ${listing.model}`.trim(),
-          place: [listing.city, countryName(listing.country)].filter(Boolean).join(", "),
-          price: listing.priceMinor !== null && listing.currency ? formatMoney(listing.priceMinor, listing.currency) : null,
-          accuracy: accuracyLine(source, units),
-          listingUrl: `${origin}/machines/${listing.slug}`,
-        },
-        searchUrl: `${origin}/machines?${search.queryString}`,
-        unsubscribeUrl,
-      }),
-    );
+    const list = byPerson.get(alert.search.userId) ?? [];
+    list.push(alert);
+    byPerson.set(alert.search.userId, list);
+  }
+  if (!byPerson.size) return 0;
+
+  const verifiedNews = [...owed.values()].some((alert) => alert.occasion === "verified");
+  const toldAlready = verifiedNews && source.report ? await toldByReportNotice(db, source.report.id) : new Set<string>();
+  const origin = env().APP_ORIGIN;
+  const title = `${listing.make} ${listing.model}`.trim();
+
+  let sent = 0;
+  for (const [personId, alerts] of byPerson) {
+    alerts.sort((a, b) => a.search.createdAt.getTime() - b.search.createdAt.getTime());
+    const occasion: Occasion = alerts.some((alert) => alert.occasion === "verified") ? "verified" : "listed";
+    const silent = occasion === "verified" && toldAlready.has(personId);
     const queued = await db.transaction(async (tx) => {
       const marked = await tx
         .insert(savedSearchAlerts)
         .values(
-          (occasion === "verified" ? (["verified", "listed"] as const) : (["listed"] as const)).map((each) => ({
-            savedSearchId: search.id,
-            listingId: listing.id,
-            occasion: each,
-            sentAt: now,
-          })),
+          alerts.flatMap(({ search, occasion: each }) =>
+            (each === "verified" ? (["verified", "listed"] as const) : (["listed"] as const)).map((kind) => ({
+              savedSearchId: search.id,
+              listingId: listing.id,
+              occasion: kind,
+              sentAt: now,
+            })),
+          ),
         )
         .onConflictDoNothing()
-        .returning({ occasion: savedSearchAlerts.occasion });
-      if (!marked.some((row) => row.occasion === occasion)) return false;
-      // Queued in the transaction: the alert is marked as sent and its e-mail queued together, or neither.
+        .returning({ savedSearchId: savedSearchAlerts.savedSearchId, occasion: savedSearchAlerts.occasion });
+      // Another worker may have told some of them meanwhile: name only the searches this run marked.
+      const fresh = alerts.filter(({ search, occasion: each }) => marked.some((row) => row.savedSearchId === search.id && row.occasion === each));
+      if (!fresh.length || silent) return false;
+      const { email, units } = fresh[0]!;
+      const ids = fresh.map(({ search }) => search.id);
+      const unsubscribeUrl = `${origin}/saved-searches/unsubscribe?token=${encodeURIComponent(unsubscribeToken(ids))}`;
+      const message = await renderEmail(
+        SavedSearchAlertEmail({
+          searches: fresh.map(({ search }) => ({ name: search.name, url: `${origin}/machines?${search.queryString}` })),
+          occasion,
+          machine: {
+            title,
+            place: [listing.city, countryName(listing.country)].filter(Boolean).join(", "),
+            price: listing.priceMinor !== null && listing.currency ? formatMoney(listing.priceMinor, listing.currency) : null,
+            accuracy: accuracyLine(source, units),
+            listingUrl: `${origin}/machines/${listing.slug}`,
+          },
+          unsubscribeUrl,
+        }),
+      );
+      const named = fresh.length === 1 ? `“${fresh[0]!.search.name}”` : `${fresh.length} of your saved searches`;
+      // Queued in the transaction: the alerts are marked as sent and the e-mail queued together, or neither.
       await queueEmail(
         {
           to: email,
-          subject: occasion === "verified" ? `Now verified: ${listing.make} ${listing.model} matches “${search.name}”` : `New match for “${search.name}”: ${listing.make} ${listing.model}`,
+          subject: occasion === "verified" ? `Now verified: ${title} matches ${named}` : `New match for ${named}: ${title}`,
           ...message,
           tag: "saved-search-alert",
           // Mail clients offer their own "unsubscribe" from these; the POST (RFC 8058) needs no page visit.
