@@ -102,3 +102,4 @@ export {
 } from "./positioning";
 export { circularTest, CIRCULAR_LIMITS, type CircularEvaluation, type RadialReading } from "./circular";
 export { parseDeviationCsv, DEVIATION_CSV_LIMITS, type DeviationColumns } from "./deviation-csv";
+export * from "./corrections";
