@@ -13,6 +13,7 @@ import {
 } from "./straightness";
 import { sourceLabel } from "./sources";
 import { evaluateSurface } from "./surface-tests";
+import { evaluateCircular, evaluatePositioning } from "./positioning-tests";
 import { toleranceOver } from "./tolerance";
 import type {
   Conditions,
@@ -39,6 +40,10 @@ export const KINDS_FOR_METHOD: Readonly<Record<EvaluationMethod, readonly Measur
   "near-far": ["near-far"],
   "centre-height": ["centre-height"],
   flatness: ["surface"],
+  "positioning-accuracy": ["positioning"],
+  "positioning-repeatability": ["positioning"],
+  "positioning-reversal": ["positioning"],
+  "circular-deviation": ["circular"],
 };
 
 // Comparisons allow for binary floating-point noise (e.g. 0.0008 in × 25 400), never for rounding.
@@ -170,6 +175,8 @@ interface Evaluated {
   local: { value: number; from: number; to: number } | null | undefined;
   straightness?: TestResult["straightness"];
   flatness?: TestResult["flatness"];
+  positioning?: TestResult["positioning"];
+  circular?: TestResult["circular"];
   window?: { from: number; to: number };
   direction: Omit<DirectionVerdict, "allowed">;
   warnings: Warning[];
@@ -247,6 +254,10 @@ function evaluateReadings(test: ProfileTest, measurement: TestMeasurement, resol
       return evaluateProfile(test, measurement.points, measurement.reference, resolution);
     case "surface":
       return { ...evaluateSurface(test, measurement), local: undefined, direction: UNSIGNED_DIRECTION };
+    case "positioning":
+      return { ...evaluatePositioning(test, measurement), local: undefined, direction: UNSIGNED_DIRECTION };
+    case "circular":
+      return { ...evaluateCircular(measurement), local: undefined, direction: UNSIGNED_DIRECTION };
   }
 }
 
@@ -402,6 +413,8 @@ export function evaluateTest(
     ...(evaluated.straightness ? { straightness: evaluated.straightness } : {}),
     ...(evaluated.window ? { window: evaluated.window } : {}),
     ...(evaluated.flatness ? { flatness: evaluated.flatness } : {}),
+    ...(evaluated.positioning ? { positioning: evaluated.positioning } : {}),
+    ...(evaluated.circular ? { circular: evaluated.circular } : {}),
     resolution,
     warnings,
     sources: {

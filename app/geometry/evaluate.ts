@@ -47,6 +47,13 @@ function convertMeasurement(m: TestMeasurement): TestMeasurement {
       return { ...m, ...resolution, headstockEnd: um(m.headstockEnd), tailstockEnd: um(m.tailstockEnd) };
     case "surface":
       return { ...m, ...resolution, points: m.points.map((p) => ({ x: mm(p.x), y: mm(p.y), z: um(p.z) })) };
+    case "positioning":
+      return { ...m, ...resolution, targets: m.targets.map(mm), forward: m.forward.map((run) => run.map(um)), reverse: m.reverse.map((run) => run.map(um)) };
+    case "circular": {
+      // Angles are degrees in both unit modes.
+      const radial = (readings: { angle: number; deviation: number }[]) => readings.map((r) => ({ angle: r.angle, deviation: um(r.deviation) }));
+      return { ...m, ...resolution, clockwise: radial(m.clockwise), counterClockwise: radial(m.counterClockwise) };
+    }
   }
 }
 

@@ -33,6 +33,8 @@ export {
   CENTRE_LATHE_PRECISION_V1,
   KNEE_MILL_NORMAL,
   SURFACE_GRINDER_NORMAL,
+  CNC_LATHE_NORMAL,
+  MACHINING_CENTRE_NORMAL,
   findProfile,
   newestVersions,
   makerChartFits,
@@ -68,6 +70,8 @@ export {
   mandrelMeasurementSchema,
   nearFarMeasurementSchema,
   centreHeightMeasurementSchema,
+  positioningMeasurementSchema,
+  circularMeasurementSchema,
   fieldErrors,
   type EvaluationRequestInput,
 } from "./schema";
@@ -103,3 +107,4 @@ export {
 export { circularTest, CIRCULAR_LIMITS, type CircularEvaluation, type RadialReading } from "./circular";
 export { parseDeviationCsv, DEVIATION_CSV_LIMITS, type DeviationColumns } from "./deviation-csv";
 export * from "./corrections";
+export { positioningGroups } from "./profiles-cnc";

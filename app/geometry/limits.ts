@@ -104,6 +104,23 @@ export function* numbersOf(measurement: {
         }
       }
       return;
+    case "positioning":
+      if (Array.isArray(measurement.targets)) for (const [i, target] of measurement.targets.entries()) yield [["targets", i], target, "station"];
+      for (const direction of ["forward", "reverse"] as const) {
+        const runs = measurement[direction];
+        if (!Array.isArray(runs)) continue;
+        for (const [j, run] of runs.entries()) {
+          if (Array.isArray(run)) for (const [i, value] of run.entries()) yield [[direction, j, i], value, "reading"];
+        }
+      }
+      return;
+    case "circular":
+      for (const direction of ["clockwise", "counterClockwise"] as const) {
+        const readings = measurement[direction];
+        if (!Array.isArray(readings)) continue;
+        for (const [i, reading] of (readings as Array<Record<string, unknown>>).entries()) yield [[direction, i, "deviation"], reading?.deviation, "reading"];
+      }
+      return;
     case "mandrel":
       for (const end of ["near", "far"] as const) {
         const pair = measurement[end] as Record<string, unknown> | undefined;

@@ -13,7 +13,7 @@ import type {
   ToleranceProfile,
 } from "./types";
 
-export const MACHINE_CATEGORIES = ["centre-lathe", "toolroom-lathe", "milling-machine", "surface-grinder"] as const satisfies readonly MachineCategory[];
+export const MACHINE_CATEGORIES = ["centre-lathe", "toolroom-lathe", "milling-machine", "surface-grinder", "cnc-lathe", "machining-centre"] as const satisfies readonly MachineCategory[];
 export const MACHINE_DIMENSIONS = ["swingOverBedMm", "distanceBetweenCentresMm", "tableLengthMm"] as const satisfies readonly MachineDimension[];
 export const EVALUATION_METHODS = [
   "run-out",
@@ -25,6 +25,10 @@ export const EVALUATION_METHODS = [
   "near-far",
   "centre-height",
   "flatness",
+  "positioning-accuracy",
+  "positioning-repeatability",
+  "positioning-reversal",
+  "circular-deviation",
 ] as const satisfies readonly EvaluationMethod[];
 export const ALLOWED_DIRECTIONS = ["any", "either", "positive", "convex", "concave"] as const satisfies readonly AllowedDirection[];
 export const KEY_FIGURE_NAMES = [
@@ -36,6 +40,12 @@ export const KEY_FIGURE_NAMES = [
   "bedStraightness",
   "tableFlatness",
   "travelSquareness",
+  "xPositioningAccuracy",
+  "xRepeatability",
+  "yPositioningAccuracy",
+  "yRepeatability",
+  "zPositioningAccuracy",
+  "zRepeatability",
 ] as const satisfies readonly KeyFigureName[];
 const CONFIDENCES = ["published", "manufacturer", "common-practice", "from-memory"] as const satisfies readonly SourceConfidence[];
 

@@ -1,6 +1,7 @@
 import { GeometryInputError, requirePositive } from "./errors";
 import { compareSerials, MACHINE_CATEGORIES } from "./profile-schema";
 import { roundToStep } from "./tolerance";
+import { CNC_LATHE_NORMAL as CNC_LATHE_DATA, MACHINING_CENTRE_NORMAL as MACHINING_CENTRE_DATA } from "./profiles-cnc";
 import { KNEE_MILL_NORMAL as KNEE_MILL_DATA, SURFACE_GRINDER_NORMAL as SURFACE_GRINDER_DATA } from "./profiles-milling-grinding";
 import type { MachineForProfile, ProfileTest, ToleranceProfile, ToleranceSpec, ValueSource } from "./types";
 
@@ -505,6 +506,8 @@ export const CENTRE_LATHE_PRECISION: ToleranceProfile = deepFreeze({
 /** Every built-in profile version, oldest first; the seed publishes each once. */
 export const KNEE_MILL_NORMAL: ToleranceProfile = deepFreeze(KNEE_MILL_DATA);
 export const SURFACE_GRINDER_NORMAL: ToleranceProfile = deepFreeze(SURFACE_GRINDER_DATA);
+export const CNC_LATHE_NORMAL: ToleranceProfile = deepFreeze(CNC_LATHE_DATA);
+export const MACHINING_CENTRE_NORMAL: ToleranceProfile = deepFreeze(MACHINING_CENTRE_DATA);
 
 export const BUILT_IN_PROFILES: readonly ToleranceProfile[] = Object.freeze([
   CENTRE_LATHE_NORMAL,
@@ -512,6 +515,8 @@ export const BUILT_IN_PROFILES: readonly ToleranceProfile[] = Object.freeze([
   CENTRE_LATHE_PRECISION,
   KNEE_MILL_NORMAL,
   SURFACE_GRINDER_NORMAL,
+  CNC_LATHE_NORMAL,
+  MACHINING_CENTRE_NORMAL,
 ]);
 
 export function findProfile(profiles: readonly ToleranceProfile[], key: string, version: number): ToleranceProfile | undefined {

@@ -4,6 +4,8 @@ import { MEASUREMENT_LIMITS, measurementLimitIssues } from "./limits";
 import { findProfile } from "./profiles";
 import { STRAIGHTNESS_REFERENCES } from "./straightness";
 import { FLATNESS_LIMITS, FLATNESS_REFERENCES } from "./flatness";
+import { POSITIONING_LIMITS } from "./positioning";
+import { CIRCULAR_LIMITS } from "./circular";
 import type { ReportMeasurements, TestMeasurement, ToleranceProfile } from "./types";
 
 // One schema per measurement kind, shared by the API and the forms. Values are in the request's units:
@@ -176,7 +178,62 @@ export const surfaceMeasurementSchema = z.object({
   resolution,
 });
 
-const MEASUREMENT_KINDS = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface"] as const;
+const deviationRun = (direction: string) =>
+  z
+    .array(numberField(`Each deviation ${direction}`, READING_UNIT), { error: `Give each run ${direction} as a list of deviations, one per target.` })
+    .min(2, "Give a deviation at every target of the run.")
+    .max(POSITIONING_LIMITS.targets, `At most ${thousands(POSITIONING_LIMITS.targets)} targets per axis.`);
+
+const runsOf = (direction: string) =>
+  z
+    .array(deviationRun(direction), { error: `Give the runs ${direction} as a list of runs.` })
+    .min(2, `Give at least 2 runs ${direction} (ISO 230-2 asks for 5).`)
+    .max(POSITIONING_LIMITS.runsPerDirection, `At most ${POSITIONING_LIMITS.runsPerDirection} runs per direction.`);
+
+export const positioningMeasurementSchema = z
+  .object({
+    kind: z.literal("positioning"),
+    targets: z
+      .array(numberField("Each target", LENGTH_UNIT), { error: "Give the targets as a list of positions along the axis." })
+      .min(2, "Give at least 2 targets (ISO 230-2 asks for 5 per metre and at least 5).")
+      .max(POSITIONING_LIMITS.targets, `At most ${thousands(POSITIONING_LIMITS.targets)} targets per axis.`),
+    forward: runsOf("approaching in the positive direction"),
+    reverse: runsOf("approaching in the negative direction"),
+    resolution,
+  })
+  .superRefine((m, ctx) => {
+    m.targets.forEach((target, i) => {
+      if (i > 0 && !(target > m.targets[i - 1]!)) ctx.addIssue({ code: "custom", path: ["targets", i], message: "Targets must be strictly increasing." });
+    });
+    for (const direction of ["forward", "reverse"] as const) {
+      m[direction].forEach((run, j) => {
+        if (run.length !== m.targets.length) {
+          ctx.addIssue({ code: "custom", path: [direction, j], message: `Run ${j + 1} has ${run.length} deviations for ${m.targets.length} targets.` });
+        }
+      });
+    }
+  });
+
+const radialReadings = (direction: string) =>
+  z
+    .array(
+      z.object({
+        angle: numberField("The angle", "degrees").min(0, "Angles run from 0 up to 360 degrees.").lt(360, "Angles run from 0 up to (not including) 360 degrees."),
+        deviation: numberField("The radial deviation", READING_UNIT),
+      }),
+      { error: `Give the ${direction} readings as a list of { angle, deviation }.` },
+    )
+    .min(CIRCULAR_LIMITS.fewestReadings, `Give at least ${CIRCULAR_LIMITS.fewestReadings} readings ${direction} around the circle.`)
+    .max(CIRCULAR_LIMITS.readingsPerDirection, `At most ${thousands(CIRCULAR_LIMITS.readingsPerDirection)} readings per direction.`);
+
+export const circularMeasurementSchema = z.object({
+  kind: z.literal("circular"),
+  clockwise: radialReadings("clockwise"),
+  counterClockwise: radialReadings("counter-clockwise"),
+  resolution,
+});
+
+const MEASUREMENT_KINDS = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface", "positioning", "circular"] as const;
 
 export const testMeasurementSchema = z.discriminatedUnion(
   "kind",
@@ -189,6 +246,8 @@ export const testMeasurementSchema = z.discriminatedUnion(
     nearFarMeasurementSchema,
     centreHeightMeasurementSchema,
     surfaceMeasurementSchema,
+    positioningMeasurementSchema,
+    circularMeasurementSchema,
   ],
   { error: `Say which kind of readings these are: one of ${MEASUREMENT_KINDS.join(", ")}.` },
 );

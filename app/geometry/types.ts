@@ -51,7 +51,11 @@ export type EvaluationMethod =
   | "mandrel-inclination" // mean(far) − mean(near), 0° and 180°
   | "near-far" // far − near, element that does not turn
   | "centre-height" // tailstock end − headstock end
-  | "flatness"; // width of the zone holding a surface's heights (least squares or minimum zone)
+  | "flatness" // width of the zone holding a surface's heights (least squares or minimum zone)
+  | "positioning-accuracy" // A of one NC axis from interferometer runs (ISO 230-2)
+  | "positioning-repeatability" // R of the same runs
+  | "positioning-reversal" // B of the same runs
+  | "circular-deviation"; // circular deviation of two interpolating axes, both directions (ISO 230-4)
 
 /** "any": the value has no sign (run-out); "either": signed, both ways allowed. */
 export type AllowedDirection = "any" | "either" | "positive" | "convex" | "concave";
@@ -84,10 +88,16 @@ export type KeyFigureName =
   | "centreHeight"
   | "bedStraightness"
   | "tableFlatness"
-  | "travelSquareness";
+  | "travelSquareness"
+  | "xPositioningAccuracy"
+  | "xRepeatability"
+  | "yPositioningAccuracy"
+  | "yRepeatability"
+  | "zPositioningAccuracy"
+  | "zRepeatability";
 
 /** Machine kinds the engine has evaluation methods for; a new kind is a new entry here plus its profiles. */
-export type MachineCategory = "centre-lathe" | "toolroom-lathe" | "milling-machine" | "surface-grinder";
+export type MachineCategory = "centre-lathe" | "toolroom-lathe" | "milling-machine" | "surface-grinder" | "cnc-lathe" | "machining-centre";
 
 /** Sizes a profile's scope can be bounded by, in mm, named as the listing names them. */
 export type MachineDimension = "swingOverBedMm" | "distanceBetweenCentresMm" | "tableLengthMm";
@@ -218,6 +228,25 @@ export interface SurfaceMeasurement extends MeasurementBase {
   reference?: FlatnessReference;
 }
 
+/**
+ * Interferometer runs along one numerically controlled axis: targets (mm, strictly increasing) and the
+ * deviation (actual − target, µm) at each target in each run, approaching in the positive (forward) and the
+ * negative (reverse) direction. The same runs score an axis's accuracy, repeatability and reversal tests.
+ */
+export interface PositioningMeasurement extends MeasurementBase {
+  kind: "positioning";
+  targets: number[];
+  forward: number[][];
+  reverse: number[][];
+}
+
+/** Radial deviations (µm) at angles (degrees) around a circle, clockwise and counter-clockwise. */
+export interface CircularMeasurement extends MeasurementBase {
+  kind: "circular";
+  clockwise: { angle: number; deviation: number }[];
+  counterClockwise: { angle: number; deviation: number }[];
+}
+
 export type TestMeasurement =
   | SweepMeasurement
   | ExtremesMeasurement
@@ -226,7 +255,9 @@ export type TestMeasurement =
   | MandrelMeasurement
   | NearFarMeasurement
   | CentreHeightMeasurement
-  | SurfaceMeasurement;
+  | SurfaceMeasurement
+  | PositioningMeasurement
+  | CircularMeasurement;
 
 export type MeasurementKind = TestMeasurement["kind"];
 
@@ -308,6 +339,23 @@ export interface TestResult {
     /** Highest and lowest height above the plane, µm. */
     above: number;
     below: number;
+  };
+  /** Positioning tests: the ISO 230-2 figures of the axis (µm) and, per target, what the plot draws. */
+  positioning?: {
+    accuracy: number;
+    systematicDeviation: number;
+    repeatability: number;
+    reversalValue: number;
+    meanReversalValue: number;
+    runsForward: number;
+    runsReverse: number;
+    perTarget: { target: number; meanForward: number; meanReverse: number; sForward: number; sReverse: number }[];
+  };
+  /** Circular tests: the deviation of each direction and the hysteresis (µm). */
+  circular?: {
+    circularDeviationClockwise: number;
+    circularDeviationCounterClockwise: number;
+    circularHysteresis: number;
   };
   /** For a range over any window: the stations (mm) of the worst window. */
   window?: { from: number; to: number };

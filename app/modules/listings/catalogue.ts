@@ -5,6 +5,7 @@ export const machineCategories = [
   { value: "toolroom_lathe", label: "Toolroom lathe" },
   { value: "cnc_lathe", label: "CNC lathe" },
   { value: "milling_machine", label: "Milling machine" },
+  { value: "machining_centre", label: "Machining centre" },
   { value: "surface_grinder", label: "Surface grinder" },
   { value: "other", label: "Other machine tool" },
 ] as const;

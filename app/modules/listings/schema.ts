@@ -20,6 +20,7 @@ export const machineCategory = pgEnum("machine_category", [
   "toolroom_lathe",
   "cnc_lathe",
   "milling_machine",
+  "machining_centre",
   "surface_grinder",
   "other",
 ]);

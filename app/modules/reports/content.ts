@@ -70,6 +70,8 @@ export function engineCategory(listingCategory: string): MachineCategory | null 
   if (listingCategory === "toolroom_lathe") return "toolroom-lathe";
   if (listingCategory === "milling_machine") return "milling-machine";
   if (listingCategory === "surface_grinder") return "surface-grinder";
+  if (listingCategory === "cnc_lathe") return "cnc-lathe";
+  if (listingCategory === "machining_centre") return "machining-centre";
   return null;
 }
 

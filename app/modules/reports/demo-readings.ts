@@ -233,7 +233,9 @@ export function entryOf(measurement: TestMeasurement, instrumentId: string, note
   const base = { instrumentId, notes };
   switch (measurement.kind) {
     case "surface":
-      throw new Error("Heights over a surface are not entered through the form.");
+    case "positioning":
+    case "circular":
+      throw new Error(`Readings of kind ${measurement.kind} are not typed into the form as text.`);
     case "sweep":
       return { ...base, kind: "sweep", readings: measurement.readings.map(text) };
     case "extremes":

@@ -155,6 +155,19 @@ export function suggestionFor(listing: BookingForReport["listing"], offered: rea
       uncovered: false,
     };
   }
+  if (category === "cnc-lathe" || category === "machining-centre") {
+    // Positioning tolerances go by the travel the targets span, so no listing size is needed to choose.
+    const profile = suggestProfile(offered, { category, dimensions: {}, make: listing.make, model: listing.model, serialNumber: listing.serialNumber });
+    if (!profile) return { profile: null, reason: `No ${categoryName} profile yet. ${NO_PROFILE_YET}`, uncovered: true };
+    const maker = profile.scope.maker;
+    return {
+      profile: briefOf(profile),
+      reason: maker
+        ? `The maker's positioning specification for the ${maker.make} ${maker.model}: “${maker.chart}”.`
+        : `The ${categoryName} class; its positioning tolerances follow the travel your targets span, so read each axis over its full travel.`,
+      uncovered: false,
+    };
+  }
   const swing = listing.swingOverBedMm;
   const centres = listing.distanceBetweenCentresMm;
   const machine = {

@@ -114,6 +114,12 @@ const emptyFigures: KeyFigures = {
   bedStraightness: null,
   tableFlatness: null,
   travelSquareness: null,
+  xPositioningAccuracy: null,
+  xRepeatability: null,
+  yPositioningAccuracy: null,
+  yRepeatability: null,
+  zPositioningAccuracy: null,
+  zRepeatability: null,
 };
 
 function toSource(row: JoinedRow): SourceListing {

@@ -56,6 +56,10 @@ const METHOD_LABELS: Record<(typeof EVALUATION_METHODS)[number], string> = {
   "near-far": "Near and far reading",
   "centre-height": "Centre height, tailstock against headstock",
   flatness: "Flatness of a surface (zone holding its heights)",
+  "positioning-accuracy": "Positioning accuracy A of an axis (interferometer runs)",
+  "positioning-repeatability": "Positioning repeatability R of an axis (interferometer runs)",
+  "positioning-reversal": "Reversal value B of an axis (interferometer runs)",
+  "circular-deviation": "Circular deviation of two axes (both directions)",
 };
 
 export default function ProfileTestPage() {

@@ -57,6 +57,12 @@ function report(id: string, grade: SearchableReport["grade"], spindleRunOut: num
       bedStraightness: 9,
       tableFlatness: null,
       travelSquareness: null,
+      xPositioningAccuracy: null,
+      xRepeatability: null,
+      yPositioningAccuracy: null,
+      yRepeatability: null,
+      zPositioningAccuracy: null,
+      zRepeatability: null,
     },
   };
 }

@@ -51,6 +51,12 @@ describe("scoring a whole report", () => {
       bedStraightness: 10,
       tableFlatness: null,
       travelSquareness: null,
+      xPositioningAccuracy: null,
+      xRepeatability: null,
+      yPositioningAccuracy: null,
+      yRepeatability: null,
+      zPositioningAccuracy: null,
+      zRepeatability: null,
     });
     expect(score.missing).toEqual([]);
     expect(score.outOfTolerance).toEqual([]);

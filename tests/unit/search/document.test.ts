@@ -43,6 +43,12 @@ const report: SearchableReport = {
     bedStraightness: null,
     tableFlatness: null,
     travelSquareness: null,
+    xPositioningAccuracy: null,
+    xRepeatability: null,
+    yPositioningAccuracy: null,
+    yRepeatability: null,
+    zPositioningAccuracy: null,
+    zRepeatability: null,
   },
 };
 

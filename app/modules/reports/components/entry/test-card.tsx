@@ -18,6 +18,8 @@ const KIND_LABELS: Record<MeasurementKind, string> = {
   "near-far": "Near and far",
   "centre-height": "Both ends",
   surface: "Heights over a grid",
+  positioning: "Interferometer runs along the axis",
+  circular: "Radial deviations around a circle",
 };
 
 type Errors = Record<string, string[]>;

@@ -1,0 +1,1 @@
+ALTER TYPE "public"."machine_category" ADD VALUE 'machining_centre' BEFORE 'surface_grinder';
