@@ -35,6 +35,8 @@ export default [
   route("sell/listings/:listingId", "routes/listings/sell-edit.tsx"),
   route("sell/listings/:listingId/photos", "routes/listings/sell-photos.ts"),
   route("sell/listings/:listingId/documents", "routes/listings/sell-documents.ts"),
+  route("account/watched", "routes/listings/watched.tsx"),
+  route("watched/unsubscribe", "routes/listings/watch-unsubscribe.tsx"),
 
   // Inspections: certified inspectors, booking and paying, dashboards
   route("inspectors", "routes/inspections/inspectors.tsx"),

@@ -6,3 +6,4 @@ export * from "../modules/inspections/schema";
 export * from "../modules/reports/schema";
 export * from "../modules/search/saved-searches/schema";
 export * from "../modules/profiles/schema";
+export * from "../modules/demand/schema";

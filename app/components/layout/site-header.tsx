@@ -87,6 +87,7 @@ function personalLinks(user: NonNullable<HeaderUser>) {
     { to: "/account", label: "Account settings" },
     { to: "/bookings", label: "My inspection bookings" },
     { to: "/account/saved-searches", label: "Saved searches" },
+    { to: "/account/watched", label: "Watched machines" },
   ];
   if (user.roles.includes("seller")) links.push({ to: "/sell", label: "My listings" });
   if (user.roles.includes("inspector")) {

@@ -4,6 +4,7 @@ import { env } from "~/env.server";
 import { getDatabase } from "~/db/client.server";
 import { declareFileWorkers } from "~/modules/files/abandoned-uploads.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
+import { declareWatchlistWorkers } from "~/modules/listings/watchlist.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
 import { declareSearchWorkers } from "~/modules/search/indexing.server";
 import { closeSearchConnections } from "~/modules/search/search-http.server";
@@ -19,6 +20,7 @@ export function declareJobWorkers() {
   declareFileWorkers();
   declareInspectionWorkers(getDatabase);
   declareSearchWorkers(getDatabase);
+  declareWatchlistWorkers(getDatabase);
 }
 
 /** Declares and starts the workers, unless JOB_WORKERS=false; stops them cleanly on SIGTERM or SIGINT. */

@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import {
   bigint,
+  boolean,
   check,
   doublePrecision,
   index,
@@ -149,9 +150,23 @@ export const listingWatches = pgTable(
       .notNull()
       .references(() => user.id, { onDelete: "cascade" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    // What the watcher was last told (at watching, then at each digest): the watchlist digest reports
+    // what changed since. A lower price is a drop; a report signed after `toldThrough` is news.
+    seenPriceMinor: bigint("seen_price_minor", { mode: "number" }),
+    seenStatus: listingStatus("seen_status"),
+    toldThrough: timestamp("told_through", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [primaryKey({ columns: [table.listingId, table.userId] }), index("listing_watches_user_idx").on(table.userId)],
 );
+
+// A watcher's digest: when the last one went out (at most one a day) and whether they turned it off.
+export const watchDigests = pgTable("watch_digests", {
+  userId: text("user_id")
+    .primaryKey()
+    .references(() => user.id, { onDelete: "cascade" }),
+  lastSentAt: timestamp("last_sent_at", { withTimezone: true }),
+  digestsOff: boolean("digests_off").notNull().default(false),
+});
 
 export type Listing = typeof listings.$inferSelect;
 export type ListingPhoto = typeof listingPhotos.$inferSelect;

@@ -31,6 +31,7 @@ import type { ListingStatus } from "./statuses";
 import { InquiryEmail } from "./emails/inquiry";
 import { listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
 import type { ListingFormValues } from "./validation";
+import { WATCHES_PER_USER } from "./watchlist.server";
 
 export { RejectedFileError };
 
@@ -523,7 +524,13 @@ export async function sendInquiry(db: Database, sender: SessionUser, listingId: 
 export async function setWatch(db: Database, viewer: SessionUser, listingId: string, watching: boolean) {
   const { listing } = await publishedListing(db, listingId);
   if (watching) {
-    await db.insert(listingWatches).values({ listingId: listing.id, userId: viewer.id }).onConflictDoNothing();
+    const [{ watched }] = await db.select({ watched: count() }).from(listingWatches).where(eq(listingWatches.userId, viewer.id));
+    if (watched >= WATCHES_PER_USER) throw new ListingRuleError(`You can watch up to ${WATCHES_PER_USER} machines; stop watching one under Watched machines first.`);
+    // The digest reports changes from here on: the price and state the watcher sees now.
+    await db
+      .insert(listingWatches)
+      .values({ listingId: listing.id, userId: viewer.id, seenPriceMinor: listing.priceMinor, seenStatus: listing.status })
+      .onConflictDoNothing();
   } else {
     await db.delete(listingWatches).where(and(eq(listingWatches.listingId, listing.id), eq(listingWatches.userId, viewer.id)));
   }

@@ -16,6 +16,7 @@ const machineToMachine: RegExp[] = [
   /^\/api\/v1\//,
   // RFC 8058 one-click unsubscribe: the mail provider posts it; the signed token is the proof.
   /^\/saved-searches\/unsubscribe(\.data)?$/,
+  /^\/watched\/unsubscribe(\.data)?$/,
 ];
 
 export type OriginRefusal = { reason: "cross-origin" | "no-origin"; origin: string | null; message: string };

@@ -56,7 +56,12 @@ export async function action({ request, context }: Route.ActionArgs) {
   const viewer = await requireUser(request);
   const parsed = otherIntents.safeParse(Object.fromEntries(formData));
   if (!parsed.success) throw data("That request was not understood.", { status: 400 });
-  await setWatch(db, viewer, parsed.data.listingId, parsed.data.intent === "watch");
+  try {
+    await setWatch(db, viewer, parsed.data.listingId, parsed.data.intent === "watch");
+  } catch (error) {
+    if (error instanceof ListingRuleError) throw data(error.message, { status: 422 });
+    throw error;
+  }
   return { inquiry: null, sent: false };
 }
 
@@ -225,6 +230,14 @@ function WatchButton({ listingId, isWatching, signedIn }: { listingId: string; i
       <Button type="submit" name="intent" value={isWatching ? "unwatch" : "watch"} variant="secondary" disabled={navigation.state === "submitting"}>
         {isWatching ? "★ Watching — stop" : "☆ Watch this machine"}
       </Button>
+      {isWatching ? (
+        <p className="mt-2 text-sm text-ink-600">
+          We e-mail you once a day at most if its price drops, it is verified, or it is sold or withdrawn.{" "}
+          <Link to="/account/watched" className="font-semibold underline underline-offset-2">
+            Watched machines
+          </Link>
+        </p>
+      ) : null}
     </Form>
   );
 }

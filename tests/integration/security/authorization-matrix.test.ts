@@ -306,6 +306,20 @@ const table: Record<string, RouteRow> = {
     actions: [{ intent: "forged token", body: () => ({ form: { token: `${fx.savedSearchId}.forged` } }), expect: everyone(404), unchanged: () => rowsOf.savedSearch(fx.savedSearchId) }],
   },
 
+  // Watchlist: everyone sees and changes only their own list
+  "account/watched": {
+    get: by({ visitor: "sign-in", rest: 200 }),
+    actions: [
+      { intent: "stop watching", body: () => ({ form: { intent: "unwatch", listingId: fx.publishedListingId } }), expect: by({ visitor: "sign-in", rest: 200 }) },
+      { intent: "daily e-mail off", body: () => ({ form: { intent: "digest", enabled: "off" } }), expect: by({ visitor: "sign-in", rest: 200 }) },
+    ],
+  },
+  "watched/unsubscribe": {
+    get: everyone(404),
+    query: "?token=forged",
+    actions: [{ intent: "forged token", body: () => ({ form: { token: `${fx.people.buyer.id}.forged` } }), expect: everyone(404) }],
+  },
+
   // Listings
   "machines/:slug": {
     get: everyone(200),
