@@ -68,6 +68,9 @@ export default [
   route("reports/:reportId", "routes/reports/report.tsx"),
   route("reports/:reportId/certificate.pdf", "routes/reports/certificate.ts"),
 
+  // Rebuilding: the correction planner
+  route("tools/corrections", "routes/tools/corrections.tsx"),
+
   // Processed photos and documents, streamed from the bucket
   route("files/*", "routes/files.ts"),
 

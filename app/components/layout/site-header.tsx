@@ -94,6 +94,7 @@ function personalLinks(user: NonNullable<HeaderUser>) {
     links.push({ to: "/inspector/bookings", label: "Inspection requests" });
     links.push({ to: "/inspector/profile", label: "Inspector profile" });
   }
+  if (user.roles.some((role) => role === "seller" || role === "inspector")) links.push({ to: "/tools/corrections", label: "Correction planner" });
   if (user.roles.includes("admin")) {
     links.push({ to: "/admin/users", label: "Staff: people" });
     links.push({ to: "/admin/inspector-applications", label: "Staff: inspector applications" });

@@ -578,6 +578,7 @@ const table: Record<string, RouteRow> = {
   "reports/:reportId/certificate.pdf": { get: everyone(200), actions: "none" },
 
   // Files: processed photos and checked PDFs under unguessable ids; whoever has the address may fetch it.
+  "tools/corrections": { get: by({ visitor: "sign-in", buyer: 403, rest: 200 }), actions: "none" },
   "files/*": { get: everyone(200), actions: "none" },
 
   // API
