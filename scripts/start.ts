@@ -74,9 +74,17 @@ async function main() {
   await seedDemoDataIfEmpty(databaseUrl);
 
   buildIfNeeded("build");
-  startChild("app", process.execPath, [path.join(root, "server/index.mjs"), "build/server/index.js"], environment);
+  // The request log goes to a file (replayed webhooks alone are dozens of lines); warnings and errors show here too.
+  const appLog = path.join(dataDir, "app.log");
+  startChild("app", process.execPath, [path.join(root, "server/index.mjs"), "build/server/index.js"], environment, { logFile: appLog, echo: "stderr" });
   await waitForHttp(`http://127.0.0.1:${port}/api/health`);
 
+  for (const standIn of standIns) for (const [key, value] of Object.entries(standIn.env)) if (/URL$/.test(key)) log(standIn.name, `${key}=${value}`);
+  const shownLog = path.relative(process.cwd(), appLog);
+  log("app", `request log: ${shownLog.startsWith("..") ? appLog : shownLog}`);
+  log("app", "Press Ctrl-C to stop.");
+  // Last, so that they are what a newcomer sees.
+  log("app", "");
   log("app", `Tenthmark is running at ${appOrigin}`);
   const signIns = demoSignIns();
   const printed = signIns.filter((signIn) => signIn.printed);
@@ -86,8 +94,6 @@ async function main() {
     const more = signIns.length - printed.length;
     if (more) log("app", `  …and ${more} more (other dealers, a private seller, inspectors, buyers): see "Demo sign-ins" in README.md`);
   }
-  for (const standIn of standIns) for (const [key, value] of Object.entries(standIn.env)) if (/URL$/.test(key)) log(standIn.name, `${key}=${value}`);
-  log("app", "Press Ctrl-C to stop.");
 }
 
 main().catch(async (error) => {

@@ -2,7 +2,7 @@
 // a free port, then every Vitest project (unit, integration, browser). Leaves nothing running behind it;
 // its exit code is the truth. Extra arguments are handed to Vitest (e.g. `npm test -- tests/unit`).
 import { spawn } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { buildIfNeeded } from "./lib/build.ts";
@@ -58,13 +58,22 @@ async function main(): Promise<number> {
   onStop(() => rmSync(path.join(root, buildDirectory), { recursive: true, force: true }));
   buildIfNeeded(buildDirectory, true);
   environment.TEST_SERVER_BUILD = `${buildDirectory}/server/index.js`;
-  startChild("app", process.execPath, [path.join(root, "server/index.mjs"), environment.TEST_SERVER_BUILD], {
-    ...environment,
-    NODE_ENV: "production",
-    PORT: String(port),
-    HOST: "127.0.0.1",
-  });
-  await waitForHttp(`http://127.0.0.1:${port}/api/health`);
+  // The app's own log (thousands of request lines) goes to a file; the part written while a failing test
+  // file ran is printed after the results, and the whole of it kept in test-results/ when anything failed.
+  const appLog = path.join(workDir, "app.log");
+  startChild(
+    "app",
+    process.execPath,
+    [path.join(root, "server/index.mjs"), environment.TEST_SERVER_BUILD],
+    { ...environment, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1" },
+    { logFile: appLog, echo: "none" },
+  );
+  try {
+    await waitForHttp(`http://127.0.0.1:${port}/api/health`);
+  } catch (error) {
+    if (existsSync(appLog)) process.stdout.write(readFileSync(appLog, "utf8"));
+    throw error;
+  }
   log("test", `app under test at ${appOrigin}`);
 
   const resultsFile = path.join(workDir, "vitest-results.json");
@@ -74,8 +83,37 @@ async function main(): Promise<number> {
     { cwd: root, stdio: "inherit", env: { ...environment, NODE_ENV: "test" } },
   );
   const exitCode: number = await new Promise((resolve) => vitest.on("exit", (code) => resolve(code ?? 1)));
+  if (exitCode !== 0) printAppLogOfFailures(resultsFile, appLog);
   printSummary(resultsFile, exitCode);
   return exitCode;
+}
+
+/** The app's log lines written while each failing test file ran (files run side by side: others' lines too). */
+function printAppLogOfFailures(resultsFile: string, appLog: string) {
+  if (!existsSync(appLog)) return;
+  const lines = readFileSync(appLog, "utf8").split("\n").filter(Boolean);
+  const kept = path.join(root, "test-results", "app.log");
+  mkdirSync(path.dirname(kept), { recursive: true });
+  copyFileSync(appLog, kept);
+  let failedFiles: Array<{ name: string; startTime: number; endTime: number }> = [];
+  try {
+    const results = JSON.parse(readFileSync(resultsFile, "utf8"));
+    failedFiles = (results.testResults ?? []).filter((file: { status: string }) => file.status === "failed");
+  } catch {
+    // No results: the whole log is kept in test-results/app.log.
+  }
+  for (const file of failedFiles) {
+    const from = file.startTime - 1_000;
+    const to = file.endTime + 1_000;
+    const during = lines.filter((line) => {
+      const time = Date.parse(line.slice(0, 24));
+      return time >= from && time <= to;
+    });
+    const shown = during.slice(-120);
+    console.log(`\n── app log while ${path.relative(root, file.name)} ran (${during.length} lines${during.length > shown.length ? `, the last ${shown.length} shown` : ""}) ──`);
+    for (const line of shown) console.log(line);
+  }
+  console.log(`\nThe app's whole log of this run: ${path.relative(root, kept)}`);
 }
 
 /** The closing line CI reads: counts from Vitest's JSON report. */

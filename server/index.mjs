@@ -9,6 +9,7 @@ import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express from "express";
 import morgan from "morgan";
+import { oneDrainListenerPerWait } from "./drain-relay.mjs";
 
 const buildPathArgument = process.argv[2];
 if (!buildPathArgument) {
@@ -25,6 +26,7 @@ const withHeaders = (options = {}) => ({ ...options, setHeaders: (response) => r
 const app = express();
 app.disable("x-powered-by");
 app.use(compression());
+app.use(oneDrainListenerPerWait);
 app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), withHeaders({ immutable: true, maxAge: "1y" })));
 app.use(build.publicPath, express.static(build.assetsBuildDirectory, withHeaders()));
 app.use(express.static("public", withHeaders({ maxAge: "1h" })));
@@ -34,4 +36,17 @@ app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
 const port = Number(process.env.PORT ?? 3000);
 const onListen = () => console.log(`[server] http://localhost:${port}${process.env.HOST ? ` (on ${process.env.HOST})` : ""}`);
 const server = process.env.HOST ? app.listen(port, process.env.HOST, onListen) : app.listen(port, onListen);
-for (const signal of ["SIGTERM", "SIGINT"]) process.once(signal, () => server.close(console.error));
+
+// Ctrl-C in `npm start` reaches this process twice (the terminal's SIGINT, then the parent's SIGTERM): close once.
+let closing = false;
+function shutDown() {
+  if (closing) return;
+  closing = true;
+  server.close((error) => {
+    if (error) console.error(error);
+    process.exit(0);
+  });
+  server.closeIdleConnections();
+  setTimeout(() => process.exit(0), 5_000).unref();
+}
+for (const signal of ["SIGTERM", "SIGINT"]) process.on(signal, shutDown);

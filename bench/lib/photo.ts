@@ -6,7 +6,7 @@ import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import sharp from "sharp";
-import { drawLathePhoto } from "../../app/modules/listings/demo-photos.server.ts";
+import { drawLathePhoto } from "../../app/demo/listing-photos.server.ts";
 import type { PhotoOutcome } from "./photo-worker.ts";
 
 const root = path.resolve(import.meta.dirname, "../..");

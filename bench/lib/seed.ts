@@ -317,7 +317,7 @@ const PHOTO_SETS = 8;
 async function seedPhotos(client: pg.ClientBase, random: SeededRandom, rows: ListingRow[], sampleId: string): Promise<number> {
   const { makePhotoVariants } = await import("../../app/modules/files/images.server.ts");
   const { writeObject } = await import("../../app/modules/files/storage.server.ts");
-  const { drawLathePhoto, paints } = await import("../../app/modules/listings/demo-photos.server.ts");
+  const { drawLathePhoto, paints } = await import("../../app/demo/listing-photos.server.ts");
   type Stored = { thumbnailKey: string; largeKey: string; width: number; height: number; bytes: number };
   const stored: Stored[] = [];
   // The variants live under the sample listing's folder: the files route serves listing keys of that shape.

@@ -23,11 +23,19 @@ export function buildIfNeeded(buildDirectory: string, force = false) {
     log("build", `${buildDirectory}/ is up to date`);
     return;
   }
-  log("build", `building the production bundle into ${buildDirectory}/`);
+  log("build", `building the production bundle into ${buildDirectory}/ (about a minute)`);
+  const started = Date.now();
+  // The bundler's progress and advice stay out of the way; all of it is shown if the build fails.
   const result = spawnSync(path.join(root, "node_modules/.bin/react-router"), ["build"], {
     cwd: root,
-    stdio: "inherit",
+    encoding: "utf8",
+    maxBuffer: 64 * 1024 * 1024,
     env: { ...process.env, TENTHMARK_BUILD_DIR: buildDirectory, NODE_ENV: "production" },
   });
-  if (result.status !== 0) throw new Error(`react-router build failed (exit ${result.status})`);
+  if (result.status !== 0) {
+    process.stdout.write(result.stdout ?? "");
+    process.stderr.write(result.stderr ?? "");
+    throw new Error(`react-router build failed (exit ${result.status ?? result.signal})`);
+  }
+  log("build", `built in ${((Date.now() - started) / 1000).toFixed(0)} s`);
 }

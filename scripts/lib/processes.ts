@@ -1,17 +1,37 @@
 import { spawn, type ChildProcess } from "node:child_process";
+import { createWriteStream } from "node:fs";
 import { log } from "./output.ts";
 
 const children = new Set<ChildProcess>();
 const cleanups: Array<() => void | Promise<void>> = [];
 
+type ChildOutput = {
+  /** Every line the child writes goes here, each with the time it arrived (the console stays readable). */
+  logFile?: string;
+  /** Which of the child's streams are also shown on the console, prefixed with its name. */
+  echo?: "all" | "stderr" | "none";
+};
+
 /** Starts a long-running child whose output is prefixed with `name`; it is stopped by `stopAll`. */
-export function startChild(name: string, command: string, args: string[], env: NodeJS.ProcessEnv = process.env) {
+export function startChild(name: string, command: string, args: string[], env: NodeJS.ProcessEnv = process.env, output: ChildOutput = {}) {
+  const echo = output.echo ?? "all";
+  const logStream = output.logFile ? createWriteStream(output.logFile, { flags: "a" }) : undefined;
   const child = spawn(command, args, { env, stdio: ["ignore", "pipe", "pipe"], detached: false });
   children.add(child);
-  const forward = (chunk: Buffer) => log(name, chunk.toString().replace(/\n$/, ""));
-  child.stdout?.on("data", forward);
-  child.stderr?.on("data", forward);
-  child.on("exit", () => children.delete(child));
+  const forward = (stream: "stdout" | "stderr") => (chunk: Buffer) => {
+    const text = chunk.toString().replace(/\n$/, "");
+    if (logStream) {
+      const time = new Date().toISOString();
+      logStream.write(text.split("\n").map((line) => `${time} ${stream === "stderr" ? "!" : " "} ${line}\n`).join(""));
+    }
+    if (echo === "all" || (echo === "stderr" && stream === "stderr")) log(name, text);
+  };
+  child.stdout?.on("data", forward("stdout"));
+  child.stderr?.on("data", forward("stderr"));
+  child.on("exit", () => {
+    children.delete(child);
+    logStream?.end();
+  });
   return child;
 }
 

@@ -1,5 +1,5 @@
 // Demo data for `npm start` on an empty database. It is an invented scenario: invented dealers, makes,
-// people and places. The parts are each domain's own demo module, called in story order; every row is
+// people and places. The scenario lives in app/demo/ (one file per part), called in story order; every row is
 // written through the domains' functions (bookings paid on the payments stand-in, reports scored by the
 // engine and signed), so the demo shows what the product itself writes.
 //
@@ -146,7 +146,7 @@ export async function seedDemoDataIfEmpty(_databaseUrl: string): Promise<boolean
   log("postgres", `demo accounts ready (${demoAccounts.length}) in ${took(step)}`);
 
   step = Date.now();
-  const { seedDemoListings } = await import("../../app/modules/listings/demo.server.ts");
+  const { seedDemoListings } = await import("../../app/demo/listings.server.ts");
   const written = await seedDemoListings(
     { dealer: people.dealer.id, brandmoor: people.brandmoor.id, vernois: people.vernois.id, hollerbeck: people.hollerbeck.id, rietmolen: people.rietmolen.id, private: people.private.id },
     now,
@@ -154,13 +154,13 @@ export async function seedDemoDataIfEmpty(_databaseUrl: string): Promise<boolean
   log("postgres", `demo listings written (${written}, with photos) in ${took(step)}`);
 
   step = Date.now();
-  const { seedDemoInspections } = await import("../../app/modules/inspections/demo.server.ts");
+  const { seedDemoInspections } = await import("../../app/demo/inspections.server.ts");
   const inspectors = { renner: people.inspector, mirelle: people.mirelle, beckstrand: people.beckstrand };
   const inspections = await seedDemoInspections(inspectors, { buyer: people.buyer, otherBuyers: [people.rafe, people.greta] }, now);
   log("postgres", `demo inspector profiles and bookings written (${inspections.bookings}: ${inspections.states.join(", ")}) in ${took(step)}`);
 
   step = Date.now();
-  const { seedDemoReports } = await import("../../app/modules/reports/demo.server.ts");
+  const { seedDemoReports } = await import("../../app/demo/reports.server.ts");
   const bookers = {
     buyer: people.buyer,
     rafe: people.rafe,

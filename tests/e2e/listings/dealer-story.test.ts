@@ -3,7 +3,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import type { Browser, Cookie, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { drawLathePhoto, paints } from "~/modules/listings/demo-photos.server";
+import { drawLathePhoto, paints } from "~/demo/listing-photos.server";
 import { createTestUser, signInPage } from "../../support/accounts";
 import { appOrigin, isLocal, launchBrowser, newRecordedPage } from "../../support/browser";
 import { latestEmailTo, linkIn } from "../../support/mailbox";

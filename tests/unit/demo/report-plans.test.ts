@@ -3,8 +3,8 @@
 import { describe, expect, it } from "vitest";
 import { reportFormSchema, checkTestEntry, metricMeasurements, checkConditions, profileOf } from "~/modules/reports/form";
 import { BUILT_IN_PROFILES, scoreReport, type TestMeasurement } from "~/geometry";
-import { demoReportPlans, formFor } from "~/modules/reports/demo-plans";
-import { demoReadings } from "~/modules/reports/demo-readings";
+import { demoReportPlans, formFor } from "~/demo/report-plans";
+import { demoReadings } from "~/demo/report-readings";
 
 const measured = new Date(Date.UTC(2026, 2, 10));
 

@@ -9,13 +9,13 @@ import type { Grade } from "~/geometry";
 import type { SessionUser } from "~/modules/accounts/guards.server";
 import { acceptBooking } from "~/modules/inspections/bookings.server";
 import { payInspector } from "~/modules/inspections/payouts.server";
-import { backdateBooking, bookDemoInspection, scenarioToday, type DemoPerson } from "~/modules/inspections/demo.server";
-import type { DemoInspectorKey } from "./demo-plans";
+import { backdateBooking, bookDemoInspection, scenarioToday, type DemoPerson } from "./inspections.server";
+import type { DemoInspectorKey } from "./report-plans";
 import { listings } from "~/modules/listings/schema";
-import { demoReportPlans, formFor, type DemoBookerKey, type DemoReportPlan } from "./demo-plans";
-import { expectDemoGrade } from "./demo-readings";
-import { reports } from "./schema";
-import { signReport, startCorrection, submitReport } from "./service.server";
+import { demoReportPlans, formFor, type DemoBookerKey, type DemoReportPlan } from "./report-plans";
+import { expectDemoGrade } from "./report-readings";
+import { reports } from "~/modules/reports/schema";
+import { signReport, startCorrection, submitReport } from "~/modules/reports/service.server";
 
 const asInspector = (person: DemoPerson): SessionUser => ({
   id: person.id,

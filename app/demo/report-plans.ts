@@ -2,8 +2,8 @@
 // test can check that every plan scores to its grade without a database; demo.server.ts files them.
 import { addDays } from "date-fns";
 import type { Grade } from "~/geometry";
-import { demoReadings, entryOf, scoreDemoReadings, type DemoMachine } from "./demo-readings";
-import type { EntryUnits } from "./form";
+import { demoReadings, entryOf, scoreDemoReadings, type DemoMachine } from "./report-readings";
+import type { EntryUnits } from "~/modules/reports/form";
 
 /** The inspectors of the demo, by the key the seed knows their accounts by. */
 export type DemoInspectorKey = "renner" | "mirelle" | "beckstrand";

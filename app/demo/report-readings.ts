@@ -15,7 +15,7 @@ import {
   type TestMeasurement,
   type ToleranceProfile,
 } from "~/geometry";
-import type { EntryUnits, TestEntry } from "./form";
+import type { EntryUnits, TestEntry } from "~/modules/reports/form";
 
 const MICROMETRES_PER_INCH = 25_400;
 const MILLIMETRES_PER_INCH = 25.4;

@@ -4,9 +4,9 @@ import { randomUUID } from "node:crypto";
 import { getDatabase } from "~/db/client.server";
 import { makePhotoVariants } from "~/modules/files/images.server";
 import { writeObject } from "~/modules/files/storage.server";
-import { drawMachinePhoto, paints, type MachineDrawing } from "./demo-photos.server";
-import { listingPhotos, listings } from "./schema";
-import { makeSlug } from "./service.server";
+import { drawMachinePhoto, paints, type MachineDrawing } from "./listing-photos.server";
+import { listingPhotos, listings } from "~/modules/listings/schema";
+import { makeSlug } from "~/modules/listings/service.server";
 
 /** The sellers of the demo listings, by the key the seed knows their accounts by. */
 export type DemoSellerKey = "dealer" | "brandmoor" | "vernois" | "hollerbeck" | "rietmolen" | "private";

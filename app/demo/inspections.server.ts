@@ -10,11 +10,11 @@ import { env } from "~/env.server";
 import type { MachineCategory } from "~/modules/listings/catalogue";
 import { checkoutExpiryMarginMinutes } from "~/modules/payments/stripe.server";
 import { listings } from "~/modules/listings/schema";
-import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking, releaseLapsedCheckouts } from "./bookings.server";
-import { getPayoutAccount, refreshPayoutAccount, startPayoutOnboarding } from "./payouts.server";
-import { freeSlots, saveProfile } from "./profiles.server";
-import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "./schema";
-import { handleStripeEvent } from "./webhook.server";
+import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking, releaseLapsedCheckouts } from "~/modules/inspections/bookings.server";
+import { getPayoutAccount, refreshPayoutAccount, startPayoutOnboarding } from "~/modules/inspections/payouts.server";
+import { freeSlots, saveProfile } from "~/modules/inspections/profiles.server";
+import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "~/modules/inspections/schema";
+import { handleStripeEvent } from "~/modules/inspections/webhook.server";
 
 export type DemoPerson = { id: string; email: string; name: string };
 
