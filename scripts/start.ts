@@ -15,6 +15,9 @@ import { registerKey } from "./lib/signing-key.ts";
 import { standInEnvironment, startStandIns } from "./lib/stand-ins.ts";
 
 const root = path.resolve(import.meta.dirname, "..");
+// The product runs on Node 20 with the SDK version the lockfile pins; the SDK's notice about its releases
+// after January 2027 needing Node 22 is for whoever upgrades it, not for every start.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
 if (existsSync(path.join(root, ".env"))) process.loadEnvFile(path.join(root, ".env"));
 
 async function main() {
