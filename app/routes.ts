@@ -18,6 +18,7 @@ export default [
   // Staff
   route("admin/users", "routes/admin/users.tsx"),
   route("admin/inspector-applications", "routes/admin/inspector-applications.tsx"),
+  route("admin/inspector-demand", "routes/admin/inspector-demand.tsx"),
   route("admin/profiles", "routes/admin/profiles.tsx"),
   route("admin/profiles/:key/:version", "routes/admin/profile-version.tsx"),
   route("admin/profiles/:key/:version/settings", "routes/admin/profile-settings.tsx"),

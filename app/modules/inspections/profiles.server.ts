@@ -13,6 +13,7 @@ import { BookingRuleError, isExclusionViolation } from "./errors";
 import { activeStatuses } from "./rules";
 import { bookings, inspectorFees, inspectorProfiles, inspectorSlots } from "./schema";
 import type { ProfileInput, SlotInput } from "./validation";
+import { answerInspectorRequests } from "~/modules/demand/service.server";
 
 export type Executor = Database | Parameters<Parameters<Database["transaction"]>[0]>[0];
 
@@ -241,6 +242,13 @@ export async function saveProfile(db: Database, userId: string, input: ProfileIn
     const fees = Object.entries(input.feeMinorByCategory).map(([category, amountMinor]) => ({ inspectorId: userId, category, amountMinor: amountMinor! }));
     if (fees.length) await tx.insert(inspectorFees).values(fees);
   });
+  // The regions may have changed: people who asked for an inspector in one of them hear of it now. The
+  // profile is saved whatever happens here; a request left open is answered on the next save.
+  try {
+    await answerInspectorRequests(db, userId);
+  } catch (error) {
+    console.warn(`[demand] open inspector requests could not be answered: ${error instanceof Error ? error.message : String(error)}`);
+  }
 }
 
 async function requireProfile(db: Executor, userId: string) {

@@ -9,6 +9,7 @@ import { InspectionSafetyNotice, RefundRules, SlotTime } from "~/modules/inspect
 import { BookingRuleError, SlotTakenError } from "~/modules/inspections/errors";
 import { bookingPageFor } from "~/modules/inspections/profiles.server";
 import { bookingRequestSchema, categoryLabel } from "~/modules/inspections/validation";
+import { inspectorRequestFor, InspectorRequestRuleError, requestInspector } from "~/modules/demand/service.server";
 import { countryName } from "~/modules/listings/catalogue";
 import { PaymentsRejectedError, PaymentsUnavailableError } from "~/modules/payments/stripe.server";
 import { formatMoney } from "~/modules/units/format";
@@ -22,14 +23,26 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   const page = await bookingPageFor(context.get(databaseContext), params.slug, user?.id ?? null);
   if (!page) throw data("There is no such machine, or it is not offered any more.", { status: 404 });
-  return { listing: page.listing, inspectors: page.inspectors, signedIn: Boolean(user), isSeller: page.viewerIsSeller };
+  // Where nobody serves yet, whether this person has asked for an inspector there.
+  const asked = user && !page.inspectors.length ? await inspectorRequestFor(context.get(databaseContext), user.id, page.listing) : null;
+  return { listing: page.listing, inspectors: page.inspectors, signedIn: Boolean(user), isSeller: page.viewerIsSeller, asked };
 }
 
 type Errors = Partial<Record<"inspectorId" | "slotId" | "acceptTerms" | "form", string[]>>;
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireVerifiedUser(request);
-  const parsed = bookingRequestSchema.safeParse(Object.fromEntries(await request.formData()));
+  const form = Object.fromEntries(await request.formData());
+  if (form.intent === "request-inspector") {
+    try {
+      const { recorded } = await requestInspector(context.get(databaseContext), user, params.slug);
+      return { requested: recorded ? ("recorded" as const) : ("already" as const) };
+    } catch (error) {
+      if (error instanceof InspectorRequestRuleError) return data({ errors: { form: [error.message] } as Errors }, { status: 422 });
+      throw error;
+    }
+  }
+  const parsed = bookingRequestSchema.safeParse(form);
   if (!parsed.success) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors as Errors }, { status: 422 });
   }
@@ -51,9 +64,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function BookInspection() {
-  const { listing, inspectors, signedIn, isSeller } = useLoaderData<typeof loader>();
+  const { listing, inspectors, signedIn, isSeller, asked } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
-  const errors: Errors = actionData?.errors ?? {};
+  const errors: Errors = (actionData && "errors" in actionData ? actionData.errors : undefined) ?? {};
   const navigation = useNavigation();
   const [chosen, setChosen] = useState<string | null>(inspectors.length === 1 ? inspectors[0]!.id : null);
   const chosenInspector = inspectors.find((inspector) => inspector.id === chosen);
@@ -77,7 +90,18 @@ export default function BookInspection() {
         <Card className="mt-8">
           <CardBody className="space-y-2 py-8 text-center">
             <p className="text-lg font-bold text-ink-900">No certified inspector serves this machine's region yet</p>
-            <p className="text-ink-600">Inspectors add regions and slots every week. <Link className="underline" to="/inspectors">See all inspectors</Link>.</p>
+            <InspectorRequest
+              place={[listing.region || listing.city, countryName(listing.country)].join(", ")}
+              slug={listing.slug}
+              signedIn={signedIn}
+              asked={asked}
+              answer={actionData && "requested" in actionData ? actionData.requested : null}
+              error={errors.form?.join(" ") ?? null}
+              busy={navigation.state !== "idle"}
+            />
+            <p className="text-sm text-ink-600">
+              Or <Link className="underline" to="/inspectors">see all inspectors</Link>: one who travels may take it on.
+            </p>
           </CardBody>
         </Card>
       ) : (
@@ -173,5 +197,58 @@ export default function BookInspection() {
         </Form>
       )}
     </div>
+  );
+}
+
+/** The way on where nobody serves yet: ask for an inspector in the region, and hear when one starts. */
+function InspectorRequest({
+  place,
+  slug,
+  signedIn,
+  asked,
+  answer,
+  error,
+  busy,
+}: {
+  place: string;
+  slug: string;
+  signedIn: boolean;
+  asked: { askedOn: string; served: boolean } | null;
+  answer: "recorded" | "already" | null;
+  error: string | null;
+  busy: boolean;
+}) {
+  if (!signedIn) {
+    return (
+      <p className="text-ink-600">
+        <Link className="font-semibold underline" to={`/sign-in?${new URLSearchParams({ redirectTo: `/machines/${slug}/book` })}`}>
+          Sign in
+        </Link>{" "}
+        to ask for an inspector in {place}; we e-mail you when one starts serving it.
+      </p>
+    );
+  }
+  if (answer || asked) {
+    return (
+      <p role="status" className="mx-auto max-w-xl text-ink-700" data-testid="inspector-requested">
+        {answer === "recorded"
+          ? `Your request for an inspector in ${place} is recorded. Certified inspectors in the country have been told, and we e-mail you when one starts serving it.`
+          : `You asked for an inspector in ${place}${asked ? ` on ${asked.askedOn}` : ""}. We e-mail you when one starts serving it.`}
+      </p>
+    );
+  }
+  return (
+    <Form method="post" className="mx-auto flex max-w-xl flex-col items-center gap-3">
+      <p className="text-ink-600">Ask for one: we tell the certified inspectors who work in the country, and e-mail you when one starts serving {place}.</p>
+      {error ? (
+        <p role="alert" className="text-sm font-medium text-beyond">
+          {error}
+        </p>
+      ) : null}
+      <input type="hidden" name="intent" value="request-inspector" />
+      <Button type="submit" disabled={busy}>
+        Ask for an inspector
+      </Button>
+    </Form>
   );
 }

@@ -236,6 +236,8 @@ const table: Record<string, RouteRow> = {
     actions: [{ intent: "decide with nothing chosen", body: () => ({ form: {} }), expect: by({ ...STAFF_ONLY, admin: 422 }) }],
   },
 
+  "admin/inspector-demand": { get: by(STAFF_ONLY), actions: "none" },
+
   // Tolerance profiles: staff only; a published version cannot be edited (409), only drafted from.
   "admin/profiles": {
     get: by(STAFF_ONLY),

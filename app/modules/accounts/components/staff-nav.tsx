@@ -1,11 +1,12 @@
 import { Link } from "react-router";
 
 /** Tabs of the staff pages. */
-export function StaffNav({ current }: { current: "users" | "applications" | "profiles" }) {
+export function StaffNav({ current }: { current: "users" | "applications" | "profiles" | "demand" }) {
   const items = [
     { key: "users", to: "/admin/users", label: "People" },
     { key: "applications", to: "/admin/inspector-applications", label: "Inspector applications" },
     { key: "profiles", to: "/admin/profiles", label: "Tolerance profiles" },
+    { key: "demand", to: "/admin/inspector-demand", label: "Inspector demand" },
   ] as const;
   return (
     <nav aria-label="Staff" className="flex flex-wrap gap-1 border-b border-ink-200">
