@@ -1,11 +1,13 @@
-// The PDF certificate of a published report (pdfkit): the same facts as the report page, the safety note,
-// the hash and a QR code to the public verification page.
+// The PDF certificate of a published report (pdfkit), in the reader's units: page 1 holds the grade, key
+// figures, machine, inspector, date and a QR code to the public verification page; then the results, the
+// plots as vector graphics (certificate-plots.server.ts), the sources, the safety note and the signature block.
 import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
 import { KEY_FIGURE_LABELS, reportAge, type KeyFigureKey } from "./content";
-import { DIRECTION_LABELS, formatDeviationBoth, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
-import { env } from "~/env.server";
+import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
+import { formatLength, type DisplayUnits } from "~/modules/units/format";
+import { plotsOfReport, type PdfPlot } from "./certificate-plots.server";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
 import { renderReadingsCertificate } from "./certificate-readings.server";
 import { fromMemoryNotice, HOW_SCORING_WORKS_SOURCES, makersChartLine, resultSources } from "./sources";
@@ -30,10 +32,19 @@ const printable = (text: string) => text.replace(/≤/g, "up to").replace(/≥/g
 
 const SIGNED_FIGURES = new Set<KeyFigureKey>(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight"]);
 
-export async function renderCertificate(report: PublicReport, now = new Date()): Promise<Buffer> {
+export interface CertificateOptions {
+  /** The reader's units: deviations in µm or inches, lengths in mm or inches. */
+  units: DisplayUnits;
+  /** The app's public origin, for the links printed on the certificate. */
+  origin: string;
+  now?: Date;
+}
+
+export async function renderCertificate(report: PublicReport, options: CertificateOptions): Promise<Buffer> {
   if (report.notice) return renderReadingsCertificate({ ...report, notice: report.notice });
   const { content } = report;
-  const qr = await QRCode.toBuffer(report.verificationUrl, { type: "png", margin: 1, width: 240, errorCorrectionLevel: "M" });
+  const { units, origin } = options;
+  const now = options.now ?? new Date();
   // PDF/A-3b (ISO 19005-3): fonts embedded (Manrope from the start, never a standard font), sRGB output
   // intent and XMP metadata from pdfkit, and the signed credential as an associated file, so the certificate
   // can be checked offline years later with nothing but the issuer's public keys.
@@ -74,8 +85,8 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   const left = doc.page.margins.left;
   const width = doc.page.width - left - doc.page.margins.right;
 
-  const heading = (text: string) => {
-    ensureSpace(60);
+  const heading = (text: string, keepWith = 60) => {
+    ensureSpace(keepWith);
     doc.moveDown(0.8).font("bold").fontSize(12).fillColor(ink).text(text, left);
     doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).strokeColor(rule).lineWidth(0.7).stroke();
     doc.moveDown(0.5);
@@ -120,37 +131,55 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
     doc.moveDown(0.4).font("bold").fontSize(10).fillColor(beyond).text(`This revision is superseded${report.supersededBy ? ` by revision ${report.supersededBy.revision}` : ""}; read the current one before relying on it.`);
   }
 
-  // Grade and key figures
+    // Page 1 holds what a reader needs at a glance: grade, key figures, machine, inspector, date and the QR code.
   const age = reportAge(content.measuredOn, now);
-  heading("Grade and key figures");
-  const gradeY = doc.y;
-  doc.font("bold").fontSize(36).fillColor(ink).text(content.score.grade === "incomplete" ? "—" : content.score.grade, left, gradeY, { width: 70 });
-  doc.font("bold").fontSize(10).fillColor(ink).text(`Grade ${content.score.grade}`, left + 80, gradeY + 4);
-  doc.font("regular").fontSize(9).fillColor(muted).text(GRADE_MEANING[content.score.grade] ?? "", left + 80, doc.y, { width: width - 80 });
-  doc
-    .font("regular")
-    .fontSize(9)
-    .fillColor(age.expired ? beyond : muted)
-    .text(`Measured ${formatReportDate(content.measuredOn)}${age.expired ? ` — more than 12 months before this certificate was made (${formatReportDate(now.toISOString())}): the machine may have changed since.` : ""}`, left + 80, doc.y, { width: width - 80 });
-  doc.y = Math.max(doc.y, gradeY + 46);
-  doc.moveDown(0.4);
-  table(
-    [
-      { label: "Key figure", width: 200 },
-      { label: "Value", width: width - 200 },
-    ],
-    (Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).map((name) => {
-      const value = content.score.keyFigures[name];
-      return { cells: [KEY_FIGURE_LABELS[name], value === null ? "not measured" : formatDeviationBoth(value, { signed: SIGNED_FIGURES.has(name) })] };
-    }),
-  );
+  const panelTop = doc.y + 10;
+  const qrSize = 118;
+  const qrX = left + width - qrSize - 10;
+  const summaryWidth = qrX - left - 30;
+  doc.font("bold").fontSize(40).fillColor(ink).text(content.score.grade === "incomplete" ? "—" : content.score.grade, left + 12, panelTop + 10, { width: 60, lineBreak: false });
+  doc.font("bold").fontSize(11).fillColor(ink).text(`Grade ${content.score.grade}`, left + 80, panelTop + 14, { width: summaryWidth - 80 });
+  doc.font("regular").fontSize(8.5).fillColor(muted).text(GRADE_MEANING[content.score.grade] ?? "", left + 80, doc.y + 1, { width: summaryWidth - 80 });
+  doc.font("regular").fontSize(8.5).fillColor(ink).text(`Tests on ${formatReportDate(content.measuredOn)} by ${content.inspector.name}`, left + 80, doc.y + 2, { width: summaryWidth - 80 });
+  if (age.expired) {
+    doc.font("regular").fontSize(8).fillColor(beyond).text(`Measured more than 12 months before this certificate was made (${formatReportDate(now.toISOString())}): the machine may have changed since.`, left + 80, doc.y + 2, { width: summaryWidth - 80 });
+  }
+  doc.y = Math.max(doc.y, panelTop + 62) + 6;
+  const shownFigures = (Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).filter((name) => content.score.keyFigures[name] !== undefined);
+  const measuredFigures = shownFigures.filter((name) => content.score.keyFigures[name] !== null);
+  doc.font("bold").fontSize(8.5).fillColor(muted).text("Key figures", left + 12, doc.y, { width: summaryWidth });
+  for (const name of measuredFigures) {
+    const y = doc.y + 1;
+    doc.font("regular").fontSize(9).fillColor(ink).text(KEY_FIGURE_LABELS[name], left + 12, y, { width: 150, lineBreak: false });
+    doc.font("bold").fontSize(9).fillColor(ink).text(formatDeviation(content.score.keyFigures[name]!, units, { signed: SIGNED_FIGURES.has(name) }), left + 170, y, { width: summaryWidth - 170 });
+  }
+  const unmeasured = shownFigures.filter((name) => content.score.keyFigures[name] === null);
+  if (!measuredFigures.length) doc.font("regular").fontSize(8).fillColor(muted).text("None of the key figures applies to, or was measured on, this machine; the results follow.", left + 12, doc.y + 2, { width: summaryWidth });
+  else if (unmeasured.length) doc.font("regular").fontSize(8).fillColor(muted).text(`Not measured: ${unmeasured.map((name) => KEY_FIGURE_LABELS[name].toLowerCase()).join(", ")}.`, left + 12, doc.y + 2, { width: summaryWidth });
+  // The QR code as vector squares: sharp at any print size, no image in the archive.
+  const qr = QRCode.create(report.verificationUrl, { errorCorrectionLevel: "M" });
+  const cells = qr.modules.size;
+  const cell = qrSize / (cells + 2);
+  doc.save().rect(qrX, panelTop + 8, qrSize, qrSize).fill("#ffffff");
+  for (let row = 0; row < cells; row += 1) {
+    for (let column = 0; column < cells; column += 1) {
+      if (qr.modules.get(row, column)) doc.rect(qrX + (column + 1) * cell, panelTop + 8 + (row + 1) * cell, cell + 0.05, cell + 0.05);
+    }
+  }
+  doc.fill(ink).restore();
+  doc.font("bold").fontSize(7.5).fillColor(ink).text("Check this certificate", qrX - 6, panelTop + qrSize + 12, { width: qrSize + 12, align: "center" });
+  doc.font("regular").fontSize(6.5).fillColor(muted).text("Scan the code, or drop this PDF on the verification page: the signature is checked in your browser.", qrX - 6, doc.y + 1, { width: qrSize + 12, align: "center" });
+  const panelBottom = Math.max(doc.y, panelTop + qrSize + 20) + 8;
+  doc.roundedRect(left, panelTop, width, panelBottom - panelTop, 4).lineWidth(0.8).strokeColor(rule).stroke();
+  doc.y = panelBottom;
+  doc.x = left;
 
   heading("Machine and inspection");
   facts([
     ["Machine", [content.machine.make, content.machine.model, content.machine.year ? `(${content.machine.year})` : ""].filter(Boolean).join(" ")],
     ["Serial number", content.machine.serialNumber ?? "not given"],
-    ["Swing over bed", content.machine.swingOverBedMm ? `${content.machine.swingOverBedMm} mm` : "not given"],
-    ["Distance between centres", content.machine.distanceBetweenCentresMm ? `${content.machine.distanceBetweenCentresMm} mm` : "not given"],
+    ["Swing over bed", content.machine.swingOverBedMm ? formatLength(content.machine.swingOverBedMm, units) : "not given"],
+    ["Distance between centres", content.machine.distanceBetweenCentresMm ? formatLength(content.machine.distanceBetweenCentresMm, units) : "not given"],
     ["Location", content.machine.location],
     ["Inspector", content.inspector.name],
     ["Booking", content.booking.reference],
@@ -158,9 +187,10 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
     ["Signed", formatSignedAt(content.signedAt ?? report.signedAt)],
     ["Tolerance profile", `${content.profile.key} v${content.profile.version}: ${content.profile.title}`],
     ["Why this profile", content.profile.reason],
+    ["Units", units === "inch" ? "readings in inches, lengths in inches (as chosen by the reader; the signed credential holds µm and mm)" : "readings in µm, lengths in mm (as chosen by the reader; the signed credential holds µm and mm)"],
   ]);
 
-  heading("Conditions");
+heading("Conditions");
   facts([
     ["Ambient temperature", content.conditions.ambientTemperatureC === null ? "not recorded" : `${content.conditions.ambientTemperatureC} °C (reference 20 °C, ISO 1:2016)`],
     ["Warm-up run", content.conditions.warmUpMinutes === null ? "not recorded" : `${content.conditions.warmUpMinutes} min`],
@@ -180,7 +210,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
       cells: [
         instrument.kindLabel,
         instrument.description || "—",
-        instrument.resolution === null ? "—" : formatDeviationBoth(instrument.resolution, { unit: instrument.resolutionUnit ?? "µm" }),
+        instrument.resolution === null ? "—" : formatDeviation(instrument.resolution, units, { unit: instrument.resolutionUnit ?? "µm" }),
         instrument.calibrationDue ? `${formatReportDate(instrument.calibrationDue)}${instrument.calibrationOverdue ? " (overdue)" : ""}` : "not given",
       ],
       colour: [ink, ink, ink, instrument.calibrationOverdue ? beyond : ink],
@@ -204,10 +234,10 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
       return {
         cells: [
           `${result.code} ${result.title}${result.required ? "" : " (optional)"}`,
-          formatDeviationBoth(result.value, { signed, unit }),
-          `${formatDeviationBoth(result.tolerance, { unit })}${result.measuringLength ? ` over ${Math.round(result.measuringLength * 10) / 10} mm` : ""}`,
+          formatDeviation(result.value, units, { signed, unit }),
+          `${formatDeviation(result.tolerance, units, { unit })}${result.measuringLength ? ` over ${formatLength(result.measuringLength, units)}` : ""}`,
           formatRatio(result.ratio),
-          `${DIRECTION_LABELS[result.direction.allowed]}${observed && result.direction.allowed !== "any" ? `; read ${observed}` : ""}${result.direction.pass ? "" : ` — ${formatDeviationBoth(result.direction.against)} the wrong way`}`,
+          `${DIRECTION_LABELS[result.direction.allowed]}${observed && result.direction.allowed !== "any" ? `; read ${observed}` : ""}${result.direction.pass ? "" : ` — ${formatDeviation(result.direction.against, units, { unit })} the wrong way`}`,
           result.pass ? "within" : "beyond",
         ],
         colour: [ink, ink, ink, ink, result.direction.pass ? ink : beyond, result.pass ? within : beyond],
@@ -218,10 +248,39 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
     doc.moveDown(0.4).font("regular").fontSize(8.5).fillColor(beyond).text(`Required tests without a reading: ${content.score.missing.join(", ")}.`, left, doc.y, { width });
   }
 
+  const plots = plotsOfReport(content, units);
+  if (plots.length) {
+    heading("Plots", Math.max(...plots.slice(0, 2).map((plot) => plot.height)) + 110);
+    // Full-width plots one to a row; half-width ones (run-out, mandrel) two to a row.
+    const rows: PdfPlot[][] = [];
+    for (const plot of plots) {
+      const last = rows.at(-1);
+      if (plot.span === "half" && last?.length === 1 && last[0]!.span === "half") last.push(plot);
+      else rows.push([plot]);
+    }
+    const gap = 18;
+    for (const row of rows) {
+      const cellWidth = row[0]!.span === "half" ? (width - gap) / 2 : width;
+      const captionHeight = Math.max(...row.map((plot) => doc.font("regular").fontSize(7.5).heightOfString(printable(plot.caption), { width: cellWidth })));
+      const titleHeight = Math.max(...row.map((plot) => doc.font("bold").fontSize(9).heightOfString(printable(`${plot.code} ${plot.title}`), { width: cellWidth })));
+      const drawingHeight = Math.max(...row.map((plot) => plot.height));
+      ensureSpace(titleHeight + drawingHeight + captionHeight + 20);
+      const top = doc.y;
+      row.forEach((plot, i) => {
+        const x = left + i * (cellWidth + gap);
+        doc.font("bold").fontSize(9).fillColor(ink).text(printable(`${plot.code} ${plot.title}`), x, top, { width: cellWidth });
+        plot.draw(doc, { x, y: top + titleHeight + 4, width: cellWidth });
+        doc.font("regular").fontSize(7.5).fillColor(muted).text(printable(plot.caption), x, top + titleHeight + 4 + drawingHeight + 4, { width: cellWidth });
+      });
+      doc.x = left;
+      doc.y = top + titleHeight + drawingHeight + captionHeight + 22;
+    }
+  }
+
   heading("Where the tolerances come from");
   const chartLine = makersChartLine(content.profile);
   const recalled = fromMemoryNotice(content.score);
-  for (const note of [chartLine, recalled ? `${recalled} How scoring works: ${env().APP_ORIGIN}${HOW_SCORING_WORKS_SOURCES}` : null]) {
+  for (const note of [chartLine, recalled ? `${recalled} How scoring works: ${origin}${HOW_SCORING_WORKS_SOURCES}` : null]) {
     if (note) doc.font("bold").fontSize(8.5).fillColor(ink).text(printable(note), left, doc.y, { width }).moveDown(0.2);
   }
   for (const result of content.score.results) {
@@ -244,16 +303,6 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
   }
   doc.font("bold").fontSize(8.5).fillColor(ink).text(SAFETY_DEFERENCE, left, doc.y + 2, { width });
 
-  heading("Verification");
-  ensureSpace(130);
-  const qrY = doc.y;
-  doc.image(qr, left, qrY, { width: 110 });
-  doc.font("bold").fontSize(9).fillColor(ink).text("SHA-256 content hash", left + 125, qrY);
-  doc.font("regular").fontSize(8.5).fillColor(ink).text(report.contentHash, left + 125, doc.y, { width: width - 125 });
-  doc.moveDown(0.4).font("regular").fontSize(8.5).fillColor(muted).text("The hash is taken over the RFC 8785 canonical JSON of the report (GET /api/v1/reports/" + report.id + "). Scan the code or open:", left + 125, doc.y, { width: width - 125 });
-  doc.font("regular").fontSize(8.5).fillColor(ink).text(report.verificationUrl, left + 125, doc.y, { width: width - 125, link: report.verificationUrl });
-  doc.y = Math.max(doc.y, qrY + 115);
-
   heading("Signature");
   const keyId = report.keyId;
   facts([
@@ -263,6 +312,7 @@ export async function renderCertificate(report: PublicReport, now = new Date()):
     ["Key", `${keyId} — public keys and their periods at /.well-known/did.json`],
     ["Content hash (SHA-256)", report.contentHash],
     ["Credential", `embedded in this PDF as ${CREDENTIAL_ATTACHMENT_NAME}; drop this file on the verification page to check it in your browser`],
+    ["Verification page", report.verificationUrl],
   ]);
 
   // "Page X of Y" on every page, once the page count is known.

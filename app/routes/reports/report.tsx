@@ -100,7 +100,7 @@ export default function ReportPage() {
               </Link>
             ))}
           </div>
-          <a href={`/reports/${report.id}/certificate.pdf`} className="inline-flex h-10 items-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700" download>
+          <a href={`/reports/${report.id}/certificate.pdf?units=${units}`} className="inline-flex h-10 items-center rounded-control bg-ink-900 px-4 text-sm font-semibold text-white hover:bg-ink-700" download>
             Download the certificate (PDF)
           </a>
         </div>
