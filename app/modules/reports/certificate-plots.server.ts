@@ -3,7 +3,7 @@
 // run-out around a revolution, a surface's heights above its reference plane as a colour map, and an axis's
 // positioning deviations (mean ± 2s per direction). One maker per measurement kind: a new kind adds its
 // maker to PLOT_MAKERS and the certificate draws it, nothing else changes.
-import { positioningAccuracy, type MeasurementKind, type PositioningEvaluation, type TestMeasurement, type TestResult } from "~/geometry";
+import { positioningAccuracy, straightnessReferenceLine, type MeasurementKind, type PositioningEvaluation, type TestMeasurement, type TestResult } from "~/geometry";
 import { MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
 import type { ReportContent } from "./content";
 
@@ -146,24 +146,6 @@ const REFERENCE_NAMES: Record<string, string> = { "end-points": "end points", "l
 // Straightness and other readings along a travel
 // ---------------------------------------------------------------------------------------------
 
-/**
- * The reference line where the method puts it, with the engine's slope: through the first and last reading
- * (end points), through the readings' centroid (least squares), or in the middle of the zone (minimum zone).
- */
-export function placedReferenceLine(points: { station: number; reading: number }[], straightness: NonNullable<TestResult["straightness"]>) {
-  const { slope } = straightness.line;
-  if (straightness.reference === "end-points") {
-    const first = points[0]!;
-    return { slope, intercept: first.reading - slope * first.station };
-  }
-  if (straightness.reference === "least-squares") {
-    const meanX = points.reduce((sum, point) => sum + point.station, 0) / points.length;
-    const meanY = points.reduce((sum, point) => sum + point.reading, 0) / points.length;
-    return { slope, intercept: meanY - slope * meanX };
-  }
-  return straightness.line;
-}
-
 const alongTravel: PlotMaker = ({ code, title, measurement, result, units }) => {
   if (measurement.kind !== "profile" && measurement.kind !== "level") return null;
   if (measurement.points.length < 2) return null;
@@ -189,7 +171,7 @@ const alongTravel: PlotMaker = ({ code, title, measurement, result, units }) => 
       const xs = points.map((point) => station.value(point.station));
       const ys = points.map((point) => reading.value(point.reading));
       const mid = straightness?.line;
-      const placed = straightness ? placedReferenceLine(points, straightness) : undefined;
+      const placed = straightness ? straightnessReferenceLine(points.map((point) => ({ x: point.station, y: point.reading })), straightness.reference, straightness.line.slope) : undefined;
       const along = (line: { slope: number; intercept: number }, mm: number, offset = 0) => reading.value(line.slope * mm + line.intercept + offset);
       const first = points[0]!.station;
       const last = points.at(-1)!.station;
