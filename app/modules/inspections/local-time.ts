@@ -63,3 +63,9 @@ export function formatVisit(startsAt: Date | string, endsAt: Date | string, plac
 export function formatVisitDate(startsAt: Date | string, place?: MachinePlace | null) {
   return formatter(zoneOf(place) ?? "UTC", "date").format(new Date(startsAt));
 }
+
+/** The calendar day (YYYY-MM-DD) of an instant where the machine stands, or in UTC where its zone is unknown. */
+export function dayAtMachine(instant: Date | string, place?: MachinePlace | null): string {
+  // en-CA writes dates as YYYY-MM-DD.
+  return new Intl.DateTimeFormat("en-CA", { timeZone: zoneOf(place) ?? "UTC", year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date(instant));
+}

@@ -399,6 +399,36 @@ export function checkConditions(form: Pick<ReportForm, "conditions">): Condition
   return { values: parsed.data, errors };
 }
 
+/**
+ * The date of the tests against the calendar at the machine's place: a date after today there is refused
+ * (nobody has measured tomorrow); one before the booked visit is allowed (a visit may be brought forward by
+ * agreement) but said aloud, since it is more often a slip of the date picker.
+ */
+export function measuredOnCheck(measuredOn: string, days: { today: string; visitDay: string }): { error: string | null; warning: string | null } {
+  if (!measuredOn) return { error: "Give the date of the tests.", warning: null };
+  if (measuredOn > days.today) return { error: `The date of the tests is in the future (today is ${days.today} where the machine stands).`, warning: null };
+  if (measuredOn < days.visitDay) {
+    return { error: null, warning: `${measuredOn} is before the booked visit (${days.visitDay}). Check the date; if the visit was brought forward, say so in the notes.` };
+  }
+  return { error: null, warning: null };
+}
+
+/**
+ * Why a test has no resolution when the inspector chose an instrument: a level reads tilt (µm/m), which is
+ * not a step of heights entered as a profile, so its resolution cannot be used for them. Null otherwise.
+ */
+export function resolutionNote(entry: TestEntry, instruments: readonly InstrumentEntry[], units: EntryUnits): string | null {
+  if (parseTypedNumber(entry.resolution) !== undefined) return null;
+  const instrument = instruments.find((candidate) => candidate.id === entry.instrumentId);
+  if (!instrument || instrumentReads(instrument.kind) !== "tilt" || entry.kind === "level") return null;
+  const heights = unitLabels(units).reading;
+  return (
+    `The level reads tilt (µm/m), not steps of the heights entered here (${heights}), so its resolution does not apply as it is. ` +
+    `Give this test's resolution in ${heights}: the level's step times the station spacing (20 µm/m over 100 mm steps is 2 µm), ` +
+    `or enter the tilts themselves as "Level readings along the travel".`
+  );
+}
+
 /** The profile the form names, among those given (the entry page is sent the ones it may score with). */
 export function profileOf(form: Pick<ReportForm, "profile">, profiles: readonly ToleranceProfile[]): ToleranceProfile | undefined {
   return findProfile(profiles, form.profile.key, form.profile.version);
@@ -441,7 +471,11 @@ export function previewReport(form: ReportForm, profile: ToleranceProfile | unde
     if (check.state !== "complete" || !check.measurement) return { test, check, result: null, engineError: null };
     try {
       const metric = toMetric({ tests: { [test.code]: check.measurement } }, form.units).tests[test.code]!;
-      const result = evaluateTest(test, metric, conditions.values, profile.rules);
+      const scored = evaluateTest(test, metric, conditions.values, profile.rules);
+      const note = entry ? resolutionNote(entry, form.instruments, form.units) : null;
+      const result = note
+        ? { ...scored, warnings: scored.warnings.map((warning) => (warning.code === "resolution-missing" ? { ...warning, message: note } : warning)) }
+        : scored;
       complete[test.code] = check.measurement;
       return { test, check, result, engineError: null };
     } catch (error) {

@@ -24,6 +24,7 @@ import { sha256Hex } from "~/modules/files/images.server";
 import { readObject, StorageUnavailableError } from "~/modules/files/storage.server";
 import { recordReportFiled } from "~/modules/inspections/bookings.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
+import { dayAtMachine } from "~/modules/inspections/local-time";
 import { getBookingForReport, type BookingForReport } from "~/modules/inspections/report-queries.server";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { profilesForNewReports, scorableProfile } from "~/modules/profiles/service.server";
@@ -37,6 +38,7 @@ import {
   formLimitErrors,
   INSTRUMENT_KINDS,
   instrumentReads,
+  measuredOnCheck,
   metricMeasurements,
   newReportForm,
   reportFormSchema,
@@ -226,6 +228,11 @@ export async function testCodesOfReport(db: Executor, bookingId: string, listing
 
 // ————— The entry page —————
 
+/** Today and the booked visit's day, as calendar days where the machine stands. */
+function entryDays(found: BookingForReport, now: Date) {
+  return { today: dayAtMachine(now, found.listing), visitDay: dayAtMachine(found.booking.startsAt, found.listing) };
+}
+
 export function machineTitle(listing: Pick<BookingForReport["listing"], "make" | "model">) {
   return `${listing.make} ${listing.model}`;
 }
@@ -246,14 +253,14 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
         profileKey: start.key,
         profileVersion: start.version,
         units: inspector.displayUnits,
-        measuredOn: today.toISOString().slice(0, 10),
+        measuredOn: dayAtMachine(today, found.listing),
       });
   const [submitted] = await db
     .select({ id: reports.id, draftVersion: reports.draftVersion })
     .from(reports)
     .where(and(eq(reports.bookingId, bookingId), eq(reports.status, "draft")));
   return {
-    booking: { id: found.booking.id, reference: found.booking.reference, status: found.booking.status, startsAt: found.booking.startsAt.toISOString() },
+    booking: { id: found.booking.id, reference: found.booking.reference, status: found.booking.status, startsAt: found.booking.startsAt.toISOString(), days: entryDays(found, today) },
     machine: {
       title: machineTitle(found.listing),
       slug: found.listing.slug,
@@ -383,8 +390,8 @@ function buildContent(
   const { profile, suggestion } = scoring;
   if (scoring.retired) errors["profile.key"] = [`${profile.title} (v${profile.version}) has been retired by staff; choose a current profile. Your readings are kept.`];
   if (!form.safetyAcknowledged) errors.safetyAcknowledged = ["Read the safety cautions and tick the box before submitting."];
-  if (!form.measuredOn) errors.measuredOn = ["Give the date of the tests."];
-  else if (form.measuredOn > now.toISOString().slice(0, 10)) errors.measuredOn = ["The date of the tests is in the future."];
+  const dated = measuredOnCheck(form.measuredOn, entryDays(found, now));
+  if (dated.error) errors.measuredOn = [dated.error];
   const differs = !suggestion.profile || suggestion.profile.key !== profile.key || suggestion.profile.version !== profile.version;
   if (differs && !form.profile.reason.trim()) {
     errors["profile.reason"] = [suggestion.profile ? "Say why you chose another profile than the one suggested." : "Say why this profile fits the machine."];

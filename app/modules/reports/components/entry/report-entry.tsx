@@ -9,6 +9,7 @@ import {
   emptyTestEntry,
   INSTRUMENT_KINDS,
   instrumentReads,
+  measuredOnCheck,
   previewReport,
   profileOf,
   unitLabels,
@@ -23,7 +24,7 @@ import { TestCard } from "./test-card";
 import { useDraftSync, type SyncStatus } from "./use-draft-sync";
 
 export type EntryData = {
-  booking: { id: string; reference: string; status: string; startsAt: string };
+  booking: { id: string; reference: string; status: string; startsAt: string; days: { today: string; visitDay: string } };
   machine: { title: string; slug: string; categoryLabel: string; year: number | null; swingOverBedMm: number | null; distanceBetweenCentresMm: number | null; location: string };
   suggestion: { profile: { key: string; version: number; title: string; makersChart: string | null } | null; reason: string; uncovered: boolean };
   /** The versions this form may score with, its own (if since retired) included and marked. */
@@ -89,6 +90,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
   const navigation = useNavigation();
   const submitting = navigation.state === "submitting" && navigation.formData?.get("intent") === "submit";
   const errors = serverErrors ?? {};
+  const dated = measuredOnCheck(form.measuredOn, data.booking.days);
   const labels = unitLabels(form.units);
   const suggested = data.suggestion.profile;
   const differs = !suggested || suggested.key !== form.profile.key || suggested.version !== form.profile.version;
@@ -220,7 +222,21 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
             <Card>
               <CardHeader title="Date and conditions" description="Record them: the engine warns on any left out." />
               <CardBody className="grid gap-4 sm:grid-cols-2">
-                <TextField label="Date of the tests" type="date" value={form.measuredOn} errors={errors.measuredOn} onChange={(event) => change((draft) => void (draft.measuredOn = event.target.value))} />
+                <div>
+                  <TextField
+                    label="Date of the tests"
+                    type="date"
+                    max={data.booking.days.today}
+                    value={form.measuredOn}
+                    errors={errors.measuredOn ?? (dated.error && form.measuredOn ? [dated.error] : undefined)}
+                    onChange={(event) => change((draft) => void (draft.measuredOn = event.target.value))}
+                  />
+                  {dated.warning ? (
+                    <p className="mt-1 text-sm font-medium text-caution" role="status" data-testid="date-warning">
+                      {dated.warning}
+                    </p>
+                  ) : null}
+                </div>
                 <TextField
                   label="Ambient temperature (°C)"
                   inputMode="decimal"
