@@ -29,8 +29,8 @@ describe("the date of the tests", () => {
 
 describe("a level chosen for a height profile", () => {
   const instruments = [
-    { id: "i1", kind: "dial-indicator", description: "", resolution: "1", calibrationDue: "" },
-    { id: "i2", kind: "precision-level", description: "", resolution: "20", calibrationDue: "" },
+    { id: "i1", kind: "dial-indicator" as const, description: "", resolution: "1", calibrationDue: "" },
+    { id: "i2", kind: "precision-level" as const, description: "", resolution: "20", calibrationDue: "" },
   ];
   const profile = { ...emptyTestEntry("profile"), points: [0, 250, 500, 750, 1000].map((station, i) => ({ station: String(station), reading: String([0, 3, 5, 4, 0][i]) })), instrumentId: "i2" };
 
