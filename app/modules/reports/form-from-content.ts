@@ -2,11 +2,12 @@
 import { micrometresToInches, type TestMeasurement } from "~/geometry";
 import type { ReportContent } from "./content";
 import { emptyTestEntry, instrumentReads, isEntryKind, reportFormSchema, type ReportForm, type TestEntry } from "./form";
+import { gridFromPoints } from "./grid-entry";
 
 const text = (value: number | null | undefined) => (value === null || value === undefined ? "" : String(value));
 
 function entryOf(measurement: TestMeasurement): TestEntry {
-  if (!isEntryKind(measurement.kind)) throw new Error("Heights over a surface are not entered through the form.");
+  if (!isEntryKind(measurement.kind)) throw new Error(`Readings of kind ${measurement.kind} are not entered through the form.`);
   const entry = emptyTestEntry(measurement.kind);
   switch (measurement.kind) {
     case "sweep":
@@ -37,6 +38,13 @@ function entryOf(measurement: TestMeasurement): TestEntry {
       entry.headstockEnd = text(measurement.headstockEnd);
       entry.tailstockEnd = text(measurement.tailstockEnd);
       break;
+    case "surface": {
+      // Level tilts were turned into heights when the report was signed: the correction starts from those heights.
+      const grid = gridFromPoints(measurement.points);
+      if (!grid) throw new Error("These heights do not form an evenly spaced grid, so they cannot be corrected through the form.");
+      entry.grid = { ...grid, reference: measurement.reference ?? "" };
+      break;
+    }
   }
   // The resolution travels with the test so the correction scores the same unless the inspector changes it.
   entry.resolution = text(measurement.resolution);

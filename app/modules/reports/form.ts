@@ -23,6 +23,7 @@ import {
   type ToleranceProfile,
 } from "~/geometry";
 import { safeText } from "~/modules/validation/text";
+import { checkGrid, emptyGridEntry, gridEntrySchema, gridNumbers, type GridCheck } from "./grid-entry";
 
 export type EntryUnits = "mm" | "inch";
 
@@ -62,8 +63,7 @@ export const instrumentEntrySchema = z.object({
   calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
 });
 
-// Heights over a surface ("surface") are scored by the engine and the API; the form does not enter grids yet.
-const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height"] as const;
+const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface"] as const;
 export type EntryKind = (typeof kinds)[number];
 export const isEntryKind = (kind: MeasurementKind): kind is EntryKind => (kinds as readonly string[]).includes(kind);
 
@@ -86,6 +86,8 @@ export const testEntrySchema = z.object({
   headstockEnd: numberText,
   tailstockEnd: numberText,
   length: numberText,
+  /** Heights over a surface: a grid of heights, or level tilts along its lines (grid-entry.ts). */
+  grid: gridEntrySchema.default(emptyGridEntry),
   instrumentId: safeText({ label: "instrument", max: 40 }).default(""),
   /** Overrides the instrument's resolution for this test, in reading units. */
   resolution: numberText,
@@ -163,6 +165,7 @@ function* typedNumbersOf(entry: TestEntry): Generator<[string, number, Quantity]
   }
   yield* typed("length", entry.length, "station");
   yield* typed("resolution", entry.resolution, readingIs);
+  if (entry.kind === "surface") for (const [path, text, quantity] of gridNumbers(entry.grid)) yield* typed(`grid.${path}`, text, quantity);
 }
 
 /**
@@ -223,6 +226,8 @@ export interface TestEntryCheck {
   errors: Record<string, string[]>;
   /** In the entry's units, as the engine's schemas take it; present when state is "complete". */
   measurement?: TestMeasurement;
+  /** Level readings over a surface: how far the lines that meet disagree (µm), shown beside the grid. */
+  closure?: GridCheck["closure"];
 }
 
 type Numbers = Record<string, number | undefined>;
@@ -261,6 +266,7 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
   let candidate: Record<string, unknown> | null = null;
   let filled = 0;
   let needed = 0;
+  let closure: GridCheck["closure"];
 
   const count = (values: Numbers) => {
     const present = Object.values(values).filter((value) => value !== undefined).length;
@@ -334,6 +340,19 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
       if (count(values) === 2) candidate = { kind: "centre-height", headstockEnd: values.headstockEnd, tailstockEnd: values.tailstockEnd };
       break;
     }
+    case "surface": {
+      const grid = checkGrid(entry.grid, units);
+      for (const [path, messages] of Object.entries(grid.errors)) errors[`grid.${path}`] = messages;
+      filled += grid.filled;
+      needed = 1;
+      if (grid.points) {
+        candidate = { kind: "surface", points: grid.points, ...(entry.grid.reference ? { reference: entry.grid.reference } : {}) };
+        closure = grid.closure;
+      } else if (grid.missing && !Object.keys(errors).length && grid.filled > 0) {
+        return { state: "incomplete", errors: { entry: [grid.missing] } };
+      }
+      break;
+    }
   }
 
   // A number beyond what the tests can read says so at its field, instead of "Not a number.".
@@ -350,7 +369,7 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
     }
     return { state: "invalid", errors };
   }
-  return { state: "complete", errors, measurement: parsed.data };
+  return { state: "complete", errors, measurement: parsed.data, ...(closure ? { closure } : {}) };
 }
 
 function incompleteMessage(entry: TestEntry): Record<string, string[]> {
@@ -362,6 +381,7 @@ function incompleteMessage(entry: TestEntry): Record<string, string[]> {
     mandrel: "Give all four readings: near and far, at 0° and at 180°.",
     "near-far": "Give both the near and the far reading.",
     "centre-height": "Give the readings at both ends.",
+    surface: "Give the heights or level readings over the whole grid.",
   };
   return { entry: [message[entry.kind]] };
 }
@@ -369,6 +389,7 @@ function incompleteMessage(entry: TestEntry): Record<string, string[]> {
 /** Maps a path of the engine's measurement (e.g. far.at0) to the form's field (far0). */
 function entryPath(kind: MeasurementKind, path: string[]): string {
   if (kind === "mandrel" && path.length === 2) return `${path[0]}${path[1] === "at0" ? "0" : "180"}`;
+  if (kind === "surface") return path[0] === "points" ? "grid" : (path[0] ?? "entry");
   if (path[0] === "readings" || path[0] === "points") return path.join(".");
   return path[0] ?? "entry";
 }

@@ -3,6 +3,7 @@
 import type { TestMeasurement, TestResult } from "~/geometry";
 import { micrometresToInches, straightnessReferenceLine } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
+import { SurfacePlot } from "./surface-plot";
 
 const W = 640;
 const H = 240;
@@ -330,6 +331,8 @@ export function TestPlot({ measurement, result, units }: { measurement: TestMeas
     case "sweep":
     case "extremes":
       return <RunOutPlot measurement={measurement} units={units} title={title} />;
+    case "surface":
+      return <SurfacePlot measurement={measurement} result={result} units={units} title={title} />;
     default:
       return null;
   }

@@ -4,7 +4,8 @@ import { useId, useState, type ReactNode } from "react";
 import { Badge, Button, cx, SelectField, TextAreaField } from "~/components/ui";
 import { KINDS_FOR_METHOD, toMetric, type MeasurementKind, type ProfileTest } from "~/geometry";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, isSignedValue } from "../../format";
-import { emptyTestEntry, isEntryKind, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestPreview } from "../../form";
+import { emptyTestEntry, isEntryKind, parseStationTable, unitLabels, type EntryUnits, type InstrumentEntry, type TestEntry, type TestEntryCheck, type TestPreview } from "../../form";
+import { GridFields } from "./grid-fields";
 import { RatioBar } from "../grade";
 import { TestPlot } from "../plots";
 import { SetupPhoto, type SetupPhotoView } from "./setup-photo";
@@ -240,7 +241,7 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
   );
 }
 
-function ReadingsFields({ test, entry, change, units, errors }: { test: ProfileTest; entry: TestEntry; change: (mutate: (entry: TestEntry) => void) => void; units: EntryUnits; errors: Errors }) {
+function ReadingsFields({ test, entry, change, units, errors, check }: { test: ProfileTest; entry: TestEntry; change: (mutate: (entry: TestEntry) => void) => void; units: EntryUnits; errors: Errors; check: TestEntryCheck }) {
   const labels = unitLabels(units);
   const field = (name: keyof TestEntry, label: string, signed = true) => (
     <ReadingInput
@@ -377,6 +378,8 @@ function ReadingsFields({ test, entry, change, units, errors }: { test: ProfileT
           {field("tailstockEnd", "At the tailstock end")}
         </div>
       );
+    case "surface":
+      return <GridFields entry={entry} change={change} units={units} errors={errors} check={check} />;
   }
 }
 
@@ -499,10 +502,10 @@ export function TestCard({
             ))}
           </div>
         ) : null}
-        <ReadingsFields test={test} entry={current} change={onChange} units={units} errors={errors} />
+        <ReadingsFields test={test} entry={current} change={onChange} units={units} errors={errors} check={preview.check} />
         {errors.entry && preview.check.state === "invalid" ? <p className="text-sm font-medium text-beyond">{errors.entry.join(" ")}</p> : null}
         <LiveVerdict preview={preview} units={units} />
-        {metric && result && (metric.kind === "profile" || metric.kind === "mandrel") ? <TestPlot measurement={metric} result={result} units={units} /> : null}
+        {metric && result && (metric.kind === "profile" || metric.kind === "mandrel" || metric.kind === "surface") ? <TestPlot measurement={metric} result={result} units={units} /> : null}
         <div className="grid gap-3 sm:grid-cols-2">
           <SelectField
             label="Instrument"
