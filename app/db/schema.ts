@@ -5,5 +5,6 @@ export * from "../modules/listings/schema";
 export * from "../modules/inspections/schema";
 export * from "../modules/reports/schema";
 export * from "../modules/search/saved-searches/schema";
+export * from "../modules/search/schema";
 export * from "../modules/profiles/schema";
 export * from "../modules/demand/schema";

@@ -2,7 +2,7 @@
 // the full re-index) and for the fallback search that runs the buyer's filters here when the search service
 // is down or slow. It reads the listings' and reports' tables directly because those domains export no
 // query of this shape; it never writes to them.
-import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, lte, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, gt, gte, inArray, lte, or, sql, type SQL } from "drizzle-orm";
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { Database } from "~/db/client.server";
 import type { KeyFigures } from "~/geometry/types";
@@ -13,66 +13,43 @@ import { listingPhotos, listings } from "~/modules/listings/schema";
 import { reports } from "~/modules/reports/schema";
 import { readSealedReport } from "~/modules/reports/sealed-read.server";
 import {
-  gradeRanks,
   listingToSearchDocument,
   type ListingSearchDocument,
   type SearchableListing,
   type SearchableReport,
 } from "../../../search/document.ts";
 import type { ListingSearchQuery, NumberRange } from "../../../search/query.ts";
-import type { ListingFacet, ListingSearchResult } from "./search.server";
+import { listingSearch } from "./schema";
+import { LISTING_FACETS, type ListingFacet, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
 
 /** A listing as the search sees it, with its current report and when that report was signed. */
 export type SourceListing = { listing: SearchableListing; report: SearchableReport | null; reportSignedAt: Date | null };
 
-// The listing's current report: its latest signed revision (a correction marks the one before superseded).
-function currentReports(db: Database) {
-  const figure = (name: keyof KeyFigures) => sql<number | null>`abs((${reports.keyFigures} ->> ${name})::double precision)`;
-  return db
-    .selectDistinctOn([reports.listingId], {
-      listingId: reports.listingId,
-      id: reports.id,
-      grade: reports.grade,
-      keyFigures: reports.keyFigures,
-      measuredOn: reports.measuredOn,
-      signedAt: reports.signedAt,
-      contentHash: reports.contentHash,
-      credential: reports.credential,
-      profileKey: reports.profileKey,
-      profileVersion: reports.profileVersion,
-      spindleRunoutUm: figure("spindleRunOut").as("spindle_runout_um"),
-      axialSlipUm: figure("axialSlip").as("axial_slip_um"),
-      parallelismVerticalUm: figure("spindleParallelismVertical").as("parallelism_vertical_um"),
-      parallelismHorizontalUm: figure("spindleParallelismHorizontal").as("parallelism_horizontal_um"),
-      centreHeightUm: figure("centreHeight").as("centre_height_um"),
-      bedStraightnessUm: figure("bedStraightness").as("bed_straightness_um"),
-    })
-    .from(reports)
-    .where(eq(reports.status, "signed"))
-    .orderBy(reports.listingId, desc(reports.signedAt))
-    .as("current_report");
-}
+// The listing's current report (its latest signed revision) is named by listing_search.report_id, which the
+// database keeps in step with every listing and report write (app/modules/search/schema.ts).
+
+// The report row itself must still belong to the listing and be signed: a row changed behind the app's back
+// (triggers off) is then not shown, whatever listing_search still says.
+const currentReportOf = (reportId: AnyPgColumn) => and(eq(reports.id, reportId), eq(reports.listingId, listings.id), eq(reports.status, "signed"));
 
 // The listing's cover: its first photo. As a correlated subquery it is one lookup on (listing_id, position)
 // per row returned, and after ORDER BY … LIMIT only for the rows of the page.
 const coverKey = sql<string | null>`(select ${listingPhotos.thumbnailKey} from ${listingPhotos} where ${listingPhotos.listingId} = ${listings.id} order by ${listingPhotos.position}, ${listingPhotos.createdAt} limit 1)`;
 
-function joinedSelection(current: ReturnType<typeof currentReports>) {
-  return {
-    listing: listings,
-    sellerName: user.name,
-    coverKey,
-    reportId: current.id,
-    grade: current.grade,
-    keyFigures: current.keyFigures,
-    measuredOn: current.measuredOn,
-    signedAt: current.signedAt,
-    contentHash: current.contentHash,
-    credential: current.credential,
-    profileKey: current.profileKey,
-    profileVersion: current.profileVersion,
-  };
-}
+const joinedSelection = {
+  listing: listings,
+  sellerName: user.name,
+  coverKey,
+  reportId: reports.id,
+  grade: reports.grade,
+  keyFigures: reports.keyFigures,
+  measuredOn: reports.measuredOn,
+  signedAt: reports.signedAt,
+  contentHash: reports.contentHash,
+  credential: reports.credential,
+  profileKey: reports.profileKey,
+  profileVersion: reports.profileVersion,
+};
 
 type JoinedRow = {
   listing: typeof listings.$inferSelect;
@@ -166,12 +143,12 @@ function toSource(row: JoinedRow): SourceListing {
 export async function loadSearchableListings(db: Database, ids: string[]): Promise<Map<string, SourceListing>> {
   const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
   if (!valid.length) return new Map();
-  const current = currentReports(db);
   const rows = await db
-    .select(joinedSelection(current))
+    .select(joinedSelection)
     .from(listings)
     .innerJoin(user, eq(user.id, listings.sellerId))
-    .leftJoin(current, eq(current.listingId, listings.id))
+    .leftJoin(listingSearch, eq(listingSearch.listingId, listings.id))
+    .leftJoin(reports, currentReportOf(listingSearch.reportId))
     .where(inArray(listings.id, valid));
   return new Map((await sealed(db, rows)).map((row) => [row.listing.id, toSource(row)]));
 }
@@ -187,19 +164,20 @@ export async function listingIdsAfter(db: Database, afterId: string | null, limi
 }
 
 // ————— The fallback search —————
+// It filters, counts and sorts on listing_search alone (one narrow row per listing, indexed for each sort and
+// for word matching), and joins the listing, seller and report for the rows of the page only.
+
+const s = listingSearch;
 
 function escapeLike(word: string) {
   return word.replace(/[\\%_]/g, (character) => `\\${character}`);
 }
 
-// Text is compared as the index compares it: compatibility-decomposed and lower case, and for word
-// matching without combining marks (so that a composed and a decomposed “Î”, or “Präzision” and
-// “prazision”, are the same). PostgreSQL's regular expressions have no \p{M}; these are the blocks of
-// combining marks that Latin, Greek and Cyrillic text uses.
-const combiningMarks = "[\u0300-\u036f\u1ab0-\u1aff\u1dc0-\u1dff\u20d0-\u20ff\ufe20-\ufe2f]";
-const foldedText = (value: SQL | AnyPgColumn) => sql`regexp_replace(lower(normalize(${value}, NFKD)), ${combiningMarks}, '', 'g')`;
+// Words are folded as the index folds them (compatibility-decomposed, lower case, without combining marks), as
+// listing_search.search_text is by listing_search_fold() in the database, so that a composed and a decomposed
+// “Î”, or “Präzision” and “prazision”, are the same.
 const foldWord = (word: string) => word.normalize("NFKD").replace(/\p{M}/gu, "").toLowerCase();
-const facetText = (value: SQL | AnyPgColumn | string) => sql`lower(normalize(btrim(${value}), NFKD))`;
+const facetText = (value: string) => value.trim().normalize("NFKD").toLowerCase();
 
 function rangeOf(column: AnyPgColumn, bounds: NumberRange | undefined): SQL[] {
   const conditions: SQL[] = [];
@@ -208,96 +186,73 @@ function rangeOf(column: AnyPgColumn, bounds: NumberRange | undefined): SQL[] {
   return conditions;
 }
 
-function idsCondition(ids: string[]): SQL {
-  const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
-  return valid.length ? inArray(listings.id, valid) : sql`false`;
+function atMost(column: AnyPgColumn, limit: number | undefined): SQL[] {
+  return limit === undefined || limit === null ? [] : [lte(column, limit)];
 }
 
-/** The same conditions as search/query.ts's listingFilter, written against the tables. */
-function conditionsFor(query: ListingSearchQuery, current: ReturnType<typeof currentReports>, now: Date): SQL | undefined {
-  const atMost = (column: SQL.Aliased<number | null>, limit: number | undefined) =>
-    limit === undefined || limit === null ? [] : [sql`${column} <= ${limit}`];
+function idsCondition(ids: string[]): SQL {
+  const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  return valid.length ? inArray(s.listingId, valid) : sql`false`;
+}
+
+/** The same conditions as search/query.ts's listingFilter, written against listing_search. */
+function conditionsFor(query: ListingSearchQuery, now: Date): SQL | undefined {
   const words = (query.text ?? "").trim().split(/\s+/).filter(Boolean).slice(0, 8);
   const textConditions = words.map((word) => {
     const folded = foldWord(word);
-    const pattern = `%${escapeLike(folded)}%`;
-    const like = (value: SQL | AnyPgColumn) => sql`${foldedText(value)} like ${pattern}`;
     const categories = machineCategories.filter((category) => foldWord(category.label).includes(folded)).map((category) => category.value);
-    return or(
-      like(listings.make),
-      like(listings.model),
-      like(listings.description),
-      like(listings.city),
-      like(sql`coalesce(${listings.region}, '')`),
-      like(listings.country),
-      like(user.name),
-      categories.length ? inArray(listings.category, categories as (typeof machineCategories)[number]["value"][]) : undefined,
-    )!;
+    const matches = sql`${s.searchText} like ${`%${escapeLike(folded)}%`}`;
+    return categories.length ? or(matches, inArray(s.category, categories as (typeof machineCategories)[number]["value"][]))! : matches;
   });
   const conditions: (SQL | undefined)[] = [
     query.ids ? idsCondition(query.ids) : undefined,
-    inArray(listings.status, (query.statuses ?? ["published"]) as (typeof listings.status.enumValues)[number][]),
-    query.categories?.length ? inArray(listings.category, query.categories as (typeof listings.category.enumValues)[number][]) : undefined,
-    query.grades?.length ? inArray(current.grade, query.grades) : undefined,
-    query.verifiedOnly ? and(isNotNull(current.id), ne(current.grade, "incomplete")) : undefined,
-    query.currency ? eq(listings.currency, query.currency) : undefined,
-    ...rangeOf(listings.priceMinor, query.priceMinor),
-    ...rangeOf(listings.swingOverBedMm, query.swingMm),
-    ...rangeOf(listings.distanceBetweenCentresMm, query.betweenCentresMm),
-    ...atMost(current.spindleRunoutUm, query.maxSpindleRunoutUm),
-    ...atMost(current.axialSlipUm, query.maxAxialSlipUm),
-    ...atMost(current.parallelismVerticalUm, query.maxSpindleParallelismUm),
-    ...atMost(current.parallelismHorizontalUm, query.maxSpindleParallelismUm),
-    ...atMost(current.centreHeightUm, query.maxCentreHeightUm),
-    ...atMost(current.bedStraightnessUm, query.maxBedStraightnessUm),
+    inArray(s.status, (query.statuses ?? ["published"]) as (typeof listings.status.enumValues)[number][]),
+    query.categories?.length ? inArray(s.category, query.categories as (typeof listings.category.enumValues)[number][]) : undefined,
+    query.grades?.length ? inArray(s.grade, query.grades) : undefined,
+    query.verifiedOnly ? eq(s.verified, true) : undefined,
+    query.currency ? eq(s.currency, query.currency) : undefined,
+    ...rangeOf(s.priceMinor, query.priceMinor),
+    ...rangeOf(s.swingMm, query.swingMm),
+    ...rangeOf(s.betweenCentresMm, query.betweenCentresMm),
+    ...atMost(s.spindleRunoutUm, query.maxSpindleRunoutUm),
+    ...atMost(s.axialSlipUm, query.maxAxialSlipUm),
+    ...atMost(s.parallelismVerticalUm, query.maxSpindleParallelismUm),
+    ...atMost(s.parallelismHorizontalUm, query.maxSpindleParallelismUm),
+    ...atMost(s.centreHeightUm, query.maxCentreHeightUm),
+    ...atMost(s.bedStraightnessUm, query.maxBedStraightnessUm),
     query.maxReportAgeDays === undefined
       ? undefined
-      : gte(current.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),
-    query.countries?.length ? inArray(listings.country, query.countries) : undefined,
-    query.region ? sql`${facetText(listings.region)} = ${facetText(query.region)}` : undefined,
+      : gte(s.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),
+    query.countries?.length ? inArray(s.country, query.countries) : undefined,
+    query.region ? eq(s.regionKey, facetText(query.region)) : undefined,
     ...textConditions,
   ];
   return and(...conditions);
 }
 
-function orderFor(query: ListingSearchQuery, current: ReturnType<typeof currentReports>): SQL[] {
-  const newest = [sql`${listings.publishedAt} desc nulls last`, desc(listings.id)];
+// Each order matches an index of listing_search (nulls placed as the index places them), so a page is read
+// from the index in order and stops at its last row.
+function orderFor(query: ListingSearchQuery): SQL[] {
+  const newest = [sql`${s.publishedAt} desc nulls last`, sql`${s.listingId} desc nulls last`];
   switch (query.sort ?? "relevance") {
     case "price-ascending":
-      return [asc(listings.priceMinor), ...newest];
+      return [asc(s.priceMinor), ...newest];
     case "price-descending":
-      return [desc(listings.priceMinor), ...newest];
-    case "best-accuracy": {
-      const rank = sql`case ${current.grade} ${sql.join(
-        Object.entries(gradeRanks).map(([grade, rank]) => sql`when ${grade} then ${rank}`),
-        sql` `,
-      )} end`;
-      return [sql`${rank} asc nulls last`, sql`${current.spindleRunoutUm} asc nulls last`, ...newest];
-    }
+      return [desc(s.priceMinor), ...newest];
+    case "best-accuracy":
+      return [sql`${s.gradeRank} asc nulls last`, sql`${s.spindleRunoutUm} asc nulls last`, ...newest];
     default:
       // Without the index's text ranking, newest first is the most useful order.
       return newest;
   }
 }
 
-const facetColumns = (current: ReturnType<typeof currentReports>): Record<ListingFacet, SQL> => ({
-  category: sql`${listings.category}::text`,
-  grade: sql`${current.grade}`,
-  verified: sql`case when ${current.id} is not null and ${current.grade} <> 'incomplete' then 'true' else 'false' end`,
-  country: sql`${listings.country}`,
-});
-
-/** Whether only listings with a current report can match (then the report is joined, not left-joined). */
-function needsReport(query: ListingSearchQuery): boolean {
-  return Boolean(
-    query.grades?.length ||
-      query.verifiedOnly ||
-      query.maxReportAgeDays !== undefined ||
-      accuracyLimits.some((key) => query[key] !== undefined && query[key] !== null),
-  );
-}
-
-const accuracyLimits = ["maxSpindleRunoutUm", "maxAxialSlipUm", "maxSpindleParallelismUm", "maxCentreHeightUm", "maxBedStraightnessUm"] as const;
+const facetColumns: Record<ListingFacet, SQL> = {
+  category: sql`${s.category}::text`,
+  grade: sql`${s.grade}`,
+  verified: sql`${s.verified}::text`,
+  country: sql`${s.country}`,
+};
 
 /** The bit GROUPING() sets for each facet's row (1 = aggregated away; first argument highest), and the total's. */
 const facetGroupings: Record<ListingFacet, number> = { category: 0b0111, grade: 0b1011, verified: 0b1101, country: 0b1110 };
@@ -306,56 +261,60 @@ const totalGrouping = 0b1111;
 /**
  * The buyer's search run against PostgreSQL: the same filters, sorts, page and facet counts as the index,
  * with plain word matching instead of the index's ranking and typo tolerance. Two queries: the page (the
- * cover photo looked up for its rows only), and the total with every facet's counts in one grouped pass;
- * a search for counts alone (`hitsPerPage: 0`) runs the second only.
+ * listing, seller, report and cover joined for its rows only), and the total with the facets asked for in
+ * one grouped pass over listing_search; a search for counts alone (`hitsPerPage: 0`) runs the second only.
  */
-export async function searchListingsInDatabase(db: Database, query: ListingSearchQuery, now: Date = new Date()): Promise<ListingSearchResult> {
+export async function searchListingsInDatabase(db: Database, query: ListingSearchRequest, now: Date = new Date()): Promise<ListingSearchResult> {
   const started = performance.now();
   const hitsPerPage = query.hitsPerPage ?? 20;
   const page = query.page ?? 1;
-  const current = currentReports(db);
-  const where = conditionsFor(query, current, now);
-  const reportJoin = needsReport(query) ? "inner" : "left";
-  const hasWords = Boolean(query.text?.trim());
-  const columns = facetColumns(current);
-  const facetNames = Object.keys(columns) as ListingFacet[];
+  const where = conditionsFor(query, now);
+  const facetNames = [...(query.facets ?? LISTING_FACETS)];
 
   const pageRows = async (): Promise<JoinedRow[]> => {
     if (hitsPerPage === 0) return [];
-    const base = db
-      .select(joinedSelection(current))
-      .from(listings)
-      .innerJoin(user, eq(user.id, listings.sellerId))
-      .$dynamic();
-    const joined = reportJoin === "inner" ? base.innerJoin(current, eq(current.listingId, listings.id)) : base.leftJoin(current, eq(current.listingId, listings.id));
-    return joined
+    // The page's ids first, in order, from listing_search alone (an index read in order that stops at the
+    // page's last row); the listing, seller, report and cover are joined for those rows only.
+    const order = orderFor(query);
+    const ids = db
+      .select({ listingId: s.listingId, position: sql<number>`row_number() over (order by ${sql.join(order, sql`, `)})`.as("position") })
+      .from(s)
       .where(where)
-      .orderBy(...orderFor(query, current))
+      .orderBy(...order)
       .limit(hitsPerPage)
-      .offset((page - 1) * hitsPerPage);
+      .offset((page - 1) * hitsPerPage)
+      .as("page");
+    return db
+      .select(joinedSelection)
+      .from(ids)
+      .innerJoin(listings, eq(listings.id, ids.listingId))
+      .innerJoin(user, eq(user.id, listings.sellerId))
+      .leftJoin(s, eq(s.listingId, ids.listingId))
+      .leftJoin(reports, currentReportOf(s.reportId))
+      .orderBy(ids.position);
   };
-  const facetRows = async () => {
-    const base = db
-      .select({
-        grouping: sql<number>`grouping(${columns.category}, ${columns.grade}, ${columns.verified}, ${columns.country})`.mapWith(Number),
-        category: columns.category,
-        grade: columns.grade,
-        verified: columns.verified,
-        country: columns.country,
-        count: count(),
-      })
-      .from(listings)
-      .$dynamic();
-    // The seller's name is only read by word matching.
-    const withSeller = hasWords ? base.innerJoin(user, eq(user.id, listings.sellerId)) : base;
-    const joined = reportJoin === "inner" ? withSeller.innerJoin(current, eq(current.listingId, listings.id)) : withSeller.leftJoin(current, eq(current.listingId, listings.id));
-    return joined
+  const facetRows = async (): Promise<{ grouping: number; value: string | null; count: number }[]> => {
+    if (!facetNames.length) {
+      const [row] = await db.select({ count: count() }).from(s).where(where);
+      return [{ grouping: totalGrouping, value: null, count: row?.count ?? 0 }];
+    }
+        const sets = facetNames.map((facet) => sql`(${facetColumns[facet]})`);
+    // GROUPING() bits in LISTING_FACETS' order (a facet not asked for counts as aggregated away), and the
+    // value of the one facet a row is grouped by (the others are null in its grouping set).
+    const bits = LISTING_FACETS.map((facet, position) => {
+      const weight = 1 << (LISTING_FACETS.length - 1 - position);
+      return facetNames.includes(facet) ? sql`grouping(${facetColumns[facet]}) * ${sql.raw(String(weight))}` : sql.raw(String(weight));
+    });
+    const value = sql`coalesce(${sql.join(facetNames.map((facet) => facetColumns[facet]), sql`, `)})`;
+    return db
+      .select({ grouping: sql<number>`${sql.join(bits, sql` + `)}`.mapWith(Number), value: sql<string | null>`${value}`, count: count() })
+      .from(s)
       .where(where)
-      .groupBy(sql`grouping sets ((${columns.category}), (${columns.grade}), (${columns.verified}), (${columns.country}), ())`);
+      .groupBy(sql`grouping sets (${sql.join([...sets, sql`()`], sql`, `)})`);
   };
   const [rows, grouped] = await Promise.all([pageRows().then((found) => sealed(db, found)), facetRows()]);
 
-  const facets = Object.fromEntries(facetNames.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
+  const facets = Object.fromEntries(LISTING_FACETS.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
   let total = 0;
   for (const row of grouped) {
     if (row.grouping === totalGrouping) {
@@ -363,8 +322,7 @@ export async function searchListingsInDatabase(db: Database, query: ListingSearc
       continue;
     }
     const facet = facetNames.find((name) => facetGroupings[name] === row.grouping);
-    const value = facet ? row[facet] : null;
-    if (facet && value !== null && value !== undefined) facets[facet][String(value)] = Number(row.count);
+    if (facet && row.value !== null && row.value !== undefined) facets[facet][String(row.value)] = Number(row.count);
   }
   return {
     hits: rows.map((row) => {
