@@ -112,9 +112,22 @@ export function bookingFor<R extends BookingRole>(role: R, row: Row) {
 type Event = typeof bookingEvents.$inferSelect;
 type Refund = typeof bookingRefunds.$inferSelect;
 
-/** The history: staff read every note; the parties read what happened and when (notes carry payment and staff references). */
+/** What happened to the inspector's share: between the inspector and us, not the buyer's or the seller's business. */
+const PAYOUT_KINDS = new Set(["payout_recorded", "share_held", "share_unclaimed", "share_reversed", "payout_failed"]);
+
+/**
+ * The history: staff read every note; the parties read what happened and when (notes carry payment, transfer
+ * and staff references). The buyer and the seller read no payout lines: a payout that closed the booking is
+ * told to them as the inspection completed.
+ */
 export function historyFor(role: BookingRole, events: Event[]) {
-  return events.map((event) => ({ id: event.id, kind: event.kind, toStatus: event.toStatus as BookingStatus | null, note: role === "admin" ? event.note : null, createdAt: event.createdAt }));
+  const seesPayouts = role === "admin" || role === "inspector";
+  return events.flatMap((event) => {
+    const toStatus = event.toStatus as BookingStatus | null;
+    const shown = { id: event.id, kind: event.kind, toStatus, note: role === "admin" ? event.note : null, createdAt: event.createdAt };
+    if (seesPayouts || !PAYOUT_KINDS.has(event.kind)) return [shown];
+    return toStatus ? [{ ...shown, kind: "completed" }] : [];
+  });
 }
 
 /** Refunds as amounts and rules; the seller sees none (the money is between the buyer, the inspector and us). */

@@ -273,7 +273,8 @@ export async function getBookingView(db: Executor, bookingId: string, viewer: Vi
 export type BookingView = Awaited<ReturnType<typeof getBookingView>>;
 
 export async function listBookingsForBuyer(db: Executor, buyerId: string) {
-  const rows = await bookingSummaryQuery(db).where(eq(bookings.buyerId, buyerId)).orderBy(desc(bookings.startsAt));
+  // Newest first: the booking made last on top, whatever day its visit falls on.
+  const rows = await bookingSummaryQuery(db).where(eq(bookings.buyerId, buyerId)).orderBy(desc(bookings.createdAt), desc(bookings.id));
   return rows.map((row) => bookingFor("buyer", row));
 }
 

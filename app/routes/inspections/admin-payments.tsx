@@ -141,7 +141,7 @@ export default function AdminPayments() {
               return (
                 <Tr key={booking.id}>
                   <Td>
-                    <Link to={`/bookings/${booking.id}`} className="font-mono text-xs font-semibold underline">
+                    <Link to={`/bookings/${booking.id}`} className="whitespace-nowrap font-mono text-xs font-semibold underline">
                       {booking.reference}
                     </Link>
                     <div className="text-xs text-ink-600">

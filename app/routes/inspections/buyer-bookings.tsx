@@ -46,7 +46,7 @@ export default function BuyerBookings() {
                     <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />
                   </p>
                   <p className="text-sm text-ink-600">
-                    {inspectorName} · {formatMoney(booking.feeMinor, booking.currency)} · {booking.reference}
+                    {inspectorName} · {formatMoney(booking.feeMinor, booking.currency)} · <span className="whitespace-nowrap font-mono">{booking.reference}</span>
                   </p>
                 </Link>
               </li>
@@ -81,7 +81,7 @@ export default function BuyerBookings() {
                     <Td>
                       <BookingStatusBadge status={booking.status} />
                     </Td>
-                    <Td className="font-mono text-xs">{booking.reference}</Td>
+                    <Td className="whitespace-nowrap font-mono text-xs">{booking.reference}</Td>
                   </Tr>
                 ))}
               </tbody>

@@ -54,7 +54,7 @@ export default function CheckoutReturn() {
                 {detail.inspectorName} inspects the {detail.listing.make} {detail.listing.model} on <SlotTime startsAt={booking.startsAt} endsAt={booking.endsAt} place={detail.listing} />.
                 We received {formatMoney(booking.feeMinor, booking.currency)}. {booking.status === "paid" ? "The inspector has been told and will accept shortly; we e-mail you when they do." : "The inspector has accepted."}
               </p>
-              <p className="font-mono text-sm text-ink-500">{booking.reference}</p>
+              <p className="whitespace-nowrap font-mono text-sm text-ink-500">{booking.reference}</p>
               <ButtonLink to={`/bookings/${booking.id}`}>Open the booking</ButtonLink>
             </>
           ) : booking.status === "awaiting_payment" ? (

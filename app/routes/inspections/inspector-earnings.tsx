@@ -77,7 +77,7 @@ export default function InspectorEarnings() {
             {perBooking.map((row) => (
               <Tr key={row.bookingId}>
                 <Td>
-                  <Link to={`/inspector/bookings/${row.bookingId}`} className="font-mono text-xs font-semibold underline">
+                  <Link to={`/inspector/bookings/${row.bookingId}`} className="whitespace-nowrap font-mono text-xs font-semibold underline">
                     {row.reference}
                   </Link>
                 </Td>

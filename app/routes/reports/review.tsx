@@ -60,7 +60,7 @@ export default function ReviewPage() {
   );
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
-      <p className="text-sm font-bold uppercase tracking-wide text-brass-600">Review before signing · {review.booking.reference}</p>
+      <p className="text-sm font-bold uppercase tracking-wide text-brass-600">Review before signing · <span className="whitespace-nowrap">{review.booking.reference}</span></p>
       <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">{content.machine.title}</h1>
       <p className="mt-1 text-ink-600">
         Scored by the server against {content.profile.title} (v{content.profile.version}). Once signed, the report cannot be changed; a correction makes a new revision.

@@ -20,6 +20,7 @@ type Detail = {
     refundedMinor?: number;
     declineReason: string | null;
     cancelReason: string | null;
+    reportId?: string | null;
   };
   listing: { slug: string; make: string; model: string; city: string; country: string; region: string | null };
   inspectorName: string;
@@ -59,6 +60,7 @@ const historyWords: Record<string, string> = {
   share_unclaimed: "Inspector's share unclaimed for 90 days",
   share_reversed: "Part of the inspector's share taken back",
   payout_failed: "Transfer to the inspector failed — staff notified",
+  completed: "Inspection completed",
 };
 
 /** A refund's state in the buyer's words. */
@@ -106,7 +108,7 @@ export function BookingFacts({ detail, showSplit = false }: { detail: Detail; sh
   const { booking, listing } = detail;
   const rows: Array<[string, React.ReactNode]> = [
     ["Status", <BookingStatusBadge key="status" status={booking.status} className="whitespace-normal" />],
-    ["Reference", <span key="ref" className="font-mono">{booking.reference}</span>],
+    ["Reference", <span key="ref" className="whitespace-nowrap font-mono">{booking.reference}</span>],
     [
       "Machine",
       <Link key="machine" to={`/machines/${listing.slug}`} className="font-semibold underline underline-offset-2">
@@ -116,6 +118,14 @@ export function BookingFacts({ detail, showSplit = false }: { detail: Detail; sh
     ["When", <SlotTime key="when" startsAt={booking.startsAt} endsAt={booking.endsAt} place={listing} />],
     ["Inspector", detail.inspectorName],
   ];
+  if (booking.reportId) {
+    rows.push([
+      "Report",
+      <Link key="report" to={`/reports/${booking.reportId}`} className="font-semibold underline underline-offset-2" data-testid="booking-report-link">
+        Read the accuracy report
+      </Link>,
+    ]);
+  }
   if (detail.buyerName !== null) rows.push(["Booked by", detail.buyerName]);
   if (booking.feeMinor !== undefined) rows.push(["Fee", <span key="fee" className="tabular">{formatMoney(booking.feeMinor, booking.currency)}</span>]);
   if (showSplit && booking.platformFeeMinor !== undefined && booking.inspectorShareMinor !== undefined) {
@@ -148,13 +158,17 @@ export function BookingHistory({ detail }: { detail: Detail }) {
       <CardHeader title="History" />
       <CardBody>
         <ol className="space-y-3 text-sm">
-          {detail.history.map((event) => (
-            <li key={event.id} className="flex gap-3">
+          {detail.history.map((event) => {
+            const words = historyWords[event.kind] ?? event.kind;
+            // "Report filed → Report filed" says one thing twice: the new state only when it adds something.
+            const state = event.toStatus && bookingStatusLabels[event.toStatus] !== words ? bookingStatusLabels[event.toStatus] : null;
+            return (
+            <li key={event.id} className="flex gap-3" data-testid="history-entry">
               <span className="mt-1.5 size-2 shrink-0 rounded-full bg-brass-400" aria-hidden="true" />
               <div>
                 <p className="font-semibold text-ink-900">
-                  {historyWords[event.kind] ?? event.kind}
-                  {event.toStatus ? <span className="font-normal text-ink-500"> → {bookingStatusLabels[event.toStatus]}</span> : null}
+                  {words}
+                  {state ? <span className="font-normal text-ink-500"> → {state}</span> : null}
                 </p>
                 <p className="text-xs text-ink-500">
                   <time dateTime={new Date(event.createdAt).toISOString()}>{new Date(event.createdAt).toISOString().slice(0, 16).replace("T", " ")} UTC</time>
@@ -162,7 +176,8 @@ export function BookingHistory({ detail }: { detail: Detail }) {
                 </p>
               </div>
             </li>
-          ))}
+            );
+          })}
         </ol>
       </CardBody>
     </Card>

@@ -239,7 +239,11 @@ const PLOTTED = new Set(["profile", "level", "mandrel", "sweep", "surface"]);
 
 export function TestDetails({ content, units, photoUrls }: { content: ReportContent; units: DisplayUnits; photoUrls: Record<string, { thumb: string; large: string }> }) {
   const results = new Map(content.score.results.map((result) => [result.code, result]));
-  const shown = Object.entries(content.measurements.tests).filter(([code, measurement]) => PLOTTED.has(measurement.kind) || photoUrls[code] || content.tests[code]?.notes);
+  // The sealed measurements are keyed in canonical (alphabetical) order; the plots follow the results table.
+  const order = new Map(content.score.results.map((result, i) => [result.code, i]));
+  const shown = Object.entries(content.measurements.tests)
+    .sort(([a], [b]) => (order.get(a) ?? Infinity) - (order.get(b) ?? Infinity) || a.localeCompare(b))
+    .filter(([code, measurement]) => PLOTTED.has(measurement.kind) || photoUrls[code] || content.tests[code]?.notes);
   if (!shown.length) return null;
   return (
     <div className="grid gap-6 lg:grid-cols-2">

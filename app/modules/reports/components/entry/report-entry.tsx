@@ -114,7 +114,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <p className="text-sm font-bold uppercase tracking-wide text-brass-600">
-            {data.mode.kind === "correction" ? "Correction" : "Accuracy report"} · {data.booking.reference}
+            {data.mode.kind === "correction" ? "Correction" : "Accuracy report"} · <span className="whitespace-nowrap">{data.booking.reference}</span>
           </p>
           <h1 className="text-2xl font-extrabold tracking-tight text-ink-950 sm:text-3xl">{data.machine.title}</h1>
           <p className="text-ink-600">
