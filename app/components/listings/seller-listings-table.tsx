@@ -14,6 +14,7 @@ import { countryName, labelOf, machineCategories } from "~/modules/listings/cata
 import { listingStatuses } from "~/modules/listings/statuses";
 import { formatMoney } from "~/modules/units/format";
 import { StatusBadge } from "./status-badge";
+import { formatDate } from "~/modules/units/dates";
 
 export type SellerListingRow = {
   id: string;
@@ -32,7 +33,6 @@ export type SellerListingRow = {
 };
 
 const column = createColumnHelper<SellerListingRow>();
-const dateFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
 
 /** The seller's listings: sortable columns, a status filter and a search over make, model and place. */
 export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
@@ -74,7 +74,7 @@ export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
       column.accessor("watchers", { header: "Watching", cell: ({ getValue }) => <span className="tabular">{getValue()}</span> }),
       column.accessor("updatedAt", {
         header: "Last change",
-        cell: ({ getValue }) => <span className="whitespace-nowrap">{dateFormat.format(new Date(getValue()))}</span>,
+        cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDate(getValue())}</span>,
       }),
     ],
     [],

@@ -5,6 +5,7 @@ import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import { formatMoney } from "~/modules/units/format";
 import { ledgerKindLabels, type Statement } from "./ledger";
+import { formatDate } from "~/modules/units/dates";
 
 const require = createRequire(import.meta.url);
 const fonts = {
@@ -59,7 +60,7 @@ function line(doc: Doc, left: number, width: number) {
 }
 
 const monthName = (month: string) => new Date(`${month}-01T00:00:00Z`).toLocaleDateString("en-GB", { month: "long", year: "numeric", timeZone: "UTC" });
-const day = (date: Date) => date.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric", timeZone: "UTC" });
+const day = (date: Date) => formatDate(date);
 
 export function renderStatementPdf(statement: Statement, inspector: { name: string; email: string }): Promise<Buffer> {
   const money = (amount: number) => formatMoney(amount, statement.currency);

@@ -1,6 +1,7 @@
 // Deviations and tolerances for display, in the reader's units. Scoring and storage never round; pages do.
 import { micrometresToInches } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
+import { formatDate } from "~/modules/units/dates";
 
 const minus = "\u2212";
 
@@ -29,7 +30,6 @@ export function formatRatio(ratio: number): string {
   return ratio.toFixed(2);
 }
 
-const dateFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "long", year: "numeric", timeZone: "UTC" });
 const dateTimeFormat = new Intl.DateTimeFormat("en-GB", {
   day: "numeric",
   month: "short",
@@ -40,8 +40,9 @@ const dateTimeFormat = new Intl.DateTimeFormat("en-GB", {
   timeZone: "UTC",
 });
 
+/** The date of the tests, in the one date style of every page (`~/modules/units/dates`). */
 export function formatReportDate(isoDate: string): string {
-  return dateFormat.format(new Date(isoDate.length === 10 ? `${isoDate}T00:00:00Z` : isoDate));
+  return formatDate(isoDate);
 }
 
 export function formatSignedAt(iso: string): string {

@@ -26,7 +26,7 @@ import { recordReportFiled } from "~/modules/inspections/bookings.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
 import { dayAtMachine } from "~/modules/inspections/local-time";
 import { getBookingForReport, type BookingForReport } from "~/modules/inspections/report-queries.server";
-import { labelOf, machineCategories } from "~/modules/listings/catalogue";
+import { countryName, labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { profilesForNewReports, scorableProfile } from "~/modules/profiles/service.server";
 import { queueListingIndexUpdate } from "~/modules/search/indexing.server";
 import { REPORT_FORMAT, engineCategory, setupPhotoUrl, type ReportContent } from "./content";
@@ -269,7 +269,7 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
       year: found.listing.year,
       swingOverBedMm: found.listing.swingOverBedMm,
       distanceBetweenCentresMm: found.listing.distanceBetweenCentresMm,
-      location: [found.listing.city, found.listing.country].join(", "),
+      location: [found.listing.city, countryName(found.listing.country)].join(", "),
     },
     suggestion,
     profiles: await profilesForEntry(db, offered, form),
@@ -474,7 +474,7 @@ function buildContent(
       serialNumber: found.listing.serialNumber,
       swingOverBedMm: found.listing.swingOverBedMm,
       distanceBetweenCentresMm: found.listing.distanceBetweenCentresMm,
-      location: [found.listing.city, found.listing.region, found.listing.country].filter(Boolean).join(", "),
+      location: [found.listing.city, found.listing.region, countryName(found.listing.country)].filter(Boolean).join(", "),
     },
     // The profile's public id: a signed report is public and carries no account id.
     inspector: { id: found.inspector.publicId, name: found.inspector.name },

@@ -35,10 +35,29 @@ export function lengthToMillimetres(value: number, units: DisplayUnits): number 
   return round(units === "inch" ? value * MILLIMETRES_PER_INCH : value, 2);
 }
 
-/** "330 mm" or "13 in". */
+/**
+ * A machine's size as the trade quotes it (`common practice`): whole millimetres from 100 mm (one decimal
+ * below), and inches to a tenth below 10 in, to the half inch up to 100 in, whole above — "250 mm swing"
+ * reads "9.8 in", "1,000 mm between centres" "39.5 in", never "9.843 in" or "39.37 in". Forms keep the
+ * exact value (`lengthFromMillimetres`), so nothing a seller typed is lost by this rounding.
+ */
+export function machineSize(mm: number, units: DisplayUnits): number {
+  if (units === "mm") return mm >= 100 ? Math.round(mm) : round(mm, 1);
+  const inches = mm / MILLIMETRES_PER_INCH;
+  if (inches < 10) return round(inches, 1);
+  if (inches < 100) return Math.round(inches * 2) / 2;
+  return Math.round(inches);
+}
+
+/** "330 mm" or "13 in": a machine size, rounded as the trade quotes it (`machineSize`). */
 export function formatLength(mm: number, units: DisplayUnits): string {
-  const digits = units === "inch" ? 3 : 1;
-  return `${formatDecimal(lengthFromMillimetres(mm, units), digits)} ${lengthUnitLabel(units)}`;
+  return `${formatDecimal(machineSize(mm, units), 1)} ${lengthUnitLabel(units)}`;
+}
+
+/** Lengths written into a text ("Spindle taper, at 300 mm") in the reader's units: "…, at 12 in". */
+export function lengthsInText(text: string, units: DisplayUnits): string {
+  if (units === "mm") return text;
+  return text.replace(/(\d+(?:\.\d+)?)\s?mm\b/g, (_, value: string) => `${formatDecimal(machineSize(Number(value), "inch"), 1)} in`);
 }
 
 /** Currencies a listing can be priced in; all of them have two minor digits (ISO 4217). */

@@ -9,6 +9,7 @@ import { requireRole } from "~/modules/accounts/guards.server";
 import { decideApplication, listPendingApplications } from "~/modules/accounts/service.server";
 import { applicationDecisionSchema, INSPECTION_CATEGORIES } from "~/modules/accounts/validation";
 import type { Route } from "./+types/inspector-applications";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = () => [{ title: "Inspector applications — Tenthmark staff" }];
 
@@ -70,7 +71,7 @@ function ApplicationCard({ application }: { application: Application }) {
     <Card className="p-5 sm:p-6" data-application={application.id}>
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="text-lg font-bold text-ink-900">{application.name}</h2>
-        <p className="tabular text-sm text-ink-500">applied {application.createdAt.slice(0, 10)}</p>
+        <p className="tabular text-sm text-ink-500">applied {formatDate(application.createdAt)}</p>
       </div>
       <p className="break-all text-sm text-ink-600">
         {application.email}

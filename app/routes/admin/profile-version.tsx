@@ -17,6 +17,7 @@ import {
   retireVersion,
 } from "~/modules/profiles/service.server";
 import type { Route } from "./+types/profile-version";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = ({ data: loaded }) => [
   { title: loaded ? `${loaded.summary.title} v${loaded.summary.version} — Tenthmark staff` : "Tolerance profile — Tenthmark staff" },
@@ -90,8 +91,8 @@ export default function ProfileVersionPage() {
         {summary.key} · version {summary.version}
         {summary.basedOn ? ` · drafted from ${summary.basedOn.key === summary.key ? "" : `${summary.basedOn.key} `}v${summary.basedOn.version}` : ""}
         {summary.author ? ` · by ${summary.author}` : summary.builtIn ? " · built in" : ""}
-        {summary.approver ? ` · published by ${summary.approver} on ${summary.publishedAt?.slice(0, 10)}` : ""}
-        {summary.retiredAt ? ` · retired ${summary.retiredAt.slice(0, 10)}${summary.retiredBy ? ` by ${summary.retiredBy}` : ""}` : ""}
+        {summary.approver ? ` · published by ${summary.approver} on ${summary.publishedAt ? formatDate(summary.publishedAt) : ""}` : ""}
+        {summary.retiredAt ? ` · retired ${formatDate(summary.retiredAt)}${summary.retiredBy ? ` by ${summary.retiredBy}` : ""}` : ""}
       </p>
       {summary.retireReason ? <p className="mt-1 text-sm text-ink-700">Why retired: {summary.retireReason}</p> : null}
 

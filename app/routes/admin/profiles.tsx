@@ -10,6 +10,7 @@ import { profileDraftRequestSchema } from "~/modules/profiles/editor";
 import { draftNewVersion, listProfileVersions, ProfileRuleError } from "~/modules/profiles/service.server";
 import { ProfileStatusBadge } from "~/modules/profiles/components/status";
 import type { Route } from "./+types/profiles";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = () => [{ title: "Tolerance profiles — Tenthmark staff" }];
 
@@ -96,7 +97,7 @@ function ProfileGroup({ group }: { group: Group }) {
               {version.builtIn ? <Badge>built in</Badge> : null}
               {version.author ? <span>drafted by {version.author}</span> : null}
               {version.approver ? <span>· published by {version.approver}</span> : null}
-              {version.publishedAt ? <span className="tabular">· {version.publishedAt.slice(0, 10)}</span> : null}
+              {version.publishedAt ? <span className="tabular">· {formatDate(version.publishedAt)}</span> : null}
             </span>
           </li>
         ))}

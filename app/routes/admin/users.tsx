@@ -7,6 +7,7 @@ import { listUsers } from "~/modules/accounts/service.server";
 import { ROLES } from "~/modules/accounts/validation";
 import { StaffNav } from "~/modules/accounts/components/staff-nav";
 import type { Route } from "./+types/users";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = () => [{ title: "People — Tenthmark staff" }];
 
@@ -105,7 +106,7 @@ export default function AdminUsers() {
                 <Td>
                   {person.inspectorStatus === "none" ? <span className="text-ink-400">—</span> : <Badge tone={inspectorTone[person.inspectorStatus]}>{person.inspectorStatus}</Badge>}
                 </Td>
-                <Td className="tabular whitespace-nowrap text-ink-600">{person.createdAt.slice(0, 10)}</Td>
+                <Td className="tabular whitespace-nowrap text-ink-600">{formatDate(person.createdAt)}</Td>
               </Tr>
             ))}
             {users.length === 0 ? (

@@ -5,6 +5,7 @@ import { databaseContext } from "~/db/context";
 import { requireUser } from "~/modules/accounts/guards.server";
 import { listWatchedMachines, setWatchDigests, stopWatching } from "~/modules/listings/watchlist.server";
 import type { Route } from "./+types/watched";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = () => [{ title: "Watched machines — Tenthmark" }];
 
@@ -83,7 +84,7 @@ export default function WatchedMachines({ loaderData }: Route.ComponentProps) {
                       <span className="font-bold text-ink-900 tabular">{machine.price}</span>
                       <Badge tone={machine.status === "published" ? "neutral" : "caution"}>{machine.statusLabel}</Badge>
                       {machine.grade ? <Badge tone="within">Verified · grade {machine.grade}</Badge> : <Badge>Not yet verified</Badge>}
-                      <span className="text-xs text-ink-500">Watched since {machine.watchedOn}</span>
+                      <span className="text-xs text-ink-500">Watched since {formatDate(machine.watchedOn)}</span>
                     </p>
                   </div>
                   <Form method="post" className="shrink-0">

@@ -12,6 +12,7 @@ import {
   setSavedSearchAlerts,
 } from "~/modules/search/saved-searches/service.server";
 import type { Route } from "./+types/saved-searches";
+import { formatDate } from "~/modules/units/dates";
 
 export const meta: Route.MetaFunction = () => [{ title: "Saved searches — Tenthmark" }];
 
@@ -85,7 +86,7 @@ export default function SavedSearches({ loaderData }: Route.ComponentProps) {
                     {saved.alertsEnabled ? <Badge tone="within">E-mail alerts on</Badge> : <Badge>Alerts off</Badge>}
                   </div>
                   <p className="mt-1 text-sm text-ink-600">{saved.summary}</p>
-                  <p className="mt-1 text-xs text-ink-500">Saved {saved.createdAt.slice(0, 10)}</p>
+                  <p className="mt-1 text-xs text-ink-500">Saved {formatDate(saved.createdAt)}</p>
                 </div>
                 <div className="flex flex-wrap gap-2">
                   <ButtonLink to={`/machines?${saved.queryString}`} size="sm" variant="secondary">

@@ -4,6 +4,7 @@ import { Card, CardBody, CardHeader } from "~/components/ui";
 import { formatMoney } from "~/modules/units/format";
 import { bookingStatusLabels, type BookingStatus } from "../rules";
 import { BookingStatusBadge, SlotTime } from "./parts";
+import { formatDate } from "~/modules/units/dates";
 
 type Detail = {
   booking: {
@@ -87,7 +88,7 @@ export function RefundList({ detail, receipts = false }: { detail: Detail; recei
                 <span className="tabular font-semibold text-ink-900">{formatMoney(refund.amountMinor, refund.currency)}</span>
                 <span className={`font-semibold ${state.tone}`}>{state.label}</span>
                 <span className="text-xs text-ink-500">
-                  {new Date(refund.createdAt).toISOString().slice(0, 10)}
+                  {formatDate(refund.createdAt)}
                   {refund.failureReason ? ` · ${refund.failureReason}` : ""}
                 </span>
                 {receipts && refund.status !== "failed" && refund.status !== "canceled" ? (

@@ -4,6 +4,7 @@
 import { useRef, useState, type DragEvent } from "react";
 import { Badge } from "~/components/ui";
 import type { CredentialCheck as Check, ReportCredentialSubject } from "../credential";
+import { formatDate } from "~/modules/units/dates";
 
 type Outcome = {
   valid: boolean;
@@ -125,7 +126,7 @@ export function CredentialCheck() {
               <span className="font-bold" data-testid="credential-grade">
                 {outcome.subject.grade}
               </span>
-              , tests on {outcome.subject.measuredOn} by {outcome.subject.inspector.name}, signed {outcome.subject.signedAt.replace("T", " ").replace(/\.\d+Z$/, " UTC")}.
+              , tests on {formatDate(outcome.subject.measuredOn)} by {outcome.subject.inspector.name}, signed {outcome.subject.signedAt.replace("T", " ").replace(/\.\d+Z$/, " UTC")}.
             </p>
           ) : null}
           <h3 className="mt-3 text-sm font-bold text-ink-900">What was checked</h3>

@@ -4,6 +4,7 @@ import type { TestMeasurement, TestResult } from "~/geometry";
 import { micrometresToInches, straightnessReferenceLine } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
 import { SurfacePlot } from "./surface-plot";
+import { lengthsInText } from "~/modules/units/format";
 
 const W = 640;
 const H = 240;
@@ -321,7 +322,7 @@ export function RunOutPlot({ measurement, units, title }: { measurement: Extract
 
 /** The plot that suits a test's readings, or nothing for a single pair of numbers. */
 export function TestPlot({ measurement, result, units }: { measurement: TestMeasurement; result: TestResult | null; units: DisplayUnits }) {
-  const title = result ? `${result.code} ${result.title}` : "Readings";
+  const title = result ? `${result.code} ${lengthsInText(result.title, units)}` : "Readings";
   switch (measurement.kind) {
     case "profile":
     case "level":

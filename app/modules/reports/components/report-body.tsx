@@ -4,6 +4,7 @@ import { Link } from "react-router";
 import { Badge, Card, CardBody, CardHeader, Table, Td, Th, Tr, cx } from "~/components/ui";
 import type { TestResult } from "~/geometry";
 import type { DisplayUnits } from "~/modules/units/format";
+import { lengthsInText } from "~/modules/units/format";
 import { reportAge, type ReportContent } from "../content";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, isSignedValue, observedLabel } from "../format";
 import { fromMemoryNotice, HOW_SCORING_WORKS_SOURCES, makersChartLine, resultSources, type SourceLine } from "../sources";
@@ -160,7 +161,7 @@ function ResultsList({ content, units }: { content: ReportContent; units: Displa
         <li key={result.code} className="space-y-2 px-4 py-3" data-result-item={result.code}>
           <div className="flex items-start justify-between gap-3">
             <div>
-              <p className="font-semibold text-ink-900">{result.title}</p>
+              <p className="font-semibold text-ink-900">{lengthsInText(result.title, units)}</p>
               <p className="text-xs text-ink-500">
                 {result.code}
                 {result.required ? "" : " · optional"}
@@ -204,7 +205,7 @@ function ResultsGrid({ content, units }: { content: ReportContent; units: Displa
         {content.score.results.map((result) => (
           <Tr key={result.code} data-code={result.code}>
             <Td>
-              <p className="font-semibold text-ink-900">{result.title}</p>
+              <p className="font-semibold text-ink-900">{lengthsInText(result.title, units)}</p>
               <p className="text-xs text-ink-500">
                 {result.code}
                 {result.required ? "" : " · optional"}
@@ -253,7 +254,7 @@ export function TestDetails({ content, units, photoUrls }: { content: ReportCont
         const instrument = content.instruments.find((candidate) => candidate.id === meta?.instrumentId);
         return (
           <Card key={code} data-plot={code}>
-            <CardHeader title={result?.title ?? code} description={`${code}${instrument ? ` · ${instrument.kindLabel}` : ""}`} action={result ? <VerdictBadge result={result} /> : null} />
+            <CardHeader title={result ? lengthsInText(result.title, units) : code} description={`${code}${instrument ? ` · ${instrument.kindLabel}` : ""}`} action={result ? <VerdictBadge result={result} /> : null} />
             <CardBody className="space-y-3">
               {PLOTTED.has(measurement.kind) ? <TestPlot measurement={measurement} result={result} units={units} /> : null}
               {meta?.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{meta.notes}</p> : null}

@@ -22,6 +22,7 @@ import { SafetyCautions } from "../safety";
 import type { SetupPhotoView } from "./setup-photo";
 import { TestCard } from "./test-card";
 import { useDraftSync, type SyncStatus } from "./use-draft-sync";
+import { lengthsInText } from "~/modules/units/format";
 
 export type EntryData = {
   booking: { id: string; reference: string; status: string; startsAt: string; days: { today: string; visitDay: string } };
@@ -427,7 +428,7 @@ function GradePreview({ score, preview, units }: { score: ReportScore | null; pr
             <li key={test.code}>
               <a href={`#test-${test.code}`} className="flex items-center justify-between gap-2 rounded px-1 py-0.5 hover:bg-ink-50">
                 <span className="truncate text-ink-700">
-                  {test.title}
+                  {lengthsInText(test.title, units)}
                   {test.required ? "" : " (opt.)"}
                 </span>
                 {result ? (

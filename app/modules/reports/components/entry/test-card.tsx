@@ -9,6 +9,7 @@ import { GridFields } from "./grid-fields";
 import { RatioBar } from "../grade";
 import { TestPlot } from "../plots";
 import { SetupPhoto, type SetupPhotoView } from "./setup-photo";
+import { lengthsInText } from "~/modules/units/format";
 
 const KIND_LABELS: Record<MeasurementKind, string> = {
   sweep: "Readings around a revolution",
@@ -461,7 +462,7 @@ export function TestCard({
       <header className="flex flex-wrap items-start justify-between gap-2 border-b border-ink-100 px-4 py-3 sm:px-5">
         <div className="min-w-0">
           <h3 className="text-base font-bold text-ink-900">
-            {test.title} <span className="text-sm font-semibold text-ink-400">{test.code}</span>
+            {lengthsInText(test.title, units)} <span className="text-sm font-semibold text-ink-400">{test.code}</span>
           </h3>
           <p className="text-sm text-ink-600">{test.measures}</p>
         </div>
