@@ -172,8 +172,8 @@ describe("the buyer's story", () => {
     const card = page.locator(`[data-listing-id="${lathe.listing.id}"]`);
     await card.waitFor();
     await expect(card.getByLabel("Key figures of the current report").textContent()).resolves.toMatch(/Spindle run-out0\.00016 in/);
-    // 330 mm swing is 12.992 in.
-    await expect(card.textContent()).resolves.toContain("12.992 in swing");
+    // 330 mm swing is 12.992 in, quoted as the trade does: 13 in.
+    await expect(card.textContent()).resolves.toContain("13 in swing");
     await page.getByLabel("Spindle run-out at most (in)").fill("0.0001");
     await page.getByLabel("Spindle run-out at most (in)").press("Enter");
     await page.getByRole("link", { name: "1 machine with spindle run-out ≤ 0.0002 in" }).waitFor();

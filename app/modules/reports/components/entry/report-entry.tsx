@@ -166,16 +166,16 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                 <div className={cx("rounded-control px-3 py-2 text-sm text-ink-700", data.suggestion.uncovered ? "bg-caution/10 ring-1 ring-caution/40" : "bg-ink-50")} data-testid="profile-suggestion">
                   <p>
                     <span className="font-semibold text-ink-900">Suggested: </span>
-                    {suggested ? `${suggested.makersChart ? "the maker's chart — " : ""}${suggested.title} (v${suggested.version})` : "none"}
+                    {suggested ? `${suggested.makersChart ? "the maker's chart — " : ""}${lengthsInText(suggested.title, form.units)} (v${suggested.version})` : "none"}
                   </p>
-                  <p className="mt-1">{data.suggestion.reason}</p>
+                  <p className="mt-1">{lengthsInText(data.suggestion.reason, form.units)}</p>
                 </div>
                 <SelectField
                   label="Profile used"
                   value={`${form.profile.key}@${form.profile.version}`}
                   options={profiles.map(({ profile: option, retired }) => ({
                     value: `${option.key}@${option.version}`,
-                    label: `${option.scope.maker ? "Maker's chart: " : ""}${option.title} — v${option.version}${retired ? " (retired)" : ""}`,
+                    label: `${option.scope.maker ? "Maker's chart: " : ""}${lengthsInText(option.title, form.units)} — v${option.version}${retired ? " (retired)" : ""}`,
                   }))}
                   errors={errors["profile.key"]}
                   onChange={(event) =>
