@@ -94,6 +94,19 @@ describe("units as the reader sees them", () => {
     expect(text).toMatch(/Brennwald, Oderland [0-9a-f]{6}, Germany/);
     expect(text).toMatch(new RegExp(`Date of the tests\\s*${oneDateStyle.source}`));
     expect(text).not.toMatch(/\b\d{4}-\d{2}-\d{2}\b/);
+    // Plot ticks fall on round inch values: stations along the 1000 mm bed in whole inches, readings in
+    // whole ten-thousandths (never 9.843 or a converted 2.5 µm).
+    const bedPlot = page.locator('figure svg[aria-label^="L-BED-V"]');
+    const stationTicks = await bedPlot.locator('[data-plot="x-tick"]').allTextContents();
+    expect(stationTicks.length).toBeGreaterThan(2);
+    for (const tick of stationTicks) expect(Number(tick) % 1).toBe(0);
+    const readingTicks = await bedPlot.locator('[data-plot="y-tick"]').allTextContents();
+    expect(readingTicks.length).toBeGreaterThan(2);
+    for (const tick of readingTicks) expect(Math.abs(Number(tick) * 1e5) % 1).toBeLessThan(1e-6);
+    // The twist (a level's tilts, µm/m whatever the units) has its stations in inches too.
+    const twistPlot = page.locator('figure svg[aria-label^="L-BED-X"]');
+    for (const tick of await twistPlot.locator('[data-plot="x-tick"]').allTextContents()) expect(Number(tick) % 1).toBe(0);
+    await expect(page.getByRole("img", { name: /^L-BED-X/ }).locator("..").locator("..").textContent()).resolves.toContain("Station (in)");
     await shoot(page, "report-inch");
     await context.close();
   });

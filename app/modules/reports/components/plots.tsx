@@ -37,6 +37,16 @@ function ticks(min: number, max: number, count = 5) {
   return values;
 }
 
+/** Ticks at round values of the unit the reader sees; `scale` turns a stored value into that unit. */
+function ticksIn(min: number, max: number, count: number, scale: number) {
+  return ticks(min * scale, max * scale, count).map((value) => value / scale);
+}
+
+/** A stored reading (µm) or tilt (µm/m) times this is what the reader's axis shows. */
+const readingScale = (units: DisplayUnits, unit: "µm" | "µm/m" = "µm") => (unit === "µm" && units === "inch" ? micrometresToInches(1) : 1);
+/** A station (mm) times this is what the reader's axis shows. */
+const stationScale = (units: DisplayUnits) => (units === "inch" ? 1 / 25.4 : 1);
+
 function readingLabel(micrometres: number, units: DisplayUnits, unit: "µm" | "µm/m" = "µm") {
   if (unit === "µm/m") return `${Number(micrometres.toFixed(1))}`;
   if (units === "inch") return micrometresToInches(micrometres).toFixed(5).replace(/^(-?)0\./, "$1.");
@@ -90,13 +100,13 @@ function Frame({ x, y, xTicks, yTicks, xLabel, yLabel, xFormat, yFormat }: { x: 
       {yTicks.map((value) => (
         <g key={`y${value}`}>
           <line x1={PAD.left} x2={W - PAD.right} y1={y(value)} y2={y(value)} stroke={value === 0 ? colours.axis : colours.grid} />
-          <text x={PAD.left - 6} y={y(value) + 4} textAnchor="end">
+          <text data-plot="y-tick" x={PAD.left - 6} y={y(value) + 4} textAnchor="end">
             {yFormat(value)}
           </text>
         </g>
       ))}
       {xTicks.map((value) => (
-        <text key={`x${value}`} x={x(value)} y={H - PAD.bottom + 16} textAnchor="middle">
+        <text key={`x${value}`} data-plot="x-tick" x={x(value)} y={H - PAD.bottom + 16} textAnchor="middle">
           {xFormat(value)}
         </text>
       ))}
@@ -118,7 +128,20 @@ function linear(domain: [number, number], range: [number, number]): Scale {
 }
 
 /** Readings along a travel; with the reference line, the band holding the points and the tolerance band when scored as a straightness. */
-export function ProfilePlot({ points, result, units, title }: { points: { station: number; reading: number }[]; result: TestResult | null; units: DisplayUnits; title: string }) {
+export function ProfilePlot({
+  points,
+  result,
+  units,
+  title,
+  readingUnit = result?.unit,
+}: {
+  points: { station: number; reading: number }[];
+  result: TestResult | null;
+  units: DisplayUnits;
+  title: string;
+  /** A level's tilts are µm/m whatever the reader's units; only its stations follow them. */
+  readingUnit?: "µm" | "µm/m";
+}) {
   if (points.length < 2) return null;
   const sorted = [...points].sort((a, b) => a.station - b.station);
   // The engine's line is the middle of the band holding the readings; the reference itself sits where its
@@ -143,7 +166,8 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
   const x = linear([xMin, xMax], [PAD.left, W - PAD.right]);
   const y = linear(yDomain, [H - PAD.bottom, PAD.top]);
   const at = (station: number, offset: number) => `${x(station)},${y(line!.slope * station + line!.intercept + offset)}`;
-  const stationFormat = (value: number) => (units === "inch" ? (value / 25.4).toFixed(1) : String(Math.round(value)));
+  // Ticks fall on round values of what the reader sees (2 in, 0.0001 in), not on converted millimetres.
+  const stationFormat = (value: number) => String(Number((value * stationScale(units)).toFixed(3)));
   const stationUnit = units === "inch" ? "in" : "mm";
   return (
     <>
@@ -152,12 +176,12 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
           <Frame
             x={x}
             y={y}
-            xTicks={ticks(xMin, xMax, 6)}
-            yTicks={ticks(yDomain[0], yDomain[1], 5)}
+            xTicks={ticksIn(xMin, xMax, 6, stationScale(units))}
+            yTicks={ticksIn(yDomain[0], yDomain[1], 5, readingScale(units, readingUnit))}
             xLabel={`Station (${stationUnit})`}
-            yLabel={`Reading (${axisUnit(units, result?.unit)})`}
+            yLabel={`Reading (${axisUnit(units, readingUnit)})`}
             xFormat={stationFormat}
-            yFormat={(value) => readingLabel(value, units, result?.unit)}
+            yFormat={(value) => readingLabel(value, units, readingUnit)}
           />
           {line ? (
             <>
@@ -195,8 +219,8 @@ export function ProfilePlot({ points, result, units, title }: { points: { statio
       </figure>
       <PlotFigures
         title={title}
-        columns={[`Station (${stationUnit})`, `Reading (${axisUnit(units, result?.unit)})`]}
-        rows={sorted.map((point) => [units === "inch" ? (point.station / 25.4).toFixed(2) : String(point.station), readingLabel(point.reading, units, result?.unit)])}
+        columns={[`Station (${stationUnit})`, `Reading (${axisUnit(units, readingUnit)})`]}
+        rows={sorted.map((point) => [units === "inch" ? (point.station / 25.4).toFixed(2) : String(point.station), readingLabel(point.reading, units, readingUnit)])}
       />
     </>
   );
@@ -220,7 +244,7 @@ export function MandrelPlot({ measurement, result, units, title }: { measurement
     <>
       <figure className="w-full">
         <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
-          <Frame x={(v) => v} y={y} xTicks={[]} yTicks={ticks(yDomain[0], yDomain[1], 5)} xLabel="Along the mandrel" yLabel={`Reading (${axisUnit(units)})`} xFormat={String} yFormat={(value) => readingLabel(value, units)} />
+          <Frame x={(v) => v} y={y} xTicks={[]} yTicks={ticksIn(yDomain[0], yDomain[1], 5, readingScale(units))} xLabel="Along the mandrel" yLabel={`Reading (${axisUnit(units)})`} xFormat={String} yFormat={(value) => readingLabel(value, units)} />
           <text x={xNear} y={H - PAD.bottom + 16} textAnchor="middle" fontSize="11" fill={colours.muted}>
             near the nose
           </text>
@@ -326,7 +350,15 @@ export function TestPlot({ measurement, result, units }: { measurement: TestMeas
   switch (measurement.kind) {
     case "profile":
     case "level":
-      return <ProfilePlot points={measurement.points} result={measurement.kind === "profile" ? result : result ? { ...result, straightness: undefined } : null} units={measurement.kind === "level" ? "mm" : units} title={title} />;
+      return (
+        <ProfilePlot
+          points={measurement.points}
+          result={measurement.kind === "profile" ? result : result ? { ...result, straightness: undefined } : null}
+          units={units}
+          readingUnit={measurement.kind === "level" ? "µm/m" : result?.unit}
+          title={title}
+        />
+      );
     case "mandrel":
       return <MandrelPlot measurement={measurement} result={result} units={units} title={title} />;
     case "sweep":
