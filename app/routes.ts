@@ -36,6 +36,7 @@ export default [
   route("sell/listings/:listingId", "routes/listings/sell-edit.tsx"),
   route("sell/listings/:listingId/photos", "routes/listings/sell-photos.ts"),
   route("sell/listings/:listingId/documents", "routes/listings/sell-documents.ts"),
+  route("sell/listings/:listingId/rebuild", "routes/listings/sell-rebuild.tsx"),
   route("account/watched", "routes/listings/watched.tsx"),
   route("watched/unsubscribe", "routes/listings/watch-unsubscribe.tsx"),
 

@@ -8,3 +8,4 @@ export * from "../modules/search/saved-searches/schema";
 export * from "../modules/search/schema";
 export * from "../modules/profiles/schema";
 export * from "../modules/demand/schema";
+export * from "../modules/rebuilds/schema";

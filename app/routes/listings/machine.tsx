@@ -10,6 +10,8 @@ import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/acc
 import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
+import { RebuildSection } from "~/components/rebuilds/rebuild-panel";
+import { publicRebuildForListing } from "~/modules/rebuilds/service.server";
 import { VerifiedAccuracyPanel } from "~/modules/reports/components/listing-accuracy";
 import { currentReportForListing, type ListingReportSummary } from "~/modules/reports/service.server";
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
@@ -29,7 +31,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
   const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
-  return { ...found, accuracy, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
+  const rebuild = await publicRebuildForListing(context.get(databaseContext), found.listing.id);
+  return { ...found, accuracy, rebuild, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
@@ -147,6 +150,8 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
               </ul>
             </section>
           ) : null}
+
+          <RebuildSection rebuild={loaderData.rebuild} units={units} manageUrl={isManager ? `/sell/listings/${listing.id}/rebuild` : null} />
 
           <SafetyNote />
         </div>

@@ -17,6 +17,7 @@ import { reportDrafts, reports } from "~/modules/reports/schema";
 import { savedSearches } from "~/modules/search/saved-searches/schema";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
 import { certifiedInspector, publicIdOf } from "../../support/inspections";
+import { rebuildRecords } from "~/modules/rebuilds/schema";
 import { jpegWithGps } from "../../support/images";
 import { createListingAs, uploadFileAs, validListingFields } from "../../support/listings";
 import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
@@ -387,6 +388,22 @@ const table: Record<string, RouteRow> = {
         body: () => ({ form: { intent: "document-delete", documentId: randomId() } }),
         expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 404, admin: 404 }),
         unchanged: () => rowsOf.documents(fx.draftListingId),
+      },
+    ],
+  },
+  "sell/listings/:listingId/rebuild": {
+    get: by({ ...REFUSED_LISTING_EDIT, sellerA: 200, admin: 200 }),
+    actions: [
+      {
+        intent: "save a rebuild draft",
+        body: () => ({
+          form: {
+            intent: "save",
+            form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, asFound: { measuredOn: "", tests: { "L-SP-NOSE": { kind: "sweep", readings: ["0", "4"] } } }, asRebuilt: {}, notes: "Overwritten" }),
+          },
+        }),
+        expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 200, admin: 200 }),
+        unchanged: (params) => db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, params.listingId ?? fx.draftListingId)),
       },
     ],
   },

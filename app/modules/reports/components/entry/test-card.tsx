@@ -447,8 +447,9 @@ export function TestCard({
   instruments: InstrumentEntry[];
   serverErrors: Errors;
   photo: SetupPhotoView | null;
-  photosUrl: string;
-  onPhoto: (photo: SetupPhotoView | null) => void;
+  /** Where set-up photos go; without it the card takes readings only (e.g. a rebuild record's). */
+  photosUrl?: string;
+  onPhoto?: (photo: SetupPhotoView | null) => void;
   disabled: boolean;
 }) {
   const { test, result } = preview;
@@ -536,7 +537,7 @@ export function TestCard({
             }
           />
         </div>
-        <SetupPhoto testCode={test.code} photo={photo} photosUrl={photosUrl} onChange={onPhoto} error={errors.photoId?.join(" ")} disabled={disabled} />
+        {photosUrl && onPhoto ? <SetupPhoto testCode={test.code} photo={photo} photosUrl={photosUrl} onChange={onPhoto} error={errors.photoId?.join(" ")} disabled={disabled} /> : null}
         <TextAreaField
           label="Notes on this test"
           rows={2}

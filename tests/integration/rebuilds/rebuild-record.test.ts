@@ -1,0 +1,118 @@
+// A listing's rebuild record over HTTP: only the listing's seller records it, hostile input is refused at its field
+// with nothing written, and the listing says "declared by the seller" unless a signed report confirms the
+// as-rebuilt figures.
+import { eq } from "drizzle-orm";
+import { describe, expect, it } from "vitest";
+import { rebuildRecords } from "~/modules/rebuilds/schema";
+import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
+import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
+
+const today = new Date().toISOString().slice(0, 10);
+const lastMonth = new Date(Date.now() - 30 * 86_400_000).toISOString().slice(0, 10);
+
+function rebuildForm(overrides: { asRebuiltNose?: string[]; notes?: string; asRebuiltOn?: string } = {}) {
+  return {
+    units: "mm",
+    profile: { key: "centre-lathe-normal", version: 1 },
+    asFound: {
+      measuredOn: lastMonth,
+      tests: {
+        "L-SP-PAR-V": { kind: "mandrel", near0: "0", near180: "0", far0: "60", far180: "40" },
+        "L-SP-NOSE": { kind: "sweep", readings: ["0", "6", "12", "6"] },
+      },
+    },
+    asRebuilt: {
+      measuredOn: overrides.asRebuiltOn ?? today,
+      tests: {
+        "L-SP-PAR-V": { kind: "mandrel", near0: "0", near180: "0", far0: "30", far180: "10" },
+        "L-SP-NOSE": { kind: "sweep", readings: overrides.asRebuiltNose ?? ["0", "2", "4", "2"] },
+      },
+    },
+    workDone: ["bearings-adjusted", "headstock-shimmed"],
+    notes: overrides.notes ?? "Rear pad shimmed 30 µm, then the seating scraped in three pads.",
+  };
+}
+
+function postRebuild(cookie: string, listingId: string, form: unknown, intent: "save" | "publish" = "publish") {
+  const body = new FormData();
+  body.set("intent", intent);
+  body.set("form", typeof form === "string" ? form : JSON.stringify(form));
+  return fetch(`${testAppOrigin}/sell/listings/${listingId}/rebuild`, { method: "POST", body, headers: { cookie, origin: testAppOrigin }, redirect: "manual" });
+}
+
+async function standingOn(slug: string) {
+  const html = await (await fetch(`${testAppOrigin}/machines/${slug}`)).text();
+  const match = /data-testid="rebuild-standing"[^>]*>([\s\S]*?)<\/p>/.exec(html);
+  return match ? match[1]!.replace(/<[^>]+>/g, "").replace(/<!-- -->/g, "") : null;
+}
+
+describe("a listing's rebuild record", () => {
+  it("is declared by the seller, and only a later signed report reading as well confirms it", async () => {
+    const { seller, listing, inspector, bookingId } = await acceptedBooking();
+    const cookie = await signInCookie(seller.email, seller.password);
+    expect(await standingOn(listing.slug)).toBeNull();
+
+    const published = await postRebuild(cookie, listing.id, rebuildForm());
+    expect(published.status).toBe(302);
+    expect(published.headers.get("location")).toBe(`/machines/${listing.slug}#rebuild`);
+    const standing = await standingOn(listing.slug);
+    expect(standing).toContain("Declared by the seller.");
+    expect(standing).not.toMatch(/confirmed/i);
+
+    const [row] = await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
+    const results = row!.results as { asFound: { code: string; value: number }[]; asRebuilt: { code: string; value: number }[] };
+    // Scored by the report engine on the server: the mandrel's inclination is mean(far) − mean(near).
+    expect(results.asFound.find((r) => r.code === "L-SP-PAR-V")!.value).toBe(50);
+    expect(results.asRebuilt.find((r) => r.code === "L-SP-PAR-V")!.value).toBe(20);
+
+    // The inspector's signed report reads the same figures (completeForm: +20 µm and 4 µm): confirmed.
+    await fileAndSign(await inspectorCookie(inspector), bookingId, completeForm());
+    const confirmed = await standingOn(listing.slug);
+    expect(confirmed).toContain("As-rebuilt figures confirmed");
+    expect(confirmed).toContain("Aldo Verrin");
+  });
+
+  it("stays declared by the seller when the signed report reads worse than declared", async () => {
+    const { seller, listing, inspector, bookingId } = await acceptedBooking();
+    const cookie = await signInCookie(seller.email, seller.password);
+    // Declared 1 µm of run-out at the nose; the inspector finds 4 µm (tolerance 10 µm, slack 2.5 µm).
+    expect((await postRebuild(cookie, listing.id, rebuildForm({ asRebuiltNose: ["0", "1", "0.5", "0"] }))).status).toBe(302);
+    await fileAndSign(await inspectorCookie(inspector), bookingId, completeForm());
+    const standing = await standingOn(listing.slug);
+    expect(standing).toContain("Declared by the seller.");
+    expect(standing).not.toMatch(/confirmed/i);
+  });
+
+  it("is recorded by the listing's seller only", async () => {
+    const { listing, buyer } = await acceptedBooking();
+    const otherSeller = await createTestUser({ roles: ["seller"] });
+    expect((await postRebuild(await signInCookie(otherSeller.email, otherSeller.password), listing.id, rebuildForm())).status).toBe(403);
+    expect((await postRebuild(await signInCookie(buyer.email, buyer.password), listing.id, rebuildForm())).status).toBe(403);
+    expect(await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id))).toHaveLength(0);
+  });
+
+  it("refuses hostile or impossible input at its field, writing nothing", async () => {
+    const { seller, listing } = await acceptedBooking();
+    const cookie = await signInCookie(seller.email, seller.password);
+    for (const [form, field] of [
+      [rebuildForm({ notes: "bad\u0000note" }), "notes"],
+      [rebuildForm({ notes: "\u200b\u200b" }), null],
+      [rebuildForm({ asRebuiltNose: ["0", "1e999", "1", "2"] }), "asRebuilt.tests.L-SP-NOSE"],
+      [rebuildForm({ asRebuiltOn: "2000-01-01" }), "asRebuilt.measuredOn"],
+      [{ ...rebuildForm(), workDone: ["moonlighting"] }, "workDone.0"],
+      [{ ...rebuildForm(), profile: { key: "no-such-profile", version: 1 } }, "profile"],
+    ] as const) {
+      const response = await postRebuild(cookie, listing.id, form);
+      if (field === null) {
+        expect([302, 422]).toContain(response.status);
+        continue;
+      }
+      expect(response.status, JSON.stringify(form).slice(0, 80)).toBe(422);
+      const text = await response.text();
+      expect(text).toContain(field);
+    }
+    expect((await postRebuild(cookie, listing.id, "{not json")).status).toBe(400);
+    const [row] = await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
+    expect(row?.notes ?? "").not.toContain("\u0000");
+  });
+});
