@@ -82,9 +82,28 @@ export const KEY_FIGURE_LABELS = {
   spindleParallelismHorizontal: "Spindle axis, horizontal",
   centreHeight: "Centre height",
   bedStraightness: "Bed straightness",
+  tableFlatness: "Table flatness",
+  travelSquareness: "Squareness of travels",
 } as const;
 
 export type KeyFigureKey = keyof typeof KEY_FIGURE_LABELS;
+
+/** Figures with a sign: which way a part leans or is out of square. */
+export const SIGNED_KEY_FIGURES: ReadonlySet<KeyFigureKey> = new Set(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight", "travelSquareness"]);
+
+const LATHE_FIGURES: readonly KeyFigureKey[] = ["spindleRunOut", "axialSlip", "spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight", "bedStraightness"];
+const SURFACE_FIGURES: readonly KeyFigureKey[] = ["tableFlatness", "travelSquareness", "spindleRunOut", "axialSlip"];
+
+/**
+ * The key figures that mean something for a machine category (the listing's, e.g. "milling_machine", or the
+ * engine's, e.g. "milling-machine"): a lathe's spindle and bed, a mill's or grinder's table and travels.
+ */
+export function keyFigureNamesFor(category: string | null | undefined): readonly KeyFigureKey[] {
+  const engine = category ? (engineCategory(category) ?? category) : null;
+  if (engine === "milling-machine" || engine === "surface-grinder") return SURFACE_FIGURES;
+  if (engine === "centre-lathe" || engine === "toolroom-lathe") return LATHE_FIGURES;
+  return Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[];
+}
 
 /** A report older than this is shown as expired: accuracy drifts with use (PRODUCT.md). */
 export const REPORT_FRESH_MONTHS = 12;

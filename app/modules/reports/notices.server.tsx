@@ -2,15 +2,15 @@
 import type { BookingForReport } from "~/modules/inspections/report-queries.server";
 import { queueEmail } from "~/modules/mail/mail.server";
 import { renderEmail } from "~/modules/mail/render.server";
-import { KEY_FIGURE_LABELS, type KeyFigureKey, type ReportContent } from "./content";
+import { KEY_FIGURE_LABELS, keyFigureNamesFor, SIGNED_KEY_FIGURES, type ReportContent } from "./content";
 import { ReportSignedEmail } from "./emails/report-signed";
 import { formatDeviationBoth, formatReportDate } from "./format";
 import { reportUrl } from "./links.server";
 
 export function keyFigureLines(content: ReportContent): string[] {
-  return (Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).map((name) => {
-    const value = content.score.keyFigures[name];
-    const signed = name.startsWith("spindleParallelism") || name === "centreHeight";
+  return keyFigureNamesFor(content.machine.category).map((name) => {
+    const value = content.score.keyFigures[name] ?? null;
+    const signed = SIGNED_KEY_FIGURES.has(name);
     return `${KEY_FIGURE_LABELS[name]}: ${value === null ? "not measured" : formatDeviationBoth(value, { signed })}`;
   });
 }

@@ -157,7 +157,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
         </div>
 
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
-          <AccuracyPanel slug={listing.slug} report={loaderData.accuracy} units={units} now={loaderData.now} />
+          <AccuracyPanel slug={listing.slug} category={listing.category} report={loaderData.accuracy} units={units} now={loaderData.now} />
 
           {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={signedIn} /> : null}
         </aside>
@@ -193,8 +193,8 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
   );
 }
 
-function AccuracyPanel({ slug, report, units, now }: { slug: string; report: ListingReportSummary | null; units: DisplayUnits; now: string }) {
-  if (report) return <VerifiedAccuracyPanel report={report} units={units} now={new Date(now)} bookingLink={`/machines/${slug}/book`} />;
+function AccuracyPanel({ slug, category, report, units, now }: { slug: string; category: string; report: ListingReportSummary | null; units: DisplayUnits; now: string }) {
+  if (report) return <VerifiedAccuracyPanel report={report} units={units} now={new Date(now)} bookingLink={`/machines/${slug}/book`} category={category} />;
   return (
     <Card id="accuracy" className="border-caution/40">
       <CardHeader title="Accuracy" action={<Badge tone="caution">Not yet verified</Badge>} />

@@ -3,10 +3,9 @@
 import type { KeyFigures, TestResult } from "~/geometry";
 import { Badge, cx } from "~/components/ui";
 import type { DisplayUnits } from "~/modules/units/format";
-import { KEY_FIGURE_LABELS, type KeyFigureKey } from "../content";
+import { KEY_FIGURE_LABELS, keyFigureNamesFor, SIGNED_KEY_FIGURES } from "../content";
 import { formatDeviation, GRADE_MEANING } from "../format";
 
-const SIGNED_FIGURES = new Set<KeyFigureKey>(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight"]);
 
 const gradeTones: Record<string, string> = {
   A: "bg-within text-white",
@@ -34,16 +33,17 @@ export function gradeMeaning(grade: string) {
   return GRADE_MEANING[grade] ?? "";
 }
 
-export function KeyFigureList({ figures, units, columns = 2, className }: { figures: KeyFigures; units: DisplayUnits; columns?: 1 | 2; className?: string }) {
+/** The key figures of a machine's category (all of them when the category is not given). */
+export function KeyFigureList({ figures, units, columns = 2, className, category }: { figures: KeyFigures; units: DisplayUnits; columns?: 1 | 2; className?: string; category?: string | null }) {
   return (
     <dl className={cx("grid grid-cols-1 gap-x-6 gap-y-1.5 text-sm", columns === 2 && "sm:grid-cols-2", className)} data-testid="key-figures">
-      {(Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).map((name) => {
-        const value = figures[name];
+      {keyFigureNamesFor(category).map((name) => {
+        const value = figures[name] ?? null;
         return (
           <div key={name} className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
             <dt className="text-ink-600">{KEY_FIGURE_LABELS[name]}</dt>
             <dd className={cx("font-semibold tabular", value === null ? "text-ink-400" : "text-ink-900")}>
-              {value === null ? "not measured" : formatDeviation(value, units, { signed: SIGNED_FIGURES.has(name) })}
+              {value === null ? "not measured" : formatDeviation(value, units, { signed: SIGNED_KEY_FIGURES.has(name) })}
             </dd>
           </div>
         );

@@ -9,7 +9,7 @@ import { makersChartLine } from "../sources";
 import type { ListingReportSummary } from "../service.server";
 import { GradeMark, gradeMeaning, KeyFigureList } from "./grade";
 
-export function VerifiedAccuracyPanel({ report, units, now, bookingLink }: { report: ListingReportSummary; units: DisplayUnits; now: Date; bookingLink?: string }) {
+export function VerifiedAccuracyPanel({ report, units, now, bookingLink, category }: { report: ListingReportSummary; units: DisplayUnits; now: Date; bookingLink?: string; category?: string }) {
   const age = reportAge(report.measuredOn, now);
   return (
     <Card id="accuracy" className={age.expired ? "border-caution/40" : "border-within/30"} data-testid="accuracy-panel">
@@ -22,7 +22,7 @@ export function VerifiedAccuracyPanel({ report, units, now, bookingLink }: { rep
             <p className="text-ink-600">{gradeMeaning(report.grade)}</p>
           </div>
         </div>
-        <KeyFigureList figures={report.keyFigures} units={units} columns={1} />
+        <KeyFigureList figures={report.keyFigures} units={units} columns={1} category={category} />
         <p className={cx(age.expired ? "font-semibold text-caution" : "text-ink-600")}>
           Measured {formatReportDate(report.measuredOn)} ({age.label}) by {report.inspectorName}
           {age.expired ? ". Accuracy changes with use: a new check is advised." : "."}

@@ -31,7 +31,7 @@ export function GradeCard({ content, units, now }: { content: ReportContent; uni
         </div>
         <div className="min-w-0 flex-1">
           <h3 className="mb-1 text-sm font-bold uppercase tracking-wide text-ink-500">Key figures</h3>
-          <KeyFigureList figures={score.keyFigures} units={units} />
+          <KeyFigureList figures={score.keyFigures} units={units} category={content.machine.category} />
           {score.missing.length ? (
             <p className="mt-3 text-sm text-beyond">Required tests without a reading: {score.missing.join(", ")}.</p>
           ) : null}

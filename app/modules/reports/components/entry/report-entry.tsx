@@ -379,7 +379,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
 
         <aside className="hidden lg:block">
           <div className="sticky top-20 space-y-4">
-            <GradePreview score={score} preview={preview} units={form.units} />
+            <GradePreview score={score} preview={preview} units={form.units} category={profile?.category} />
           </div>
         </aside>
       </div>
@@ -405,7 +405,7 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
   );
 }
 
-function GradePreview({ score, preview, units }: { score: ReportScore | null; preview: ReportPreview | null; units: ReportForm["units"] }) {
+function GradePreview({ score, preview, units, category }: { score: ReportScore | null; preview: ReportPreview | null; units: ReportForm["units"]; category?: string }) {
   if (!score || !preview) return null;
   return (
     <Card data-testid="grade-preview">
@@ -422,7 +422,7 @@ function GradePreview({ score, preview, units }: { score: ReportScore | null; pr
             </p>
           </div>
         </div>
-        <KeyFigureList figures={score.keyFigures} units={units} columns={1} />
+        <KeyFigureList figures={score.keyFigures} units={units} columns={1} category={category} />
         <ol className="space-y-1 text-sm">
           {preview.tests.map(({ test, result, check }) => (
             <li key={test.code}>
