@@ -62,6 +62,9 @@ export type ListingSearchDocument = Omit<SearchableListing, "publishedAt"> & {
   spindleParallelismHorizontalUm: number | null;
   centreHeightUm: number | null;
   bedStraightnessUm: number | null;
+  /** Mills and grinders: the table's flatness, and how far two travels are out of square (size, unsigned). */
+  tableFlatnessUm: number | null;
+  travelSquarenessUm: number | null;
 };
 
 export const gradeRanks: Readonly<Record<Grade, number>> = { A: 1, B: 2, C: 3, D: 4, incomplete: 5 };
@@ -113,5 +116,7 @@ export function listingToSearchDocument(listing: SearchableListing, report: Sear
     spindleParallelismHorizontalUm: magnitude(figures?.spindleParallelismHorizontal),
     centreHeightUm: magnitude(figures?.centreHeight),
     bedStraightnessUm: magnitude(figures?.bedStraightness),
+    tableFlatnessUm: magnitude(figures?.tableFlatness),
+    travelSquarenessUm: magnitude(figures?.travelSquareness),
   };
 }

@@ -25,6 +25,8 @@ export type ListingSearchQuery = {
   maxSpindleParallelismUm?: number;
   maxCentreHeightUm?: number;
   maxBedStraightnessUm?: number;
+  maxTableFlatnessUm?: number;
+  maxTravelSquarenessUm?: number;
   /** Reports measured at most this many days ago. */
   maxReportAgeDays?: number;
   countries?: string[];
@@ -76,6 +78,8 @@ export function listingFilter(query: ListingSearchQuery, now: Date = new Date())
     ...atMost("spindleParallelismHorizontalUm", query.maxSpindleParallelismUm),
     ...atMost("centreHeightUm", query.maxCentreHeightUm),
     ...atMost("bedStraightnessUm", query.maxBedStraightnessUm),
+    ...atMost("tableFlatnessUm", query.maxTableFlatnessUm),
+    ...atMost("travelSquarenessUm", query.maxTravelSquarenessUm),
     query.maxReportAgeDays === undefined ? null : `reportDate >= ${Math.floor(now.getTime() / 1000) - Math.round(query.maxReportAgeDays * 86_400)}`,
     anyOf("country", query.countries),
     query.region ? `region = ${quoteFilterValue(query.region)}` : null,

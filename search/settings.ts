@@ -24,6 +24,8 @@ const filterableAttributes: Attribute[] = [
   "spindleParallelismHorizontalUm",
   "centreHeightUm",
   "bedStraightnessUm",
+  "tableFlatnessUm",
+  "travelSquarenessUm",
   "priceMinor",
   "currency",
   "swingMm",

@@ -41,6 +41,8 @@ export const accuracyFilters = [
   { key: "maxAxialSlipUm", param: "axialSlipMax", label: "Axial slip" },
   { key: "maxSpindleParallelismUm", param: "parallelismMax", label: "Spindle-axis parallelism" },
   { key: "maxCentreHeightUm", param: "centreHeightMax", label: "Centre height difference" },
+  { key: "maxTableFlatnessUm", param: "flatnessMax", label: "Table flatness" },
+  { key: "maxTravelSquarenessUm", param: "squarenessMax", label: "Squareness of travels" },
 ] as const;
 
 export type AccuracyFilterKey = (typeof accuracyFilters)[number]["key"];

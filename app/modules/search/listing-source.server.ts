@@ -190,6 +190,11 @@ function atMost(column: AnyPgColumn, limit: number | undefined): SQL[] {
   return limit === undefined || limit === null ? [] : [lte(column, limit)];
 }
 
+/** A figure without a column of its own, read from the stored key figures as a magnitude (mills' and grinders' tables and travels). */
+function figureAtMost(name: keyof KeyFigures, limit: number | undefined): SQL[] {
+  return limit === undefined || limit === null ? [] : [sql`abs((${s.keyFigures} ->> ${name})::double precision) <= ${limit}`];
+}
+
 function idsCondition(ids: string[]): SQL {
   const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
   return valid.length ? inArray(s.listingId, valid) : sql`false`;
@@ -220,6 +225,8 @@ function conditionsFor(query: ListingSearchQuery, now: Date): SQL | undefined {
     ...atMost(s.parallelismHorizontalUm, query.maxSpindleParallelismUm),
     ...atMost(s.centreHeightUm, query.maxCentreHeightUm),
     ...atMost(s.bedStraightnessUm, query.maxBedStraightnessUm),
+    ...figureAtMost("tableFlatness", query.maxTableFlatnessUm),
+    ...figureAtMost("travelSquareness", query.maxTravelSquarenessUm),
     query.maxReportAgeDays === undefined
       ? undefined
       : gte(s.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),

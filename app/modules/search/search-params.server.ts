@@ -73,6 +73,10 @@ export const listingSearchParamsSchema = z
     parallelismMaxIn: inches("Spindle-axis parallelism"),
     centreHeightMax: micrometres("Centre height difference"),
     centreHeightMaxIn: inches("Centre height difference"),
+    flatnessMax: micrometres("Table flatness"),
+    flatnessMaxIn: inches("Table flatness"),
+    squarenessMax: micrometres("Squareness of travels"),
+    squarenessMaxIn: inches("Squareness of travels"),
     reportAgeMax: whole("Report age (days)", 1, 3650),
     sort: z.preprocess(blankAsMissing, z.enum(listingSorts, { error: `Sort must be one of ${listingSorts.join(", ")}.` }).optional()),
     page: whole("Page", 1, 1000),
@@ -142,6 +146,8 @@ export function queryFromParams(params: ListingSearchParams): ListingSearchQuery
     maxAxialSlipUm: microns(params.axialSlipMax, params.axialSlipMaxIn),
     maxSpindleParallelismUm: microns(params.parallelismMax, params.parallelismMaxIn),
     maxCentreHeightUm: microns(params.centreHeightMax, params.centreHeightMaxIn),
+    maxTableFlatnessUm: microns(params.flatnessMax, params.flatnessMaxIn),
+    maxTravelSquarenessUm: microns(params.squarenessMax, params.squarenessMaxIn),
     maxReportAgeDays: params.reportAgeMax,
     sort: params.sort ?? (params.q ? "relevance" : "newest"),
     page: params.page ?? 1,
@@ -175,6 +181,8 @@ export function paramsFromQuery(query: ListingSearchQuery, options: { withPage?:
   put("axialSlipMax", query.maxAxialSlipUm);
   put("parallelismMax", query.maxSpindleParallelismUm);
   put("centreHeightMax", query.maxCentreHeightUm);
+  put("flatnessMax", query.maxTableFlatnessUm);
+  put("squarenessMax", query.maxTravelSquarenessUm);
   put("reportAgeMax", query.maxReportAgeDays);
   const defaultSort = query.text ? "relevance" : "newest";
   if (query.sort && query.sort !== defaultSort) put("sort", query.sort);

@@ -58,7 +58,7 @@ export const LISTING_HIT_ATTRIBUTES = [
   "id", "slug", "status", "category", "categoryLabel", "condition", "title", "year", "swingMm", "betweenCentresMm",
   "priceMinor", "currency", "city", "region", "country", "photoUrl", "publishedAt", "verified", "reportId", "grade",
   "reportDate", "spindleRunoutUm", "axialSlipUm", "spindleParallelismVerticalUm", "spindleParallelismHorizontalUm",
-  "centreHeightUm", "bedStraightnessUm",
+  "centreHeightUm", "bedStraightnessUm", "tableFlatnessUm", "travelSquarenessUm",
 ] as const satisfies readonly (keyof ListingSearchDocument)[];
 
 export type ListingSearchHit = Pick<ListingSearchDocument, (typeof LISTING_HIT_ATTRIBUTES)[number]>;

@@ -51,6 +51,8 @@ export type ListingHit = {
       spindleParallelismHorizontalUm: number | null;
       centreHeightUm: number | null;
       bedStraightnessUm: number | null;
+      tableFlatnessUm: number | null;
+      travelSquarenessUm: number | null;
     };
   } | null;
 };
@@ -111,6 +113,8 @@ function toHit(document: ListingSearchHit): ListingHit {
               spindleParallelismHorizontalUm: document.spindleParallelismHorizontalUm,
               centreHeightUm: document.centreHeightUm,
               bedStraightnessUm: document.bedStraightnessUm,
+              tableFlatnessUm: document.tableFlatnessUm,
+              travelSquarenessUm: document.travelSquarenessUm,
             },
           }
         : null,

@@ -161,3 +161,12 @@ describe("listingSortRules", () => {
     expect(listingIndexSettings.rankingRules[0]).toBe("sort");
   });
 });
+
+describe("a mill's or grinder's figures", () => {
+  it("are indexed as magnitudes and filtered by an upper limit", async () => {
+    const { listingFilter } = await import("../../../search/query");
+    const document = listingToSearchDocument(listing, { ...report, keyFigures: { ...report.keyFigures, tableFlatness: 9.5, travelSquareness: -6 } });
+    expect(document).toMatchObject({ tableFlatnessUm: 9.5, travelSquarenessUm: 6 });
+    expect(listingFilter({ maxTableFlatnessUm: 10, maxTravelSquarenessUm: 8 })).toEqual(expect.arrayContaining(["tableFlatnessUm <= 10", "travelSquarenessUm <= 8"]));
+  });
+});

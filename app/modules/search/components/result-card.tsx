@@ -43,14 +43,22 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
     hit.betweenCentresMm ? `${formatLength(hit.betweenCentresMm, units)} between centres` : null,
   ].filter(Boolean);
   const figures = hit.report?.keyFigures;
-  const shown = figures
-    ? [
+  // A mill's or grinder's worth is its table and travels; a lathe's its spindle and centres.
+  const tableMachine = hit.category === "milling_machine" || hit.category === "surface_grinder";
+  const shown = !figures
+    ? []
+    : tableMachine
+      ? [
+          { label: "Table flatness", value: figures.tableFlatnessUm },
+          { label: "Squareness of travels", value: figures.travelSquarenessUm },
+          { label: "Spindle run-out", value: figures.spindleRunoutUm },
+        ]
+      : [
         { label: "Spindle run-out", value: figures.spindleRunoutUm },
         { label: "Axial slip", value: figures.axialSlipUm },
         { label: "Spindle-axis parallelism", value: worst(figures.spindleParallelismVerticalUm, figures.spindleParallelismHorizontalUm) },
         { label: "Centre height", value: figures.centreHeightUm },
-      ]
-    : [];
+      ];
   const ageDays = hit.report ? Math.floor((now - Date.parse(`${hit.report.measuredOn}T00:00:00Z`)) / 86_400_000) : null;
   return (
     // The title is the card's link, stretched over the card by its ::after, so that the link is named by the

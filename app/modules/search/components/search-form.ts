@@ -21,6 +21,8 @@ export type SearchDraft = {
   axialSlipMax: string;
   parallelismMax: string;
   centreHeightMax: string;
+  flatnessMax: string;
+  squarenessMax: string;
   reportAgeMax: string;
   sort: string;
 };
@@ -68,6 +70,8 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
     axialSlipMax: deviation("axialSlipMax"),
     parallelismMax: deviation("parallelismMax"),
     centreHeightMax: deviation("centreHeightMax"),
+    flatnessMax: deviation("flatnessMax"),
+    squarenessMax: deviation("squarenessMax"),
     reportAgeMax: params.get("reportAgeMax") ?? "",
     sort: params.get("sort") ?? "",
   };
