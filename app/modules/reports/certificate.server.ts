@@ -4,7 +4,7 @@
 import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
-import { KEY_FIGURE_LABELS, reportAge, type KeyFigureKey } from "./content";
+import { KEY_FIGURE_LABELS, keyFigureNamesFor, reportAge, SIGNED_KEY_FIGURES } from "./content";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
 import { formatLength, type DisplayUnits } from "~/modules/units/format";
 import { plotsOfReport, type PdfPlot } from "./certificate-plots.server";
@@ -30,7 +30,6 @@ const beyond = "#b3261e";
 // The embedded Manrope subset is Latin; signs it lacks are written out.
 const printable = (text: string) => text.replace(/≤/g, "up to").replace(/≥/g, "at least");
 
-const SIGNED_FIGURES = new Set<KeyFigureKey>(["spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight"]);
 
 export interface CertificateOptions {
   /** The reader's units: deviations in µm or inches, lengths in mm or inches. */
@@ -145,13 +144,13 @@ export async function renderCertificate(report: PublicReport, options: Certifica
     doc.font("regular").fontSize(8).fillColor(beyond).text(`Measured more than 12 months before this certificate was made (${formatReportDate(now.toISOString())}): the machine may have changed since.`, left + 80, doc.y + 2, { width: summaryWidth - 80 });
   }
   doc.y = Math.max(doc.y, panelTop + 62) + 6;
-  const shownFigures = (Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[]).filter((name) => content.score.keyFigures[name] !== undefined);
+  const shownFigures = keyFigureNamesFor(content.machine.category).filter((name) => content.score.keyFigures[name] !== undefined);
   const measuredFigures = shownFigures.filter((name) => content.score.keyFigures[name] !== null);
   doc.font("bold").fontSize(8.5).fillColor(muted).text("Key figures", left + 12, doc.y, { width: summaryWidth });
   for (const name of measuredFigures) {
     const y = doc.y + 1;
     doc.font("regular").fontSize(9).fillColor(ink).text(KEY_FIGURE_LABELS[name], left + 12, y, { width: 150, lineBreak: false });
-    doc.font("bold").fontSize(9).fillColor(ink).text(formatDeviation(content.score.keyFigures[name]!, units, { signed: SIGNED_FIGURES.has(name) }), left + 170, y, { width: summaryWidth - 170 });
+    doc.font("bold").fontSize(9).fillColor(ink).text(formatDeviation(content.score.keyFigures[name]!, units, { signed: SIGNED_KEY_FIGURES.has(name) }), left + 170, y, { width: summaryWidth - 170 });
   }
   const unmeasured = shownFigures.filter((name) => content.score.keyFigures[name] === null);
   if (!measuredFigures.length) doc.font("regular").fontSize(8).fillColor(muted).text("None of the key figures applies to, or was measured on, this machine; the results follow.", left + 12, doc.y + 2, { width: summaryWidth });
