@@ -103,17 +103,6 @@ export default function Home() {
         </div>
       </section>
 
-      <section className="mx-auto max-w-6xl px-4 pt-14 sm:px-6">
-        <div className="rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
-          <p className="font-bold text-caution">Safety</p>
-          <p className="mt-1">
-            Testing a machine means working beside rotating spindles and chucks, heavy test mandrels and faceplates.
-            Moving a machine takes qualified riggers, and connecting it a licensed electrician. Follow the machine's
-            manual, local codes and licensed practice; guarding and safety compliance of a used machine are the
-            buyer's and seller's responsibility under local rules.
-          </p>
-        </div>
-      </section>
     </>
   );
 }

@@ -1,5 +1,6 @@
 import { Card } from "~/components/ui";
 import type { Route } from "./+types/how-scoring-works";
+import { SafetyCautions } from "~/modules/reports/components/safety";
 
 export const meta: Route.MetaFunction = () => [{ title: "How scoring works — Tenthmark" }];
 
@@ -80,13 +81,8 @@ export default function HowScoringWorks() {
           </div>
         ))}
       </Card>
-      <div className="mt-10 rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
-        <p className="font-bold text-caution">Before any test</p>
-        <p className="mt-1">
-          Take the chuck key out, keep gloves, loose sleeves and hair away from rotating parts, keep guards in place,
-          and lock the machine out before adjusting bearings or gibs. Handle heavy mandrels and faceplates with
-          lifting aids. The machine's manual, local rules and licensed practice come first.
-        </p>
+      <div className="mt-10">
+        <SafetyCautions heading="Before any test: safety" />
       </div>
     </article>
   );

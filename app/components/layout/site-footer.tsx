@@ -4,7 +4,7 @@ import { NameMark } from "./name-mark";
 export function SiteFooter() {
   return (
     <footer className="mt-16 border-t border-ink-200 bg-white">
-      <div className="mx-auto grid max-w-6xl gap-8 px-4 py-10 sm:px-6 md:grid-cols-[1.4fr_1fr_1fr]">
+      <div className="mx-auto grid max-w-6xl gap-8 px-4 py-10 sm:px-6 md:grid-cols-[1.4fr_1fr]">
         <div className="space-y-3">
           <NameMark />
           <p className="max-w-sm text-sm text-ink-600">
@@ -19,13 +19,6 @@ export function SiteFooter() {
             <li><Link className="text-ink-700 hover:text-ink-900" to="/inspectors">Find an inspector</Link></li>
             <li><Link className="text-ink-700 hover:text-ink-900" to="/sell">List a machine</Link></li>
           </ul>
-        </div>
-        <div>
-          <h2 className="text-xs font-bold uppercase tracking-wide text-ink-500">Working safely</h2>
-          <p className="mt-3 text-sm text-ink-600">
-            Moving, wiring and testing machine tools is hazardous work. Follow the machine's manual, local codes
-            and licensed practice; use qualified riggers and a licensed electrician.
-          </p>
         </div>
       </div>
       <div className="border-t border-ink-100 py-4 text-center text-xs text-ink-500">© {new Date().getFullYear()} Tenthmark</div>

@@ -98,7 +98,6 @@ function personalLinks(user: NonNullable<HeaderUser>) {
   if (user.roles.includes("admin")) {
     links.push({ to: "/admin/users", label: "Staff: people" });
     links.push({ to: "/admin/inspector-applications", label: "Staff: inspector applications" });
-    links.push({ to: "/admin/inspector-demand", label: "Staff: inspector demand" });
     links.push({ to: "/admin/payments", label: "Staff: payments" });
   }
   return links;

@@ -8,6 +8,7 @@ import { requireVerifiedUser } from "~/modules/accounts/guards.server";
 import { latestApplicationOf, submitInspectorApplication } from "~/modules/accounts/service.server";
 import { INSPECTION_CATEGORIES, inspectorApplicationSchema } from "~/modules/accounts/validation";
 import type { Route } from "./+types/inspector-application";
+import { SafetyCautions } from "~/modules/reports/components/safety";
 
 export const meta: Route.MetaFunction = () => [{ title: "Inspect machines — Tenthmark" }];
 
@@ -152,16 +153,9 @@ export default function InspectorApplication() {
           ) : null}
         </div>
 
-        <aside className="h-fit rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800">
-          <p className="font-bold text-caution">Working safely at the machine</p>
-          <ul className="mt-2 list-disc space-y-1.5 pl-4">
-            <li>Take the chuck key out; no gloves, loose sleeves or hair near rotating spindles and chucks; guards in place.</li>
-            <li>Lock the machine out before adjusting bearings, gibs or levelling screws.</li>
-            <li>Handle heavy test mandrels and faceplates with lifting aids.</li>
-            <li>Leave moving and rigging to qualified riggers, and electrical connection to a licensed electrician.</li>
-          </ul>
-          <p className="mt-3">The machine's manual, local codes and licensed practice come first.</p>
-        </aside>
+        <div className="h-fit">
+          <SafetyCautions heading="Working safely at the machine" />
+        </div>
       </div>
     </div>
   );

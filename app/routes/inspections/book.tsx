@@ -5,7 +5,7 @@ import { Badge, Button, ButtonLink, Card, CardBody, CardHeader, CheckboxField, c
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
 import { createBookingWithPublicInspector } from "~/modules/inspections/bookings.server";
-import { InspectionSafetyNotice, RefundRules, SlotTime } from "~/modules/inspections/components/parts";
+import { RefundRules, SlotTime } from "~/modules/inspections/components/parts";
 import { BookingRuleError, SlotTakenError } from "~/modules/inspections/errors";
 import { bookingPageFor } from "~/modules/inspections/profiles.server";
 import { bookingRequestSchema, categoryLabel } from "~/modules/inspections/validation";
@@ -166,7 +166,6 @@ export default function BookInspection() {
                 </div>
               )}
             </fieldset>
-            <InspectionSafetyNotice />
           </div>
 
           <aside className="space-y-4 lg:sticky lg:top-24 lg:self-start">

@@ -4,7 +4,7 @@ import { databaseContext } from "~/db/context";
 import { requireUser } from "~/modules/accounts/guards.server";
 import { cancelBookingAsBuyer, getBookingView } from "~/modules/inspections/bookings.server";
 import { BookingFacts, BookingHistory, RefundList } from "~/modules/inspections/components/booking-detail";
-import { InspectionSafetyNotice, RefundRules } from "~/modules/inspections/components/parts";
+import { RefundRules } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { cancelSchema } from "~/modules/inspections/validation";
 import { formatMoney } from "~/modules/units/format";
@@ -105,7 +105,6 @@ export default function BookingPage() {
               <RefundRules />
             </CardBody>
           </Card>
-          <InspectionSafetyNotice compact />
         </aside>
       </div>
     </div>

@@ -285,7 +285,7 @@ export default function InspectorProfileEdit() {
               ) : null}
             </CardBody>
           </Card>
-          <InspectionSafetyNotice compact />
+          <InspectionSafetyNotice />
         </div>
       </div>
     </div>

@@ -1,7 +1,7 @@
 import { data, Link, useLoaderData } from "react-router";
 import { Badge, Card, CardBody, CardHeader } from "~/components/ui";
 import { databaseContext } from "~/db/context";
-import { InspectionSafetyNotice, SlotTime } from "~/modules/inspections/components/parts";
+import { SlotTime } from "~/modules/inspections/components/parts";
 import { getPublicInspector } from "~/modules/inspections/profiles.server";
 import { categoryLabel } from "~/modules/inspections/validation";
 import { formatMoney } from "~/modules/units/format";
@@ -81,7 +81,6 @@ export default function InspectorProfile() {
               </p>
             </CardBody>
           </Card>
-          <InspectionSafetyNotice />
         </aside>
       </div>
     </div>

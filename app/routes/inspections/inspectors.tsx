@@ -3,7 +3,6 @@ import { z } from "zod";
 import { safeText } from "~/modules/validation/text";
 import { Badge, Button, Card, CardBody, SelectField, TextField } from "~/components/ui";
 import { databaseContext } from "~/db/context";
-import { InspectionSafetyNotice } from "~/modules/inspections/components/parts";
 import { listPublicInspectors } from "~/modules/inspections/profiles.server";
 import { categoryLabel, inspectionCategories } from "~/modules/inspections/validation";
 import { formatMoney } from "~/modules/units/format";
@@ -81,7 +80,6 @@ export default function Inspectors() {
         </ul>
       )}
       <div className="mt-10">
-        <InspectionSafetyNotice />
       </div>
     </div>
   );

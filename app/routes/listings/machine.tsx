@@ -152,8 +152,6 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           ) : null}
 
           <RebuildSection rebuild={loaderData.rebuild} units={units} manageUrl={isManager ? `/sell/listings/${listing.id}/rebuild` : null} />
-
-          <SafetyNote />
         </div>
 
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
@@ -292,18 +290,5 @@ function InquiryForm({ listingId }: { listingId: string }) {
         {sending ? "Sending…" : "Send to the seller"}
       </Button>
     </Form>
-  );
-}
-
-function SafetyNote() {
-  return (
-    <aside className="rounded-panel border border-caution/30 bg-caution-soft p-5 text-sm text-ink-800" aria-label="Safety and compliance">
-      <p className="font-bold text-caution">Safety and compliance</p>
-      <p className="mt-1">
-        Have the machine rigged and moved by qualified riggers, and connected by a licensed electrician. Guarding and safety rules for used
-        machines differ from place to place: meeting them is the buyer's and the seller's responsibility under local rules. Follow the
-        machine's manual when you see it run.
-      </p>
-    </aside>
   );
 }

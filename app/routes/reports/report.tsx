@@ -5,7 +5,6 @@ import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { reportAge } from "~/modules/reports/content";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
-import { SafetyCautions } from "~/modules/reports/components/safety";
 import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
 import { getPublicReport, unsealedMessage } from "~/modules/reports/service.server";
@@ -189,8 +188,6 @@ export default function ReportPage() {
             <div className="w-full max-w-56" role="img" aria-label="QR code of the verification page" dangerouslySetInnerHTML={{ __html: qrSvg }} />
           </Card>
         </div>
-
-        <SafetyCautions heading="Safety: how these tests are taken" />
 
         {report.isInspector && report.status === "signed" ? (
           <Card>

@@ -89,8 +89,11 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [location.search, units, attempt]);
 
+  // The compact list view is kept in the address (`view=list`), across filter changes too.
+  const list = searchParams.get("view") === "list";
   function commit(next: SearchDraft = draft) {
     const params = paramsFromDraft(next, units);
+    if (list) params.set("view", "list");
     if (params.toString() === new URLSearchParams(location.search).toString()) return;
     setSearchParams(params, { preventScrollReset: true });
   }
@@ -102,11 +105,12 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
   }
 
   const { search, errors } = answer;
-  const activeFilters = [...searchParams.keys()].filter((key) => !["q", "sort", "page", "perPage", "currency", "units"].includes(key)).length;
-  const pageLink = (page: number) => {
+  const activeFilters = [...searchParams.keys()].filter((key) => !["q", "sort", "page", "perPage", "currency", "units", "view"].includes(key)).length;
+  // The address with one parameter changed; 1 (the first page) and "" (cards) are the defaults, left out.
+  const linkWith = (key: string, value: string | number) => {
     const params = new URLSearchParams(location.search);
-    if (page > 1) params.set("page", String(page));
-    else params.delete("page");
+    if (value && value !== 1) params.set(key, String(value));
+    else params.delete(key);
     return `?${params}`;
   };
 
@@ -207,6 +211,9 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                 {search ? (search.totalHits === 1 ? "1 machine" : `${search.totalHits} machines`) : errors ? "Check the filters" : ""}
                 {search?.summary && search.summary !== "Every machine" ? <span className="font-normal text-ink-500"> · {search.summary}</span> : null}
               </h2>
+              <Link to={linkWith("view", list ? "" : "list")} className="ml-auto hidden text-sm font-semibold underline underline-offset-2 md:block">
+                {list ? "Card view" : "List view"}
+              </Link>
               <label className="flex items-center gap-2 text-sm text-ink-700">
                 Sort
                 <select
@@ -237,7 +244,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             ) : null}
 
             {search && search.hits.length ? (
-              <ul className="mt-4 grid gap-5 sm:grid-cols-2 xl:grid-cols-3" data-testid="results">
+              <ul className="mt-4 grid gap-3 sm:grid-cols-2 sm:gap-5 xl:grid-cols-3" data-view={list ? "list" : "cards"} data-testid="results">
                 {search.hits.map((hit) => (
                   <li key={hit.id}>
                     <ResultCard hit={hit} units={units} now={now} />
@@ -271,7 +278,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             {search && search.totalPages > 1 ? (
               <nav aria-label="Pages" className="mt-8 flex flex-wrap items-center justify-center gap-2">
                 {search.page > 1 ? (
-                  <Link to={pageLink(search.page - 1)} rel="prev" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={linkWith("page", search.page - 1)} rel="prev" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
                     ← Previous
                   </Link>
                 ) : null}
@@ -280,7 +287,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                   .map((page) => (
                     <Link
                       key={page}
-                      to={pageLink(page)}
+                      to={linkWith("page", page)}
                       aria-current={page === search.page ? "page" : undefined}
                       className={cx(
                         "min-w-10 rounded-control px-3 py-2 text-center text-sm font-semibold tabular",
@@ -291,7 +298,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                     </Link>
                   ))}
                 {search.page < search.totalPages ? (
-                  <Link to={pageLink(search.page + 1)} rel="next" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={linkWith("page", search.page + 1)} rel="next" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
                     Next →
                   </Link>
                 ) : null}

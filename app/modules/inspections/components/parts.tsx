@@ -1,5 +1,6 @@
 // Pieces shared by the inspections pages: status badge, times, refund rules and the safety cautions.
 import { Badge } from "~/components/ui";
+import { SafetyCautions } from "~/modules/reports/components/safety";
 import { formatVisit, visitParts, type MachinePlace } from "../local-time";
 import { bookingStatusLabels, bookingStatusTones, refundRulesText, type BookingStatus } from "../rules";
 
@@ -46,18 +47,7 @@ export function RefundRules({ className }: { className?: string }) {
   );
 }
 
-/** The usual cautions wherever inspection work on a machine is described. */
-export function InspectionSafetyNotice({ compact = false }: { compact?: boolean }) {
-  return (
-    <aside className="rounded-panel border border-caution/30 bg-caution-soft p-4 text-sm text-ink-800 sm:p-5" aria-label="Safety">
-      <p className="font-bold text-caution">Safety on site</p>
-      <ul className={compact ? "mt-1 space-y-1" : "mt-2 list-disc space-y-1 pl-5"}>
-        <li>Rotating spindles and chucks: chuck key out, no gloves, loose sleeves or hair near the work, guards in place.</li>
-        <li>Lock the machine out and tag it before any adjustment of bearings, gibs or levelling screws.</li>
-        <li>Test mandrels and faceplates are heavy: use lifting aids, and leave rigging and moving machines to qualified riggers.</li>
-        <li>Electrical connection of a machine is work for a licensed electrician.</li>
-      </ul>
-      <p className="mt-2 text-ink-600">The machine's manual, local rules and licensed practice come first; the inspector may stop a test they judge unsafe.</p>
-    </aside>
-  );
+/** The usual cautions, in full, wherever inspection work on a machine is described (inspectors' pages). */
+export function InspectionSafetyNotice() {
+  return <SafetyCautions heading="Safety on site" />;
 }
