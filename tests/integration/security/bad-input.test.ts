@@ -265,6 +265,15 @@ const targets: Target[] = [
     ),
   },
   {
+    route: "account/watched",
+    path: () => "/account/watched",
+    as: "buyer",
+    payloads: fc.oneof(
+      oneFieldBroken({ intent: "unwatch", listingId: randomUUID() }, { intent: unknownOf(["unwatch", "digest"]), listingId: notAUuid }),
+      oneFieldBroken({ intent: "digest", enabled: "off" }, { enabled: fc.oneof(missing, unknownOf(["on", "off"])) }),
+    ),
+  },
+  {
     route: "machines/:slug/book",
     path: () => `/machines/${slug}/book`,
     as: "buyer",
