@@ -47,6 +47,8 @@ export default [
   route("machines/:slug/book", "routes/inspections/book.tsx"),
   route("bookings", "routes/inspections/buyer-bookings.tsx"),
   route("bookings/:bookingId", "routes/inspections/booking.tsx"),
+  route("bookings/:bookingId/visit", "routes/inspections/visit.ts"),
+  route("bookings/:bookingId/visit.ics", "routes/inspections/visit-calendar.ts"),
   route("bookings/:bookingId/paid", "routes/inspections/checkout-return.tsx"),
   route("bookings/:bookingId/checkout-cancelled", "routes/inspections/checkout-cancelled.tsx"),
   route("inspector/profile", "routes/inspections/inspector-profile-edit.tsx"),

@@ -69,3 +69,18 @@ export function dayAtMachine(instant: Date | string, place?: MachinePlace | null
   // en-CA writes dates as YYYY-MM-DD.
   return new Intl.DateTimeFormat("en-CA", { timeZone: zoneOf(place) ?? "UTC", year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date(instant));
 }
+
+/** A wall-clock day and time where the machine stands (UTC where its zone is unknown), as an instant. */
+export function instantAtMachine(day: string, time: string, place?: MachinePlace | null): Date {
+  const zone = zoneOf(place) ?? "UTC";
+  const wall = Date.parse(`${day}T${time}:00Z`);
+  const parts = new Intl.DateTimeFormat("en-US", { timeZone: zone, hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit" });
+  // The zone's offset at an instant: its wall clock read as if it were UTC, minus the instant.
+  const offsetAt = (instant: number) => {
+    const got = Object.fromEntries(parts.formatToParts(new Date(instant)).map((part) => [part.type, part.value]));
+    return Date.UTC(Number(got.year), Number(got.month) - 1, Number(got.day), Number(got.hour), Number(got.minute), Number(got.second)) - instant;
+  };
+  // Twice, so that a time just across a change of clocks takes the offset that holds then.
+  const first = wall - offsetAt(wall);
+  return new Date(wall - offsetAt(first));
+}

@@ -57,6 +57,7 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
   const seller = machine.sellerId !== booking.buyerId ? person(machine.sellerId) : undefined;
   const origin = env().APP_ORIGIN;
   const buyerLink = { href: `${origin}/bookings/${booking.id}`, label: "Open the booking" };
+  const calendarAddress = `${origin}/bookings/${booking.id}/visit.ics`;
   const receiptAddress = (file: string) => `${origin}/bookings/${booking.id}/receipts/${file}.pdf`;
   const inspectorLink = { href: `${origin}/inspector/bookings/${booking.id}`, label: "Open the request" };
   const what = `${machine.make} ${machine.model} in ${machine.city}`;
@@ -97,7 +98,11 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
         to: buyer.email,
         subject: `Inspection ${ref} accepted for ${formatVisitDate(booking.startsAt, machine)}`,
         heading: "Your inspection is scheduled",
-        paragraphs: [`${inspector.name} accepted the inspection of the ${what} on ${slot}.`],
+        paragraphs: [
+          `${inspector.name} accepted the inspection of the ${what} on ${slot}.`,
+          "The machine's address, the contact on site and the access notes are on the booking page, for you and the inspector only.",
+          `Calendar file (after signing in): ${calendarAddress}`,
+        ],
         action: buyerLink,
         reason: forBuyer,
       });
@@ -109,6 +114,8 @@ export async function sendBookingNotice(db: Executor, bookingId: string, notice:
           paragraphs: [
             `${inspector.name} will inspect the ${what} on ${slot}, booked by ${buyer.name}.`,
             "Please have the machine connected, clean and warmed up, with its manual at hand. Guarding and safety of the machine remain your responsibility under local rules.",
+            `Give the machine's street address, a contact on site and access notes (loading dock, hours) on the booking page: ${origin}/bookings/${booking.id}. Only the buyer and the inspector see them.`,
+            `Calendar file (after signing in): ${calendarAddress}`,
           ],
           reason: forSeller,
         });

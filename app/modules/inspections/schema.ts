@@ -275,3 +275,42 @@ export const payoutAccounts = pgTable("payout_accounts", {
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
 });
+
+/**
+ * Where the machine stands and who lets the inspector in: entered by the seller, read only by the parties to
+ * an accepted booking of it. Its own table, never joined into a listing's public reads, so no public page,
+ * API answer or search document can carry it.
+ */
+export const machineSites = pgTable("machine_sites", {
+  listingId: uuid("listing_id")
+    .primaryKey()
+    .references(() => listings.id, { onDelete: "cascade" }),
+  streetAddress: text("street_address").notNull(),
+  contactName: text("contact_name").notNull(),
+  contactPhone: text("contact_phone").notNull(),
+  accessNotes: text("access_notes").notNull().default(""),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** A request to move an accepted visit, by the buyer or the inspector, which the other side accepts or declines. */
+export const rescheduleRequests = pgTable(
+  "reschedule_requests",
+  {
+    id: text("id")
+      .primaryKey()
+      .default(sql`gen_random_uuid()::text`),
+    bookingId: text("booking_id")
+      .notNull()
+      .references(() => bookings.id, { onDelete: "cascade" }),
+    requestedBy: text("requested_by", { enum: ["buyer", "inspector"] }).notNull(),
+    requesterId: text("requester_id").references(() => user.id, { onDelete: "set null" }),
+    startsAt: timestamp("starts_at", { withTimezone: true }).notNull(),
+    endsAt: timestamp("ends_at", { withTimezone: true }).notNull(),
+    reason: text("reason").notNull().default(""),
+    status: text("status", { enum: ["pending", "accepted", "declined", "withdrawn"] }).notNull().default("pending"),
+    decidedAt: timestamp("decided_at", { withTimezone: true }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  // One open request per booking at a time.
+  (table) => [uniqueIndex("reschedule_requests_one_pending").on(table.bookingId).where(sql`status = 'pending'`)],
+);

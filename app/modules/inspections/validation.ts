@@ -109,3 +109,30 @@ export const adminRefundSchema = z.object({
     .refine((minor) => minor > 0, { error: "Enter an amount above zero" }),
   reason: safeText({ label: "reason", max: 1000, multiline: true }).min(5, { error: "Write down why this refund is given" }),
 });
+
+/** Where the machine stands and who lets the inspector in (the seller's, shown to the booking's parties only). */
+export const machineSiteSchema = z.object({
+  streetAddress: safeName({ label: "street address", max: 300, multiline: true }).refine((value) => value.length >= 5, { error: "Give the street, number, postcode and town." }),
+  contactName: safeName({ label: "contact person", max: 120 }),
+  contactPhone: safeName({ label: "phone number", max: 40 }).refine((value) => /^\+?[0-9][0-9 ()./-]{4,38}$/.test(value), {
+    error: "Give a phone number in digits, e.g. +49 30 1234 5678.",
+  }),
+  accessNotes: safeText({ label: "access notes", max: 1000, multiline: true }).default(""),
+});
+export type MachineSiteInput = z.infer<typeof machineSiteSchema>;
+
+/** A new time for an accepted visit, as a day and start time where the machine stands, and how long. */
+export const rescheduleSchema = z.object({
+  date: z.iso.date({ error: "Choose a day" }),
+  startTime: z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { error: "Enter a start time, e.g. 08:30" }),
+  durationMinutes: z.coerce
+    .number({ error: "Choose a duration" })
+    .int()
+    .refine((minutes) => (SLOT_DURATIONS as readonly number[]).includes(minutes), { error: "Choose a duration" }),
+  reason: safeText({ label: "reason", max: 500, multiline: true }).default(""),
+});
+
+export const rescheduleDecisionSchema = z.object({
+  requestId: formId("request"),
+  decision: z.enum(["accept", "decline", "withdraw"], { error: "Accept, decline or withdraw the request." }),
+});

@@ -5,6 +5,8 @@ import { requireUser } from "~/modules/accounts/guards.server";
 import { cancelBookingAsBuyer, getBookingView } from "~/modules/inspections/bookings.server";
 import { BookingFacts, BookingHistory, RefundList } from "~/modules/inspections/components/booking-detail";
 import { RefundRules } from "~/modules/inspections/components/parts";
+import { VisitCard } from "~/modules/inspections/components/visit-card";
+import { visitLogistics } from "~/modules/inspections/visits.server";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { cancelSchema } from "~/modules/inspections/validation";
 import { formatMoney } from "~/modules/units/format";
@@ -15,7 +17,9 @@ export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ?
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(request);
   try {
-    return { detail: await getBookingView(context.get(databaseContext), params.bookingId, user) };
+    const db = context.get(databaseContext);
+    const detail = await getBookingView(db, params.bookingId, user);
+    return { detail, visit: await visitLogistics(db, params.bookingId, user) };
   } catch (error) {
     if (error instanceof BookingRuleError) throw data(error.message, { status: error.status });
     throw error;
@@ -36,7 +40,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function BookingPage() {
-  const { detail } = useLoaderData<typeof loader>();
+  const { detail, visit } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
   const busy = useNavigation().state !== "idle";
   const { booking } = detail;
@@ -49,6 +53,7 @@ export default function BookingPage() {
       <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="space-y-6">
           <BookingFacts detail={detail} />
+          <VisitCard bookingId={detail.booking.id} visit={visit} />
           <RefundList detail={detail} receipts={detail.role === "buyer"} />
           <BookingHistory detail={detail} />
         </div>

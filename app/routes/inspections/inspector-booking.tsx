@@ -5,6 +5,8 @@ import { databaseContext } from "~/db/context";
 import { requireRole } from "~/modules/accounts/guards.server";
 import { acceptBooking, declineBooking, getBookingView } from "~/modules/inspections/bookings.server";
 import { BookingFacts, BookingHistory } from "~/modules/inspections/components/booking-detail";
+import { VisitCard } from "~/modules/inspections/components/visit-card";
+import { visitLogistics } from "~/modules/inspections/visits.server";
 import { InspectionSafetyNotice } from "~/modules/inspections/components/parts";
 import { BookingRuleError } from "~/modules/inspections/errors";
 import { declineSchema } from "~/modules/inspections/validation";
@@ -18,7 +20,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   try {
     const detail = await getBookingView(context.get(databaseContext), params.bookingId, user);
     if (detail.role !== "inspector") throw data("This request is for another inspector.", { status: 403 });
-    return { detail };
+    return { detail, visit: await visitLogistics(context.get(databaseContext), params.bookingId, user) };
   } catch (error) {
     if (error instanceof BookingRuleError) throw data(error.message, { status: error.status });
     throw error;
@@ -43,7 +45,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function InspectorBooking() {
-  const { detail } = useLoaderData<typeof loader>();
+  const { detail, visit } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
   const busy = useNavigation().state !== "idle";
   const { booking } = detail;
@@ -67,6 +69,7 @@ export default function InspectorBooking() {
       <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="space-y-6">
           <BookingFacts detail={detail} showSplit />
+          <VisitCard bookingId={detail.booking.id} visit={visit} />
           <BookingHistory detail={detail} />
         </div>
         <aside className="space-y-4">

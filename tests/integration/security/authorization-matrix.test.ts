@@ -11,7 +11,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import routeConfig from "~/routes";
 import { getDatabase } from "~/db/client.server";
 import { acceptBooking, createBooking } from "~/modules/inspections/bookings.server";
-import { bookings, inspectorSlots } from "~/modules/inspections/schema";
+import { bookings, inspectorSlots, machineSites } from "~/modules/inspections/schema";
 import { listingDocuments, listingPhotos, listings } from "~/modules/listings/schema";
 import { reportDrafts, reports } from "~/modules/reports/schema";
 import { savedSearches } from "~/modules/search/saved-searches/schema";
@@ -145,6 +145,8 @@ const rowsOf = {
   drafts: (bookingId: string) => db.select().from(reportDrafts).where(eq(reportDrafts.bookingId, bookingId)),
   savedSearch: (id: string) => db.select().from(savedSearches).where(eq(savedSearches.id, id)),
   slot: (id: string) => db.select().from(inspectorSlots).where(eq(inspectorSlots.id, id)),
+  site: (bookingId: string) =>
+    db.select({ site: machineSites }).from(machineSites).innerJoin(bookings, eq(bookings.listingId, machineSites.listingId)).where(eq(bookings.id, bookingId)),
 };
 
 // ————— The table —————
@@ -455,6 +457,34 @@ const table: Record<string, RouteRow> = {
         unchanged: () => rowsOf.booking(fx.bookingId),
       },
     ],
+  },
+  // The visit's logistics: the seller gives the site, the buyer and the inspector move the visit; others are not parties.
+  "bookings/:bookingId/visit": {
+    get: everyone(405),
+    actions: [
+      {
+        intent: "save the machine's site",
+        body: () => ({ form: { intent: "site", streetAddress: "Werkstrasse 4, 15234 Brennwald", contactName: "Jo Ulm", contactPhone: "+49 30 1234 567", accessNotes: "Gate 2" } }),
+        expect: by({ visitor: "sign-in", sellerA: 200, buyer: 403, inspectorA: 403, admin: 403, rest: 404 }),
+        unchanged: () => rowsOf.site(fx.bookingId),
+      },
+      {
+        intent: "propose a time in the past",
+        body: () => ({ form: { intent: "reschedule", date: "2020-01-06", startTime: "09:00", durationMinutes: "240" } }),
+        expect: by({ visitor: "sign-in", buyer: 422, inspectorA: 422, sellerA: 403, admin: 403, rest: 404 }),
+        unchanged: () => rowsOf.booking(fx.bookingId),
+      },
+      {
+        intent: "answer a request that does not exist",
+        body: () => ({ form: { intent: "decide", requestId: randomUUID(), decision: "accept" } }),
+        expect: by({ visitor: "sign-in", buyer: 404, inspectorA: 404, sellerA: 403, admin: 403, rest: 404 }),
+        unchanged: () => rowsOf.booking(fx.bookingId),
+      },
+    ],
+  },
+  "bookings/:bookingId/visit.ics": {
+    get: by({ visitor: "sign-in", buyer: 200, sellerA: 200, inspectorA: 200, admin: 200, rest: 404 }),
+    actions: "none",
   },
   "bookings/:bookingId/paid": {
     get: by({ visitor: "sign-in", buyer: 200, rest: 403 }),

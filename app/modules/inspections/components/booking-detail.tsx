@@ -62,6 +62,11 @@ const historyWords: Record<string, string> = {
   share_reversed: "Part of the inspector's share taken back",
   payout_failed: "Transfer to the inspector failed — staff notified",
   completed: "Inspection completed",
+  reschedule_requested_by_buyer: "The buyer asked to move the visit",
+  reschedule_requested_by_inspector: "The inspector asked to move the visit",
+  reschedule_accepted: "Visit moved to the new time",
+  reschedule_declined: "Request to move the visit declined",
+  reschedule_withdrawn: "Request to move the visit withdrawn",
 };
 
 /** A refund's state in the buyer's words. */
