@@ -281,6 +281,33 @@ const targets: Target[] = [
   },
   { route: "bookings/:bookingId", path: () => `/bookings/${bookingId}`, as: "buyer", payloads: fc.oneof(fc.oneof(huge(1_000), junkText).map((reason): Payload => ({ form: { reason } })), wrongContentType({ reason: "x" })) },
   {
+    route: "bookings/:bookingId/visit",
+    path: () => `/bookings/${bookingId}/visit`,
+    as: "seller",
+    payloads: fc.oneof(
+      unknownOf(["site", "reschedule", "decide"]).map((intent): Payload => ({ form: { intent } })),
+      oneFieldBroken(
+        { intent: "site", streetAddress: "Quellweg 12, 15234 Brennwald", contactName: "Jo Ulm", contactPhone: "+49 30 1234 567", accessNotes: "Gate 2" },
+        { streetAddress: requiredName(300), contactName: requiredName(120), contactPhone: fc.oneof(requiredName(40), fc.constantFrom("call me", "++", "0")), accessNotes: optionalText(1_000) },
+      ),
+      wrongContentType({ intent: "site", streetAddress: "Quellweg 12, 15234 Brennwald", contactName: "Jo Ulm", contactPhone: "+49 30 1234 567" }),
+    ),
+  },
+  {
+    route: "bookings/:bookingId/visit",
+    path: () => `/bookings/${bookingId}/visit`,
+    as: "buyer",
+    payloads: fc.oneof(
+      // A day long past, so that even the fields left whole are refused.
+      oneFieldBroken(
+        { intent: "reschedule", date: "2020-01-06", startTime: "09:00", durationMinutes: "240", reason: "" },
+        { date: fc.oneof(missing, fc.constantFrom("", "2031-13-01", "tomorrow")), startTime: fc.oneof(missing, fc.constantFrom("25:00", "9", "")), durationMinutes: badNumber(120, 480), reason: optionalText(500) },
+      ),
+      oneFieldBroken({ intent: "decide", requestId: randomUUID(), decision: "accept" }, { requestId: fc.oneof(notAUuid, junkText), decision: fc.oneof(missing, unknownOf(["accept", "decline", "withdraw"])) }),
+      wrongContentType({ intent: "reschedule", date: "2020-01-06", startTime: "09:00", durationMinutes: "240" }),
+    ),
+  },
+  {
     route: "inspector/bookings/:bookingId",
     path: () => `/inspector/bookings/${bookingId}`,
     as: "inspector",
