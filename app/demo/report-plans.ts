@@ -24,6 +24,8 @@ export type DemoReportPlan = {
   seed: number;
   conditions: { ambientTemperatureC: string; warmUpMinutes: string; levelled: "yes" | "no"; notes: string };
   notes: string;
+  /** The profile, when not a centre lathe's (a lathe's class follows its instruments). */
+  profileKey?: string;
   /** Why this profile, when none is suggested for the machine's category. */
   profileReason?: string;
   /** Notes on single tests, as the inspector wrote them. */
@@ -177,6 +179,40 @@ export const demoReportPlans: DemoReportPlan[] = [
     notes: "A careful rebuild: run-out, axial slip and alignment all at a fraction of their tolerance.",
     fresh: true,
   },
+
+  // ————— Milling machines and surface grinders: tables read as grids —————
+  {
+    model: "FK 3 Knee Mill", grade: "A", inspector: "mirelle", booker: "buyer", measuredDaysAgo: 14, instruments: "metric", seed: 3410, profileKey: "knee-mill-normal",
+    machine: { travel: 700, crossTravel: 250, table: { length: 1100, width: 260 }, band: A },
+    conditions: workshop("19.5", "30", "Dealer's workshop; the mill stands on its levelling pads, checked with the level first."),
+    notes: "Reground table and ways show: the table is flat to a third of its tolerance and the travels are square.",
+    testNotes: { "M-TABLE-FLAT": "Read with the indicator on the spindle head, 4 rows by 7 columns, clear of the T-slots." },
+  },
+  {
+    model: "FV 5 Vertical", grade: "B", inspector: "mirelle", booker: "rafe", measuredDaysAgo: 52, instruments: "metric", seed: 5085, profileKey: "knee-mill-normal",
+    machine: { travel: 600, crossTravel: 250, table: { length: 1000, width: 250 }, band: B, ratios: { "M-XY-SQ": 0.7, "M-TABLE-FLAT": 0.6 } },
+    conditions: workshop("18.0", "25", "Seller's own workshop."),
+    notes: "Sound machine. The table is worn a little hollow where the vice sits, and the cross travel is off square by most of half its tolerance.",
+  },
+  {
+    model: "UW 4 Universal", grade: "C", inspector: "beckstrand", booker: "greta", measuredDaysAgo: 33, instruments: "metric", seed: 4920, profileKey: "knee-mill-normal",
+    machine: { travel: 800, crossTravel: 250, table: { length: 1200, width: 280 }, band: B, ratios: { "M-TABLE-FLAT": 1.25 } },
+    conditions: workshop("17.5", "30", "Dealer's showroom; heating on since the morning."),
+    notes: "Spindle and travels good. The table is worn hollow in the middle beyond its tolerance: a regrind, or work clear of the middle.",
+    testNotes: { "M-TABLE-FLAT": "Hollow of the table centred about 550 mm from the left end; old vice position." },
+  },
+  {
+    model: "SG 618", grade: "A", inspector: "renner", booker: "dealer", measuredDaysAgo: 27, instruments: "precision", seed: 618, profileKey: "surface-grinder-normal",
+    machine: { travel: 450, crossTravel: 150, table: { length: 450, width: 150 }, band: A },
+    conditions: workshop("20.0", "45", "Tested with the magnetic chuck on, after 45 minutes of the spindle and table running."),
+    notes: "Rebuilt spindle and scraped ways: every test within half its tolerance; the chuck is flat to a few micrometres.",
+  },
+  {
+    model: "SG 1020 Hydraulic", grade: "B", inspector: "beckstrand", booker: "buyer", measuredDaysAgo: 75, instruments: "precision", seed: 1020, profileKey: "surface-grinder-normal",
+    machine: { travel: 500, crossTravel: 250, table: { length: 500, width: 250 }, band: B, ratios: { "G-HEAD-SQ": 0.7, "G-SP-RUN": 0.6 } },
+    conditions: workshop("18.5", "40", "Die shop, machine in its place of work."),
+    notes: "Within tolerance throughout; the wheelhead's travel leans a little off square, within its tolerance.",
+  },
 ];
 
 export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | undefined, measuredOn: Date, notes: string) {
@@ -184,7 +220,7 @@ export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | u
   const machine: DemoMachine = {
     ...plan.machine,
     ratios: ratios ?? plan.machine.ratios,
-    profileKey: plan.instruments === "precision" ? "centre-lathe-precision" : "centre-lathe-normal",
+    profileKey: plan.profileKey ?? (plan.instruments === "precision" ? "centre-lathe-precision" : "centre-lathe-normal"),
     units: set.units,
     indicatorResolution: set.indicator,
     levelResolution: set.level,
@@ -203,6 +239,7 @@ export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | u
       code,
       {
         ...entryOf(measurement, measurement.kind === "level" || (code === "L-BED-V" && set.bed) ? "i2" : "i1", ratios ? "" : (plan.testNotes?.[code] ?? "")),
+        // A table is read as a grid with the indicator: the grid's own spacing is in the listing's table.
         // The bed's heights come from the level: their step is given on the test, as the form allows.
         ...(code === "L-BED-V" && set.bed ? { resolution: String(set.bed) } : {}),
       },

@@ -3,6 +3,7 @@
 // machines read alike. Pure: the seed and the unit tests both use it, and both check the grade it scores to.
 import {
   BUILT_IN_PROFILES,
+  flatnessDeviation,
   newestVersions,
   KINDS_FOR_METHOD,
   scoreReport,
@@ -16,6 +17,7 @@ import {
   type ToleranceProfile,
 } from "~/geometry";
 import type { EntryUnits, TestEntry } from "~/modules/reports/form";
+import { gridFromPoints } from "~/modules/reports/grid-entry";
 
 const MICROMETRES_PER_INCH = 25_400;
 const MILLIMETRES_PER_INCH = 25.4;
@@ -39,6 +41,8 @@ export type DemoMachine = {
   travel: number;
   /** Cross-slide travel read for squareness, in the entry's length unit. */
   crossTravel: number;
+  /** A mill's or grinder's table (or chuck), length × width in the entry's length unit, read as a grid for flatness. */
+  table?: { length: number; width: number };
   /** The indicator's smallest step, in the entry's reading unit (µm or in). */
   indicatorResolution: number;
   /** The level's smallest step, µm/m. */
@@ -194,6 +198,25 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
         measurements[test.code] = { kind: "centre-height", headstockEnd: reading(zero), tailstockEnd: reading(zero + rise) };
         break;
       }
+      case "flatness": {
+        // A table worn hollow in the middle of its length (where the vice sits), with a little twist: read on a
+        // grid of 4 rows × 7 columns, scaled so the minimum-zone width is the chosen share of the tolerance.
+        const table = machine.table ?? { length: machine.travel, width: machine.crossTravel };
+        const tolerance = toleranceAt(test.tolerance, lengthMm(table.length), test.measuringLength.nominal, profile.rules);
+        const rows = 4;
+        const columns = 7;
+        const twist = between(-0.3, 0.3);
+        const places = Array.from({ length: rows * columns }, (_, k) => {
+          const s = (k % columns) / (columns - 1);
+          const t = Math.floor(k / columns) / (rows - 1);
+          return { s, t, x: round((table.length * (k % columns)) / (columns - 1)), y: round((table.width * Math.floor(k / columns)) / (rows - 1)) };
+        });
+        const shape = places.map(({ s, t }) => -4 * s * (1 - s) + twist * (s - 0.5) * (t - 0.5) + between(-0.05, 0.05));
+        const unit = flatnessDeviation(places.map((p, k) => ({ x: p.x * scale.station, y: p.y * scale.station, z: shape[k]! })), "minimum-zone");
+        const counts = (Math.abs(ratio) * tolerance) / stepUm / (unit || 1);
+        measurements[test.code] = { kind: "surface", points: places.map((p, k) => ({ x: p.x, y: p.y, z: reading(Math.round(shape[k]! * counts)) })) };
+        break;
+      }
     }
   }
   return { profile, measurements };
@@ -233,6 +256,7 @@ export function entryOf(measurement: TestMeasurement, instrumentId: string, note
   const base = { instrumentId, notes };
   switch (measurement.kind) {
     case "surface":
+      return { ...base, kind: "surface", grid: gridFromPoints(measurement.points)! };
     case "positioning":
     case "circular":
       throw new Error(`Readings of kind ${measurement.kind} are not typed into the form as text.`);

@@ -100,9 +100,13 @@ describe("the demo scenario on a fresh database", () => {
     expect(currencies).toBeGreaterThanOrEqual(3);
   });
 
-  it("has fifteen signed reports across every grade, one past twelve months, and a corrected revision", async () => {
+  it("has twenty signed reports across every grade (mills and grinders among them), one past twelve months, and a corrected revision", async () => {
     const signed = await rows<{ grade: string; measured_on: string }>("select grade, measured_on::text from reports where status = 'signed'");
-    expect(signed).toHaveLength(15);
+    expect(signed).toHaveLength(20);
+    const tables = await rows<{ profile_key: string; flat: number }>(
+      "select profile_key, count(*)::int as flat from reports where status = 'signed' and key_figures ->> 'tableFlatness' is not null group by profile_key order by profile_key",
+    );
+    expect(tables).toEqual([{ profile_key: "knee-mill-normal", flat: 3 }, { profile_key: "surface-grinder-normal", flat: 2 }]);
     expect([...new Set(signed.map((row) => row.grade))].sort()).toEqual(["A", "B", "C", "D", "incomplete"]);
     const [{ old }] = await rows<{ old: number }>("select count(*)::int as old from reports where status = 'signed' and measured_on < current_date - interval '12 months'");
     expect(old).toBeGreaterThanOrEqual(1);

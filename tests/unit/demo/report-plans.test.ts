@@ -22,8 +22,10 @@ function scoreAsServer(form: unknown) {
 }
 
 describe("demo report plans", () => {
-  it("has fifteen reports, each grade at least once, one corrected and one over twelve months old", () => {
-    expect(demoReportPlans).toHaveLength(15);
+  it("has twenty reports, each grade at least once, mills and grinders among them, one corrected and one over twelve months old", () => {
+    expect(demoReportPlans).toHaveLength(20);
+    expect(demoReportPlans.filter((plan) => plan.profileKey === "knee-mill-normal")).toHaveLength(3);
+    expect(demoReportPlans.filter((plan) => plan.profileKey === "surface-grinder-normal")).toHaveLength(2);
     for (const grade of ["A", "B", "C", "D", "incomplete"]) expect(demoReportPlans.some((plan) => plan.grade === grade), grade).toBe(true);
     expect(demoReportPlans.filter((plan) => plan.correction)).toHaveLength(1);
     expect(demoReportPlans.some((plan) => plan.measuredDaysAgo > 366)).toBe(true);
