@@ -182,7 +182,7 @@ export const demoReportPlans: DemoReportPlan[] = [
 
   // ————— Milling machines and surface grinders: tables read as grids —————
   {
-    model: "FK 3 Knee Mill", grade: "A", inspector: "mirelle", booker: "buyer", measuredDaysAgo: 14, instruments: "metric", seed: 3410, profileKey: "knee-mill-normal",
+    model: "FK 3 Knee Mill", grade: "A", inspector: "beckstrand", booker: "buyer", measuredDaysAgo: 14, instruments: "metric", seed: 3410, profileKey: "knee-mill-normal",
     machine: { travel: 700, crossTravel: 250, table: { length: 1100, width: 260 }, band: A },
     conditions: workshop("19.5", "30", "Dealer's workshop; the mill stands on its levelling pads, checked with the level first."),
     notes: "Reground table and ways show: the table is flat to a third of its tolerance and the travels are square.",
@@ -202,14 +202,14 @@ export const demoReportPlans: DemoReportPlan[] = [
     testNotes: { "M-TABLE-FLAT": "Hollow of the table centred about 550 mm from the left end; old vice position." },
   },
   {
-    model: "SG 618", grade: "A", inspector: "renner", booker: "dealer", measuredDaysAgo: 27, instruments: "precision", seed: 618, profileKey: "surface-grinder-normal",
-    machine: { travel: 450, crossTravel: 150, table: { length: 450, width: 150 }, band: A },
+    model: "SG 618", grade: "A", inspector: "beckstrand", booker: "dealer", measuredDaysAgo: 27, instruments: "precision", seed: 618, profileKey: "surface-grinder-normal",
+    machine: { travel: 450, crossTravel: 150, table: { length: 450, width: 150 }, band: A, optional: ["G-CHUCK-FLAT"] },
     conditions: workshop("20.0", "45", "Tested with the magnetic chuck on, after 45 minutes of the spindle and table running."),
     notes: "Rebuilt spindle and scraped ways: every test within half its tolerance; the chuck is flat to a few micrometres.",
   },
   {
     model: "SG 1020 Hydraulic", grade: "B", inspector: "beckstrand", booker: "buyer", measuredDaysAgo: 75, instruments: "precision", seed: 1020, profileKey: "surface-grinder-normal",
-    machine: { travel: 500, crossTravel: 250, table: { length: 500, width: 250 }, band: B, ratios: { "G-HEAD-SQ": 0.7, "G-SP-RUN": 0.6 } },
+    machine: { travel: 500, crossTravel: 250, table: { length: 500, width: 250 }, band: B, ratios: { "G-HEAD-SQ": 0.7, "G-SP-RUN": 0.6 }, optional: ["G-CHUCK-FLAT"] },
     conditions: workshop("18.5", "40", "Die shop, machine in its place of work."),
     notes: "Within tolerance throughout; the wheelhead's travel leans a little off square, within its tolerance.",
   },

@@ -31,7 +31,10 @@ async function waitForStatus(bookingId: string, status: string) {
  * A published centre lathe (330 mm swing, 1000 mm between centres), a certified inspector serving its
  * region, and a buyer's booking of that inspector, paid on the stand-in and accepted.
  */
-export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string; swingOverBedMm?: number } = {}) {
+export async function acceptedBooking(
+  options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string; swingOverBedMm?: number; category?: "centre_lathe" | "milling_machine" } = {},
+) {
+  const category = options.category ?? "centre_lathe";
   const region = `Oderland ${randomUUID().slice(0, 6)}`;
   const inspector = await createTestUser({ roles: ["inspector"], inspectorStatus: "certified", name: "Aldo Verrin", displayUnits: options.inspectorUnits });
   await saveProfile(db, inspector.id, {
@@ -41,8 +44,8 @@ export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch";
     baseCity: "Brennwald",
     regions: [region],
     currency: "EUR",
-    categories: ["centre_lathe"],
-    feeMinorByCategory: { centre_lathe: 38_000 },
+    categories: [category],
+    feeMinorByCategory: { [category]: 38_000 },
   });
   const startsAt = addHours(addDays(new Date(), 7), Math.floor(Math.random() * 200));
   const [slot] = await db.insert(inspectorSlots).values({ inspectorId: inspector.id, startsAt, endsAt: addHours(startsAt, 4) }).returning();
@@ -54,7 +57,7 @@ export async function acceptedBooking(options: { inspectorUnits?: "mm" | "inch";
       sellerId: seller.id,
       slug,
       status: "published",
-      category: "centre_lathe",
+      category,
       make: options.make ?? "Tessmar",
       model: options.model ?? "DL 330",
       year: 1991,
@@ -127,6 +130,25 @@ export function completeForm(overrides: Partial<Record<string, Record<string, un
     notes: "Test report.",
     safetyAcknowledged: true,
   };
+}
+
+/** Every test of knee-mill-normal v1 within tolerance except the table's flatness, which the browser test pastes in. */
+export function millForm() {
+  const form = completeForm();
+  form.profile = { key: "knee-mill-normal", version: 1, reason: "" };
+  form.tests = {
+    "M-TABLE-X": { kind: "profile", points: rows([0, 0], [300, 3], [600, 5]), instrumentId: "i1" },
+    "M-TABLE-Y": { kind: "profile", points: rows([0, 0], [100, 2], [200, 3]), instrumentId: "i1" },
+    "M-X-STR": { kind: "profile", points: rows([0, 0], [200, 3], [400, 4], [600, 0]), instrumentId: "i1" },
+    "M-XY-SQ": { kind: "profile", points: rows([0, 0], [100, 2], [200, 3], [300, 5]), instrumentId: "i1" },
+    "M-Z-SQ": { kind: "profile", points: rows([0, 0], [100, 2], [200, 4], [300, 5]), instrumentId: "i1" },
+    "M-SLOT": { kind: "profile", points: rows([0, 0], [300, 4], [600, 6]), instrumentId: "i1" },
+    "M-SP-NOSE": { kind: "extremes", max: "4", min: "0", instrumentId: "i1" },
+    "M-SP-300": { kind: "extremes", max: "8", min: "0", instrumentId: "i1" },
+    "M-SP-SLIP": { kind: "extremes", max: "3", min: "0", instrumentId: "i1" },
+    "M-SP-TABLE": { kind: "near-far", near: "0", far: "6", instrumentId: "i1" },
+  };
+  return form;
 }
 
 function rows(...pairs: Array<[number, number]>) {
