@@ -9,3 +9,4 @@ export * from "../modules/search/schema";
 export * from "../modules/profiles/schema";
 export * from "../modules/demand/schema";
 export * from "../modules/rebuilds/schema";
+export * from "../modules/machines/schema";

@@ -1,6 +1,6 @@
 // The seller's rebuild record: readings as found and as rebuilt on the report form's own test cards, scored live by
 // the same engine, then the work done. The server scores again on save.
-import { useMemo, useState } from "react";
+import { useMemo, useState, type ReactNode } from "react";
 import { Form, Link, useNavigation } from "react-router";
 import { KINDS_FOR_METHOD, type ToleranceProfile } from "~/geometry";
 import { Badge, Button, CheckboxField, SelectField, TextAreaField, TextField } from "~/components/ui";
@@ -31,7 +31,9 @@ export function RebuildEntry({
   initial,
   status,
   errors,
+  machine,
 }: {
+  machine?: ReactNode;
   listing: { id: string; slug: string; title: string; categoryLabel: string; status: string };
   profiles: ToleranceProfile[];
   initial: RebuildForm;
@@ -66,6 +68,7 @@ export function RebuildEntry({
         </Link>
         .
       </p>
+      {machine}
       {status === "published" ? (
         <p className="mt-3">
           <Badge tone="within">Published on the listing</Badge>

@@ -10,7 +10,9 @@ import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/acc
 import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
+import { MachineHistorySection } from "~/components/machines/machine-history";
 import { RebuildSection } from "~/components/rebuilds/rebuild-panel";
+import { machineHistory } from "~/modules/machines/service.server";
 import { publicRebuildForListing } from "~/modules/rebuilds/service.server";
 import { VerifiedAccuracyPanel } from "~/modules/reports/components/listing-accuracy";
 import { currentReportForListing, type ListingReportSummary } from "~/modules/reports/service.server";
@@ -32,7 +34,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
   const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
   const rebuild = await publicRebuildForListing(context.get(databaseContext), found.listing.id);
-  return { ...found, accuracy, rebuild, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
+  const history = await machineHistory(context.get(databaseContext), found.listing.id);
+  return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
@@ -152,6 +155,8 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           ) : null}
 
           <RebuildSection rebuild={loaderData.rebuild} units={units} manageUrl={isManager ? `/sell/listings/${listing.id}/rebuild` : null} />
+
+          <MachineHistorySection history={loaderData.history} units={units} />
         </div>
 
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">

@@ -2,25 +2,49 @@ import { data, redirect } from "react-router";
 import { RebuildEntry } from "~/components/rebuilds/rebuild-entry";
 import { databaseContext } from "~/db/context";
 import { requireSeller } from "~/modules/listings/access.server";
+import { MachineMatchCard } from "~/components/machines/machine-match";
+import { hasRole } from "~/modules/accounts/guards.server";
+import { listings } from "~/modules/listings/schema";
+import { confirmMatch, linkedListings, MachineRuleError, refuseMatch, splitListing, suggestedMatches } from "~/modules/machines/service.server";
 import { getRebuildEditor, RebuildRuleError, saveRebuild } from "~/modules/rebuilds/service.server";
+import { eq } from "drizzle-orm";
 import type { Route } from "./+types/sell-rebuild";
 
 export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ? `Rebuild record: ${loaded.listing.title} — Tenthmark` : "Rebuild record — Tenthmark" }];
 
 function refused(error: unknown): never {
-  if (error instanceof RebuildRuleError) throw data(error.message, { status: error.status });
+  if (error instanceof RebuildRuleError || error instanceof MachineRuleError) throw data(error.message, { status: error.status });
   throw error;
 }
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const seller = await requireSeller(request);
-  return getRebuildEditor(context.get(databaseContext), seller, params.listingId).catch(refused);
+  const db = context.get(databaseContext);
+  const editor = await getRebuildEditor(db, seller, params.listingId).catch(refused);
+  const [listing] = await db.select().from(listings).where(eq(listings.id, editor.listing.id));
+  return {
+    ...editor,
+    machine: { suggestions: await suggestedMatches(db, listing!), linked: await linkedListings(db, listing!.id), isStaff: hasRole(seller, "admin") },
+  };
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const seller = await requireSeller(request);
   const formData = await request.formData();
   const intent = formData.get("intent");
+  if (intent === "confirm-machine" || intent === "refuse-machine" || intent === "split-machine") {
+    const db = context.get(databaseContext);
+    const other = String(formData.get("otherListingId") ?? "");
+    try {
+      if (intent === "confirm-machine") await confirmMatch(db, seller, params.listingId, other);
+      else if (intent === "refuse-machine") await refuseMatch(db, seller, params.listingId, other);
+      else await splitListing(db, seller, params.listingId);
+    } catch (error) {
+      if (error instanceof MachineRuleError) return data({ errors: { machine: [error.message] } }, { status: error.status });
+      throw error;
+    }
+    return { errors: null, saved: false };
+  }
   if (intent !== "save" && intent !== "publish") return data({ errors: { form: ["Choose to save a draft or to publish."] } }, { status: 400 });
   const text = formData.get("form");
   if (typeof text !== "string" || text.length > 500_000) return data({ errors: { form: ["The form could not be read. Reload the page and try again."] } }, { status: 400 });
@@ -40,8 +64,15 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function SellRebuild({ loaderData, actionData }: Route.ComponentProps) {
+  const machineErrors = (actionData?.errors as Record<string, string[]> | null)?.machine;
   return (
     <RebuildEntry
+      machine={
+        <>
+          {machineErrors ? <p className="mt-4 font-medium text-beyond">{machineErrors.join(" ")}</p> : null}
+          <MachineMatchCard suggestions={loaderData.machine.suggestions} linked={loaderData.machine.linked} isStaff={loaderData.machine.isStaff} />
+        </>
+      }
       listing={loaderData.listing}
       profiles={loaderData.profiles}
       initial={loaderData.form}
