@@ -13,7 +13,8 @@ import { listings } from "~/modules/listings/schema";
 import { acceptBooking, cancelBookingAsBuyer, createBooking, declineBooking, releaseLapsedCheckouts } from "~/modules/inspections/bookings.server";
 import { getPayoutAccount, refreshPayoutAccount, startPayoutOnboarding } from "~/modules/inspections/payouts.server";
 import { freeSlots, saveProfile } from "~/modules/inspections/profiles.server";
-import { bookingEvents, bookingRefunds, bookings, inspectorSlots, payouts } from "~/modules/inspections/schema";
+import { bookingEvents, bookingRefunds, bookings, inspectorSlots, machineSites, payouts } from "~/modules/inspections/schema";
+import { requestReschedule } from "~/modules/inspections/visits.server";
 import { handleStripeEvent } from "~/modules/inspections/webhook.server";
 
 export type DemoPerson = { id: string; email: string; name: string };
@@ -137,6 +138,12 @@ export async function backdateBooking(db: Database, bookingId: string, at: { req
 
 type BookingPeople = { buyer: DemoPerson; otherBuyers: [DemoPerson, DemoPerson] };
 
+/** The seller's site details for the machine of a demo booking. */
+async function addDemoSite(db: Database, bookingId: string, site: { streetAddress: string; contactName: string; contactPhone: string; accessNotes: string }) {
+  const [row] = await db.select({ listingId: bookings.listingId }).from(bookings).where(eq(bookings.id, bookingId));
+  await db.insert(machineSites).values({ listingId: row!.listingId, ...site }).onConflictDoNothing();
+}
+
 async function slugOf(db: Database, model: string) {
   const [row] = await db.select({ slug: listings.slug }).from(listings).where(and(eq(listings.model, model), eq(listings.status, "published")));
   if (!row) throw new Error(`demo listing ${model} is missing or not published`);
@@ -214,6 +221,13 @@ export async function seedDemoInspections(inspectors: Record<DemoInspectorKey, D
   await acceptBooking(db, inspectors.beckstrand, north.bookingId);
   await backdateBooking(db, north.bookingId, { requested: north.requestedAt, paid: addMinutes(north.requestedAt, 5), accepted: addHours(north.requestedAt, 6) });
   made.push(north.bookingId);
+
+  // Where the two scheduled machines stand and whom to ask for (invented addresses), and a new time the buyer of
+  // the demo inspector's visit has proposed, waiting for the inspector's answer.
+  await addDemoSite(db, forRenner.bookingId, { streetAddress: "Kiln Row 7, Unit 4\nHarrowgate Trading Estate", contactName: "Pell Odegaard", contactPhone: "+44 113 496 0712", accessNotes: "Roller door on the east side; open 07:30–16:00, Friday until 13:00. Ask at the goods-in window." });
+  await addDemoSite(db, north.bookingId, { streetAddress: "Fjellveien 41\n9516 Nordvik", contactName: "Sigrun Tvedt", contactPhone: "+47 784 49 213", accessNotes: "Loading dock behind the blue hall; forklift on site. Ring on arrival." });
+  const proposed = addDays(today, 24);
+  await requestReschedule(db, { ...rafe, roles: [] }, forRenner.bookingId, { date: proposed.toISOString().slice(0, 10), startTime: "09:00", durationMinutes: 240, reason: "The machine is moved to the front bay that week; the following one suits better." }, now);
 
   // Declined by the inspector: refunded in full.
   const declined = await book(buyer, "beckstrand", "OK-42 Turn", { pay: true, skip: 1, requestedDaysAgo: 2 });
