@@ -76,7 +76,8 @@ export async function visitLogistics(db: Executor, bookingId: string, viewer: Vi
     canEditSite: role === "seller" && !["declined", "refunded", "cancelled", "expired", "closed"].includes(status),
     calendarUrl: status === "accepted" ? `/bookings/${bookingId}/visit.ics` : null,
     place: { city: row.listing.city, region: row.listing.region, country: row.listing.country },
-    reschedule: pending
+    // A request left open when the booking was cancelled or reported on is moot.
+    reschedule: pending && status === "accepted"
       ? {
           id: pending.id,
           requestedBy: pending.requestedBy,
