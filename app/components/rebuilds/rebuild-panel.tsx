@@ -78,7 +78,8 @@ export function RebuildSection({ rebuild, units, manageUrl }: { rebuild: PublicR
       <p className="text-sm text-ink-600">
         As found {rebuild.asFoundOn ? formatAbsoluteDate(rebuild.asFoundOn) : "(undated)"} · as rebuilt {rebuild.asRebuiltOn ? formatAbsoluteDate(rebuild.asRebuiltOn) : "(undated)"} · scored against {rebuild.profileTitle}
       </p>
-      <div className="overflow-x-auto rounded-panel border border-ink-200 bg-white">
+      {/* Positioned, so the table's visually hidden captions are clipped by this scroll box instead of widening the page. */}
+      <div className="relative overflow-x-auto rounded-panel border border-ink-200 bg-white">
         <table className="w-full min-w-[36rem] text-sm">
           <caption className="sr-only">Each test as found and as rebuilt</caption>
           <thead className="bg-ink-50 text-left text-xs uppercase tracking-wide text-ink-500">
