@@ -357,6 +357,18 @@ const targets: Target[] = [
     payloads: fc.oneof(junkText, longInQuery(80)).map((region): Payload => ({ method: "GET", query: `?${new URLSearchParams({ region })}` })),
   },
   {
+    route: "sell/listings/:listingId/rebuild",
+    path: () => `/sell/listings/${listingId}/rebuild`,
+    as: "seller",
+    payloads: fc.oneof(
+      malformedJson.map((form): Payload => ({ form: { intent: "save", form } })),
+      wrongJsonShapes.map((body): Payload => ({ form: { intent: "publish", form: JSON.stringify((JSON.parse(body) as { form?: unknown } | null)?.form ?? null) } })),
+      fc.constant<Payload>({ form: { intent: "save", form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, asFound: { tests: { "L-SP-NOSE": { kind: "sweep", readings: ["1e999", "0"] } } }, asRebuilt: {}, notes: "\u0000" }) } }),
+      oneFieldBroken({ intent: "confirm-machine", otherListingId: randomUUID() }, { intent: unknownOf(["save", "publish", "confirm-machine", "refuse-machine", "split-machine"]), otherListingId: notAUuid }),
+      wrongContentType({ intent: "save", form: "{}" }),
+    ),
+  },
+  {
     route: "inspector/bookings/:bookingId/report",
     path: draft,
     as: "inspector",
