@@ -90,6 +90,8 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
           <TextField label={`Swing over bed (${length})`} hint="Largest diameter that clears the bed; needed for lathes" {...numeric} {...field("swingOverBed")} />
           <TextField label={`Distance between centres (${length})`} hint="Needed for lathes" {...numeric} {...field("distanceBetweenCentres")} />
           <TextField label={`Spindle bore (${length})`} hint="Optional" {...numeric} {...field("spindleBore")} />
+          <TextField label={`Table length (${length})`} hint="Working surface, for mills and grinders; chooses the tolerance profile" {...numeric} {...field("tableLength")} />
+          <TextField label={`Table width (${length})`} hint="For mills and grinders" {...numeric} {...field("tableWidth")} />
           <TextField label="Spindle nose" hint="e.g. D1-6 camlock, A2-5, threaded; optional" list="spindle-nose-forms" autoComplete="off" {...field("spindleNose")} />
           <TextField label={`Main motor power (${powerUnitLabel(units)})`} hint="Optional" {...numeric} {...field("motorPower")} />
           <TextField label={`Weight (${weightUnitLabel(units)})`} hint="Optional; riggers ask for it first" {...numeric} {...field("weight")} />

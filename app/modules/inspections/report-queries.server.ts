@@ -37,6 +37,7 @@ export async function getBookingForReport(db: Executor, bookingId: string) {
         serialNumber: listings.serialNumber,
         swingOverBedMm: listings.swingOverBedMm,
         distanceBetweenCentresMm: listings.distanceBetweenCentresMm,
+        tableLengthMm: listings.tableLengthMm,
         city: listings.city,
         region: listings.region,
         country: listings.country,

@@ -11,6 +11,8 @@ type StoredListing = {
   swingOverBedMm: number | null;
   distanceBetweenCentresMm: number | null;
   spindleBoreMm: number | null;
+  tableLengthMm?: number | null;
+  tableWidthMm?: number | null;
   spindleNose: string | null;
   motorPowerKw: number | null;
   weightKg: number | null;
@@ -38,6 +40,8 @@ export function formValuesOf(listing: StoredListing, units: DisplayUnits): Recor
     swingOverBed: length(listing.swingOverBedMm),
     distanceBetweenCentres: length(listing.distanceBetweenCentresMm),
     spindleBore: length(listing.spindleBoreMm),
+    tableLength: length(listing.tableLengthMm ?? null),
+    tableWidth: length(listing.tableWidthMm ?? null),
     spindleNose: listing.spindleNose ?? "",
     motorPower: listing.motorPowerKw === null ? "" : String(powerFromKilowatts(listing.motorPowerKw, units)),
     weight: listing.weightKg === null ? "" : String(weightFromKilograms(listing.weightKg, units)),

@@ -47,6 +47,9 @@ export const listings = pgTable(
     swingOverBedMm: doublePrecision("swing_over_bed_mm"),
     distanceBetweenCentresMm: doublePrecision("distance_between_centres_mm"),
     spindleBoreMm: doublePrecision("spindle_bore_mm"),
+    /** Mills and grinders: the working surface of the table (or magnetic chuck), length along x and width. */
+    tableLengthMm: doublePrecision("table_length_mm"),
+    tableWidthMm: doublePrecision("table_width_mm"),
     spindleNose: text("spindle_nose"),
     motorPowerKw: doublePrecision("motor_power_kw"),
     weightKg: integer("weight_kg"),

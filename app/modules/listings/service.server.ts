@@ -74,6 +74,8 @@ function columnsFrom(values: ListingFormValues) {
     swingOverBedMm: length(values.swingOverBed),
     distanceBetweenCentresMm: length(values.distanceBetweenCentres),
     spindleBoreMm: length(values.spindleBore),
+    tableLengthMm: length(values.tableLength),
+    tableWidthMm: length(values.tableWidth),
     spindleNose: values.spindleNose || null,
     motorPowerKw: values.motorPower === undefined ? null : powerToKilowatts(values.motorPower, units),
     weightKg: values.weight === undefined ? null : weightToKilograms(values.weight, units),

@@ -13,6 +13,8 @@ const ranges = {
   swingOverBed: { min: 50, max: 5_000 },
   distanceBetweenCentres: { min: 100, max: 25_000 },
   spindleBore: { min: 5, max: 1_000 },
+  tableLength: { min: 100, max: 10_000 },
+  tableWidth: { min: 50, max: 3_000 },
   motorPower: { min: 0.05, max: 500 },
   weight: { min: 10, max: 250_000 },
 };
@@ -70,6 +72,8 @@ export function listingFormSchema(units: DisplayUnits) {
     swingOverBed: quantity("swing over bed", length, rangeIn(units, ranges.swingOverBed, "length")),
     distanceBetweenCentres: quantity("distance between centres", length, rangeIn(units, ranges.distanceBetweenCentres, "length")),
     spindleBore: quantity("spindle bore", length, rangeIn(units, ranges.spindleBore, "length")),
+    tableLength: quantity("table length", length, rangeIn(units, ranges.tableLength, "length")),
+    tableWidth: quantity("table width", length, rangeIn(units, ranges.tableWidth, "length")),
     spindleNose: text("spindle nose", 60).optional(),
     motorPower: quantity("motor power", powerUnitLabel(units), rangeIn(units, ranges.motorPower, "power")),
     weight: quantity("weight", weightUnitLabel(units), rangeIn(units, ranges.weight, "weight")),

@@ -148,12 +148,17 @@ export function suggestionFor(listing: BookingForReport["listing"], offered: rea
     return { profile: null, reason: `No tolerance profile covers a ${categoryName} yet; staff can add one. Until then, choose the nearest one and say why.`, uncovered: true };
   }
   if (category === "milling-machine" || category === "surface-grinder") {
-    // Listings do not record a table length yet: the profile is chosen by category, and the inspector checks the size.
-    const profile = suggestProfile(offered, { category, dimensions: {}, make: listing.make, model: listing.model, serialNumber: listing.serialNumber });
-    if (!profile) return { profile: null, reason: `No ${categoryName} profile yet. ${NO_PROFILE_YET}`, uncovered: true };
+    // Chosen by category and the table's length; without a length the inspector checks the size on site.
+    const tableLength = listing.tableLengthMm ?? null;
+    const profile = suggestProfile(offered, { category, dimensions: { tableLengthMm: tableLength }, make: listing.make, model: listing.model, serialNumber: listing.serialNumber });
+    if (!profile) {
+      return { profile: null, reason: `No ${categoryName} profile ${tableLength ? `covers a ${tableLength} mm table` : "yet"}. ${NO_PROFILE_YET}`, uncovered: true };
+    }
     return {
       profile: briefOf(profile),
-      reason: `The listing gives no table length, so the size could not be checked; measure the table and confirm the profile fits (${scopeText(profile)}).`,
+      reason: tableLength
+        ? `A ${categoryName} with a ${tableLength} mm table is within this profile (${scopeText(profile)}).`
+        : `The listing gives no table length, so the size could not be checked; measure the table and confirm the profile fits (${scopeText(profile)}).`,
       uncovered: false,
     };
   }

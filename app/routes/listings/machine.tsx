@@ -179,6 +179,7 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
     ["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null],
     ["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null],
     ["Spindle bore", listing.spindleBoreMm ? formatLength(listing.spindleBoreMm, units) : null],
+    ...(listing.tableLengthMm ? [["Table", `${formatLength(listing.tableLengthMm, units)}${listing.tableWidthMm ? ` × ${formatLength(listing.tableWidthMm, units)}` : ""}`] as [string, string]] : []),
     ["Spindle nose", listing.spindleNose],
     ["Main motor", listing.motorPowerKw ? formatPower(listing.motorPowerKw, units) : null],
     ["Weight", listing.weightKg ? formatWeight(listing.weightKg, units) : null],
