@@ -6,7 +6,7 @@ import { KINDS_FOR_METHOD, type ToleranceProfile } from "~/geometry";
 import { Badge, Button, CheckboxField, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { TestCard } from "~/modules/reports/components/entry/test-card";
 import { emptyTestEntry, isEntryKind, type TestEntry } from "~/modules/reports/form";
-import { previewRebuild, WORK_ITEMS, type ReadingSetName, type RebuildForm } from "~/modules/rebuilds/record";
+import { previewRebuild, REBUILD_PHOTOS, WORK_ITEMS, type ReadingSetName, type RebuildForm } from "~/modules/rebuilds/record";
 import { findProfile } from "~/geometry";
 
 type Errors = Record<string, string[]>;
@@ -32,8 +32,10 @@ export function RebuildEntry({
   status,
   errors,
   machine,
+  photos,
 }: {
   machine?: ReactNode;
+  photos: { id: string; thumbnailUrl: string }[];
   listing: { id: string; slug: string; title: string; categoryLabel: string; status: string };
   profiles: ToleranceProfile[];
   initial: RebuildForm;
@@ -182,6 +184,46 @@ export function RebuildEntry({
           errors={serverErrors.notes}
           onChange={(event) => change((draft) => void (draft.notes = event.target.value))}
         />
+      </section>
+
+      <section className="mt-10 space-y-3" aria-labelledby="photos-heading">
+        <h2 id="photos-heading" className="text-xl font-bold text-ink-900">
+          Photos of the work
+        </h2>
+        {photos.length ? (
+          <>
+            <p className="text-sm text-ink-600">Choose up to {REBUILD_PHOTOS} of the listing's photos to show with the record (add more on the listing's page).</p>
+            {serverErrors.photoIds ? <p className="text-sm font-medium text-beyond">{serverErrors.photoIds.join(" ")}</p> : null}
+            <ul className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+              {photos.map((photo, i) => {
+                const chosen = form.photoIds.includes(photo.id);
+                return (
+                  <li key={photo.id}>
+                    <label className="block cursor-pointer rounded-control border border-ink-200 p-2 has-[:checked]:border-brass-500 has-[:checked]:bg-brass-100">
+                      <img src={photo.thumbnailUrl} alt={`Listing photo ${i + 1}`} className="aspect-[4/3] w-full rounded object-cover" />
+                      <span className="mt-2 flex items-center gap-2 text-sm font-semibold text-ink-800">
+                        <input
+                          type="checkbox"
+                          checked={chosen}
+                          disabled={!chosen && form.photoIds.length >= REBUILD_PHOTOS}
+                          onChange={(event) => {
+                            const checked = event.currentTarget.checked;
+                            change((draft) => {
+                              draft.photoIds = checked ? [...draft.photoIds, photo.id] : draft.photoIds.filter((id) => id !== photo.id);
+                            });
+                          }}
+                        />
+                        Shows the work
+                      </span>
+                    </label>
+                  </li>
+                );
+              })}
+            </ul>
+          </>
+        ) : (
+          <p className="text-sm text-ink-600">Add photos to the listing first; then choose here the ones that show the work.</p>
+        )}
       </section>
 
       <Form method="post" className="sticky bottom-0 mt-8 flex flex-wrap items-center gap-3 border-t border-ink-200 bg-paper py-4">

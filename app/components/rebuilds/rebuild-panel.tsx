@@ -126,6 +126,17 @@ export function RebuildSection({ rebuild, units, manageUrl }: { rebuild: PublicR
         </div>
       ) : null}
       {rebuild.notes ? <p className="whitespace-pre-line text-ink-700">{rebuild.notes}</p> : null}
+      {rebuild.photos.length ? (
+        <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3" aria-label="Photos of the work">
+          {rebuild.photos.map((photo, i) => (
+            <li key={i}>
+              <a href={photo.largeUrl} target="_blank" rel="noreferrer">
+                <img src={photo.thumbnailUrl} alt={`The work, photo ${i + 1} of ${rebuild.photos.length}`} loading="lazy" className="aspect-[4/3] w-full rounded-control border border-ink-200 object-cover" />
+              </a>
+            </li>
+          ))}
+        </ul>
+      ) : null}
     </section>
   );
 }

@@ -19,6 +19,8 @@ export const WORK_ITEMS = [
 ] as const;
 export type WorkItem = (typeof WORK_ITEMS)[number]["value"];
 
+export const REBUILD_PHOTOS = 12;
+
 const readingSet = z.object({
   measuredOn: z.union([z.literal(""), z.iso.date({ error: "Give the date as YYYY-MM-DD." })]).default(""),
   tests: keyedByTestCode(testEntrySchema).default({}),
@@ -34,6 +36,8 @@ export const rebuildFormSchema = z.object({
     .max(WORK_ITEMS.length)
     .default([]),
   notes: safeText({ label: "notes", max: 4000, multiline: true, messages: { tooLong: "Keep the notes under 4000 characters." } }).default(""),
+  /** Listing photos that show the work, in the order chosen. */
+  photoIds: z.array(z.uuid({ error: "Choose photos from the listing's own." })).max(REBUILD_PHOTOS, `At most ${REBUILD_PHOTOS} photos.`).default([]),
 });
 
 export type RebuildForm = z.output<typeof rebuildFormSchema>;

@@ -27,6 +27,8 @@ export const rebuildRecords = pgTable(
     asRebuiltOn: date("as_rebuilt_on", { mode: "string" }),
     workDone: jsonb("work_done").$type<string[]>().notNull().default([]),
     notes: text("notes").notNull().default(""),
+    /** Listing photos (listing_photos.id) that show the work; a photo deleted from the listing drops out when read. */
+    photoIds: jsonb("photo_ids").$type<string[]>().notNull().default([]),
     publishedAt: timestamp("published_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),

@@ -1,6 +1,7 @@
 // Rebuild records: the seller's readings as found and as rebuilt, scored by the report engine, and what a buyer
 // reads of them on the listing. A record is never shown as verified unless a signed report confirms it.
-import { and, eq } from "drizzle-orm";
+import { and, asc, eq, inArray } from "drizzle-orm";
+import { fileUrl } from "~/modules/files/serve.server";
 import { z } from "zod";
 import type { Database } from "~/db/client.server";
 import type { ToleranceProfile } from "~/geometry";
@@ -8,7 +9,7 @@ import { findProfile } from "~/geometry";
 import { hasRole, type SessionUser } from "~/modules/accounts/guards.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
-import { listings } from "~/modules/listings/schema";
+import { listingPhotos, listings } from "~/modules/listings/schema";
 import { profilesForNewReports, scorableProfile } from "~/modules/profiles/service.server";
 import { currentReportForListing, getPublicReport, suggestionFor } from "~/modules/reports/service.server";
 import { confirmsRebuild, emptyRebuildForm, pairResults, previewRebuild, rebuildFormSchema, WORK_ITEMS, type RebuildForm, type StoredResult } from "./record";
@@ -38,9 +39,14 @@ export async function getRebuildEditor(db: Database, user: SessionUser, listingI
   const suggestion = suggestionFor(listing as Parameters<typeof suggestionFor>[0], profiles);
   const fallback = suggestion.profile ?? profiles[0]!;
   const form: RebuildForm = record
-    ? rebuildFormSchema.parse({ ...(record.forms as object), units: record.units, profile: { key: record.profileKey, version: record.profileVersion }, workDone: record.workDone, notes: record.notes })
+    ? rebuildFormSchema.parse({ ...(record.forms as object), units: record.units, profile: { key: record.profileKey, version: record.profileVersion }, workDone: record.workDone, notes: record.notes, photoIds: record.photoIds })
     : emptyRebuildForm({ profileKey: fallback.key, profileVersion: fallback.version, units: user.displayUnits });
+  const photos = (await db.select({ id: listingPhotos.id, thumbnailKey: listingPhotos.thumbnailKey }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id)).orderBy(asc(listingPhotos.position))).map((photo) => ({
+    id: photo.id,
+    thumbnailUrl: fileUrl(photo.thumbnailKey),
+  }));
   return {
+    photos,
     listing: { id: listing.id, slug: listing.slug, title: `${listing.make} ${listing.model}`, categoryLabel: labelOf(machineCategories, listing.category), status: listing.status },
     profiles,
     form,
@@ -80,6 +86,10 @@ export async function saveRebuild(db: Database, user: SessionUser, listingId: st
     if (!form.asRebuilt.measuredOn) errors["asRebuilt.measuredOn"] = ["Give the date the machine was measured as rebuilt."];
     else if (form.asFound.measuredOn && form.asRebuilt.measuredOn < form.asFound.measuredOn) errors["asRebuilt.measuredOn"] = ["The rebuild cannot be measured before the machine was found."];
   }
+  if (form.photoIds.length) {
+    const owned = await db.select({ id: listingPhotos.id }).from(listingPhotos).where(and(eq(listingPhotos.listingId, listing.id), inArray(listingPhotos.id, form.photoIds)));
+    if (owned.length !== new Set(form.photoIds).size) errors.photoIds = ["Choose photos from this listing's own."];
+  }
   if (Object.keys(errors).length) return { ok: false, errors };
   const values = {
     listingId: listing.id,
@@ -93,6 +103,7 @@ export async function saveRebuild(db: Database, user: SessionUser, listingId: st
     asRebuiltOn: form.asRebuilt.measuredOn || null,
     workDone: form.workDone,
     notes: form.notes,
+    photoIds: [...new Set(form.photoIds)],
     updatedAt: new Date(),
   };
   const [existing] = await db.select({ id: rebuildRecords.id, status: rebuildRecords.status }).from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
@@ -135,7 +146,15 @@ export async function rebuildView(db: Database, record: typeof rebuildRecords.$i
     }
   }
   const profile = await scorableProfile(db, record.profileKey, record.profileVersion);
+  const stored = record.photoIds.length
+    ? await db.select({ id: listingPhotos.id, thumbnailKey: listingPhotos.thumbnailKey, largeKey: listingPhotos.largeKey }).from(listingPhotos).where(and(eq(listingPhotos.listingId, record.listingId), inArray(listingPhotos.id, record.photoIds)))
+    : [];
+  const photos = record.photoIds.flatMap((id) => {
+    const photo = stored.find((candidate) => candidate.id === id);
+    return photo ? [{ thumbnailUrl: fileUrl(photo.thumbnailKey), largeUrl: fileUrl(photo.largeKey) }] : [];
+  });
   return {
+    photos,
     asFoundOn: record.asFoundOn,
     asRebuiltOn: record.asRebuiltOn,
     publishedAt: record.publishedAt?.toISOString() ?? null,

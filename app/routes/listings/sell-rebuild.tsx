@@ -74,6 +74,7 @@ export default function SellRebuild({ loaderData, actionData }: Route.ComponentP
         </>
       }
       listing={loaderData.listing}
+      photos={loaderData.photos}
       profiles={loaderData.profiles}
       initial={loaderData.form}
       status={loaderData.status}

@@ -1,7 +1,9 @@
 // A listing's rebuild record over HTTP: only the listing's seller records it, hostile input is refused at its field
 // with nothing written, and the listing says "declared by the seller" unless a signed report confirms the
 // as-rebuilt figures.
+import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
+import { listingPhotos } from "~/modules/listings/schema";
 import { describe, expect, it } from "vitest";
 import { rebuildRecords } from "~/modules/rebuilds/schema";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
@@ -101,6 +103,8 @@ describe("a listing's rebuild record", () => {
       [rebuildForm({ asRebuiltOn: "2000-01-01" }), "asRebuilt.measuredOn"],
       [{ ...rebuildForm(), workDone: ["moonlighting"] }, "workDone.0"],
       [{ ...rebuildForm(), profile: { key: "no-such-profile", version: 1 } }, "profile"],
+      [{ ...rebuildForm(), photoIds: [randomUUID()] }, "photoIds"],
+      [{ ...rebuildForm(), photoIds: ["../photo"] }, "photoIds.0"],
     ] as const) {
       const response = await postRebuild(cookie, listing.id, form);
       if (field === null) {
@@ -114,5 +118,23 @@ describe("a listing's rebuild record", () => {
     expect((await postRebuild(cookie, listing.id, "{not json")).status).toBe(400);
     const [row] = await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
     expect(row?.notes ?? "").not.toContain("\u0000");
+  });
+
+  it("shows the listing photos the seller chose as photos of the work, and refuses another listing's", async () => {
+    const { seller, listing } = await acceptedBooking();
+    const other = await acceptedBooking();
+    const photo = async (listingId: string) => {
+      const id = randomUUID();
+      await db.insert(listingPhotos).values({ id, listingId, position: 0, thumbnailKey: `listings/${listingId}/${id}-thumb.webp`, largeKey: `listings/${listingId}/${id}-large.webp`, width: 1600, height: 1200, originalName: "scraped.jpg", originalBytes: 1000 });
+      return id;
+    };
+    const own = await photo(listing.id);
+    const theirs = await photo(other.listing.id);
+    const cookie = await signInCookie(seller.email, seller.password);
+    expect((await postRebuild(cookie, listing.id, { ...rebuildForm(), photoIds: [theirs] })).status).toBe(422);
+    expect((await postRebuild(cookie, listing.id, { ...rebuildForm(), photoIds: [own] })).status).toBe(302);
+    const html = await (await fetch(`${testAppOrigin}/machines/${listing.slug}`)).text();
+    expect(html.replace(/<!-- -->/g, "")).toContain("The work, photo 1 of 1");
+    expect(html).toContain(`${own}-thumb.webp`);
   });
 });

@@ -1,0 +1,1 @@
+ALTER TABLE "rebuild_records" ADD COLUMN "photo_ids" jsonb DEFAULT '[]'::jsonb NOT NULL;
