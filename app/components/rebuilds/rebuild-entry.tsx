@@ -115,7 +115,7 @@ export function RebuildEntry({
                 : "min-h-11 rounded-control bg-white px-4 py-2 text-base font-semibold text-ink-800 ring-1 ring-inset ring-ink-300"
             }
           >
-            {candidate.label} <span className="text-sm font-normal opacity-80">({completeCount(candidate.name)} tests)</span>
+            {candidate.label} <span className="text-sm font-normal opacity-80">({completeCount(candidate.name)} {completeCount(candidate.name) === 1 ? "test" : "tests"})</span>
           </button>
         ))}
       </div>
