@@ -38,6 +38,7 @@ async function main(args: string[]): Promise<number> {
   if (result.valid && result.subject) {
     const subject = result.subject;
     console.log(`\n${subject.machine.title} (serial ${subject.machine.serialNumber ?? "not given"}): grade ${subject.grade}, measured ${subject.measuredOn} by ${subject.inspector.name}, signed ${subject.signedAt}`);
+    if (subject.reissued) console.log(`credential re-issued on ${subject.reissued.on}: ${subject.reissued.note}`);
   }
   return result.valid ? 0 : 1;
 }

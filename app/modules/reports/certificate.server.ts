@@ -126,6 +126,9 @@ export async function renderCertificate(report: PublicReport, options: Certifica
   doc.moveDown(0.6);
   doc.font("bold").fontSize(16).fillColor(ink).text(printable(content.machine.title), left);
   doc.font("regular").fontSize(9).fillColor(muted).text(`Report ${report.id} · revision ${content.revision} · ${report.status === "superseded" ? "SUPERSEDED" : "signed"}`);
+  if (report.reissuedOn) {
+    doc.font("regular").fontSize(8.5).fillColor(muted).text(`Credential re-issued on ${formatReportDate(report.reissuedOn)} for a report signed before signed credentials existed (see Signature).`, left, doc.y + 2, { width });
+  }
   if (report.status === "superseded") {
     doc.moveDown(0.4).font("bold").fontSize(10).fillColor(beyond).text(`This revision is superseded${report.supersededBy ? ` by revision ${report.supersededBy.revision}` : ""}; read the current one before relying on it.`);
   }
@@ -307,6 +310,9 @@ heading("Conditions");
   facts([
     ["Signed by", `${content.inspector.name} (inspector), issued by Tenthmark`],
     ["Signing time", formatSignedAt(report.signedAt)],
+    ...(report.reissuedOn
+      ? ([["Re-issued", `${formatSignedAt(report.reissuedOn)}: this report was signed before signed credentials existed; the credential was issued on this date by Tenthmark, over the content whose hash was recorded at the signing. The signature below is Tenthmark's of that date, not the inspector's original one.`]] as Array<[string, string]>)
+      : []),
     ["Signature", "Ed25519, W3C Data Integrity eddsa-jcs-2022 (RFC 8785 JSON, SHA-256)"],
     ["Key", `${keyId} — public keys and their periods at /.well-known/did.json`],
     ["Content hash (SHA-256)", report.contentHash],

@@ -56,6 +56,11 @@ export interface ReportCredentialSubject {
   setupPhotos: Array<{ test: string; sha256: string }>;
   /** The whole report (readings, conditions, instruments, notes) by the SHA-256 of its RFC 8785 canonical JSON. */
   content: { sha256: string; canonicalization: "RFC 8785"; url: string };
+  /**
+   * Set on a credential issued later for a report signed before credentials existed: when, and what the
+   * re-issue vouches for. Its proof is made at `on`, not at `signedAt`.
+   */
+  reissued?: { on: string; note: string };
 }
 
 export interface ReportCredential {
@@ -230,8 +235,15 @@ export function credentialUrl(origin: string, reportId: string) {
   return `${origin}/api/v1/reports/${reportId}/credential`;
 }
 
-/** The unsigned credential of a signed report's content (`content.signedAt` set) and its content hash. */
-export function buildReportCredential(content: ReportContent, contentHash: string, origin: string): ReportCredential {
+/** What a re-issued credential says of itself (see reissue.server.ts). */
+export const REISSUE_NOTE =
+  "Re-issued by Tenthmark for a report signed before signed credentials existed: the content is the one whose SHA-256 was recorded when the inspector signed; this signature is Tenthmark's, made on the re-issue date, not the original one.";
+
+/**
+ * The unsigned credential of a signed report's content (`content.signedAt` set) and its content hash;
+ * `reissuedAt` for a report signed before credentials existed, whose proof is made now.
+ */
+export function buildReportCredential(content: ReportContent, contentHash: string, origin: string, options: { reissuedAt?: string } = {}): ReportCredential {
   if (!content.signedAt) throw new Error("Only a signed report becomes a credential.");
   const photos = Object.entries(content.tests)
     .filter(([, test]) => test.photo?.sha256)
@@ -242,7 +254,7 @@ export function buildReportCredential(content: ReportContent, contentHash: strin
     type: ["VerifiableCredential", REPORT_CREDENTIAL_TYPE],
     name: `Machine accuracy report: ${content.machine.title}`,
     issuer: { id: didWebOf(origin), name: "Tenthmark" },
-    validFrom: content.signedAt,
+    validFrom: options.reissuedAt ?? content.signedAt,
     credentialSubject: {
       id: `${origin}/reports/${content.reportId}`,
       type: "MachineAccuracyReport",
@@ -279,6 +291,7 @@ export function buildReportCredential(content: ReportContent, contentHash: strin
       })),
       setupPhotos: photos,
       content: { sha256: contentHash, canonicalization: "RFC 8785", url: `${origin}/api/v1/reports/${content.reportId}` },
+      ...(options.reissuedAt ? { reissued: { on: options.reissuedAt, note: REISSUE_NOTE } } : {}),
     },
   };
 }
@@ -374,14 +387,26 @@ export async function verifyReportCredential(input: unknown, didDocument: unknow
   checks.push({
     name: "key-validity",
     state: "passed",
-    detail: `The key was in use when the report was signed (${input.proof.created}; key used from ${method.validFrom}${method.validUntil ? ` until ${method.validUntil}` : " to now"}).`,
+    detail: `The key was in use when the proof was made (${input.proof.created}; key used from ${method.validFrom}${method.validUntil ? ` until ${method.validUntil}` : " to now"}).`,
   });
 
   const subject = input.credentialSubject;
-  if (subject.signedAt !== input.proof.created || input.validFrom !== input.proof.created) {
+  const reissued = isRecord(subject.reissued) ? subject.reissued : null;
+  if (reissued) {
+    // A re-issue is signed at its own date, after the inspector's signing, and says so.
+    if (reissued.on !== input.proof.created || input.validFrom !== input.proof.created || !(Date.parse(subject.signedAt) < created)) {
+      return { ...fail("content", "The re-issue date inside the report differs from the proof's, or comes before the original signing."), keyId };
+    }
+  } else if (subject.signedAt !== input.proof.created || input.validFrom !== input.proof.created) {
     return { ...fail("content", "The signing time inside the report differs from the proof's."), keyId };
   }
-  checks.push({ name: "content", state: "passed", detail: `Grade ${subject.grade}, measured ${subject.measuredOn}, key figures and ${subject.results.length} results are those signed.` });
+  checks.push({
+    name: "content",
+    state: "passed",
+    detail: reissued
+      ? `Grade ${subject.grade}, measured ${subject.measuredOn}, key figures and ${subject.results.length} results, as signed by the inspector on ${subject.signedAt.slice(0, 10)}; this credential was re-issued by Tenthmark on ${reissued.on.slice(0, 10)} because the report predates signed credentials.`
+      : `Grade ${subject.grade}, measured ${subject.measuredOn}, key figures and ${subject.results.length} results are those signed.`,
+  });
   checks.push({ name: "current", state: "not-checked", detail: "Whether a later correction supersedes this revision is known only to Tenthmark's server." });
   return { valid: true, checks, subject, keyId };
 }

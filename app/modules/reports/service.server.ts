@@ -682,6 +682,8 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     intact: sealHolds(report.canonicalJson!, report.contentHash!),
     signedAt: seal.subject.signedAt,
     keyId: seal.keyId,
+    /** Set when the credential was issued later, for a report signed before credentials existed. */
+    reissuedOn: seal.subject.reissued?.on ?? null,
     supersededBy: supersededBy ? { id: supersededBy.id, revision: supersededBy.revision } : null,
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
     isInspector: viewer?.id === report.inspectorId,

@@ -45,6 +45,7 @@ export default function ReportPage() {
     ["Inspector", content.inspector.name],
     ["Date of the tests", `${formatReportDate(content.measuredOn)} (${age.label})`],
     ["Signed", formatSignedAt(report.signedAt)],
+    ...(report.reissuedOn ? ([["Credential re-issued", `${formatSignedAt(report.reissuedOn)} (the report predates signed credentials)`]] as Array<[string, string]>) : []),
     ["Tolerance profile", `${content.profile.title} — ${content.profile.key} v${content.profile.version}`],
     ["Why this profile", content.profile.reason],
     ["Swing over bed", content.machine.swingOverBedMm ? formatLength(content.machine.swingOverBedMm, units) : "not given"],

@@ -67,6 +67,7 @@ function publicReport(content: ReportContent): PublicReport {
     intact: true,
     signedAt: content.signedAt!,
     keyId: "key-2026-01",
+    reissuedOn: null,
     supersededBy: null,
     revisions: [],
     isInspector: false,

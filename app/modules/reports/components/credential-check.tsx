@@ -127,6 +127,11 @@ export function CredentialCheck() {
                 {outcome.subject.grade}
               </span>
               , tests on {formatDate(outcome.subject.measuredOn)} by {outcome.subject.inspector.name}, signed {outcome.subject.signedAt.replace("T", " ").replace(/\.\d+Z$/, " UTC")}.
+              {outcome.subject.reissued && typeof outcome.subject.reissued.on === "string" ? (
+                <span className="block text-sm text-ink-600" data-testid="credential-reissued">
+                  Credential re-issued on {formatDate(outcome.subject.reissued.on.slice(0, 10))}: the report predates signed credentials, so this signature is Tenthmark's of that date, over the content whose hash was recorded when the inspector signed.
+                </span>
+              ) : null}
             </p>
           ) : null}
           <h3 className="mt-3 text-sm font-bold text-ink-900">What was checked</h3>
