@@ -42,6 +42,7 @@ async function legacyRow(owner: pg.Client, good: ReportContent, options: { grade
      values ($1, $2, $3, $4, 'signed', $5, $6, $7, $8, $9, 1, $10, $11, $12, $13)`,
     [id, booked.bookingId, booked.listing.id, booked.inspector.id, content.profile.key, content.profile.version, options.grade ?? content.score.grade, JSON.stringify(content.score.keyFigures), content.measuredOn, canonical, canonical, sha256Hex(canonical), signedAt],
   );
+  await owner.query("set constraints all immediate");
   await owner.query(`alter table reports add constraint reports_signed_has_credential check (status = 'draft' or credential is not null) not valid`);
   await owner.query("commit");
   return { id, signedAt, contentHash: sha256Hex(canonical) };
