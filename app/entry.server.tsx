@@ -9,6 +9,7 @@ import type { EntryContext, HandleDataRequestFunction, HandleErrorFunction, Rout
 import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { EnvironmentError, env } from "~/env.server";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
+import { entityTag, holdsTag, notModified } from "~/modules/http/conditional.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
 
@@ -55,6 +56,14 @@ export default function handleRequest(
 ) {
   // The root middleware made this request's nonce; a page rendered without it (none known) gets its own.
   const nonce = loadContext.get(cspNonceContext) ?? createNonce();
+  // A page whose loader named what it depends on (an ETag) is tagged with this build too, and a browser that
+  // holds it is answered 304 before anything is rendered.
+  const dependsOn = responseHeaders.get("ETag");
+  if (dependsOn && responseStatusCode === 200) {
+    const tag = entityTag([dependsOn, routerContext.manifest.version]);
+    responseHeaders.set("ETag", tag);
+    if (holdsTag(request, tag)) return notModified(responseHeaders);
+  }
   applySecurityHeaders(responseHeaders, nonce);
 
   // https://httpwg.org/specs/rfc9110.html#HEAD

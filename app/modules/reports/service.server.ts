@@ -658,11 +658,28 @@ export async function startCorrection(db: Database, inspector: SessionUser, repo
 /** A signed or superseded report as anyone may read it; a draft only tells its own inspector where to review it. */
 export async function getPublicReport(db: Database, reportId: string, viewer: Pick<SessionUser, "id"> | null) {
   if (!z.uuid().safeParse(reportId).success) return null;
-  const [report] = await db.select().from(reports).where(eq(reports.id, reportId));
-  if (!report) return null;
-  if (report.status === "draft") {
-    return viewer?.id === report.inspectorId ? { kind: "draft" as const, bookingId: report.bookingId } : null;
+  // A signed report does not change, so what was read and checked is kept per report (publicReportCache) as
+  // long as the row is the same to the byte: its digest is read first, which any change of any column
+  // (a correction superseding it, a change behind the app's back) alters.
+  const [stamp] = await db
+    .select({ version: sql<string>`md5(${reports}::text)`, status: reports.status, inspectorId: reports.inspectorId, bookingId: reports.bookingId })
+    .from(reports)
+    .where(eq(reports.id, reportId));
+  if (!stamp) return null;
+  if (stamp.status === "draft") {
+    return viewer?.id === stamp.inspectorId ? { kind: "draft" as const, bookingId: stamp.bookingId } : null;
   }
+  const known = publicReportCache.get(reportId, stamp.version);
+  const published = known ?? (await readPublicReport(db, reportId));
+  if (!published) return null;
+  if (!known) publicReportCache.set(reportId, stamp.version, published);
+  return published.kind === "published" ? { ...published, isInspector: viewer?.id === stamp.inspectorId } : published;
+}
+
+/** A signed or superseded report read and checked against its seal (no viewer in it: the cache shares it). */
+async function readPublicReport(db: Database, reportId: string) {
+  const [report] = await db.select().from(reports).where(eq(reports.id, reportId));
+  if (!report || report.status === "draft") return null;
   // Shown only as signed: the credential's proof, the content hash it seals and every copied column must agree.
   const seal = await readSealedReport(db, report, { checkContent: true });
   if (!seal.ok) return { kind: "unsealed" as const, id: report.id, reason: seal.reason, mismatched: seal.mismatched };
@@ -686,7 +703,7 @@ export async function getPublicReport(db: Database, reportId: string, viewer: Pi
     reissuedOn: seal.subject.reissued?.on ?? null,
     supersededBy: supersededBy ? { id: supersededBy.id, revision: supersededBy.revision } : null,
     revisions: revisions.map((revision) => ({ ...revision, signedAt: revision.signedAt?.toISOString() ?? null })),
-    isInspector: viewer?.id === report.inspectorId,
+    isInspector: false,
     hasCredential: report.credential !== null,
     /** The signed credential's text, as stored (its proof checked above); embedded in the certificate. */
     credential: report.credential!,
@@ -707,6 +724,38 @@ export function unsealedMessage(reason: string) {
 }
 
 export type PublicReport = Extract<NonNullable<Awaited<ReturnType<typeof getPublicReport>>>, { kind: "published" }>;
+
+type CheckedReport = NonNullable<Awaited<ReturnType<typeof readPublicReport>>>;
+
+/**
+ * Reports read and checked, by id, each valid for the row digest it was read at and for ten minutes at most
+ * (a signing key's validity is read with the seal). Least recently used first out, 500 at most.
+ */
+export const publicReportCache = (() => {
+  const limit = 500;
+  const lifetimeMs = 10 * 60_000;
+  const entries = new Map<string, { version: string; report: CheckedReport; storedAt: number }>();
+  return {
+    get(id: string, version: string): CheckedReport | undefined {
+      const entry = entries.get(id);
+      if (!entry) return undefined;
+      if (entry.version !== version || Date.now() - entry.storedAt > lifetimeMs) {
+        entries.delete(id);
+        return undefined;
+      }
+      // Most recently used last.
+      entries.delete(id);
+      entries.set(id, entry);
+      return entry.report;
+    },
+    set(id: string, version: string, report: CheckedReport) {
+      entries.delete(id);
+      entries.set(id, { version, report, storedAt: Date.now() });
+      if (entries.size > limit) entries.delete(entries.keys().next().value!);
+    },
+    clear: () => entries.clear(),
+  };
+})();
 
 /** GET /api/v1/reports/:id: the signed content exactly as hashed, with its status and links. Null for drafts. */
 export async function reportForApi(db: Database, reportId: string) {

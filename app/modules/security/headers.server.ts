@@ -100,12 +100,17 @@ export function applySecurityHeaders(headers: Headers, nonce: string): void {
 
 /** The response with the headers; a response whose headers are immutable (e.g. a proxied fetch) is copied. */
 export function withSecurityHeaders(response: Response, nonce: string): Response {
+  // A 304's headers replace the stored page's: a new policy would carry a nonce its scripts do not have.
+  const apply = (headers: Headers) => {
+    applySecurityHeaders(headers, nonce);
+    if (response.status === 304) headers.delete("Content-Security-Policy");
+  };
   try {
-    applySecurityHeaders(response.headers, nonce);
+    apply(response.headers);
     return response;
   } catch {
     const copy = new Response(response.body, response);
-    applySecurityHeaders(copy.headers, nonce);
+    apply(copy.headers);
     return copy;
   }
 }

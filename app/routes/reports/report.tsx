@@ -3,6 +3,7 @@ import { data, Form, Link, redirect, useLoaderData, useSearchParams } from "reac
 import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
+import { entityTag } from "~/modules/http/conditional.server";
 import { reportAge } from "~/modules/reports/content";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
 import { StoredReadings } from "~/modules/reports/components/stored-readings";
@@ -25,10 +26,32 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   if (!report) throw data("There is no signed report at this address.", { status: 404 });
   if (report.kind === "draft") throw redirect(`/inspector/bookings/${report.bookingId}/report/review`);
   if (report.kind === "unsealed") throw data(unsealedMessage(report.reason), { status: 409 });
-  const requested = new URL(request.url).searchParams.get("units");
+  const url = new URL(request.url);
+  const requested = url.searchParams.get("units");
   const units: DisplayUnits = requested === "inch" || requested === "mm" ? requested : (viewer?.displayUnits ?? "mm");
-  const qrSvg = await QRCode.toString(report.verificationUrl, { type: "svg", margin: 1, errorCorrectionLevel: "M", color: { dark: "#17212b", light: "#ffffff" } });
-  return { report, units, qrSvg, now: new Date().toISOString() };
+  const qrSvg = await verificationQrCode(report.verificationUrl);
+  const now = new Date();
+  // The page changes only with the report's row (its seal, a correction), the viewer, the units, the
+  // address's notices and the day (the report's age): the browser revalidates and gets 304 until then.
+  const dependsOn = entityTag([
+    report.id, report.contentHash, report.status, report.supersededBy, report.revisions, report.isInspector,
+    viewer && [viewer.id, viewer.name, viewer.email, viewer.roles, viewer.displayUnits, viewer.emailVerified],
+    units, url.search, now.toISOString().slice(0, 10),
+  ]);
+  return data({ report, units, qrSvg, now: now.toISOString() }, { headers: { ETag: dependsOn, "Cache-Control": "private, no-cache", Vary: "Cookie" } });
+}
+
+export const headers: Route.HeadersFunction = ({ loaderHeaders }) => loaderHeaders;
+
+// The QR code of a verification address never changes: drawn once per report (500 kept, oldest out).
+const qrCodes = new Map<string, string>();
+async function verificationQrCode(address: string): Promise<string> {
+  const known = qrCodes.get(address);
+  if (known) return known;
+  const svg = await QRCode.toString(address, { type: "svg", margin: 1, errorCorrectionLevel: "M", color: { dark: "#17212b", light: "#ffffff" } });
+  qrCodes.set(address, svg);
+  if (qrCodes.size > 500) qrCodes.delete(qrCodes.keys().next().value!);
+  return svg;
 }
 
 // A published report is immutable: nothing is posted to it.
