@@ -86,7 +86,10 @@ async function main(): Promise<number> {
     { cwd: root, stdio: "inherit", env: { ...environment, NODE_ENV: "test" } },
   );
   const exitCode: number = await new Promise((resolve) => vitest.on("exit", (code) => resolve(code ?? 1)));
-  if (exitCode !== 0) printAppLogOfFailures(resultsFile, appLog);
+  if (exitCode !== 0) {
+    printAppLogOfFailures(resultsFile, appLog);
+    printFailedTests(resultsFile);
+  }
   printSummary(resultsFile, exitCode);
   return exitCode;
 }
@@ -114,9 +117,32 @@ function printAppLogOfFailures(resultsFile: string, appLog: string) {
     });
     const shown = during.slice(-120);
     console.log(`\n── app log while ${path.relative(root, file.name)} ran (${during.length} lines${during.length > shown.length ? `, the last ${shown.length} shown` : ""}) ──`);
-    for (const line of shown) console.log(line);
+    for (const line of shown) console.log(line.length > 300 ? `${line.slice(0, 300)}… (${line.length} characters)` : line);
   }
   console.log(`\nThe app's whole log of this run: ${path.relative(root, kept)}`);
+}
+
+/** The failed tests named again after the app's log, so that the end of the output says what failed. */
+function printFailedTests(resultsFile: string) {
+  type Assertion = { status: string; fullName: string; failureMessages?: string[] };
+  try {
+    const results = JSON.parse(readFileSync(resultsFile, "utf8"));
+    const failed: string[] = [];
+    for (const file of results.testResults ?? []) {
+      const name = path.relative(root, file.name);
+      const assertions = (file.assertionResults ?? []).filter((a: Assertion) => a.status === "failed");
+      if (assertions.length === 0 && file.status === "failed") failed.push(`${name}: ${String(file.message ?? "").split("\n")[0].slice(0, 300)}`);
+      for (const assertion of assertions as Assertion[]) {
+        const firstLine = (assertion.failureMessages?.[0] ?? "").split("\n")[0].slice(0, 300);
+        failed.push(`${name} › ${assertion.fullName}: ${firstLine}`);
+      }
+    }
+    if (failed.length === 0) return;
+    console.log("\nFailed:");
+    for (const line of failed) console.log(`  ✗ ${line}`);
+  } catch {
+    // No results to read: the summary line says so.
+  }
 }
 
 /** The closing line CI reads: counts from Vitest's JSON report. */
