@@ -6,7 +6,7 @@ import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
 import { KEY_FIGURE_LABELS, keyFigureNamesFor, reportAge, SIGNED_KEY_FIGURES } from "./content";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
-import { formatLength, type DisplayUnits } from "~/modules/units/format";
+import { formatLength, lengthsInText, type DisplayUnits } from "~/modules/units/format";
 import { plotsOfReport, type PdfPlot } from "./certificate-plots.server";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "./safety";
 import { renderReadingsCertificate } from "./certificate-readings.server";
@@ -187,7 +187,7 @@ export async function renderCertificate(report: PublicReport, options: Certifica
     ["Booking", content.booking.reference],
     ["Date of the tests", formatReportDate(content.measuredOn)],
     ["Signed", formatSignedAt(content.signedAt ?? report.signedAt)],
-    ["Tolerance profile", `${content.profile.key} v${content.profile.version}: ${content.profile.title}`],
+    ["Tolerance profile", `${content.profile.key} v${content.profile.version}: ${lengthsInText(content.profile.title, units)}`],
     ["Why this profile", content.profile.reason],
     ["Units", units === "inch" ? "readings in inches, lengths in inches (as chosen by the reader; the signed credential holds µm and mm)" : "readings in µm, lengths in mm (as chosen by the reader; the signed credential holds µm and mm)"],
   ]);
@@ -235,7 +235,7 @@ heading("Conditions");
       const unit = result.unit;
       return {
         cells: [
-          `${result.code} ${result.title}${result.required ? "" : " (optional)"}`,
+          `${result.code} ${lengthsInText(result.title, units)}${result.required ? "" : " (optional)"}`,
           formatDeviation(result.value, units, { signed, unit }),
           `${formatDeviation(result.tolerance, units, { unit })}${result.measuringLength ? ` over ${formatLength(result.measuringLength, units)}` : ""}`,
           formatRatio(result.ratio),
@@ -264,13 +264,13 @@ heading("Conditions");
     for (const row of rows) {
       const cellWidth = row[0]!.span === "half" ? (width - gap) / 2 : width;
       const captionHeight = Math.max(...row.map((plot) => doc.font("regular").fontSize(7.5).heightOfString(printable(plot.caption), { width: cellWidth })));
-      const titleHeight = Math.max(...row.map((plot) => doc.font("bold").fontSize(9).heightOfString(printable(`${plot.code} ${plot.title}`), { width: cellWidth })));
+      const titleHeight = Math.max(...row.map((plot) => doc.font("bold").fontSize(9).heightOfString(printable(`${plot.code} ${lengthsInText(plot.title, units)}`), { width: cellWidth })));
       const drawingHeight = Math.max(...row.map((plot) => plot.height));
       ensureSpace(titleHeight + drawingHeight + captionHeight + 20);
       const top = doc.y;
       row.forEach((plot, i) => {
         const x = left + i * (cellWidth + gap);
-        doc.font("bold").fontSize(9).fillColor(ink).text(printable(`${plot.code} ${plot.title}`), x, top, { width: cellWidth });
+        doc.font("bold").fontSize(9).fillColor(ink).text(printable(`${plot.code} ${lengthsInText(plot.title, units)}`), x, top, { width: cellWidth });
         plot.draw(doc, { x, y: top + titleHeight + 4, width: cellWidth });
         doc.font("regular").fontSize(7.5).fillColor(muted).text(printable(plot.caption), x, top + titleHeight + 4 + drawingHeight + 4, { width: cellWidth });
       });

@@ -151,6 +151,8 @@ describe("the reader's units", { timeout: 60_000 }, () => {
     expect(text).not.toMatch(/\d [µμ]m(?!\/m)/);
     expect(text).toMatch(/[µμ]m\/m/);
     expect(text).toMatch(/Reading \(in\)/);
+    // Test and plot titles carry their lengths ("at 300 mm") in the reader's units too.
+    expect(text).not.toMatch(/\d\s?mm\b/);
   });
 });
 
