@@ -1,36 +1,18 @@
 // A buyer saves a search, then tries to save the same filters again written in inches: the page says which
 // saved search already covers it instead of keeping a second copy that would mail them twice.
-import { mkdirSync } from "node:fs";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { createTestUser, signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize } from "../../support/browser-per-file";
 
 const shots = process.env.SCREENSHOT_DIR ?? "/tmp/alerts-screenshots";
-const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
 
 describe("a saved search that repeats another", () => {
   it("is refused with the name of the one already kept, whatever units it was written in", { timeout: 90_000 }, async () => {
     const buyer = await createTestUser({ name: "Wanda Kessel" });
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, buyer.email, buyer.password, "/machines?category=centre_lathe&runoutMax=5.08");
     await page.waitForURL((url) => url.pathname === "/machines");
     const saveBox = page.getByTestId("save-search");
@@ -45,7 +27,7 @@ describe("a saved search that repeats another", () => {
     const warning = saveBox.getByRole("alert");
     await warning.waitFor();
     await expect(warning.textContent()).resolves.toContain("You already keep this search as “Lathes, a fifth of a thou”");
-    await screenshots(page, "duplicate-saved-search");
+    await screenshotAtEachSize(page, shots, "duplicate-saved-search");
 
     await page.goto("/account/saved-searches");
     await page.locator('[data-saved-search="Lathes, a fifth of a thou"]').waitFor();

@@ -1,40 +1,20 @@
 // A buyer watches a machine, finds it under "Watched machines" in the account menu, gets the daily e-mail when
 // its price drops, stops the e-mail with one click, and takes the machine off the list.
-import { mkdirSync } from "node:fs";
 import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
 import { listings } from "~/modules/listings/schema";
 import { sendWatchDigests } from "~/modules/listings/watchlist.server";
 import { createTestUser, signInPage } from "../../support/accounts";
-import { appOrigin, launchBrowser, newRecordedPage } from "../../support/browser";
+import { appOrigin, newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize } from "../../support/browser-per-file";
 import { latestEmailTo, linkIn } from "../../support/mailbox";
 
 const db = getDatabase();
 const shots = process.env.SCREENSHOT_DIR ?? "/tmp/alerts-screenshots";
-const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-    expect(overflow, `${name} scrolls sideways at ${label}`).toBeLessThanOrEqual(0);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
 
 describe("the watchlist", () => {
   it("watches a machine, lists it, e-mails its price drop once, unsubscribes and unwatches", { timeout: 120_000 }, async () => {
@@ -59,7 +39,7 @@ describe("the watchlist", () => {
       })
       .returning();
     const buyer = await createTestUser({ name: "Selma Undset-Hart" });
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, buyer.email, buyer.password, `/machines/${lathe!.slug}`);
     await page.getByRole("heading", { level: 1, name: "Orvelt TL 280" }).waitFor();
     await page.getByRole("button", { name: "☆ Watch this machine" }).click();
@@ -72,7 +52,7 @@ describe("the watchlist", () => {
     const row = page.locator('[data-watched="Orvelt TL 280"]');
     await row.waitFor();
     await expect(row.textContent()).resolves.toMatch(/€8,600.*For sale.*Not yet verified/);
-    await screenshots(page, "watched-machines");
+    await screenshotAtEachSize(page, shots, "watched-machines", { noSidewaysScroll: true });
 
     // The price drops; the daily digest says so (run here, a month ahead, instead of waiting for 07:00).
     await db.update(listings).set({ priceMinor: 790_000 }).where(eq(listings.id, lathe!.id));
@@ -82,7 +62,7 @@ describe("the watchlist", () => {
     await page.goto(linkIn(digest, `${appOrigin}/watched/unsubscribe?token=`));
     await page.getByRole("button", { name: "Stop these e-mails" }).click();
     await page.getByRole("heading", { name: "Daily e-mail stopped" }).waitFor();
-    await screenshots(page, "watch-unsubscribed");
+    await screenshotAtEachSize(page, shots, "watch-unsubscribed", { noSidewaysScroll: true });
 
     await page.goto("/account/watched");
     await page.getByRole("button", { name: "Turn the daily e-mail on" }).waitFor();

@@ -1,33 +1,16 @@
 // The buyer's closed booking in Chromium: the report linked, no payout lines or transfer ids, a history that
 // does not repeat itself, a reference that stays on one line, and the report's plots in the results' order.
-import { mkdirSync } from "node:fs";
 import { eq } from "drizzle-orm";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { bookingEvents, bookings } from "~/modules/inspections/schema";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
 
 const shots = "/tmp/inspections-screenshots";
-const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-}
+const browser = chromiumPerFile();
 
 describe("the buyer's closed booking", () => {
   it("links the report, keeps payouts out, says each step once and plots in the results' order", async () => {
@@ -37,7 +20,7 @@ describe("the buyer's closed booking", () => {
     await db.update(bookings).set({ status: "closed" }).where(eq(bookings.id, booked.bookingId));
     await db.insert(bookingEvents).values({ bookingId: booked.bookingId, kind: "payout_recorded", fromStatus: "report_filed", toStatus: "closed", note: "transfer tr_e2e_hidden_4411" });
 
-    const { context, page } = await newRecordedPage(browser, widths.desktop);
+    const { context, page } = await newRecordedPage(browser(), viewports.desktop);
     const path = `/bookings/${booked.bookingId}`;
     await signInPage(page, booked.buyer.email, booked.buyer.password, path);
     await page.waitForURL((url) => url.pathname === path);
@@ -50,15 +33,15 @@ describe("the buyer's closed booking", () => {
     expect(history.some((entry) => /Report filed\s*→\s*Report filed/.test(entry))).toBe(false);
     const reference = page.locator("dd .font-mono").first();
     await expect(reference.evaluate((element) => getComputedStyle(element).whiteSpace)).resolves.toBe("nowrap");
-    await screenshots(page, "closed-booking-buyer");
+    await screenshotAtEachSize(page, shots, "closed-booking-buyer");
 
     // A phone keeps the reference on one line.
-    await page.setViewportSize(widths.phone);
+    await page.setViewportSize(viewports.phone);
     const box = (await reference.boundingBox())!;
     const lineHeight = await reference.evaluate((element) => parseFloat(getComputedStyle(element).lineHeight));
     expect(box.height).toBeLessThan(lineHeight * 1.5);
 
-    await page.setViewportSize(widths.desktop);
+    await page.setViewportSize(viewports.desktop);
     await Promise.all([page.waitForURL((url) => url.pathname === `/reports/${report.id}`), page.getByTestId("booking-report-link").click()]);
     await page.locator("[data-plot]").first().waitFor();
     const tableOrder = await page.locator("tr[data-code]").evaluateAll((rows) => rows.map((row) => row.getAttribute("data-code")));

@@ -1,38 +1,21 @@
 // Meeting at the machine in Chromium: the seller gives the site, the buyer reads it and takes the calendar
 // file, proposes another time, and the inspector accepts it.
-import { mkdirSync } from "node:fs";
-import type { Browser, Locator, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking } from "../../support/reports";
 
 const shots = "/tmp/inspections-screenshots";
-const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string, locator: Locator) {
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await locator.screenshot({ path: `${shots}/${name}-${label}.png` });
-  }
-}
+const browser = chromiumPerFile();
 
 describe("meeting at the machine", () => {
   it("the seller gives the site, the buyer reads it with a calendar file and proposes a time, the inspector accepts", async () => {
     const booked = await acceptedBooking();
     const path = `/bookings/${booked.bookingId}`;
 
-    const seller = await newRecordedPage(browser, widths.tablet);
+    const seller = await newRecordedPage(browser(), viewports.tablet);
     await signInPage(seller.page, booked.seller.email, booked.seller.password, path);
     await seller.page.waitForURL((url) => url.pathname === path);
     const form = seller.page.getByRole("form", { name: "Machine's address and contact" });
@@ -42,10 +25,10 @@ describe("meeting at the machine", () => {
     await form.getByLabel("Access notes").fill("Loading dock at the back; 07:00–15:00, ask at the gate.");
     await form.getByRole("button", { name: "Save the site details" }).click();
     await form.getByRole("status").filter({ hasText: "Saved." }).waitFor();
-    await screenshots(seller.page, "visit-seller", seller.page.getByTestId("visit-card"));
+    await screenshotAtEachSize(seller.page, shots, "visit-seller", { part: seller.page.getByTestId("visit-card") });
     await seller.context.close();
 
-    const buyer = await newRecordedPage(browser, widths.desktop);
+    const buyer = await newRecordedPage(browser(), viewports.desktop);
     await signInPage(buyer.page, booked.buyer.email, booked.buyer.password, path);
     await buyer.page.waitForURL((url) => url.pathname === path);
     const site = buyer.page.getByTestId("visit-site");
@@ -63,16 +46,16 @@ describe("meeting at the machine", () => {
     await buyer.page.getByTestId("visit-card").getByLabel("Reason (optional)").fill("The machine is rewired that week.");
     await buyer.page.getByRole("button", { name: "Send the request" }).click();
     await expect.poll(() => buyer.page.getByTestId("reschedule-request").textContent().catch(() => "")).toMatch(/You asked to move the visit to .*09:00/);
-    await screenshots(buyer.page, "visit-buyer-request", buyer.page.getByTestId("visit-card"));
+    await screenshotAtEachSize(buyer.page, shots, "visit-buyer-request", { part: buyer.page.getByTestId("visit-card") });
     await buyer.context.close();
 
-    const inspector = await newRecordedPage(browser, widths.phone);
+    const inspector = await newRecordedPage(browser(), viewports.phone);
     const inspectorPath = `/inspector/bookings/${booked.bookingId}`;
     await signInPage(inspector.page, booked.inspector.email, booked.inspector.password, inspectorPath);
     await inspector.page.waitForURL((url) => url.pathname === inspectorPath);
     const request = inspector.page.getByTestId("reschedule-request");
     await expect(request.textContent()).resolves.toMatch(/The buyer asks to move the visit to.*The machine is rewired that week/s);
-    await screenshots(inspector.page, "visit-inspector-answer", inspector.page.getByTestId("visit-card"));
+    await screenshotAtEachSize(inspector.page, shots, "visit-inspector-answer", { part: inspector.page.getByTestId("visit-card") });
     await request.getByRole("button", { name: "Accept the new time" }).click();
     await request.waitFor({ state: "detached" });
     const [y, m, d] = day.split("-").map(Number);

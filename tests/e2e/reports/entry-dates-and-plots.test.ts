@@ -1,38 +1,21 @@
 // The entry form in Chromium: the date of the tests against today and the booked visit, the message when a
 // level is chosen for heights, and the straightness plot's reference line through the end points.
-import { mkdirSync } from "node:fs";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking } from "../../support/reports";
 
 const shots = "/tmp/reports-screenshots";
-const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string, locator = page.locator("body")) {
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await locator.screenshot({ path: `${shots}/${name}-${label}.png` });
-  }
-}
+const browser = chromiumPerFile();
 
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * 86_400_000).toISOString().slice(0, 10);
 
 describe("the report entry form", () => {
   it("refuses a future date, warns on one before the visit, names the level's tilt, and draws the end-point line through the end points", async () => {
     const booked = await acceptedBooking();
-    const { context, page } = await newRecordedPage(browser, widths.tablet);
+    const { context, page } = await newRecordedPage(browser(), viewports.tablet);
     const entryPath = `/inspector/bookings/${booked.bookingId}/report`;
     await signInPage(page, booked.inspector.email, booked.inspector.password, entryPath);
     await page.waitForURL((url) => url.pathname === entryPath);
@@ -44,7 +27,7 @@ describe("the report entry form", () => {
     await expect.poll(() => page.locator("body").textContent()).toMatch(/The date of the tests is in the future/);
     await date.fill(isoDay(-2));
     await expect(page.getByTestId("date-warning").textContent()).resolves.toMatch(new RegExp(`${isoDay(-2)} is before the booked visit`));
-    await screenshots(page, "entry-date-warning", page.getByTestId("date-warning").locator(".."));
+    await screenshotAtEachSize(page, shots, "entry-date-warning", { part: page.getByTestId("date-warning").locator("..") });
 
     // Bed, vertical plane: heights in µm from a level — choosing the level says why its µm/m step does not apply.
     const bed = page.locator('[data-test-code="L-BED-V"]');
@@ -67,7 +50,7 @@ describe("the report entry form", () => {
     expect(ends[2]).toBeCloseTo(dots.at(-1)![0]!, 3);
     expect(ends[3]).toBeCloseTo(dots.at(-1)![1]!, 3);
     await expect(bed.textContent()).resolves.toContain("reference line (end points)");
-    await screenshots(page, "entry-bed-level", bed);
+    await screenshotAtEachSize(page, shots, "entry-bed-level", { part: bed });
     await context.close();
   });
 });

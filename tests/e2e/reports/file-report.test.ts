@@ -1,34 +1,17 @@
 // The inspector's second half of the story in Chromium: the accepted booking is made through the
 // inspections module (hold, payment on the Stripe stand-in, acceptance) in the setup, not through its pages.
-import { mkdirSync, readFileSync } from "node:fs";
-import type { Browser, Page } from "playwright-core";
+import { readFileSync } from "node:fs";
 import { PDFParse } from "pdf-parse";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking, completeForm, inspectorCookie, saveDraftOverHttp } from "../../support/reports";
 
 const shots = "/tmp/reports-screenshots";
 const widths = { tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 }, desktop: { width: 1280, height: 900 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
 
 describe("filing an accuracy report on a tablet", () => {
   it("enters readings with a live verdict, fails a mandrel leaning the wrong way by 2 µm, signs, and the listing shows the grade; the PDF carries the key figures", async () => {
@@ -38,7 +21,7 @@ describe("filing an accuracy report on a tablet", () => {
     earlier.safetyAcknowledged = false;
     expect((await saveDraftOverHttp(await inspectorCookie(booked.inspector), booked.bookingId, earlier)).status).toBe(200);
 
-    const { context, page } = await newRecordedPage(browser, widths.tablet);
+    const { context, page } = await newRecordedPage(browser(), viewports.tablet);
     const entryPath = `/inspector/bookings/${booked.bookingId}/report`;
     await signInPage(page, booked.inspector.email, booked.inspector.password, entryPath);
     await page.waitForURL((url) => url.pathname === entryPath);
@@ -77,7 +60,7 @@ describe("filing an accuracy report on a tablet", () => {
 
     // The draft reaches the server; a reload brings every reading back.
     await page.getByTestId("save-status").and(page.locator('[data-state="saved"]')).waitFor();
-    await screenshots(page, "entry");
+    await screenshotAtEachSize(page, shots, "entry");
     await page.reload();
     await expect(page.locator('[data-test-code="L-SP-PAR-H"]').getByLabel("Far, turned 180°", { exact: true }).inputValue()).resolves.toBe("−2");
     await expect(page.locator('[data-test-code="L-CAR-H"]').getByLabel("Station 5", { exact: true }).inputValue()).resolves.toBe("1000");
@@ -104,7 +87,7 @@ describe("filing an accuracy report on a tablet", () => {
     await reopened.getByRole("heading", { name: "Sign the report" }).waitFor();
     await reopened.getByLabel("Grade C").first().waitFor();
     await expect(reopened.locator('[data-code="L-SP-PAR-H"]').textContent()).resolves.toMatch(/Wrong way/);
-    await screenshots(reopened, "review");
+    await screenshotAtEachSize(reopened, shots, "review");
     await reopened.getByLabel(/I took these readings/).check();
     await Promise.all([reopened.waitForURL((url) => url.pathname.startsWith("/reports/")), reopened.getByRole("button", { name: "Sign and publish" }).click()]);
     await reopened.getByText("Signed and published.").waitFor();
@@ -114,7 +97,7 @@ describe("filing an accuracy report on a tablet", () => {
     await reopened.getByText("Hash verified").waitFor();
     await expect(reopened.locator('[data-plot="L-BED-V"] svg').count()).resolves.toBe(1);
     await expect(reopened.locator('[data-plot="L-SP-PAR-V"] svg').count()).resolves.toBe(1);
-    await screenshots(reopened, "report");
+    await screenshotAtEachSize(reopened, shots, "report");
 
     // The PDF certificate downloads and its text carries the grade, key figures and hash.
     const [download] = await Promise.all([reopened.waitForEvent("download"), reopened.getByRole("link", { name: "Download the certificate (PDF)" }).click()]);

@@ -1,34 +1,16 @@
 // A milling machine's report in Chromium: the inspector pastes the table's grid of heights from a CSV file, sees
 // the heights as a colour map with the live verdict, signs; a buyer then finds the mill by table flatness.
-import { mkdirSync } from "node:fs";
 import { randomUUID } from "node:crypto";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking, inspectorCookie, millForm, saveDraftOverHttp } from "../../support/reports";
 
 const shots = "/tmp/mill-screenshots";
 const widths = { tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 }, desktop: { width: 1280, height: 900 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
 
 // Heights in µm as a spreadsheet exports them: a header of x positions, a label per row, a decimal comma.
 const CSV = ["y\\x;0;300;600;900", "row 1;0;-2;-3;0", "row 2;1;-4;-5;1", "row 3;0;-2;-2;2"].join("\n");
@@ -40,7 +22,7 @@ describe("a milling machine's report", () => {
     // Every other test was typed earlier on this visit (saved as a draft).
     expect((await saveDraftOverHttp(await inspectorCookie(booked.inspector), booked.bookingId, { ...millForm(), safetyAcknowledged: false })).status).toBe(200);
 
-    const { context, page } = await newRecordedPage(browser, widths.tablet);
+    const { context, page } = await newRecordedPage(browser(), viewports.tablet);
     const entryPath = `/inspector/bookings/${booked.bookingId}/report`;
     await signInPage(page, booked.inspector.email, booked.inspector.password, entryPath);
     await page.waitForURL((url) => url.pathname === entryPath);
@@ -63,7 +45,7 @@ describe("a milling machine's report", () => {
     await expect(plot.getByTestId("zone-width").textContent()).resolves.toMatch(/^Zone \d+(\.\d)? µm wide$/);
     await expect(page.getByTestId("preview-bar").textContent()).resolves.toMatch(/of 11 required|grade [AB]/);
     await page.getByTestId("save-status").and(page.locator('[data-state="saved"]')).waitFor();
-    await screenshots(page, "mill-entry");
+    await screenshotAtEachSize(page, shots, "mill-entry");
 
     // A reload brings the pasted grid back from the saved draft.
     await page.reload();
@@ -80,7 +62,7 @@ describe("a milling machine's report", () => {
     const reportPlot = page.locator('[data-plot="M-TABLE-FLAT"]').getByTestId("surface-plot");
     await reportPlot.waitFor();
     await expect(reportPlot.locator("svg title").textContent()).resolves.toContain("heights over the surface");
-    await screenshots(page, "mill-report");
+    await screenshotAtEachSize(page, shots, "mill-report");
     const flatness = Number((await figures.textContent())!.match(/Table flatness([\d.]+) µm/)![1]);
 
     // A buyer searches by table flatness: the mill is within a limit just above its figure, and not below it.
@@ -97,7 +79,7 @@ describe("a milling machine's report", () => {
       .toBe(1);
     const card = buyer.locator(`[data-listing-id="${booked.listing.id}"]`);
     await expect(card.textContent()).resolves.toMatch(/Table flatness/);
-    await screenshots(buyer, "mill-search");
+    await screenshotAtEachSize(buyer, shots, "mill-search");
     await buyer.goto(`/machines?q=${word}&flatnessMax=${Math.max(0.1, Math.floor(flatness) - 1)}`);
     await buyer.getByTestId("empty-results").waitFor();
     await context.close();
