@@ -20,7 +20,7 @@ import {
 } from "../../../search/document.ts";
 import type { ListingSearchQuery, NumberRange } from "../../../search/query.ts";
 import { listingSearch } from "./schema";
-import { LISTING_FACETS, type ListingFacet, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
+import { LISTING_FACETS, type ListingCursorKey, type ListingFacet, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
 
 /** A listing as the search sees it, with its current report and when that report was signed. */
 export type SourceListing = { listing: SearchableListing; report: SearchableReport | null; reportSignedAt: Date | null };
@@ -70,7 +70,7 @@ type JoinedRow = {
  * The report figures of each row as its signed credential seals them: a report whose stored columns no longer
  * match its credential (or whose credential fails) is left out, so neither the index nor a page shows it.
  */
-async function sealed(db: Database, rows: JoinedRow[]): Promise<JoinedRow[]> {
+async function sealed<Row extends JoinedRow>(db: Database, rows: Row[]): Promise<Row[]> {
   return Promise.all(
     rows.map(async (row) => {
       if (!row.reportId || !row.grade || !row.measuredOn) return row;
@@ -200,58 +200,108 @@ function idsCondition(ids: string[]): SQL {
   return valid.length ? inArray(s.listingId, valid) : sql`false`;
 }
 
+// Each condition keyed by what it tests and with which values, so that the searches of one request can share the
+// conditions they have in common (searchListingsInDatabaseTogether).
+type KeyedCondition = { key: string; condition: SQL };
+
 /** The same conditions as search/query.ts's listingFilter, written against listing_search. */
-function conditionsFor(query: ListingSearchQuery, now: Date): SQL | undefined {
+function conditionsFor(query: ListingSearchQuery, now: Date): KeyedCondition[] {
+  const keyed: KeyedCondition[] = [];
+  const put = (key: string, value: unknown, conditions: SQL | SQL[] | undefined) => {
+    const list = conditions === undefined ? [] : Array.isArray(conditions) ? conditions : [conditions];
+    list.forEach((condition, position) => keyed.push({ key: `${key}#${position}:${JSON.stringify(value)}`, condition }));
+  };
   const words = (query.text ?? "").trim().split(/\s+/).filter(Boolean).slice(0, 8);
-  const textConditions = words.map((word) => {
+  for (const word of words) {
     const folded = foldWord(word);
     const categories = machineCategories.filter((category) => foldWord(category.label).includes(folded)).map((category) => category.value);
     const matches = sql`${s.searchText} like ${`%${escapeLike(folded)}%`}`;
-    return categories.length ? or(matches, inArray(s.category, categories as (typeof machineCategories)[number]["value"][]))! : matches;
-  });
-  const conditions: (SQL | undefined)[] = [
-    query.ids ? idsCondition(query.ids) : undefined,
-    inArray(s.status, (query.statuses ?? ["published"]) as (typeof listings.status.enumValues)[number][]),
-    query.categories?.length ? inArray(s.category, query.categories as (typeof listings.category.enumValues)[number][]) : undefined,
-    query.grades?.length ? inArray(s.grade, query.grades) : undefined,
-    query.verifiedOnly ? eq(s.verified, true) : undefined,
-    query.currency ? eq(s.currency, query.currency) : undefined,
-    ...rangeOf(s.priceMinor, query.priceMinor),
-    ...rangeOf(s.swingMm, query.swingMm),
-    ...rangeOf(s.betweenCentresMm, query.betweenCentresMm),
-    ...atMost(s.spindleRunoutUm, query.maxSpindleRunoutUm),
-    ...atMost(s.axialSlipUm, query.maxAxialSlipUm),
-    ...atMost(s.parallelismVerticalUm, query.maxSpindleParallelismUm),
-    ...atMost(s.parallelismHorizontalUm, query.maxSpindleParallelismUm),
-    ...atMost(s.centreHeightUm, query.maxCentreHeightUm),
-    ...atMost(s.bedStraightnessUm, query.maxBedStraightnessUm),
-    ...figureAtMost("tableFlatness", query.maxTableFlatnessUm),
-    ...figureAtMost("travelSquareness", query.maxTravelSquarenessUm),
-    query.maxReportAgeDays === undefined
-      ? undefined
-      : gte(s.measuredOn, new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10)),
-    query.countries?.length ? inArray(s.country, query.countries) : undefined,
-    query.region ? eq(s.regionKey, facetText(query.region)) : undefined,
-    ...textConditions,
-  ];
-  return and(...conditions);
+    put("word", folded, categories.length ? or(matches, inArray(s.category, categories as (typeof machineCategories)[number]["value"][]))! : matches);
+  }
+  if (query.ids) put("ids", query.ids, idsCondition(query.ids));
+  const statuses = query.statuses ?? ["published"];
+  put("statuses", statuses, inArray(s.status, statuses as (typeof listings.status.enumValues)[number][]));
+  if (query.categories?.length) put("categories", query.categories, inArray(s.category, query.categories as (typeof listings.category.enumValues)[number][]));
+  if (query.grades?.length) put("grades", query.grades, inArray(s.grade, query.grades));
+  if (query.verifiedOnly) put("verified", true, eq(s.verified, true));
+  if (query.currency) put("currency", query.currency, eq(s.currency, query.currency));
+  put("price", query.priceMinor ?? null, rangeOf(s.priceMinor, query.priceMinor));
+  put("swing", query.swingMm ?? null, rangeOf(s.swingMm, query.swingMm));
+  put("centres", query.betweenCentresMm ?? null, rangeOf(s.betweenCentresMm, query.betweenCentresMm));
+  put("runout", query.maxSpindleRunoutUm ?? null, atMost(s.spindleRunoutUm, query.maxSpindleRunoutUm));
+  put("axialSlip", query.maxAxialSlipUm ?? null, atMost(s.axialSlipUm, query.maxAxialSlipUm));
+  put("parallelismVertical", query.maxSpindleParallelismUm ?? null, atMost(s.parallelismVerticalUm, query.maxSpindleParallelismUm));
+  put("parallelismHorizontal", query.maxSpindleParallelismUm ?? null, atMost(s.parallelismHorizontalUm, query.maxSpindleParallelismUm));
+  put("centreHeight", query.maxCentreHeightUm ?? null, atMost(s.centreHeightUm, query.maxCentreHeightUm));
+  put("bedStraightness", query.maxBedStraightnessUm ?? null, atMost(s.bedStraightnessUm, query.maxBedStraightnessUm));
+  put("tableFlatness", query.maxTableFlatnessUm ?? null, figureAtMost("tableFlatness", query.maxTableFlatnessUm));
+  put("travelSquareness", query.maxTravelSquarenessUm ?? null, figureAtMost("travelSquareness", query.maxTravelSquarenessUm));
+  if (query.maxReportAgeDays !== undefined) {
+    const since = new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10);
+    put("reportAge", since, gte(s.measuredOn, since));
+  }
+  if (query.countries?.length) put("countries", query.countries, inArray(s.country, query.countries));
+  if (query.region) put("region", facetText(query.region), eq(s.regionKey, facetText(query.region)));
+  return keyed;
 }
+
+const allOf = (keyed: KeyedCondition[]) => and(...keyed.map((entry) => entry.condition));
+
+/** One column of a sort: its direction, and whether it can be null (nulls always sort last). */
+type SortKey = { column: SQL; descending: boolean; nullable: boolean; cast: string };
+
+const newestKeys: SortKey[] = [
+  { column: sql`${s.publishedAt}`, descending: true, nullable: true, cast: "timestamptz" },
+  { column: sql`${s.listingId}`, descending: true, nullable: false, cast: "uuid" },
+];
 
 // Each order matches an index of listing_search (nulls placed as the index places them), so a page is read
 // from the index in order and stops at its last row.
-function orderFor(query: ListingSearchQuery): SQL[] {
-  const newest = [sql`${s.publishedAt} desc nulls last`, sql`${s.listingId} desc nulls last`];
+function sortKeysFor(query: ListingSearchQuery): SortKey[] {
   switch (query.sort ?? "relevance") {
     case "price-ascending":
-      return [asc(s.priceMinor), ...newest];
+      return [{ column: sql`${s.priceMinor}`, descending: false, nullable: false, cast: "bigint" }, ...newestKeys];
     case "price-descending":
-      return [desc(s.priceMinor), ...newest];
+      return [{ column: sql`${s.priceMinor}`, descending: true, nullable: false, cast: "bigint" }, ...newestKeys];
     case "best-accuracy":
-      return [sql`${s.gradeRank} asc nulls last`, sql`${s.spindleRunoutUm} asc nulls last`, ...newest];
+      return [
+        { column: sql`${s.gradeRank}`, descending: false, nullable: true, cast: "smallint" },
+        { column: sql`${s.spindleRunoutUm}`, descending: false, nullable: true, cast: "double precision" },
+        ...newestKeys,
+      ];
     default:
       // Without the index's text ranking, newest first is the most useful order.
-      return newest;
+      return newestKeys;
   }
+}
+
+const orderOf = (keys: SortKey[]) => keys.map((key) => sql`${key.column} ${sql.raw(key.descending ? "desc" : "asc")} nulls last`);
+
+/** A sort column's value as a cursor carries it: timestamps as PostgreSQL's own text, so that no microsecond is lost. */
+const keyValueOf = (key: SortKey) => (key.cast === "timestamptz" ? sql`${key.column}::text` : key.column);
+
+/**
+ * The rows strictly after `after` in the order of `keys` (nulls last): for each column, the rows equal on
+ * every column before it and after it on this one. A non-null leading column also bounds the index scan.
+ */
+function afterCondition(keys: SortKey[], after: ListingCursorKey): SQL | undefined {
+  if (after.length !== keys.length) return undefined;
+  const value = (position: number) => sql`${after[position]}::${sql.raw(keys[position]!.cast)}`;
+  const equal = (position: number) => (after[position] === null ? sql`${keys[position]!.column} is null` : sql`${keys[position]!.column} = ${value(position)}`);
+  const beyond = (position: number): SQL | undefined => {
+    const key = keys[position]!;
+    // Nothing sorts after a null: the rows after it are those equal on it and after it on a later column.
+    if (after[position] === null) return undefined;
+    const strictly = sql`${key.column} ${sql.raw(key.descending ? "<" : ">")} ${value(position)}`;
+    return key.nullable ? or(strictly, sql`${key.column} is null`) : strictly;
+  };
+  const terms = keys.map((_, position) => {
+    const strictly = beyond(position);
+    return strictly ? and(...Array.from({ length: position }, (_, before) => equal(before)), strictly) : undefined;
+  });
+  const lead = keys[0]!;
+  const bound = after[0] !== null && !lead.nullable ? sql`${lead.column} ${sql.raw(lead.descending ? "<=" : ">=")} ${value(0)}` : undefined;
+  return and(bound, or(...terms.filter((term): term is SQL => term !== undefined)) ?? sql`false`);
 }
 
 const facetColumns: Record<ListingFacet, SQL> = {
@@ -265,34 +315,52 @@ const facetColumns: Record<ListingFacet, SQL> = {
 const facetGroupings: Record<ListingFacet, number> = { category: 0b0111, grade: 0b1011, verified: 0b1101, country: 0b1110 };
 const totalGrouping = 0b1111;
 
-/**
- * The buyer's search run against PostgreSQL: the same filters, sorts, page and facet counts as the index,
- * with plain word matching instead of the index's ranking and typo tolerance. Two queries: the page (the
- * listing, seller, report and cover joined for its rows only), and the total with the facets asked for in
- * one grouped pass over listing_search; a search for counts alone (`hitsPerPage: 0`) runs the second only.
- */
-export async function searchListingsInDatabase(db: Database, query: ListingSearchRequest, now: Date = new Date()): Promise<ListingSearchResult> {
-  const started = performance.now();
-  const hitsPerPage = query.hitsPerPage ?? 20;
-  const page = query.page ?? 1;
-  const where = conditionsFor(query, now);
-  const facetNames = [...(query.facets ?? LISTING_FACETS)];
+type DatabaseResult = ListingSearchResult & {
+  /** The page's last row's sort values (null past the last page): where a cursor continues. */
+  nextKey: ListingCursorKey | null;
+};
 
-  const pageRows = async (): Promise<JoinedRow[]> => {
+/** The buyer's search run against PostgreSQL (searchListingsInDatabaseTogether with one search). */
+export async function searchListingsInDatabase(db: Database, query: ListingSearchRequest, now: Date = new Date()): Promise<DatabaseResult> {
+  const [result] = await searchListingsInDatabaseTogether(db, [query], now);
+  return result!;
+}
+
+/**
+ * The buyer's searches run against PostgreSQL: the same filters, sorts, pages and facet counts as the index,
+ * with plain word matching instead of the index's ranking and typo tolerance. One query per page asked for
+ * (the listing, seller, report and cover joined for its rows only), read after the request's cursor key
+ * (`after`, keyset) or else at its page's offset; and one grouped pass over listing_search for every total
+ * and facet of every search together: the conditions all searches share filter the rows, and each search
+ * counts its own rows with `count(*) filter (where …)`.
+ */
+export async function searchListingsInDatabaseTogether(db: Database, queries: ListingSearchRequest[], now: Date = new Date()): Promise<DatabaseResult[]> {
+  const started = performance.now();
+  if (!queries.length) return [];
+  const conditions = queries.map((query) => conditionsFor(query, now));
+
+  const pageRows = async (query: ListingSearchRequest, where: SQL | undefined): Promise<(JoinedRow & { cursorKey: ListingCursorKey })[]> => {
+    const hitsPerPage = query.hitsPerPage ?? 20;
     if (hitsPerPage === 0) return [];
     // The page's ids first, in order, from listing_search alone (an index read in order that stops at the
     // page's last row); the listing, seller, report and cover are joined for those rows only.
-    const order = orderFor(query);
+    const keys = sortKeysFor(query);
+    const order = orderOf(keys);
+    const after = query.after ? afterCondition(keys, query.after) : undefined;
     const ids = db
-      .select({ listingId: s.listingId, position: sql<number>`row_number() over (order by ${sql.join(order, sql`, `)})`.as("position") })
+      .select({
+        listingId: s.listingId,
+        position: sql<number>`row_number() over (order by ${sql.join(order, sql`, `)})`.as("position"),
+        cursorKey: sql<ListingCursorKey>`json_build_array(${sql.join(keys.map(keyValueOf), sql`, `)})`.as("cursor_key"),
+      })
       .from(s)
-      .where(where)
+      .where(and(where, after))
       .orderBy(...order)
       .limit(hitsPerPage)
-      .offset((page - 1) * hitsPerPage)
+      .offset(after ? 0 : ((query.page ?? 1) - 1) * hitsPerPage)
       .as("page");
     return db
-      .select(joinedSelection)
+      .select({ ...joinedSelection, cursorKey: ids.cursorKey })
       .from(ids)
       .innerJoin(listings, eq(listings.id, ids.listingId))
       .innerJoin(user, eq(user.id, listings.sellerId))
@@ -300,12 +368,25 @@ export async function searchListingsInDatabase(db: Database, query: ListingSearc
       .leftJoin(reports, currentReportOf(s.reportId))
       .orderBy(ids.position);
   };
-  const facetRows = async (): Promise<{ grouping: number; value: string | null; count: number }[]> => {
+
+  // What every search filters on is the scan's condition; what differs is counted per search.
+  const shared = conditions[0]!.filter((entry) => conditions.every((own) => own.some((other) => other.key === entry.key)));
+  const sharedKeys = new Set(shared.map((entry) => entry.key));
+  const ownConditions = conditions.map((own) => allOf(own.filter((entry) => !sharedKeys.has(entry.key))) ?? sql`true`);
+  const anyOwn = ownConditions.length > 1 && conditions.every((own) => own.some((entry) => !sharedKeys.has(entry.key))) ? or(...ownConditions) : undefined;
+  const facetNames = LISTING_FACETS.filter((facet) => queries.some((query) => (query.facets ?? LISTING_FACETS).includes(facet)));
+  const counts = queries.map((_, position) =>
+    (queries.length === 1 ? sql`count(*)` : sql`count(*) filter (where ${ownConditions[position]})`).mapWith(Number).as(`count_${position}`),
+  );
+
+  type CountRow = { grouping: number; value: string | null } & Record<string, unknown>;
+  const countRows = async (): Promise<CountRow[]> => {
+    const where = and(allOf(shared), anyOwn);
     if (!facetNames.length) {
-      const [row] = await db.select({ count: count() }).from(s).where(where);
-      return [{ grouping: totalGrouping, value: null, count: row?.count ?? 0 }];
+      const rows = await db.select(Object.fromEntries(counts.map((column, position) => [`count_${position}`, column]))).from(s).where(where);
+      return rows.map((row) => ({ ...row, grouping: totalGrouping, value: null }));
     }
-        const sets = facetNames.map((facet) => sql`(${facetColumns[facet]})`);
+    const sets = facetNames.map((facet) => sql`(${facetColumns[facet]})`);
     // GROUPING() bits in LISTING_FACETS' order (a facet not asked for counts as aggregated away), and the
     // value of the one facet a row is grouped by (the others are null in its grouping set).
     const bits = LISTING_FACETS.map((facet, position) => {
@@ -314,33 +395,51 @@ export async function searchListingsInDatabase(db: Database, query: ListingSearc
     });
     const value = sql`coalesce(${sql.join(facetNames.map((facet) => facetColumns[facet]), sql`, `)})`;
     return db
-      .select({ grouping: sql<number>`${sql.join(bits, sql` + `)}`.mapWith(Number), value: sql<string | null>`${value}`, count: count() })
+      .select({
+        grouping: sql<number>`${sql.join(bits, sql` + `)}`.mapWith(Number),
+        value: sql<string | null>`${value}`,
+        ...Object.fromEntries(counts.map((column, position) => [`count_${position}`, column])),
+      })
       .from(s)
       .where(where)
-      .groupBy(sql`grouping sets (${sql.join([...sets, sql`()`], sql`, `)})`);
+      .groupBy(sql`grouping sets (${sql.join([...sets, sql`()`], sql`, `)})`) as Promise<CountRow[]>;
   };
-  const [rows, grouped] = await Promise.all([pageRows().then((found) => sealed(db, found)), facetRows()]);
 
-  const facets = Object.fromEntries(LISTING_FACETS.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
-  let total = 0;
-  for (const row of grouped) {
-    if (row.grouping === totalGrouping) {
-      total = Number(row.count);
-      continue;
+  const [pages, grouped] = await Promise.all([
+    Promise.all(queries.map(async (query, position) => sealed(db, await pageRows(query, allOf(conditions[position]!))))),
+    countRows(),
+  ]);
+
+  return queries.map((query, position) => {
+    const hitsPerPage = query.hitsPerPage ?? 20;
+    const page = query.page ?? 1;
+    const asked = query.facets ?? LISTING_FACETS;
+    const facets = Object.fromEntries(LISTING_FACETS.map((facet) => [facet, {} as Record<string, number>])) as ListingSearchResult["facets"];
+    let total = 0;
+    for (const row of grouped) {
+      const counted = Number(row[`count_${position}`] ?? 0);
+      if (row.grouping === totalGrouping) {
+        total = counted;
+        continue;
+      }
+      const facet = facetNames.find((name) => facetGroupings[name] === row.grouping);
+      if (facet && asked.includes(facet) && counted > 0 && row.value !== null && row.value !== undefined) facets[facet][String(row.value)] = counted;
     }
-    const facet = facetNames.find((name) => facetGroupings[name] === row.grouping);
-    if (facet && row.value !== null && row.value !== undefined) facets[facet][String(row.value)] = Number(row.count);
-  }
-  return {
-    hits: rows.map((row) => {
-      const source = toSource(row);
-      return listingToSearchDocument(source.listing, source.report) satisfies ListingSearchDocument;
-    }),
-    totalHits: total,
-    page,
-    hitsPerPage,
-    totalPages: hitsPerPage === 0 ? 0 : Math.ceil(total / hitsPerPage),
-    facets,
-    processingTimeMs: Math.round(performance.now() - started),
-  };
+    const rows = pages[position]!;
+    const totalPages = hitsPerPage === 0 ? 0 : Math.ceil(total / hitsPerPage);
+    const last = rows.at(-1);
+    return {
+      hits: rows.map((row) => {
+        const source = toSource(row);
+        return listingToSearchDocument(source.listing, source.report) satisfies ListingSearchDocument;
+      }),
+      totalHits: total,
+      page,
+      hitsPerPage,
+      totalPages,
+      facets,
+      processingTimeMs: Math.round(performance.now() - started),
+      nextKey: last && rows.length === hitsPerPage ? last.cursorKey : null,
+    };
+  });
 }

@@ -7,6 +7,8 @@ import { inchesToMicrometres, inchesToMillimetres } from "~/geometry/units";
 import { machineCategories } from "~/modules/listings/catalogue";
 import { currencies, toMinorUnits } from "~/modules/units/format";
 import { listingSorts, type ListingSearchQuery } from "../../../search/query.ts";
+import { decodeListingCursor, MAX_CURSOR_LENGTH } from "./cursor.server";
+import type { ListingCursorKey } from "./search.server";
 
 export const MAX_HITS_PER_PAGE = 48;
 export const DEFAULT_HITS_PER_PAGE = 12;
@@ -80,6 +82,11 @@ export const listingSearchParamsSchema = z
     reportAgeMax: whole("Report age (days)", 1, 3650),
     sort: z.preprocess(blankAsMissing, z.enum(listingSorts, { error: `Sort must be one of ${listingSorts.join(", ")}.` }).optional()),
     page: whole("Page", 1, 1000),
+    // The continuation cursor of a previous answer (`nextCursor`): checked against this search below.
+    after: z.preprocess(
+      blankAsMissing,
+      z.string().max(MAX_CURSOR_LENGTH, { error: "This page link is not valid (it is too long); start the search again from its first page." }).optional(),
+    ),
     perPage: whole("Results per page", 1, MAX_HITS_PER_PAGE),
     // Only the words of suggestions and summaries; numbers in parameters and answers stay µm and mm.
     units: z.preprocess(blankAsMissing, z.enum(["mm", "inch"], { error: "Units must be mm or inch." }).optional()),
@@ -194,7 +201,7 @@ export function paramsFromQuery(query: ListingSearchQuery, options: { withPage?:
 }
 
 export type ParsedSearchParams =
-  | { success: true; query: ListingSearchQuery; units: "mm" | "inch" | undefined }
+  | { success: true; query: ListingSearchQuery; units: "mm" | "inch" | undefined; after: ListingCursorKey | null }
   | { success: false; errors: Record<string, string[]> };
 
 /** Validates the parameters; on failure, the messages per parameter name. */
@@ -211,5 +218,11 @@ export function parseListingSearchParams(params: URLSearchParams): ParsedSearchP
   for (const [key, messages] of Object.entries(crossFieldErrors(values as Partial<ListingSearchParams>))) (errors[key] ??= []).push(...messages);
   if (Object.keys(errors).length) return { success: false, errors };
   const parsed = listingSearchParamsSchema.parse(raw);
-  return { success: true, query: queryFromParams(parsed), units: parsed.units };
+  const query = queryFromParams(parsed);
+  // A page asked for by number (the page's numbered links) wins over a cursor left in the address.
+  if (!parsed.after || parsed.page !== undefined) return { success: true, query, units: parsed.units, after: null };
+  // A cursor names the page it continues to; it must have been made for this very search.
+  const decoded = decodeListingCursor(parsed.after, query, paramsFromQuery(query).toString());
+  if (!decoded.ok) return { success: false, errors: { after: [decoded.message] } };
+  return { success: true, query: { ...query, page: decoded.cursor.page }, units: parsed.units, after: decoded.cursor.key };
 }

@@ -63,8 +63,15 @@ export const LISTING_HIT_ATTRIBUTES = [
 
 export type ListingSearchHit = Pick<ListingSearchDocument, (typeof LISTING_HIT_ATTRIBUTES)[number]>;
 
-/** A search and the facets to count for it (all four unless said; none for a total alone). */
-export type ListingSearchRequest = ListingSearchQuery & { facets?: readonly ListingFacet[] };
+/** The last row's sort values (each a string, a finite number or null): where the next page starts. */
+export type ListingCursorKey = (string | number | null)[];
+
+/**
+ * A search and the facets to count for it (all four unless said; none for a total alone). `after` is the
+ * previous page's last sort key: PostgreSQL reads the page after it (keyset); the index, which pages by
+ * number, reads `page`.
+ */
+export type ListingSearchRequest = ListingSearchQuery & { facets?: readonly ListingFacet[]; after?: ListingCursorKey };
 
 export type ListingSearchResult = {
   hits: ListingSearchHit[];

@@ -7,11 +7,13 @@ import { formatLength, formatMoney } from "~/modules/units/format";
 import type { ListingSearchQuery } from "../../../search/query.ts";
 import { describeSearch } from "./describe";
 import { accuracyFilters, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
-import { searchListingsInDatabase } from "./listing-source.server";
+import { encodeListingCursor, MAX_CURSOR_PAGE } from "./cursor.server";
+import { searchListingsInDatabase, searchListingsInDatabaseTogether } from "./listing-source.server";
 import {
   LISTING_FACETS,
   listingSearch,
   SearchUnavailableError,
+  type ListingCursorKey,
   type ListingFacet,
   type ListingSearch,
   type ListingSearchHit,
@@ -73,6 +75,11 @@ export type MachineSearch = {
   /** For an empty result: what widening one filter would find. */
   emptyBecause: string | null;
   suggestions: WidenSuggestion[];
+  /**
+   * The next page's cursor (`after=…`), or null on the last page: from PostgreSQL it continues after this
+   * page's last row, so that listings added or removed meanwhile neither repeat nor skip a result.
+   */
+  nextCursor: string | null;
   /** The search as canonical parameters (no page), for links and saving. */
   queryString: string;
   /** The search in words, in the reader's units (a saved search's default name). */
@@ -156,7 +163,7 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
           source = "database";
         }
       }
-      return Promise.all(queries.map((query) => searchListingsInDatabase(db, query, now)));
+      return searchListingsInDatabaseTogether(db, queries, now);
     },
   };
 }
@@ -252,7 +259,7 @@ function suggestion(candidate: Relaxation, count: number): WidenSuggestion {
 export async function searchMachines(
   db: Database,
   query: ListingSearchQuery,
-  options: { units?: DisplayUnits; now?: Date; search?: ListingSearch } = {},
+  options: { units?: DisplayUnits; now?: Date; search?: ListingSearch; after?: ListingCursorKey | null } = {},
 ): Promise<MachineSearch> {
   const units = options.units ?? "mm";
   const finder = createListingFinder(db, options);
@@ -263,7 +270,7 @@ export async function searchMachines(
   if (query.grades?.length) facetSearches.push({ facet: "grade", query: countOnly({ ...query, grades: undefined }, ["grade"]) });
   if (query.verifiedOnly) facetSearches.push({ facet: "verified", query: countOnly({ ...query, verifiedOnly: undefined }, ["verified"]) });
   const pageFacets = LISTING_FACETS.filter((facet) => !facetSearches.some((search) => search.facet === facet));
-  const [result, ...others] = await finder.findAll([{ ...query, facets: pageFacets }, ...facetSearches.map((search) => search.query)]);
+  const [result, ...others] = await finder.findAll([{ ...query, facets: pageFacets, after: options.after ?? undefined }, ...facetSearches.map((search) => search.query)]);
   const facetsWithout = (facet: "category" | "grade" | "verified") => {
     const position = facetSearches.findIndex((search) => search.facet === facet);
     return (position < 0 ? result! : others[position]!).facets[facet];
@@ -271,6 +278,12 @@ export async function searchMachines(
   const [categoryFacets, gradeFacets, verifiedFacets] = [facetsWithout("category"), facetsWithout("grade"), facetsWithout("verified")];
   const empty = result!.totalHits === 0;
   const suggestions = empty ? await widenSuggestions(finder, query, units) : [];
+  const queryString = paramsFromQuery(query).toString();
+  const nextKey = "nextKey" in result! ? (result.nextKey as ListingCursorKey | null) : null;
+  const nextCursor =
+    result!.page < result!.totalPages && result!.page < MAX_CURSOR_PAGE && result!.hits.length > 0
+      ? encodeListingCursor(query, queryString, { page: result!.page + 1, key: finder.source === "database" ? nextKey : null })
+      : null;
   return {
     source: finder.source,
     notice: finder.source === "database" ? INCOMPLETE_NOTICE : null,
@@ -287,7 +300,8 @@ export async function searchMachines(
     },
     emptyBecause: empty ? describeEmpty(query, units) : null,
     suggestions,
-    queryString: paramsFromQuery(query).toString(),
+    nextCursor,
+    queryString,
     summary: describeSearch(query, units),
   };
 }

@@ -12,6 +12,6 @@ export async function loader({ request, context }: Route.LoaderArgs) {
       { status: 400, headers: { "cache-control": "no-store" } },
     );
   }
-  const search = await searchMachines(context.get(databaseContext), parsed.query, { units: parsed.units });
+  const search = await searchMachines(context.get(databaseContext), parsed.query, { units: parsed.units, after: parsed.after });
   return Response.json(search, { headers: { "cache-control": "no-store" } });
 }

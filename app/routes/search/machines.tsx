@@ -24,7 +24,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const account = viewer ? { verified: viewer.emailVerified } : null;
   const parsed = parseListingSearchParams(new URL(request.url).searchParams);
   if (!parsed.success) return { units, account, search: null, errors: parsed.errors, now: Date.now() };
-  const search = await searchMachines(context.get(databaseContext), parsed.query, { units });
+  const search = await searchMachines(context.get(databaseContext), parsed.query, { units, after: parsed.after });
   return { units, account, search, errors: null, now: Date.now() };
 }
 

@@ -449,7 +449,7 @@ const targets: Target[] = [
       fc.tuple(fc.constantFrom("q", "region"), fc.oneof(junkText, longInQuery(200))).map(([name, value]): Payload => ({ method: "GET", query: `?${new URLSearchParams({ [name]: value })}` })),
       fc
       .tuple(
-        fc.constantFrom("priceMin", "priceMax", "swingMin", "swingMax", "runoutMax", "page", "sort", "category", "grade", "units", "verified"),
+        fc.constantFrom("priceMin", "priceMax", "swingMin", "swingMax", "runoutMax", "page", "sort", "category", "grade", "units", "verified", "after"),
         // Long, but within the 16 KB a request line may have (Node answers 431 beyond it).
         fc.oneof(notANumber, fc.constantFrom("-1", "Infinity", "NaN", "1e309", "unknown-value", "-0.5"), fc.integer({ min: 2_001, max: 8_000 }).map((length) => "9".repeat(length))),
       )
