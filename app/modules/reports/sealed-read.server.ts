@@ -34,18 +34,28 @@ export type SealedReading =
   | { ok: false; reason: string; mismatched: string[] };
 
 type KnownKey = { publicKey: Uint8Array; validFrom: number; validUntil: number };
-let keyCache: { at: number; keys: Map<string, KnownKey> } | undefined;
+let keyCache: { at: number; keys: Promise<Map<string, KnownKey>> } | undefined;
 const KEY_CACHE_MS = 60_000;
 
+// One read for every report of a page: the reads that start while the keys are being loaded share it.
 async function registeredKeys(db: Executor): Promise<Map<string, KnownKey>> {
   if (keyCache && Date.now() - keyCache.at < KEY_CACHE_MS) return keyCache.keys;
+  const entry = { at: Date.now(), keys: loadKeys(db) };
+  keyCache = entry;
+  // A failed read is not kept: the next report tries again.
+  entry.keys.catch(() => {
+    if (keyCache === entry) keyCache = undefined;
+  });
+  return entry.keys;
+}
+
+async function loadKeys(db: Executor): Promise<Map<string, KnownKey>> {
   const rows = await db.select().from(reportSigningKeys).orderBy(asc(reportSigningKeys.validFrom));
   const keys = new Map<string, KnownKey>();
   for (const row of rows) {
     const publicKey = publicKeyFromMultibase(row.publicKeyMultibase);
     if (publicKey) keys.set(row.id, { publicKey, validFrom: row.validFrom.getTime(), validUntil: row.validUntil?.getTime() ?? Number.POSITIVE_INFINITY });
   }
-  keyCache = { at: Date.now(), keys };
   return keys;
 }
 
