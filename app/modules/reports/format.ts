@@ -1,5 +1,6 @@
 // Deviations and tolerances for display, in the reader's units. Scoring and storage never round; pages do.
-import { micrometresToInches } from "~/geometry";
+// From the engine's own files, not its index: the index would bring the whole engine into the pages.
+import { micrometresToInches } from "~/geometry/units";
 import type { DisplayUnits } from "~/modules/units/format";
 import { formatDate } from "~/modules/units/dates";
 

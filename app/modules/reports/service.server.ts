@@ -50,7 +50,7 @@ import { SAFETY_CAUTIONS } from "./safety";
 import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
 import { reportUrl, verificationUrl } from "./links.server";
 import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
-import { unrenderableNotice, unrenderableReason } from "./stored-readings";
+import { unrenderableNotice, unrenderableReason } from "./unrenderable";
 import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
 import { readSealedReport } from "./sealed-read.server";
 import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";

@@ -1,6 +1,7 @@
 // Where a report's tolerances come from, in the words the report page, the certificate and the listing use.
 // Pure: reports scored before confidences were recorded carry source lines alone, read by confidenceOfLabel.
-import { CONFIDENCE_LABELS, confidenceOfLabel, testsScoredFromMemory, type ReportScore, type SourceConfidence, type TestResult } from "~/geometry";
+import type { ReportScore, SourceConfidence, TestResult } from "~/geometry";
+import { CONFIDENCE_LABELS, confidenceOfLabel, testsScoredFromMemory } from "~/geometry/sources";
 
 export const HOW_SCORING_WORKS_SOURCES = "/how-scoring-works#sources";
 

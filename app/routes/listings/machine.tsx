@@ -1,10 +1,11 @@
-import { getFormProps, useForm } from "@conform-to/react";
 import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
-import { data, Form, Link, useActionData, useNavigation } from "react-router";
+import { lazy, Suspense } from "react";
+import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import { PhotoGallery } from "~/components/listings/photo-gallery";
 import { StatusBadge } from "~/components/listings/status-badge";
-import { Badge, Button, ButtonLink, Card, CardBody, CardHeader, TextAreaField, TextField } from "~/components/ui";
+import type { InquiryConstraint } from "~/components/listings/inquiry-form";
+import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
 import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
@@ -19,6 +20,9 @@ import { currentReportForListing, type ListingReportSummary } from "~/modules/re
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
 import { formatPower, formatWeight } from "~/modules/units/weight-power";
 import type { Route } from "./+types/machine";
+
+// Only a signed-in visitor gets the question form, so only they download it (and Conform with it).
+const InquiryForm = lazy(() => import("~/components/listings/inquiry-form").then((module) => ({ default: module.InquiryForm })));
 
 export const meta: Route.MetaFunction = ({ data }) =>
   data
@@ -35,7 +39,9 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
   const rebuild = await publicRebuildForListing(context.get(databaseContext), found.listing.id);
   const history = await machineHistory(context.get(databaseContext), found.listing.id);
-  return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer) };
+  // The question form's limits are read from its schema here, so that the page's script carries no schema.
+  const inquiryConstraint: InquiryConstraint | null = viewer ? getZodConstraint(inquiryFormSchema) : null;
+  return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer), inquiryConstraint };
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });
@@ -162,7 +168,7 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
         <aside className="space-y-6 lg:col-start-2 lg:row-start-2">
           <AccuracyPanel slug={listing.slug} category={listing.category} report={loaderData.accuracy} units={units} now={loaderData.now} />
 
-          {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} signedIn={signedIn} /> : null}
+          {listing.status === "published" && !isManager ? <InquiryCard listingId={listing.id} sellerName={sellerName} constraint={loaderData.inquiryConstraint} /> : null}
         </aside>
       </div>
     </div>
@@ -251,50 +257,19 @@ function WatchButton({ listingId, isWatching, signedIn }: { listingId: string; i
   );
 }
 
-function InquiryCard({ listingId, sellerName, signedIn }: { listingId: string; sellerName: string; signedIn: boolean }) {
+function InquiryCard({ listingId, sellerName, constraint }: { listingId: string; sellerName: string; constraint: InquiryConstraint | null }) {
   return (
     <Card id="ask">
       <CardHeader title="Ask the seller" description={`Your message goes to ${sellerName} by e-mail; replies come to your address.`} />
-      <CardBody>{signedIn ? <InquiryForm listingId={listingId} /> : <p className="text-sm text-ink-600">Sign in to write to the seller.</p>}</CardBody>
+      <CardBody>
+        {constraint ? (
+          <Suspense fallback={null}>
+            <InquiryForm listingId={listingId} constraint={constraint} />
+          </Suspense>
+        ) : (
+          <p className="text-sm text-ink-600">Sign in to write to the seller.</p>
+        )}
+      </CardBody>
     </Card>
-  );
-}
-
-function InquiryForm({ listingId }: { listingId: string }) {
-  const navigation = useNavigation();
-  const actionData = useActionData<typeof action>();
-  const [form, fields] = useForm({
-    lastResult: navigation.state === "idle" ? actionData?.inquiry : null,
-    constraint: getZodConstraint(inquiryFormSchema),
-    shouldValidate: "onBlur",
-    onValidate: ({ formData }) => parseWithZod(formData, { schema: inquiryFormSchema }),
-  });
-  const sending = navigation.state === "submitting" && navigation.formData?.get("intent") === "inquire";
-  return (
-    <Form method="post" {...getFormProps(form)} className="space-y-4" preventScrollReset>
-      <input type="hidden" name="listingId" value={listingId} />
-      {actionData?.sent ? (
-        <p role="status" className="rounded-control bg-within-soft px-3 py-2 text-sm font-medium text-within">
-          Sent. The seller has your message and your e-mail address.
-        </p>
-      ) : null}
-      {form.errors?.length ? (
-        <p role="alert" className="text-sm font-medium text-beyond">
-          {form.errors.join(" ")}
-        </p>
-      ) : null}
-      <TextAreaField
-        label="Your question"
-        rows={5}
-        name={fields.message.name}
-        defaultValue={fields.message.initialValue}
-        errors={fields.message.errors}
-        placeholder="Can I see it under power? Is the leadscrew original?"
-      />
-      <TextField label="Phone" hint="Optional" type="tel" autoComplete="tel" name={fields.phone.name} defaultValue={fields.phone.initialValue} errors={fields.phone.errors} />
-      <Button type="submit" name="intent" value="inquire" className="w-full" disabled={sending}>
-        {sending ? "Sending…" : "Send to the seller"}
-      </Button>
-    </Form>
   );
 }

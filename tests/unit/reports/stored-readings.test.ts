@@ -2,7 +2,8 @@
 import { describe, expect, it } from "vitest";
 import { CENTRE_LATHE_NORMAL, scoreReport, type ReportMeasurements } from "~/geometry";
 import type { ReportContent } from "~/modules/reports/content";
-import { storedReadings, unrenderableNotice, unrenderableReason } from "~/modules/reports/stored-readings";
+import { storedReadings } from "~/modules/reports/stored-readings";
+import { unrenderableNotice, unrenderableReason } from "~/modules/reports/unrenderable";
 
 function contentOf(measurements: ReportMeasurements, score = scoreReport(CENTRE_LATHE_NORMAL, measurements)): ReportContent {
   return { entryUnits: "mm", measurements, measurementsAsEntered: measurements, score } as unknown as ReportContent;

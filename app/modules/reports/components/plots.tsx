@@ -1,7 +1,8 @@
 // Plots as inline SVG: a straightness profile with its reference line and tolerance band, mandrel readings
 // near and far at 0° and 180°, and indicator readings around a revolution. No chart library needed.
 import type { TestMeasurement, TestResult } from "~/geometry";
-import { micrometresToInches, straightnessReferenceLine } from "~/geometry";
+import { straightnessReferenceLine } from "~/geometry/straightness";
+import { micrometresToInches } from "~/geometry/units";
 import type { DisplayUnits } from "~/modules/units/format";
 import { SurfacePlot } from "./surface-plot";
 import { lengthsInText } from "~/modules/units/format";

@@ -3,7 +3,8 @@
 // a table for anyone who cannot see the colours. Inline SVG; the colour ramp is our own (slate for hollows,
 // paper at the plane, brass for crowns), chosen to keep the two ends apart for red-green colour blindness.
 import { useId } from "react";
-import { micrometresToInches, type SurfaceMeasurement, type TestResult } from "~/geometry";
+import type { SurfaceMeasurement, TestResult } from "~/geometry";
+import { micrometresToInches } from "~/geometry/units";
 import type { DisplayUnits } from "~/modules/units/format";
 
 const RAMP: readonly [number, number, number][] = [
