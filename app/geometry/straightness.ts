@@ -1,5 +1,8 @@
 import { GeometryInputError, requireAtLeast, requireFinite } from "./errors";
 import { tooCloseStations } from "./limits";
+import { bandAround, whole, type Run } from "./straightness-line";
+
+export { straightnessReferenceLine } from "./straightness-line";
 
 /** A reading y (µm) at station x (mm) along a travel. */
 export interface ProfilePoint {
@@ -55,25 +58,6 @@ export function sortedProfile(points: readonly ProfilePoint[]): ProfilePoint[] {
     }
   }
   return order.map((i) => ({ x: points[i]!.x, y: points[i]!.y }));
-}
-
-/** A run of consecutive stations of a sorted profile, first and last index included. */
-interface Run {
-  from: number;
-  to: number;
-}
-
-const whole = (sorted: readonly ProfilePoint[]): Run => ({ from: 0, to: sorted.length - 1 });
-
-function bandAround(sorted: readonly ProfilePoint[], run: Run, slope: number): { top: number; bottom: number } {
-  let top = -Infinity;
-  let bottom = Infinity;
-  for (let i = run.from; i <= run.to; i++) {
-    const r = sorted[i]!.y - slope * sorted[i]!.x;
-    if (r > top) top = r;
-    if (r < bottom) bottom = r;
-  }
-  return { top, bottom };
 }
 
 function endPointSlope(sorted: readonly ProfilePoint[], run: Run = whole(sorted)): number {
@@ -189,33 +173,6 @@ export function straightnessEvaluation(
 ): StraightnessEvaluation {
   const sorted = sortedProfile(points);
   return evaluateRun(sorted, whole(sorted), reference);
-}
-
-/**
- * The reference line itself, where each method puts it (ISO 230-1 §3.4 on reference lines, from memory):
- * end points, the line through the first and last station; least squares, the regression line, through the
- * mean station and mean reading; minimum zone, the centre line of the narrowest band. `slope` is the
- * evaluation's (a signed report's sealed slope), so a plot drawn from it sits where the score was computed.
- */
-export function straightnessReferenceLine(
-  points: readonly ProfilePoint[],
-  reference: StraightnessReference,
-  slope: number,
-): ReferenceLine {
-  const sorted = [...points].sort((a, b) => a.x - b.x);
-  switch (reference) {
-    case "end-points":
-      return { slope, intercept: sorted[0]!.y - slope * sorted[0]!.x };
-    case "least-squares": {
-      const meanX = sorted.reduce((sum, point) => sum + point.x, 0) / sorted.length;
-      const meanY = sorted.reduce((sum, point) => sum + point.y, 0) / sorted.length;
-      return { slope, intercept: meanY - slope * meanX };
-    }
-    default: {
-      const { top, bottom } = bandAround(sorted, whole(sorted), slope);
-      return { slope, intercept: (top + bottom) / 2 };
-    }
-  }
 }
 
 /** Width (µm) of the band parallel to the reference line that holds every point. */

@@ -21,6 +21,7 @@ import {
   type ListingSearchResult,
 } from "./search.server";
 import { paramsFromQuery } from "./search-params.server";
+import { formatDate } from "~/modules/units/dates";
 
 export type ResultSource = "index" | "database";
 
@@ -46,6 +47,8 @@ export type ListingHit = {
   report: {
     id: string;
     measuredOn: string;
+    /** The date as pages show it ("4 Dec 2026"), so that the result card needs no date formatting of its own. */
+    measuredOnText: string;
     keyFigures: {
       spindleRunoutUm: number | null;
       axialSlipUm: number | null;
@@ -113,6 +116,7 @@ function toHit(document: ListingSearchHit): ListingHit {
         ? {
             id: document.reportId,
             measuredOn: reportDate,
+            measuredOnText: formatDate(reportDate),
             keyFigures: {
               spindleRunoutUm: document.spindleRunoutUm,
               axialSlipUm: document.axialSlipUm,

@@ -1,11 +1,14 @@
 // Plots as inline SVG: a straightness profile with its reference line and tolerance band, mandrel readings
 // near and far at 0° and 180°, and indicator readings around a revolution. No chart library needed.
+import { lazy, Suspense } from "react";
 import type { TestMeasurement, TestResult } from "~/geometry";
-import { straightnessReferenceLine } from "~/geometry/straightness";
+import { straightnessReferenceLine } from "~/geometry/straightness-line";
 import { micrometresToInches } from "~/geometry/units";
 import type { DisplayUnits } from "~/modules/units/format";
-import { SurfacePlot } from "./surface-plot";
 import { lengthsInText } from "~/modules/units/format";
+
+// Only a surface test (a mill's or grinder's table) draws a colour map, so a lathe's report never downloads it.
+const SurfacePlot = lazy(() => import("./surface-plot").then((module) => ({ default: module.SurfacePlot })));
 
 const W = 640;
 const H = 240;
@@ -366,7 +369,11 @@ export function TestPlot({ measurement, result, units }: { measurement: TestMeas
     case "extremes":
       return <RunOutPlot measurement={measurement} units={units} title={title} />;
     case "surface":
-      return <SurfacePlot measurement={measurement} result={result} units={units} title={title} />;
+      return (
+        <Suspense fallback={null}>
+          <SurfacePlot measurement={measurement} result={result} units={units} title={title} />
+        </Suspense>
+      );
     default:
       return null;
   }

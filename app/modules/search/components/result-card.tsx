@@ -6,7 +6,6 @@ import { countryName, labelOf, machineConditions } from "~/modules/listings/cata
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
 import { formatDeviation } from "../figures";
 import type { ListingHit } from "../service.server";
-import { formatDate } from "~/modules/units/dates";
 
 // A report older than this is shown as aged (PRODUCT.md: grades expire visibly after 12 months).
 const FRESH_DAYS = 365;
@@ -118,7 +117,7 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
       </div>
       {hit.report ? (
         <Link to={`/reports/${hit.report.id}`} className="relative z-10 border-t border-ink-200 px-4 py-2.5 text-sm font-semibold text-ink-700 hover:bg-ink-50">
-          Accuracy report of {formatDate(hit.report.measuredOn)} →
+          Accuracy report of {hit.report.measuredOnText} →
         </Link>
       ) : null}
     </Card>
