@@ -7,7 +7,7 @@ import { hasRole, type SessionUser } from "~/modules/accounts/guards.server";
 import { listings } from "~/modules/listings/schema";
 import { publicRebuildForListing } from "~/modules/rebuilds/service.server";
 import { currentReportForListing } from "~/modules/reports/service.server";
-import { matchOf, nameKey } from "./identity";
+import { matchOf, nameKey, serialKey } from "./identity";
 import { machineListings, machineMatchRefusals, machines } from "./schema";
 
 export class MachineRuleError extends Error {
@@ -20,6 +20,8 @@ export class MachineRuleError extends Error {
 }
 
 const keyOf = (column: typeof listings.make | typeof listings.model) => sql<string>`lower(regexp_replace(${column}, '[^[:alnum:]]+', '', 'g'))`;
+/** `serialKey` in SQL (upper case, letters and digits, O read as 0, I and L as 1). */
+const serialKeyOf = sql<string>`translate(upper(regexp_replace(${listings.serialNumber}, '[^[:alnum:]]+', '', 'g')), 'OIL', '011')`;
 
 async function listingFor(db: Database, user: SessionUser, listingId: string) {
   if (!z.uuid().safeParse(listingId).success) throw new MachineRuleError("There is no such listing.", 404);
@@ -36,7 +38,10 @@ async function machineOf(db: Pick<Database, "select">, listingId: string): Promi
 
 /** Earlier or other listings that look like the same machine, not yet linked to it and not turned down. */
 export async function suggestedMatches(db: Database, listing: typeof listings.$inferSelect) {
-  if (!listing.serialNumber) return [];
+  const key = serialKey(listing.serialNumber);
+  if (key.length < 3) return [];
+  // A popular model has many listings: only serials within one character of length can match, and the
+  // nearest (by trigrams; the same serial first) are read, so the match is found however many there are.
   const candidates = await db
     .select({ id: listings.id, slug: listings.slug, make: listings.make, model: listings.model, serialNumber: listings.serialNumber, year: listings.year, city: listings.city, country: listings.country, status: listings.status, publishedAt: listings.publishedAt })
     .from(listings)
@@ -47,8 +52,10 @@ export async function suggestedMatches(db: Database, listing: typeof listings.$i
         sql`${listings.serialNumber} is not null`,
         eq(keyOf(listings.make), nameKey(listing.make)),
         eq(keyOf(listings.model), nameKey(listing.model)),
+        sql`abs(length(${serialKeyOf}) - ${key.length}) <= 1`,
       ),
     )
+    .orderBy(sql`similarity(${serialKeyOf}, ${key}) desc`, listings.id)
     .limit(50);
   if (!candidates.length) return [];
   const refused = await db

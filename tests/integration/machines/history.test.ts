@@ -86,6 +86,18 @@ describe("a machine's history across listings", () => {
     expect(await page(`/sell/listings/${resold.id}/rebuild`, cookie)).not.toContain("Is this the same machine?");
   });
 
+  it("finds the machine among many listings of the same model", async () => {
+    // More listings of the model than the suggestion reads: the one with the same plate is still found.
+    const dealer = await createTestUser({ roles: ["seller"] });
+    for (let batch = 0; batch < 3; batch += 1) {
+      await Promise.all(Array.from({ length: 25 }, (_, n) => secondListing(dealer.id, `DL330-9${batch}${String(n).padStart(3, "0")}`)));
+    }
+    const earlier = await secondListing(dealer.id, `DL330-${Math.floor(Math.random() * 90_000 + 10_000)}`);
+    const resold = await secondListing(dealer.id, earlier.serialNumber!.replace("-", " ").toLowerCase());
+    const editor = await page(`/sell/listings/${resold.id}/rebuild`, await signInCookie(dealer.email, dealer.password));
+    expect(editor).toContain(earlier.slug);
+  });
+
   it("does not suggest another model, or a listing the seller turned down", async () => {
     const first = await acceptedBooking();
     const plate = await uniquePlate(first.listing.id);
