@@ -11,13 +11,15 @@ import { startBenchServices, stopBenchEnvironment } from "./lib/environment.ts";
 import { seedBenchData } from "./lib/seed.ts";
 
 /** The shapes a buyer's search takes: the bench's query, browsing, words, sorts, facets and a deep page. */
-export const PLAN_SHAPES: { name: string; params: string }[] = [
+export const PLAN_SHAPES: { name: string; params: string; follow?: number }[] = [
   { name: "bench query (verified lathes, run-out ≤ 5 µm, best accuracy)", params: "category=centre_lathe&category=toolroom_lathe&verified=1&runoutMax=5&sort=best-accuracy" },
   { name: "browse, newest first", params: "" },
   { name: "one word", params: "q=brevholt" },
   { name: "two words, cheapest first", params: "q=kessling%20gap&sort=price-ascending" },
   { name: "country and grade, price range", params: "country=DE&grade=A&grade=B&currency=EUR&priceMin=1000&priceMax=40000" },
   { name: "page 40, newest first", params: "page=40" },
+  { name: "page 40 by cursor (keyset), newest first", params: "", follow: 39 },
+  { name: "page 40 by cursor (keyset), bench query", params: "category=centre_lathe&category=toolroom_lathe&verified=1&runoutMax=5&sort=best-accuracy", follow: 39 },
   { name: "nothing matches (widen-this-filter counts)", params: "category=centre_lathe&verified=1&runoutMax=0.1&axialSlipMax=0.1" },
 ];
 
@@ -44,9 +46,18 @@ async function main() {
     for (const shape of PLAN_SHAPES) {
       const parsed = parseListingSearchParams(new URLSearchParams(shape.params));
       if (!parsed.success) throw new Error(`${shape.name}: ${JSON.stringify(parsed.errors)}`);
+      // A page reached by following `nextCursor`: the statements of the last one are explained.
+      let after: typeof parsed.after = null;
+      for (let step = 0; step < (shape.follow ?? 0); step++) {
+        const previous = await searchMachines(db as never, parsed.query, { search, after });
+        const next = parseListingSearchParams(new URLSearchParams(`${shape.params}&after=${encodeURIComponent(previous.nextCursor ?? "")}`));
+        if (!next.success) throw new Error(`${shape.name}: ${JSON.stringify(next.errors)}`);
+        parsed.query = next.query;
+        after = next.after;
+      }
       captured = [];
       const started = performance.now();
-      const answer = await searchMachines(db as never, parsed.query, { search });
+      const answer = await searchMachines(db as never, parsed.query, { search, after });
       const ms = performance.now() - started;
       const statements = captured;
       captured = [];

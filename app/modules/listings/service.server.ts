@@ -428,18 +428,22 @@ export async function getPublicListing(db: Database, slug: string, viewer: Sessi
   const { listing } = row;
   const isManager = Boolean(viewer && (viewer.id === listing.sellerId || hasRole(viewer, "admin")));
   if (!publicStatuses.includes(listing.status) && !isManager) return null;
-  const [watch] = viewer
-    ? await db
-        .select({ userId: listingWatches.userId })
-        .from(listingWatches)
-        .where(and(eq(listingWatches.listingId, listing.id), eq(listingWatches.userId, viewer.id)))
-    : [];
+  const [[watch], photos, documents] = await Promise.all([
+    viewer
+      ? db
+          .select({ userId: listingWatches.userId })
+          .from(listingWatches)
+          .where(and(eq(listingWatches.listingId, listing.id), eq(listingWatches.userId, viewer.id)))
+      : [],
+    photosOf(db, listing.id),
+    documentsOf(db, listing.id),
+  ]);
   const { sellerId: _sellerId, serialNumber, ...shown } = listing;
   return {
     listing: { ...shown, serialNumber, title: machineTitle(listing) },
     sellerName: row.sellerName,
-    photos: await photosOf(db, listing.id),
-    documents: await documentsOf(db, listing.id),
+    photos,
+    documents,
     isManager,
     isWatching: Boolean(watch),
   };

@@ -36,9 +36,13 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
-  const accuracy = await currentReportForListing(context.get(databaseContext), found.listing.id);
-  const rebuild = await publicRebuildForListing(context.get(databaseContext), found.listing.id);
-  const history = await machineHistory(context.get(databaseContext), found.listing.id);
+  const db = context.get(databaseContext);
+  // Independent reads: sent together rather than one after another.
+  const [accuracy, rebuild, history] = await Promise.all([
+    currentReportForListing(db, found.listing.id),
+    publicRebuildForListing(db, found.listing.id),
+    machineHistory(db, found.listing.id),
+  ]);
   // The question form's limits are read from its schema here, so that the page's script carries no schema.
   const inquiryConstraint: InquiryConstraint | null = viewer ? getZodConstraint(inquiryFormSchema) : null;
   return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer), inquiryConstraint };
