@@ -16,6 +16,12 @@ export type StandInOptions = {
   appOrigin: string;
   /** The run's generated secrets (scripts/lib/local-secrets.ts): the stand-ins check and sign with these. */
   secrets: LocalSecrets;
+  /**
+   * Whether the search stand-in writes its snapshot after each index update (default yes). The bench turns
+   * it off: a snapshot is the whole index as one JSON text, which outgrows what V8 can hold in one string
+   * at about 400 000 listings, and rewriting it per batch makes indexing quadratic.
+   */
+  searchSnapshots?: boolean;
 };
 
 type Starter = (options: StandInOptions & { port: number }) => Promise<StandIn>;
@@ -30,7 +36,7 @@ const starters: Array<{ name: string; defaultPort: number; start: Starter }> = [
     start: (options) =>
       startPaymentsStandIn({ ...options, secretKey: options.secrets.STRIPE_SECRET_KEY, webhookSecret: options.secrets.STRIPE_WEBHOOK_SECRET }),
   },
-  { name: "search", defaultPort: 7701, start: (options) => startSearchStandIn({ ...options, masterKey: options.secrets.MEILISEARCH_API_KEY }) },
+  { name: "search", defaultPort: 7701, start: (options) => startSearchStandIn({ ...options, masterKey: options.secrets.MEILISEARCH_API_KEY, snapshots: options.searchSnapshots }) },
 ];
 
 export async function startStandIns(options: StandInOptions): Promise<StandIn[]> {

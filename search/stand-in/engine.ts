@@ -64,11 +64,14 @@ export class SearchEngine {
   private processing: Promise<void> | null = null;
   private writing: Promise<void> = Promise.resolve();
 
-  private constructor(private readonly snapshotFile: string) {}
+  private constructor(
+    private readonly snapshotFile: string,
+    private readonly snapshots: boolean,
+  ) {}
 
-  static async open(directory: string): Promise<SearchEngine> {
+  static async open(directory: string, options: { snapshots?: boolean } = {}): Promise<SearchEngine> {
     await mkdir(directory, { recursive: true });
-    const engine = new SearchEngine(path.join(directory, "snapshot.json"));
+    const engine = new SearchEngine(path.join(directory, "snapshot.json"), options.snapshots ?? true);
     let text: string | null = null;
     try {
       text = await readFile(engine.snapshotFile, "utf8");
@@ -205,6 +208,7 @@ export class SearchEngine {
   }
 
   private persist(): Promise<void> {
+    if (!this.snapshots) return this.writing;
     const snapshot: Snapshot = {
       version: 1,
       nextTaskUid: this.nextTaskUid,

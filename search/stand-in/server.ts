@@ -7,7 +7,8 @@ import { ApiError, badRequest } from "./errors.ts";
 import { ClientGoneError, SearchEngine, type SearchRequest } from "./engine.ts";
 import { settingRoutes } from "./index-settings.ts";
 
-export type SearchStandInOptions = { port: number; dataDir: string; appOrigin?: string; masterKey?: string };
+/** `snapshots: false` keeps the index in memory only (nothing survives a restart). */
+export type SearchStandInOptions = { port: number; dataDir: string; appOrigin?: string; masterKey?: string; snapshots?: boolean };
 
 export type SearchStandIn = {
   name: "search";
@@ -21,8 +22,8 @@ export type SearchStandIn = {
 const maxBodyBytes = 20 * 1024 * 1024;
 
 /** `masterKey` is the key it accepts; a random one unless given (`npm start` and the tests pass theirs). */
-export async function startSearchStandIn({ port, dataDir, masterKey = randomBytes(24).toString("hex") }: SearchStandInOptions): Promise<SearchStandIn> {
-  const engine = await SearchEngine.open(path.join(dataDir, "search"));
+export async function startSearchStandIn({ port, dataDir, masterKey = randomBytes(24).toString("hex"), snapshots = true }: SearchStandInOptions): Promise<SearchStandIn> {
+  const engine = await SearchEngine.open(path.join(dataDir, "search"), { snapshots });
   let latencyMs = 0;
 
   const server = http.createServer((request, response) => {
