@@ -66,6 +66,7 @@ export default [
   route("inspector/bookings/:bookingId/report/draft", "routes/reports/draft.ts"),
   route("inspector/bookings/:bookingId/report/photos", "routes/reports/setup-photos.ts"),
   route("inspector/bookings/:bookingId/report/review", "routes/reports/review.tsx"),
+  route("inspector/column-mapping", "routes/reports/column-mapping.ts"),
   route("inspector/reports/:reportId/correct", "routes/reports/correct.ts"),
   route("reports/verify", "routes/reports/verify.tsx"),
   route("reports/photos/:photoId/:variant", "routes/reports/photo.ts"),

@@ -22,7 +22,7 @@ export interface DeviationColumns {
 export const DEVIATION_CSV_LIMITS = { characters: 2_000_000, lines: 50_000 } as const;
 
 const FORWARD = new Set(["+", "forward", "positive", "up", "1"]);
-const REVERSE = new Set(["-", "reverse", "negative", "down", "-1"]);
+const REVERSE = new Set(["-", "\u2212", "reverse", "negative", "down", "-1"]);
 const TO_MM = { mm: 1, in: MILLIMETRES_PER_INCH } as const;
 const TO_UM = { um: 1, mm: 1000, in: MICROMETRES_PER_INCH } as const;
 

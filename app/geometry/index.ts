@@ -76,7 +76,7 @@ export {
   type EvaluationRequestInput,
 } from "./schema";
 export type * from "./types";
-export { MEASUREMENT_LIMITS, beyondLimit, measurementLimitIssues, type Quantity } from "./limits";
+export { MEASUREMENT_LIMITS, beyondLimit, measurementLimitIssues, numbersOf, type Quantity } from "./limits";
 export {
   flatnessDeviation,
   flatnessEvaluation,

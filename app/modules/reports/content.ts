@@ -84,6 +84,12 @@ export const KEY_FIGURE_LABELS = {
   bedStraightness: "Bed straightness",
   tableFlatness: "Table flatness",
   travelSquareness: "Squareness of travels",
+  xPositioningAccuracy: "X axis, positioning accuracy",
+  xRepeatability: "X axis, repeatability",
+  yPositioningAccuracy: "Y axis, positioning accuracy",
+  yRepeatability: "Y axis, repeatability",
+  zPositioningAccuracy: "Z axis, positioning accuracy",
+  zRepeatability: "Z axis, repeatability",
 } as const;
 
 export type KeyFigureKey = keyof typeof KEY_FIGURE_LABELS;
@@ -93,6 +99,8 @@ export const SIGNED_KEY_FIGURES: ReadonlySet<KeyFigureKey> = new Set(["spindlePa
 
 const LATHE_FIGURES: readonly KeyFigureKey[] = ["spindleRunOut", "axialSlip", "spindleParallelismVertical", "spindleParallelismHorizontal", "centreHeight", "bedStraightness"];
 const SURFACE_FIGURES: readonly KeyFigureKey[] = ["tableFlatness", "travelSquareness", "spindleRunOut", "axialSlip"];
+const CNC_LATHE_FIGURES: readonly KeyFigureKey[] = ["xPositioningAccuracy", "xRepeatability", "zPositioningAccuracy", "zRepeatability", "spindleRunOut"];
+const MACHINING_CENTRE_FIGURES: readonly KeyFigureKey[] = ["xPositioningAccuracy", "xRepeatability", "yPositioningAccuracy", "yRepeatability", "zPositioningAccuracy", "zRepeatability", "spindleRunOut"];
 
 /**
  * The key figures that mean something for a machine category (the listing's, e.g. "milling_machine", or the
@@ -102,6 +110,8 @@ export function keyFigureNamesFor(category: string | null | undefined): readonly
   const engine = category ? (engineCategory(category) ?? category) : null;
   if (engine === "milling-machine" || engine === "surface-grinder") return SURFACE_FIGURES;
   if (engine === "centre-lathe" || engine === "toolroom-lathe") return LATHE_FIGURES;
+  if (engine === "cnc-lathe") return CNC_LATHE_FIGURES;
+  if (engine === "machining-centre") return MACHINING_CENTRE_FIGURES;
   return Object.keys(KEY_FIGURE_LABELS) as KeyFigureKey[];
 }
 

@@ -45,6 +45,9 @@ function entryOf(measurement: TestMeasurement): TestEntry {
       entry.grid = { ...grid, reference: measurement.reference ?? "" };
       break;
     }
+    case "positioning":
+      entry.runs = { targets: measurement.targets, forward: measurement.forward, reverse: measurement.reverse };
+      break;
   }
   // The resolution travels with the test so the correction scores the same unless the inspector changes it.
   entry.resolution = text(measurement.resolution);

@@ -4,6 +4,7 @@ import { z } from "zod";
 import {
   beyondLimit,
   conditionsSchema,
+  numbersOf,
   evaluateTest,
   findProfile,
   GeometryInputError,
@@ -63,9 +64,30 @@ export const instrumentEntrySchema = z.object({
   calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
 });
 
-const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface"] as const;
+const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface", "positioning"] as const;
 export type EntryKind = (typeof kinds)[number];
 export const isEntryKind = (kind: MeasurementKind): kind is EntryKind => (kinds as readonly string[]).includes(kind);
+
+/** Runs imported into one positioning test: the form caps them below the engine's limits, since a draft carries them whole. */
+export const POSITIONING_ENTRY_LIMITS = { targets: 200, runsPerDirection: 20 } as const;
+
+const deviationRow = z
+  .array(z.number({ error: "Each deviation must be a finite number." }), { error: "Give each run as a list of deviations." })
+  .max(POSITIONING_ENTRY_LIMITS.targets, `At most ${POSITIONING_ENTRY_LIMITS.targets} targets per axis in a report.`);
+const importedRuns = (direction: string) =>
+  z
+    .array(deviationRow, { error: `Give the runs ${direction} as a list of runs.` })
+    .max(POSITIONING_ENTRY_LIMITS.runsPerDirection, `At most ${POSITIONING_ENTRY_LIMITS.runsPerDirection} runs ${direction}.`);
+
+/** Interferometer runs as imported, in the form's units (targets in mm or in, deviations in µm or in). */
+export const positioningRunsSchema = z.object({
+  targets: z
+    .array(z.number({ error: "Each target must be a finite number." }), { error: "Give the targets as a list." })
+    .max(POSITIONING_ENTRY_LIMITS.targets, `At most ${POSITIONING_ENTRY_LIMITS.targets} targets per axis in a report.`),
+  forward: importedRuns("approaching in the positive direction"),
+  reverse: importedRuns("approaching in the negative direction"),
+});
+export type PositioningRuns = z.output<typeof positioningRunsSchema>;
 
 export const testEntrySchema = z.object({
   kind: z.enum(kinds, { error: "Choose how the readings were taken." }),
@@ -88,6 +110,8 @@ export const testEntrySchema = z.object({
   length: numberText,
   /** Heights over a surface: a grid of heights, or level tilts along its lines (grid-entry.ts). */
   grid: gridEntrySchema.default(emptyGridEntry),
+  /** Interferometer runs of an axis, imported from the instrument's table (positioning-import.ts). */
+  runs: positioningRunsSchema.nullable().default(null),
   instrumentId: safeText({ label: "instrument", max: 40 }).default(""),
   /** Overrides the instrument's resolution for this test, in reading units. */
   resolution: numberText,
@@ -166,6 +190,12 @@ function* typedNumbersOf(entry: TestEntry): Generator<[string, number, Quantity]
   yield* typed("length", entry.length, "station");
   yield* typed("resolution", entry.resolution, readingIs);
   if (entry.kind === "surface") for (const [path, text, quantity] of gridNumbers(entry.grid)) yield* typed(`grid.${path}`, text, quantity);
+  if (entry.kind === "positioning" && entry.runs) {
+    // One message for the whole table: its readings are imported, not typed, so there is no field to point at.
+    for (const [, value, quantity] of numbersOf({ kind: "positioning", ...entry.runs })) {
+      if (typeof value === "number") yield ["runs", value, quantity];
+    }
+  }
 }
 
 /**
@@ -353,6 +383,14 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
       }
       break;
     }
+    case "positioning": {
+      needed = 1;
+      if (entry.runs) {
+        filled += 1;
+        candidate = { kind: "positioning", targets: entry.runs.targets, forward: entry.runs.forward, reverse: entry.runs.reverse };
+      }
+      break;
+    }
   }
 
   // A number beyond what the tests can read says so at its field, instead of "Not a number.".
@@ -382,6 +420,7 @@ function incompleteMessage(entry: TestEntry): Record<string, string[]> {
     "near-far": "Give both the near and the far reading.",
     "centre-height": "Give the readings at both ends.",
     surface: "Give the heights or level readings over the whole grid.",
+    positioning: "Import the interferometer's table of runs for this axis.",
   };
   return { entry: [message[entry.kind]] };
 }
@@ -390,6 +429,7 @@ function incompleteMessage(entry: TestEntry): Record<string, string[]> {
 function entryPath(kind: MeasurementKind, path: string[]): string {
   if (kind === "mandrel" && path.length === 2) return `${path[0]}${path[1] === "at0" ? "0" : "180"}`;
   if (kind === "surface") return path[0] === "points" ? "grid" : (path[0] ?? "entry");
+  if (kind === "positioning") return path[0] === "resolution" ? "resolution" : "runs";
   if (path[0] === "readings" || path[0] === "points") return path.join(".");
   return path[0] ?? "entry";
 }

@@ -112,3 +112,13 @@ export const reportSigningKeys = pgTable(
 export type ReportRow = typeof reports.$inferSelect;
 export type ReportDraftRow = typeof reportDrafts.$inferSelect;
 export type ReportPhotoRow = typeof reportPhotos.$inferSelect;
+
+// How one inspector's instrument exports its table of positioning deviations (which column is run, direction,
+// target, deviation; units; decimal comma; header): offered again on the next report's import.
+export const deviationColumnMappings = pgTable("deviation_column_mappings", {
+  inspectorId: text("inspector_id")
+    .primaryKey()
+    .references(() => user.id, { onDelete: "cascade" }),
+  mapping: jsonb("mapping").notNull(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});

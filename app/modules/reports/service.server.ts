@@ -45,6 +45,7 @@ import {
   type ReportForm,
 } from "./form";
 import { formFromContent } from "./form-from-content";
+import { columnMappingOf } from "./column-mappings.server";
 import { sendReportSignedNotices } from "./notices.server";
 import { SAFETY_CAUTIONS } from "./safety";
 import { reportDrafts, reportPhotos, reports, type ReportDraftRow, type ReportRow } from "./schema";
@@ -283,6 +284,7 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
     mode: mode.kind === "locked" ? { kind: "locked" as const, reason: mode.reason, signedReportId: mode.signed?.id ?? null } : { kind: mode.kind },
     submitted: submitted && draft && submitted.draftVersion === draft.version ? { reportId: submitted.id } : null,
     photos: await photosOfBooking(db, bookingId),
+    columnMapping: await columnMappingOf(db, inspector),
   };
 }
 

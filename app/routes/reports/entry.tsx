@@ -40,5 +40,5 @@ export default function ReportEntryPage() {
   const { entry } = useLoaderData<typeof loader>();
   const actionData = useActionData<typeof action>();
   const base = `/inspector/bookings/${entry.booking.id}/report`;
-  return <ReportEntry key={entry.draft?.version ?? 0} data={entry} errors={actionData?.errors ?? null} draftUrl={`${base}/draft`} photosUrl={`${base}/photos`} />;
+  return <ReportEntry key={entry.draft?.version ?? 0} data={entry} errors={actionData?.errors ?? null} draftUrl={`${base}/draft`} photosUrl={`${base}/photos`} columnMappingUrl="/inspector/column-mapping" />;
 }

@@ -13,7 +13,7 @@ import { getDatabase } from "~/db/client.server";
 import { acceptBooking, createBooking } from "~/modules/inspections/bookings.server";
 import { bookings, inspectorSlots, machineSites } from "~/modules/inspections/schema";
 import { listingDocuments, listingPhotos, listings } from "~/modules/listings/schema";
-import { reportDrafts, reports } from "~/modules/reports/schema";
+import { deviationColumnMappings, reportDrafts, reports } from "~/modules/reports/schema";
 import { savedSearches } from "~/modules/search/saved-searches/schema";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
 import { certifiedInspector, publicIdOf } from "../../support/inspections";
@@ -580,6 +580,18 @@ const table: Record<string, RouteRow> = {
         body: () => ({ json: { form: completeForm() } }),
         expect: by({ ...INSPECTOR_ONLY, inspectorA: 200, inspectorB: 404 }),
         unchanged: () => rowsOf.drafts(fx.bookingId),
+      },
+    ],
+  },
+  // The inspector's own column mapping for instrument tables: each inspector saves only their own.
+  "inspector/column-mapping": {
+    get: everyone(405),
+    actions: [
+      {
+        intent: "save a column mapping",
+        body: () => ({ json: { run: 0, direction: 1, target: 2, deviation: 3, targetUnit: "mm", deviationUnit: "um", decimalComma: false, header: true } }),
+        expect: by({ ...INSPECTOR_ONLY, inspectorA: 200, inspectorB: 200 }),
+        unchanged: () => db.select().from(deviationColumnMappings),
       },
     ],
   },

@@ -402,6 +402,34 @@ const targets: Target[] = [
           return { json: JSON.stringify({ form }) };
         }),
       fc.constant<Payload>({ json: `{"form": ${JSON.stringify({ ...completeForm(), tests: {} }).replace('"tests":{}', '"tests":{"__proto__":{"kind":"sweep","readings":["1"]}}')}}` }),
+      // Imported interferometer runs: a number too large for a double, text for a number, more targets than a report takes.
+      fc
+        .constantFrom(
+          '{"targets":[0,1e400],"forward":[[0,1],[0,1]],"reverse":[[0,1],[0,1]]}',
+          '{"targets":["0","100"],"forward":[[0,1],[0,1]],"reverse":[[0,1],[0,1]]}',
+          `{"targets":[${Array.from({ length: 201 }, (_, i) => i).join(",")}],"forward":[],"reverse":[]}`,
+          `{"targets":[0,1],"forward":[${Array.from({ length: 21 }, () => "[0,1]").join(",")}],"reverse":[[0,1],[0,1]]}`,
+        )
+        .map((runs): Payload => ({ json: `{"form": ${JSON.stringify({ ...completeForm(), tests: { "L-SP-NOSE": "RUNS" } }).replace('"RUNS"', `{"kind":"positioning","runs":${runs}}`)}}` })),
+
+    ),
+  },
+  {
+    route: "inspector/column-mapping",
+    path: () => "/inspector/column-mapping",
+    as: "inspector",
+    payloads: fc.oneof(
+      malformedJson.map((json): Payload => ({ json })),
+      fc.jsonValue({ maxDepth: 2 }).map((value): Payload => ({ json: JSON.stringify(value) })),
+      // One field of a good mapping made wrong: out of range, not an integer, a string, an unknown unit, too large for a double.
+      fc
+        .tuple(
+          fc.constantFrom("run", "direction", "target", "deviation", "targetUnit", "deviationUnit", "decimalComma", "header", "extra"),
+          fc.constantFrom<unknown>(-1, 50, 1.5, "2", null, "furlong", "\u0000", [], {}, "x".repeat(5_000)),
+        )
+        .map(([field, value]): Payload => ({ json: JSON.stringify({ run: 0, direction: 1, target: 2, deviation: 3, targetUnit: "mm", deviationUnit: "um", decimalComma: false, header: true, [field]: value }) })),
+      fc.constant<Payload>({ json: '{"run": 1e400, "direction": 1, "target": 2, "deviation": 3, "targetUnit": "mm", "deviationUnit": "um", "decimalComma": false, "header": true}' }),
+      fc.constant<Payload>({ raw: "run=0", contentType: "application/x-www-form-urlencoded" }),
     ),
   },
   {

@@ -24,6 +24,10 @@ describe("parseDeviationCsv", () => {
     expect(input.forward[0]![0]).toBeCloseTo(2.54, 12);
   });
 
+  it("takes the minus sign (U+2212) for the negative direction, as some exports write it", () => {
+    expect(parseDeviationCsv(csv.replace(/,-,/g, ",\u2212,"), mapping)).toEqual(parseDeviationCsv(csv, mapping));
+  });
+
   it("refuses malformed lines, naming the line", () => {
     const bad = (text: string, message: RegExp, columns = mapping) => {
       expect(() => parseDeviationCsv(text, columns)).toThrow(GeometryInputError);

@@ -236,7 +236,7 @@ function ResultsGrid({ content, units }: { content: ReportContent; units: Displa
   );
 }
 
-const PLOTTED = new Set(["profile", "level", "mandrel", "sweep", "surface"]);
+const PLOTTED = new Set(["profile", "level", "mandrel", "sweep", "surface", "positioning"]);
 
 export function TestDetails({ content, units, photoUrls }: { content: ReportContent; units: DisplayUnits; photoUrls: Record<string, { thumb: string; large: string }> }) {
   const results = new Map(content.score.results.map((result) => [result.code, result]));

@@ -4,7 +4,8 @@ import { useMemo, useState } from "react";
 import { Form, Link, useNavigation } from "react-router";
 import { Badge, Button, Card, CardBody, CardHeader, CheckboxField, cx, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { formatDeviation } from "../../format";
-import { KINDS_FOR_METHOD, type EvaluationMethod, type ReportScore, type ToleranceProfile } from "~/geometry";
+import { KINDS_FOR_METHOD, positioningGroups, type EvaluationMethod, type ReportScore, type ToleranceProfile } from "~/geometry";
+import type { ColumnMapping } from "../../positioning-import";
 import {
   emptyTestEntry,
   INSTRUMENT_KINDS,
@@ -35,6 +36,8 @@ export type EntryData = {
   mode: { kind: "first" | "correction" } | { kind: "locked"; reason: string; signedReportId: string | null };
   submitted: { reportId: string } | null;
   photos: Array<{ id: string; testCode: string; thumbnailUrl: string }>;
+  /** The inspector's saved column mapping for instrument tables. */
+  columnMapping: ColumnMapping | null;
 };
 
 type Errors = Record<string, string[]>;
@@ -65,11 +68,25 @@ function SaveStatus({ status, restored }: { status: SyncStatus; restored: boolea
 
 function hasReadings(form: ReportForm) {
   return Object.values(form.tests).some((entry) =>
+    entry.runs !== null ||
     [entry.max, entry.min, entry.near0, entry.near180, entry.far0, entry.far180, entry.near, entry.far, entry.headstockEnd, entry.tailstockEnd, ...entry.readings, ...entry.points.flatMap((p) => [p.station, p.reading])].some((value) => value.trim() !== ""),
   );
 }
 
-export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }: { data: EntryData; errors: Errors | null; draftUrl: string; photosUrl: string }) {
+export function ReportEntry({
+  data,
+  errors: serverErrors,
+  draftUrl,
+  photosUrl,
+  columnMappingUrl,
+}: {
+  data: EntryData;
+  errors: Errors | null;
+  draftUrl: string;
+  photosUrl: string;
+  columnMappingUrl: string;
+}) {
+  const [columnMapping, setColumnMapping] = useState<ColumnMapping | null>(data.columnMapping);
   const locked = data.mode.kind === "locked";
   const [form, setForm] = useState<ReportForm>(data.form);
   const [photos, setPhotos] = useState<Record<string, SetupPhotoView>>(() => Object.fromEntries(data.photos.map((photo) => [photo.id, photo])));
@@ -108,6 +125,21 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
       mutate(entry);
       draft.tests[code] = entry;
     });
+
+  const axes = useMemo(() => positioningGroups(profile?.tests ?? []), [profile]);
+  const axisOf = (code: string) => [...axes.values()].find((codes) => codes.includes(code));
+  // One set of runs serves every test of the axis; the mapping is kept for the inspector's next import.
+  const acceptRuns = (codes: string[]) => (runs: NonNullable<TestEntry["runs"]>, mapping: ColumnMapping) => {
+    change((draft) => {
+      for (const code of codes) {
+        const entry = draft.tests[code]?.kind === "positioning" ? draft.tests[code]! : (structuredClone(emptyEntryFor("positioning")) as TestEntry);
+        entry.runs = structuredClone(runs);
+        draft.tests[code] = entry;
+      }
+    });
+    setColumnMapping(mapping);
+    void fetch(columnMappingUrl, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(mapping) }).catch(() => undefined);
+  };
 
   const score = preview?.score ?? null;
   return (
@@ -340,6 +372,10 @@ export function ReportEntry({ data, errors: serverErrors, draftUrl, photosUrl }:
                     changeTest(code, entry?.kind ?? defaultKindOf(testPreview.test.method))((draft) => void (draft.photoId = photo?.id ?? null));
                   }}
                   disabled={locked}
+                  positioning={(() => {
+                    const codes = axisOf(code);
+                    return codes ? { mapping: columnMapping, axisTests: codes, onAccept: acceptRuns(codes) } : undefined;
+                  })()}
                 />
               );
             })}

@@ -10,6 +10,7 @@ import { RatioBar } from "../grade";
 import { TestPlot } from "../plots";
 import { SetupPhoto, type SetupPhotoView } from "./setup-photo";
 import { lengthsInText } from "~/modules/units/format";
+import { PositioningFields, type PositioningImportProps } from "./positioning-import";
 
 const KIND_LABELS: Record<MeasurementKind, string> = {
   sweep: "Readings around a revolution",
@@ -242,7 +243,23 @@ function StationTable({ entry, change, units, errors, readingUnit }: { entry: Te
   );
 }
 
-function ReadingsFields({ test, entry, change, units, errors, check }: { test: ProfileTest; entry: TestEntry; change: (mutate: (entry: TestEntry) => void) => void; units: EntryUnits; errors: Errors; check: TestEntryCheck }) {
+function ReadingsFields({
+  test,
+  entry,
+  change,
+  units,
+  errors,
+  check,
+  positioning,
+}: {
+  test: ProfileTest;
+  entry: TestEntry;
+  change: (mutate: (entry: TestEntry) => void) => void;
+  units: EntryUnits;
+  errors: Errors;
+  check: TestEntryCheck;
+  positioning?: PositioningImportProps;
+}) {
   const labels = unitLabels(units);
   const field = (name: keyof TestEntry, label: string, signed = true) => (
     <ReadingInput
@@ -381,6 +398,17 @@ function ReadingsFields({ test, entry, change, units, errors, check }: { test: P
       );
     case "surface":
       return <GridFields entry={entry} change={change} units={units} errors={errors} check={check} />;
+    case "positioning":
+      return (
+        <>
+          <PositioningFields entry={entry} units={units} importer={positioning} />
+          {errors.runs ? (
+            <p className="text-sm font-medium text-beyond" role="alert">
+              {errors.runs.join(" ")}
+            </p>
+          ) : null}
+        </>
+      );
   }
 }
 
@@ -438,6 +466,7 @@ export function TestCard({
   photosUrl,
   onPhoto,
   disabled,
+  positioning,
 }: {
   preview: TestPreview;
   entry: TestEntry | undefined;
@@ -451,6 +480,8 @@ export function TestCard({
   photosUrl?: string;
   onPhoto?: (photo: SetupPhotoView | null) => void;
   disabled: boolean;
+  /** A positioning test: how its runs are imported and which tests of the axis share them. */
+  positioning?: PositioningImportProps;
 }) {
   const { test, result } = preview;
   const kinds = KINDS_FOR_METHOD[test.method].filter(isEntryKind);
@@ -504,10 +535,10 @@ export function TestCard({
             ))}
           </div>
         ) : null}
-        <ReadingsFields test={test} entry={current} change={onChange} units={units} errors={errors} check={preview.check} />
+        <ReadingsFields test={test} entry={current} change={onChange} units={units} errors={errors} check={preview.check} positioning={positioning} />
         {errors.entry && preview.check.state === "invalid" ? <p className="text-sm font-medium text-beyond">{errors.entry.join(" ")}</p> : null}
         <LiveVerdict preview={preview} units={units} />
-        {metric && result && (metric.kind === "profile" || metric.kind === "mandrel" || metric.kind === "surface") ? <TestPlot measurement={metric} result={result} units={units} /> : null}
+        {metric && result && (metric.kind === "profile" || metric.kind === "mandrel" || metric.kind === "surface" || metric.kind === "positioning") ? <TestPlot measurement={metric} result={result} units={units} /> : null}
         <div className="grid gap-3 sm:grid-cols-2">
           <SelectField
             label="Instrument"
