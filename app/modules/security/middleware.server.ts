@@ -21,7 +21,10 @@ export const BODY_LIMITS: ReadonlyArray<{ path: RegExp; bytes: number }> = [
   // Sign-in, sign-up, search and verification: a few fields.
   { path: /^\/api\//, bytes: 64 * KB },
   // A report form at its caps (200 stations per test, notes of 2 000 characters) is under 1 MB: autosave, submit, sign.
+  // Imported positioning runs add at most 200 targets × 40 runs per axis test, about 0.45 MB for a machining centre.
   { path: /^\/inspector\/bookings\/[^/]+\/report(\/draft|\/review)?$/, bytes: 2 * MB },
+  // An inspector's column mapping for instrument tables: eight small fields.
+  { path: /^\/inspector\/column-mapping$/, bytes: 4 * KB },
 ];
 
 /** The largest body this path takes, in bytes. */
@@ -59,7 +62,7 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
 
 const FORM_TYPES = /^\s*(application\/x-www-form-urlencoded|multipart\/form-data)\b/i;
 /** Routes whose bodies are JSON (or Stripe's raw event), not forms: they read and answer for their bodies themselves. */
-const takesOtherBodies = [/^\/api\//, /^\/inspector\/bookings\/[^/]+\/report\/draft$/];
+const takesOtherBodies = [/^\/api\//, /^\/inspector\/bookings\/[^/]+\/report\/draft$/, /^\/inspector\/column-mapping$/];
 
 /**
  * Page actions read their form with `request.formData()`, which throws on a body that is not one (JSON,
