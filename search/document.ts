@@ -65,6 +65,13 @@ export type ListingSearchDocument = Omit<SearchableListing, "publishedAt"> & {
   /** Mills and grinders: the table's flatness, and how far two travels are out of square (size, unsigned). */
   tableFlatnessUm: number | null;
   travelSquarenessUm: number | null;
+  /** CNC lathes and machining centres: positioning accuracy A and repeatability R of each axis (ISO 230-2). */
+  xPositioningAccuracyUm: number | null;
+  xRepeatabilityUm: number | null;
+  yPositioningAccuracyUm: number | null;
+  yRepeatabilityUm: number | null;
+  zPositioningAccuracyUm: number | null;
+  zRepeatabilityUm: number | null;
 };
 
 export const gradeRanks: Readonly<Record<Grade, number>> = { A: 1, B: 2, C: 3, D: 4, incomplete: 5 };
@@ -118,5 +125,11 @@ export function listingToSearchDocument(listing: SearchableListing, report: Sear
     bedStraightnessUm: magnitude(figures?.bedStraightness),
     tableFlatnessUm: magnitude(figures?.tableFlatness),
     travelSquarenessUm: magnitude(figures?.travelSquareness),
+    xPositioningAccuracyUm: magnitude(figures?.xPositioningAccuracy),
+    xRepeatabilityUm: magnitude(figures?.xRepeatability),
+    yPositioningAccuracyUm: magnitude(figures?.yPositioningAccuracy),
+    yRepeatabilityUm: magnitude(figures?.yRepeatability),
+    zPositioningAccuracyUm: magnitude(figures?.zPositioningAccuracy),
+    zRepeatabilityUm: magnitude(figures?.zRepeatability),
   };
 }

@@ -27,6 +27,12 @@ export type ListingSearchQuery = {
   maxBedStraightnessUm?: number;
   maxTableFlatnessUm?: number;
   maxTravelSquarenessUm?: number;
+  maxXPositioningAccuracyUm?: number;
+  maxXRepeatabilityUm?: number;
+  maxYPositioningAccuracyUm?: number;
+  maxYRepeatabilityUm?: number;
+  maxZPositioningAccuracyUm?: number;
+  maxZRepeatabilityUm?: number;
   /** Reports measured at most this many days ago. */
   maxReportAgeDays?: number;
   countries?: string[];
@@ -80,6 +86,12 @@ export function listingFilter(query: ListingSearchQuery, now: Date = new Date())
     ...atMost("bedStraightnessUm", query.maxBedStraightnessUm),
     ...atMost("tableFlatnessUm", query.maxTableFlatnessUm),
     ...atMost("travelSquarenessUm", query.maxTravelSquarenessUm),
+    ...atMost("xPositioningAccuracyUm", query.maxXPositioningAccuracyUm),
+    ...atMost("xRepeatabilityUm", query.maxXRepeatabilityUm),
+    ...atMost("yPositioningAccuracyUm", query.maxYPositioningAccuracyUm),
+    ...atMost("yRepeatabilityUm", query.maxYRepeatabilityUm),
+    ...atMost("zPositioningAccuracyUm", query.maxZPositioningAccuracyUm),
+    ...atMost("zRepeatabilityUm", query.maxZRepeatabilityUm),
     query.maxReportAgeDays === undefined ? null : `reportDate >= ${Math.floor(now.getTime() / 1000) - Math.round(query.maxReportAgeDays * 86_400)}`,
     anyOf("country", query.countries),
     query.region ? `region = ${quoteFilterValue(query.region)}` : null,

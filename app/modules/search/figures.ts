@@ -43,6 +43,12 @@ export const accuracyFilters = [
   { key: "maxCentreHeightUm", param: "centreHeightMax", label: "Centre height difference" },
   { key: "maxTableFlatnessUm", param: "flatnessMax", label: "Table flatness" },
   { key: "maxTravelSquarenessUm", param: "squarenessMax", label: "Squareness of travels" },
+  { key: "maxXPositioningAccuracyUm", param: "xAccuracyMax", label: "X axis, positioning accuracy" },
+  { key: "maxXRepeatabilityUm", param: "xRepeatabilityMax", label: "X axis, repeatability" },
+  { key: "maxYPositioningAccuracyUm", param: "yAccuracyMax", label: "Y axis, positioning accuracy" },
+  { key: "maxYRepeatabilityUm", param: "yRepeatabilityMax", label: "Y axis, repeatability" },
+  { key: "maxZPositioningAccuracyUm", param: "zAccuracyMax", label: "Z axis, positioning accuracy" },
+  { key: "maxZRepeatabilityUm", param: "zRepeatabilityMax", label: "Z axis, repeatability" },
 ] as const;
 
 export type AccuracyFilterKey = (typeof accuracyFilters)[number]["key"];

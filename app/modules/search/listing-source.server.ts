@@ -236,6 +236,12 @@ function conditionsFor(query: ListingSearchQuery, now: Date): KeyedCondition[] {
   put("bedStraightness", query.maxBedStraightnessUm ?? null, atMost(s.bedStraightnessUm, query.maxBedStraightnessUm));
   put("tableFlatness", query.maxTableFlatnessUm ?? null, figureAtMost("tableFlatness", query.maxTableFlatnessUm));
   put("travelSquareness", query.maxTravelSquarenessUm ?? null, figureAtMost("travelSquareness", query.maxTravelSquarenessUm));
+  put("xPositioningAccuracy", query.maxXPositioningAccuracyUm ?? null, figureAtMost("xPositioningAccuracy", query.maxXPositioningAccuracyUm));
+  put("xRepeatability", query.maxXRepeatabilityUm ?? null, figureAtMost("xRepeatability", query.maxXRepeatabilityUm));
+  put("yPositioningAccuracy", query.maxYPositioningAccuracyUm ?? null, figureAtMost("yPositioningAccuracy", query.maxYPositioningAccuracyUm));
+  put("yRepeatability", query.maxYRepeatabilityUm ?? null, figureAtMost("yRepeatability", query.maxYRepeatabilityUm));
+  put("zPositioningAccuracy", query.maxZPositioningAccuracyUm ?? null, figureAtMost("zPositioningAccuracy", query.maxZPositioningAccuracyUm));
+  put("zRepeatability", query.maxZRepeatabilityUm ?? null, figureAtMost("zRepeatability", query.maxZRepeatabilityUm));
   if (query.maxReportAgeDays !== undefined) {
     const since = new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10);
     put("reportAge", since, gte(s.measuredOn, since));

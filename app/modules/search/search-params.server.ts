@@ -79,6 +79,18 @@ export const listingSearchParamsSchema = z
     flatnessMaxIn: inches("Table flatness"),
     squarenessMax: micrometres("Squareness of travels"),
     squarenessMaxIn: inches("Squareness of travels"),
+    xAccuracyMax: micrometres("X axis, positioning accuracy"),
+    xAccuracyMaxIn: inches("X axis, positioning accuracy"),
+    xRepeatabilityMax: micrometres("X axis, repeatability"),
+    xRepeatabilityMaxIn: inches("X axis, repeatability"),
+    yAccuracyMax: micrometres("Y axis, positioning accuracy"),
+    yAccuracyMaxIn: inches("Y axis, positioning accuracy"),
+    yRepeatabilityMax: micrometres("Y axis, repeatability"),
+    yRepeatabilityMaxIn: inches("Y axis, repeatability"),
+    zAccuracyMax: micrometres("Z axis, positioning accuracy"),
+    zAccuracyMaxIn: inches("Z axis, positioning accuracy"),
+    zRepeatabilityMax: micrometres("Z axis, repeatability"),
+    zRepeatabilityMaxIn: inches("Z axis, repeatability"),
     reportAgeMax: whole("Report age (days)", 1, 3650),
     sort: z.preprocess(blankAsMissing, z.enum(listingSorts, { error: `Sort must be one of ${listingSorts.join(", ")}.` }).optional()),
     page: whole("Page", 1, 1000),
@@ -155,6 +167,12 @@ export function queryFromParams(params: ListingSearchParams): ListingSearchQuery
     maxCentreHeightUm: microns(params.centreHeightMax, params.centreHeightMaxIn),
     maxTableFlatnessUm: microns(params.flatnessMax, params.flatnessMaxIn),
     maxTravelSquarenessUm: microns(params.squarenessMax, params.squarenessMaxIn),
+    maxXPositioningAccuracyUm: microns(params.xAccuracyMax, params.xAccuracyMaxIn),
+    maxXRepeatabilityUm: microns(params.xRepeatabilityMax, params.xRepeatabilityMaxIn),
+    maxYPositioningAccuracyUm: microns(params.yAccuracyMax, params.yAccuracyMaxIn),
+    maxYRepeatabilityUm: microns(params.yRepeatabilityMax, params.yRepeatabilityMaxIn),
+    maxZPositioningAccuracyUm: microns(params.zAccuracyMax, params.zAccuracyMaxIn),
+    maxZRepeatabilityUm: microns(params.zRepeatabilityMax, params.zRepeatabilityMaxIn),
     maxReportAgeDays: params.reportAgeMax,
     sort: params.sort ?? (params.q ? "relevance" : "newest"),
     page: params.page ?? 1,
@@ -190,6 +208,12 @@ export function paramsFromQuery(query: ListingSearchQuery, options: { withPage?:
   put("centreHeightMax", query.maxCentreHeightUm);
   put("flatnessMax", query.maxTableFlatnessUm);
   put("squarenessMax", query.maxTravelSquarenessUm);
+  put("xAccuracyMax", query.maxXPositioningAccuracyUm);
+  put("xRepeatabilityMax", query.maxXRepeatabilityUm);
+  put("yAccuracyMax", query.maxYPositioningAccuracyUm);
+  put("yRepeatabilityMax", query.maxYRepeatabilityUm);
+  put("zAccuracyMax", query.maxZPositioningAccuracyUm);
+  put("zRepeatabilityMax", query.maxZRepeatabilityUm);
   put("reportAgeMax", query.maxReportAgeDays);
   const defaultSort = query.text ? "relevance" : "newest";
   if (query.sort && query.sort !== defaultSort) put("sort", query.sort);

@@ -59,6 +59,7 @@ export const LISTING_HIT_ATTRIBUTES = [
   "priceMinor", "currency", "city", "region", "country", "photoUrl", "publishedAt", "verified", "reportId", "grade",
   "reportDate", "spindleRunoutUm", "axialSlipUm", "spindleParallelismVerticalUm", "spindleParallelismHorizontalUm",
   "centreHeightUm", "bedStraightnessUm", "tableFlatnessUm", "travelSquarenessUm",
+  "xPositioningAccuracyUm", "xRepeatabilityUm", "yPositioningAccuracyUm", "yRepeatabilityUm", "zPositioningAccuracyUm", "zRepeatabilityUm",
 ] as const satisfies readonly (keyof ListingSearchDocument)[];
 
 export type ListingSearchHit = Pick<ListingSearchDocument, (typeof LISTING_HIT_ATTRIBUTES)[number]>;

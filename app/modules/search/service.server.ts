@@ -58,6 +58,12 @@ export type ListingHit = {
       bedStraightnessUm: number | null;
       tableFlatnessUm: number | null;
       travelSquarenessUm: number | null;
+      xPositioningAccuracyUm: number | null;
+      xRepeatabilityUm: number | null;
+      yPositioningAccuracyUm: number | null;
+      yRepeatabilityUm: number | null;
+      zPositioningAccuracyUm: number | null;
+      zRepeatabilityUm: number | null;
     };
   } | null;
 };
@@ -126,6 +132,12 @@ function toHit(document: ListingSearchHit): ListingHit {
               bedStraightnessUm: document.bedStraightnessUm,
               tableFlatnessUm: document.tableFlatnessUm,
               travelSquarenessUm: document.travelSquarenessUm,
+              xPositioningAccuracyUm: document.xPositioningAccuracyUm,
+              xRepeatabilityUm: document.xRepeatabilityUm,
+              yPositioningAccuracyUm: document.yPositioningAccuracyUm,
+              yRepeatabilityUm: document.yRepeatabilityUm,
+              zPositioningAccuracyUm: document.zPositioningAccuracyUm,
+              zRepeatabilityUm: document.zRepeatabilityUm,
             },
           }
         : null,

@@ -170,3 +170,12 @@ describe("a mill's or grinder's figures", () => {
     expect(listingFilter({ maxTableFlatnessUm: 10, maxTravelSquarenessUm: 8 })).toEqual(expect.arrayContaining(["tableFlatnessUm <= 10", "travelSquarenessUm <= 8"]));
   });
 });
+
+describe("a CNC machine's axes", () => {
+  it("index positioning accuracy and repeatability per axis and filter each by an upper limit", async () => {
+    const { listingFilter } = await import("../../../search/query");
+    const document = listingToSearchDocument(listing, { ...report, keyFigures: { ...report.keyFigures, xPositioningAccuracy: 14.2, xRepeatability: 6.1, zPositioningAccuracy: 18 } });
+    expect(document).toMatchObject({ xPositioningAccuracyUm: 14.2, xRepeatabilityUm: 6.1, yPositioningAccuracyUm: null, zPositioningAccuracyUm: 18 });
+    expect(listingFilter({ maxXPositioningAccuracyUm: 15, maxZRepeatabilityUm: 8 })).toEqual(expect.arrayContaining(["xPositioningAccuracyUm <= 15", "zRepeatabilityUm <= 8"]));
+  });
+});

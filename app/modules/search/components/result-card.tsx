@@ -44,9 +44,18 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
   const figures = hit.report?.keyFigures;
   // A mill's or grinder's worth is its table and travels; a lathe's its spindle and centres.
   const tableMachine = hit.category === "milling_machine" || hit.category === "surface_grinder";
+  // A CNC machine graded on its axes: how accurately and repeatably each axis positions (the axes it has).
+  const positioned = figures && (figures.xPositioningAccuracyUm !== null || figures.zPositioningAccuracyUm !== null);
   const shown = !figures
     ? []
-    : tableMachine
+    : positioned
+      ? [
+          { label: "X axis, positioning accuracy", value: figures.xPositioningAccuracyUm },
+          { label: "X axis, repeatability", value: figures.xRepeatabilityUm },
+          { label: "Y axis, positioning accuracy", value: figures.yPositioningAccuracyUm },
+          { label: "Z axis, positioning accuracy", value: figures.zPositioningAccuracyUm },
+        ].filter((figure) => figure.value !== null)
+      : tableMachine
       ? [
           { label: "Table flatness", value: figures.tableFlatnessUm },
           { label: "Squareness of travels", value: figures.travelSquarenessUm },

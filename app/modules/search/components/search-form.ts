@@ -23,6 +23,12 @@ export type SearchDraft = {
   centreHeightMax: string;
   flatnessMax: string;
   squarenessMax: string;
+  xAccuracyMax: string;
+  xRepeatabilityMax: string;
+  yAccuracyMax: string;
+  yRepeatabilityMax: string;
+  zAccuracyMax: string;
+  zRepeatabilityMax: string;
   reportAgeMax: string;
   sort: string;
 };
@@ -72,6 +78,12 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
     centreHeightMax: deviation("centreHeightMax"),
     flatnessMax: deviation("flatnessMax"),
     squarenessMax: deviation("squarenessMax"),
+    xAccuracyMax: deviation("xAccuracyMax"),
+    xRepeatabilityMax: deviation("xRepeatabilityMax"),
+    yAccuracyMax: deviation("yAccuracyMax"),
+    yRepeatabilityMax: deviation("yRepeatabilityMax"),
+    zAccuracyMax: deviation("zAccuracyMax"),
+    zRepeatabilityMax: deviation("zRepeatabilityMax"),
     reportAgeMax: params.get("reportAgeMax") ?? "",
     sort: params.get("sort") ?? "",
   };
