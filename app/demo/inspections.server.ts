@@ -55,8 +55,8 @@ export const demoInspectorProfiles = {
     baseCity: "Falkenmoor",
     regions: ["Lindgau", "Oost-Marwold", "Norrlända"],
     currency: "EUR" as const,
-    categories: ["centre_lathe", "toolroom_lathe", "cnc_lathe", "milling_machine", "surface_grinder"] as MachineCategory[],
-    feeMinorByCategory: { centre_lathe: 36_000, toolroom_lathe: 44_000, cnc_lathe: 54_000, milling_machine: 34_000, surface_grinder: 29_000 },
+    categories: ["centre_lathe", "toolroom_lathe", "cnc_lathe", "milling_machine", "surface_grinder", "machining_centre"] as MachineCategory[],
+    feeMinorByCategory: { centre_lathe: 36_000, toolroom_lathe: 44_000, cnc_lathe: 54_000, milling_machine: 34_000, surface_grinder: 29_000, machining_centre: 62_000 },
   },
 };
 

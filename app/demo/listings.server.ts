@@ -259,6 +259,22 @@ export const demoListings: DemoListing[] = [
     description: "Big-bore CNC lathe out of an offshore supply shop. Control powers up; the Z-axis drive shows an alarm that we have not traced. Sold as is, with the spare drive board that came with it.",
   },
 
+  // ————— Vertical machining centres —————
+  {
+    seller: "vernois", paint: 3, photos: 3, daysAgo: 36, status: "published", category: "machining_centre", condition: "used",
+    make: "Brevelle", model: "VX 850", tableLengthMm: 1000, tableWidthMm: 500, year: 2011, ...none, serialNumber: "VX850-11-0262", spindleNose: "ISO 40", motorPowerKw: 15, weightKg: 6200,
+    priceMinor: 58_000_00, currency: "EUR",
+    toolingIncluded: "24-place tool changer, 30 holders ISO 40, 4th-axis interface, chip conveyor, coolant through the spindle",
+    description: "Vertical machining centre, travels 850 × 500 × 510 mm. 21 000 spindle hours in a two-shift mould shop; ball screws and way covers serviced two years ago. Can be shown cutting.",
+  },
+  {
+    seller: "hollerbeck", paint: 5, photos: 2, daysAgo: 12, status: "published", category: "machining_centre", condition: "reconditioned",
+    make: "Kalmbrook", model: "KV-600", tableLengthMm: 800, tableWidthMm: 420, year: 2015, ...none, serialNumber: "KV6-15-1138", spindleNose: "ISO 40", motorPowerKw: 11, weightKg: 4300,
+    priceMinor: 44_500_00, currency: "EUR",
+    toolingIncluded: "20-place carousel, 20 holders, machine vice, probe interface",
+    description: "Compact vertical machining centre, travels 600 × 400 × 450 mm. New X and Y ball screws and spindle bearings, control backed up and serviced. Laser-checked after the rebuild.",
+  },
+
   // ————— Milling machines —————
   {
     seller: "hollerbeck", paint: 0, photos: 3, daysAgo: 33, status: "published", category: "milling_machine", condition: "reconditioned",
@@ -359,7 +375,8 @@ export const demoListings: DemoListing[] = [
 
 /** Which drawing shows a listing's machine. */
 function drawingOf(listing: Pick<DemoListing, "category" | "model">): MachineDrawing {
-  if (listing.category === "cnc_lathe") return "cnc-lathe";
+  // An enclosed machine either way: the CNC drawing is the nearest for a machining centre.
+  if (listing.category === "cnc_lathe" || listing.category === "machining_centre") return "cnc-lathe";
   if (listing.category === "milling_machine") return "mill";
   if (listing.category === "surface_grinder") return "grinder";
   if (listing.category === "other") return /grinder/i.test(listing.model) ? "grinder" : "shaper";

@@ -3,7 +3,7 @@
 // of approach, a little warming from run to run and the scatter of each reading. Seeded, so it reads the same
 // every time; scaled so the axis's worst figure (A, R or B against its tolerance) is a chosen share of it.
 import { positioningAccuracy } from "~/geometry";
-import { seededRandom } from "./report-readings";
+import { seededRandom } from "./random";
 
 export type DemoAxisRuns = { targets: number[]; forward: number[][]; reverse: number[][] };
 

@@ -10,7 +10,7 @@ export type DemoInspectorKey = "renner" | "mirelle" | "beckstrand";
 
 export type DemoBookerKey = "buyer" | "rafe" | "greta" | "dealer" | "brandmoor" | "vernois" | "hollerbeck" | "rietmolen";
 
-type InstrumentSet = "metric" | "precision" | "inch";
+type InstrumentSet = "metric" | "precision" | "inch" | "interferometer";
 
 export type DemoReportPlan = {
   model: string;
@@ -58,6 +58,16 @@ const instrumentSets: Record<InstrumentSet, { units: EntryUnits; indicator: numb
       { id: "i1", kind: "electronic-probe", description: "Sandvær electronic probe, 0.5 µm", resolution: "0.5", calibrationDue: due },
       { id: "i2", kind: "electronic-level", description: "Quellmark electronic level, 2 µm/m", resolution: "2", calibrationDue: due },
       { id: "i3", kind: "test-mandrel", description: "Hardened test mandrel, 300 mm, ground to 1 µm", resolution: "", calibrationDue: "" },
+    ],
+  },
+  // CNC machines: the axes read with a laser interferometer (its table to 0.1 µm), the spindle with an indicator.
+  interferometer: {
+    units: "mm",
+    indicator: 0.5,
+    level: 2,
+    list: (due) => [
+      { id: "i1", kind: "electronic-probe", description: "Sandvær electronic probe, 0.5 µm", resolution: "0.5", calibrationDue: due },
+      { id: "i4", kind: "laser-interferometer", description: "Lumenwerk laser interferometer with air and material sensors, 0.1 µm", resolution: "0.1", calibrationDue: due },
     ],
   },
   inch: {
@@ -180,6 +190,36 @@ export const demoReportPlans: DemoReportPlan[] = [
     fresh: true,
   },
 
+  // ————— CNC machines: the axes' positioning read with a laser interferometer —————
+  {
+    model: "OK-26 Compact", grade: "A", inspector: "mirelle", booker: "rafe", measuredDaysAgo: 18, instruments: "interferometer", seed: 2616, profileKey: "cnc-lathe-normal",
+    machine: { travel: 340, crossTravel: 180, band: A, optional: ["C-SP-NOSE"], axes: { "C-X": { travel: 180, targets: 9 }, "C-Z": { travel: 340, targets: 11 } }, ratios: { "C-X": 0.32, "C-Z": 0.41 } },
+    conditions: workshop("20.5", "45", "Axes warmed with the maker's warm-up program for 45 minutes; interferometer's air and material sensors on the slide.", "yes"),
+    notes: "The new ball screws show: both axes position within half their tolerance, with little lost motion between the directions.",
+    testNotes: { "C-X-A": "Five runs each way over 180 mm, nine targets, read on the turret's tool position." },
+  },
+  {
+    model: "VX 850", grade: "B", inspector: "beckstrand", booker: "brandmoor", measuredDaysAgo: 29, instruments: "interferometer", seed: 8505, profileKey: "vertical-machining-centre-normal",
+    machine: {
+      travel: 850, crossTravel: 500, band: B, optional: ["V-SP-NOSE"],
+      axes: { "V-X": { travel: 840, targets: 13 }, "V-Y": { travel: 490, targets: 11 }, "V-Z": { travel: 500, targets: 11 } },
+      ratios: { "V-X": 0.72, "V-Y": 0.46, "V-Z": 0.38 },
+    },
+    conditions: workshop("21.0", "60", "Two-shift shop, machine in its place of work; warmed with the spindle at 6000 rpm and the axes running for an hour.", "yes"),
+    notes: "Sound machine. The X axis's lost motion is most of its reversal tolerance: a backlash compensation, or the table nut when the screw is next serviced.",
+    testNotes: { "V-X-B": "Reversal largest near the middle of the travel, where the table is used most." },
+  },
+  {
+    model: "KV-600", grade: "A", inspector: "beckstrand", booker: "dealer", measuredDaysAgo: 6, instruments: "interferometer", seed: 6006, profileKey: "vertical-machining-centre-normal",
+    machine: {
+      travel: 600, crossTravel: 400, band: A, optional: ["V-SP-NOSE"],
+      axes: { "V-X": { travel: 590, targets: 11 }, "V-Y": { travel: 390, targets: 9 }, "V-Z": { travel: 440, targets: 9 } },
+      ratios: { "V-X": 0.3, "V-Y": 0.27, "V-Z": 0.35 },
+    },
+    conditions: workshop("20.0", "45", "Dealer's rebuild shop, air-conditioned.", "yes"),
+    notes: "Laser-checked after the rebuild: every axis positions and repeats within a third of its tolerance.",
+  },
+
   // ————— Milling machines and surface grinders: tables read as grids —————
   {
     model: "FK 3 Knee Mill", grade: "A", inspector: "beckstrand", booker: "buyer", measuredDaysAgo: 14, instruments: "metric", seed: 3410, profileKey: "knee-mill-normal",
@@ -238,7 +278,7 @@ export function formFor(plan: DemoReportPlan, ratios: Record<string, number> | u
     Object.entries(readings.measurements).map(([code, measurement]) => [
       code,
       {
-        ...entryOf(measurement, measurement.kind === "level" || (code === "L-BED-V" && set.bed) ? "i2" : "i1", ratios ? "" : (plan.testNotes?.[code] ?? "")),
+        ...entryOf(measurement, measurement.kind === "positioning" ? "i4" : measurement.kind === "level" || (code === "L-BED-V" && set.bed) ? "i2" : "i1", ratios ? "" : (plan.testNotes?.[code] ?? "")),
         // A table is read as a grid with the indicator: the grid's own spacing is in the listing's table.
         // The bed's heights come from the level: their step is given on the test, as the form allows.
         ...(code === "L-BED-V" && set.bed ? { resolution: String(set.bed) } : {}),

@@ -18,21 +18,13 @@ import {
 } from "~/geometry";
 import type { EntryUnits, TestEntry } from "~/modules/reports/form";
 import { gridFromPoints } from "~/modules/reports/grid-entry";
+import { demoAxisRuns } from "./positioning-runs";
+import { seededRandom } from "./random";
 
 const MICROMETRES_PER_INCH = 25_400;
 const MILLIMETRES_PER_INCH = 25.4;
 
-/** A small seeded generator (mulberry32), so the demo reads the same on every fresh start. */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
-  };
-}
+export { seededRandom };
 
 export type DemoMachine = {
   profileKey: string;
@@ -60,6 +52,8 @@ export type DemoMachine = {
   omit?: string[];
   /** Optional tests that were read as well. */
   optional?: string[];
+  /** A CNC machine's axes by their tests' prefix (C-X, V-Y…): travel read (mm) and targets over it. */
+  axes?: Record<string, { travel: number; targets: number }>;
   seed: number;
 };
 
@@ -93,12 +87,48 @@ export function demoReadings(machine: DemoMachine): DemoReadings {
   const stations = (travel: number, intervals: number) => Array.from({ length: intervals + 1 }, (_, i) => round((travel * i) / intervals));
 
   const measurements: Record<string, TestMeasurement> = {};
+  // The tests of one axis share one set of runs, drawn once per axis.
+  const axisRuns = new Map<string, Extract<TestMeasurement, { kind: "positioning" }>>();
+  const positioningOf = (test: ProfileTest, ratio: number) => {
+    const prefix = test.code.replace(/-[^-]*$/, "");
+    const cached = axisRuns.get(prefix);
+    if (cached) return cached;
+    const axis = machine.axes?.[prefix];
+    if (!axis) throw new Error(`demo readings: no travel for the axis ${prefix}`);
+    const toleranceOf = (method: ProfileTest["method"]) => {
+      const sibling = profile.tests.find((candidate) => candidate.code.startsWith(`${prefix}-`) && candidate.method === method)!;
+      return toleranceAt(sibling.tolerance, axis.travel, null, profile.rules);
+    };
+    const runs = demoAxisRuns({
+      ...axis,
+      runs: 5,
+      seed: machine.seed + prefix.charCodeAt(prefix.length - 1),
+      ratio: machine.ratios?.[prefix] ?? Math.abs(ratio),
+      tolerances: { accuracy: toleranceOf("positioning-accuracy"), repeatability: toleranceOf("positioning-repeatability"), reversal: toleranceOf("positioning-reversal") },
+    });
+    const inEntryUnits: Extract<TestMeasurement, { kind: "positioning" }> =
+      machine.units === "inch"
+        ? {
+            kind: "positioning",
+            targets: runs.targets.map((target) => round(target / MILLIMETRES_PER_INCH)),
+            forward: runs.forward.map((run) => run.map((value) => round(value / MICROMETRES_PER_INCH))),
+            reverse: runs.reverse.map((run) => run.map((value) => round(value / MICROMETRES_PER_INCH))),
+          }
+        : { kind: "positioning", ...runs };
+    axisRuns.set(prefix, inEntryUnits);
+    return inEntryUnits;
+  };
   const wanted = profile.tests.filter((test) => (test.required ? !machine.omit?.includes(test.code) : machine.optional?.includes(test.code)));
   for (const test of wanted) {
     const ratio = machine.ratios?.[test.code] ?? between(...machine.band);
     const kind = KINDS_FOR_METHOD[test.method];
     const lengthMm = (travel: number) => travel * scale.station;
     switch (test.method) {
+      case "positioning-accuracy":
+      case "positioning-repeatability":
+      case "positioning-reversal":
+        measurements[test.code] = positioningOf(test, ratio);
+        break;
       case "run-out": {
         const tolerance = toleranceAt(test.tolerance, null, test.measuringLength.nominal, profile.rules);
         const value = Math.max(1, countsFor(Math.abs(ratio) * tolerance));
@@ -235,7 +265,16 @@ export function scoreDemoReadings(
 ): ReportScore {
   const tests: Record<string, TestMeasurement> = {};
   for (const [code, measurement] of Object.entries(readings.measurements)) {
-    const resolution = measurement.kind === "level" ? machine.levelResolution : code === "L-BED-V" ? (machine.bedResolution ?? machine.indicatorResolution) : machine.indicatorResolution;
+    // The interferometer's table is to 0.1 µm, whatever indicator read the rest.
+    const interferometer = machine.units === "inch" ? 0.000004 : 0.1;
+    const resolution =
+      measurement.kind === "positioning"
+        ? interferometer
+        : measurement.kind === "level"
+          ? machine.levelResolution
+          : code === "L-BED-V"
+            ? (machine.bedResolution ?? machine.indicatorResolution)
+            : machine.indicatorResolution;
     tests[code] = { ...measurement, resolution };
   }
   return scoreReport(readings.profile, toMetric({ tests, conditions }, machine.units));
@@ -258,6 +297,7 @@ export function entryOf(measurement: TestMeasurement, instrumentId: string, note
     case "surface":
       return { ...base, kind: "surface", grid: gridFromPoints(measurement.points)! };
     case "positioning":
+      return { ...base, kind: "positioning", runs: { targets: measurement.targets, forward: measurement.forward, reverse: measurement.reverse } };
     case "circular":
       throw new Error(`Readings of kind ${measurement.kind} are not typed into the form as text.`);
     case "sweep":

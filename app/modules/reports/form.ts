@@ -36,6 +36,7 @@ export const INSTRUMENT_KINDS = [
   { value: "electronic-level", label: "Electronic level", reads: "tilt" },
   { value: "micrometer", label: "Micrometer", reads: "deviation" },
   { value: "wire-microscope", label: "Taut wire and microscope", reads: "deviation" },
+  { value: "laser-interferometer", label: "Laser interferometer", reads: "deviation" },
   { value: "test-mandrel", label: "Test mandrel", reads: "none" },
   { value: "other", label: "Other", reads: "deviation" },
 ] as const;

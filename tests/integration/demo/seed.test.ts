@@ -84,9 +84,9 @@ describe("the demo scenario on a fresh database", () => {
 
   it("has about forty listings of every category from five dealers and a private seller, photos on each published one", async () => {
     const [{ total }] = await rows<{ total: number }>("select count(*)::int as total from listings");
-    expect(total).toBe(40);
+    expect(total).toBe(42);
     const categories = await rows<{ category: string }>("select distinct category from listings");
-    expect(categories.map((row) => row.category).sort()).toEqual(["centre_lathe", "cnc_lathe", "milling_machine", "other", "surface_grinder", "toolroom_lathe"]);
+    expect(categories.map((row) => row.category).sort()).toEqual(["centre_lathe", "cnc_lathe", "machining_centre", "milling_machine", "other", "surface_grinder", "toolroom_lathe"]);
     const statuses = Object.fromEntries((await rows<{ status: string; n: number }>("select status, count(*)::int as n from listings group by status")).map((row) => [row.status, row.n]));
     expect(statuses.published).toBeGreaterThanOrEqual(30);
     for (const status of ["draft", "sold", "withdrawn"]) expect(statuses[status], status).toBeGreaterThan(0);
@@ -100,13 +100,18 @@ describe("the demo scenario on a fresh database", () => {
     expect(currencies).toBeGreaterThanOrEqual(3);
   });
 
-  it("has twenty signed reports across every grade (mills and grinders among them), one past twelve months, and a corrected revision", async () => {
+  it("has twenty-three signed reports across every grade (mills, grinders and CNC machines among them), one past twelve months, and a corrected revision", async () => {
     const signed = await rows<{ grade: string; measured_on: string }>("select grade, measured_on::text from reports where status = 'signed'");
-    expect(signed).toHaveLength(20);
-    const tables = await rows<{ profile_key: string; count: number; flat: number }>(
-      "select profile_key, count(*)::int as count, count(key_figures ->> 'tableFlatness')::int as flat from reports where status = 'signed' and profile_key not like 'centre-lathe%' group by profile_key order by profile_key",
+    expect(signed).toHaveLength(23);
+    const tables = await rows<{ profile_key: string; count: number; flat: number; positioned: number }>(
+      "select profile_key, count(*)::int as count, count(key_figures ->> 'tableFlatness')::int as flat, count(key_figures ->> 'xPositioningAccuracy')::int as positioned from reports where status = 'signed' and profile_key not like 'centre-lathe%' group by profile_key order by profile_key",
     );
-    expect(tables).toEqual([{ profile_key: "knee-mill-normal", count: 3, flat: 3 }, { profile_key: "surface-grinder-normal", count: 2, flat: 2 }]);
+    expect(tables).toEqual([
+      { profile_key: "cnc-lathe-normal", count: 1, flat: 0, positioned: 1 },
+      { profile_key: "knee-mill-normal", count: 3, flat: 3, positioned: 0 },
+      { profile_key: "surface-grinder-normal", count: 2, flat: 2, positioned: 0 },
+      { profile_key: "vertical-machining-centre-normal", count: 2, flat: 0, positioned: 2 },
+    ]);
     expect([...new Set(signed.map((row) => row.grade))].sort()).toEqual(["A", "B", "C", "D", "incomplete"]);
     const [{ old }] = await rows<{ old: number }>("select count(*)::int as old from reports where status = 'signed' and measured_on < current_date - interval '12 months'");
     expect(old).toBeGreaterThanOrEqual(1);

@@ -22,8 +22,10 @@ function scoreAsServer(form: unknown) {
 }
 
 describe("demo report plans", () => {
-  it("has twenty reports, each grade at least once, mills and grinders among them, one corrected and one over twelve months old", () => {
-    expect(demoReportPlans).toHaveLength(20);
+  it("has twenty-three reports, each grade at least once, mills, grinders and CNC machines among them, one corrected and one over twelve months old", () => {
+    expect(demoReportPlans).toHaveLength(23);
+    expect(demoReportPlans.filter((plan) => plan.profileKey === "cnc-lathe-normal")).toHaveLength(1);
+    expect(demoReportPlans.filter((plan) => plan.profileKey === "vertical-machining-centre-normal")).toHaveLength(2);
     expect(demoReportPlans.filter((plan) => plan.profileKey === "knee-mill-normal")).toHaveLength(3);
     expect(demoReportPlans.filter((plan) => plan.profileKey === "surface-grinder-normal")).toHaveLength(2);
     for (const grade of ["A", "B", "C", "D", "incomplete"]) expect(demoReportPlans.some((plan) => plan.grade === grade), grade).toBe(true);
