@@ -32,7 +32,7 @@ async function waitForStatus(bookingId: string, status: string) {
  * region, and a buyer's booking of that inspector, paid on the stand-in and accepted.
  */
 export async function acceptedBooking(
-  options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string; swingOverBedMm?: number; category?: "centre_lathe" | "milling_machine" } = {},
+  options: { inspectorUnits?: "mm" | "inch"; make?: string; model?: string; swingOverBedMm?: number; category?: "centre_lathe" | "milling_machine" | "machining_centre" } = {},
 ) {
   const category = options.category ?? "centre_lathe";
   const region = `Oderland ${randomUUID().slice(0, 6)}`;
