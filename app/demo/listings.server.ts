@@ -261,7 +261,7 @@ export const demoListings: DemoListing[] = [
 
   // ————— Vertical machining centres —————
   {
-    seller: "vernois", paint: 3, photos: 3, daysAgo: 36, status: "published", category: "machining_centre", condition: "used",
+    seller: "rietmolen", paint: 3, photos: 3, daysAgo: 36, status: "published", category: "machining_centre", condition: "used",
     make: "Brevelle", model: "VX 850", tableLengthMm: 1000, tableWidthMm: 500, year: 2011, ...none, serialNumber: "VX850-11-0262", spindleNose: "ISO 40", motorPowerKw: 15, weightKg: 6200,
     priceMinor: 58_000_00, currency: "EUR",
     toolingIncluded: "24-place tool changer, 30 holders ISO 40, 4th-axis interface, chip conveyor, coolant through the spindle",

@@ -192,7 +192,7 @@ export const demoReportPlans: DemoReportPlan[] = [
 
   // ————— CNC machines: the axes' positioning read with a laser interferometer —————
   {
-    model: "OK-26 Compact", grade: "A", inspector: "mirelle", booker: "rafe", measuredDaysAgo: 18, instruments: "interferometer", seed: 2616, profileKey: "cnc-lathe-normal",
+    model: "OK-26 Compact", grade: "A", inspector: "beckstrand", booker: "rafe", measuredDaysAgo: 18, instruments: "interferometer", seed: 2616, profileKey: "cnc-lathe-normal",
     machine: { travel: 340, crossTravel: 180, band: A, optional: ["C-SP-NOSE"], axes: { "C-X": { travel: 180, targets: 9 }, "C-Z": { travel: 340, targets: 11 } }, ratios: { "C-X": 0.32, "C-Z": 0.41 } },
     conditions: workshop("20.5", "45", "Axes warmed with the maker's warm-up program for 45 minutes; interferometer's air and material sensors on the slide.", "yes"),
     notes: "The new ball screws show: both axes position within half their tolerance, with little lost motion between the directions.",

@@ -2,7 +2,7 @@
 import { countryName, labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
 import type { ListingSearchQuery } from "../../../search/query.ts";
-import { accuracyFilters, formatDeviation } from "./figures";
+import { accuracyFilters, labelInText, formatDeviation } from "./figures";
 
 /** "Centre lathe · verified · spindle run-out ≤ 5 µm · up to €20,000" in the reader's units. */
 export function describeSearch(query: ListingSearchQuery, units: DisplayUnits): string {
@@ -13,7 +13,7 @@ export function describeSearch(query: ListingSearchQuery, units: DisplayUnits): 
   if (query.grades?.length) parts.push(`grade ${query.grades.join("/")}`);
   for (const filter of accuracyFilters) {
     const limit = query[filter.key];
-    if (limit !== undefined) parts.push(`${filter.label.toLowerCase()} ≤ ${formatDeviation(limit, units)}`);
+    if (limit !== undefined) parts.push(`${labelInText(filter.label)} ≤ ${formatDeviation(limit, units)}`);
   }
   if (query.maxReportAgeDays) parts.push(`report at most ${query.maxReportAgeDays} days old`);
   const { priceMinor, currency } = query;

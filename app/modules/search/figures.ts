@@ -51,4 +51,7 @@ export const accuracyFilters = [
   { key: "maxZRepeatabilityUm", param: "zRepeatabilityMax", label: "Z axis, repeatability" },
 ] as const;
 
+/** A filter's label inside a sentence: lower case, but an axis letter stays a capital ("X axis, repeatability"). */
+export const labelInText = (label: string) => (/^[XYZ] axis/.test(label) ? label : label.toLowerCase());
+
 export type AccuracyFilterKey = (typeof accuracyFilters)[number]["key"];

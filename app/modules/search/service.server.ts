@@ -6,7 +6,7 @@ import type { DisplayUnits } from "~/modules/units/format";
 import { formatLength, formatMoney } from "~/modules/units/format";
 import type { ListingSearchQuery } from "../../../search/query.ts";
 import { describeSearch } from "./describe";
-import { accuracyFilters, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
+import { accuracyFilters, labelInText, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
 import { encodeListingCursor, MAX_CURSOR_PAGE } from "./cursor.server";
 import { searchListingsInDatabase, searchListingsInDatabaseTogether } from "./listing-source.server";
 import {
@@ -214,7 +214,7 @@ function relaxations(query: ListingSearchQuery, units: DisplayUnits): { dropped:
   for (const filter of accuracyFilters) {
     const limit = query[filter.key];
     if (limit === undefined) continue;
-    const label = filter.label.toLowerCase();
+    const label = labelInText(filter.label);
     widened.set(
       filter.key,
       widerLimits(limit, units).map((wider) => ({ filter: filter.key, relaxed: { ...query, [filter.key]: wider }, text: `with ${label} ≤ ${formatDeviation(wider, units)}` })),
@@ -228,7 +228,7 @@ function describeEmpty(query: ListingSearchQuery, units: DisplayUnits): string {
   const parts: string[] = [];
   for (const filter of accuracyFilters) {
     const limit = query[filter.key];
-    if (limit !== undefined) parts.push(`${filter.label.toLowerCase()} ≤ ${formatDeviation(limit, units)}`);
+    if (limit !== undefined) parts.push(`${labelInText(filter.label)} ≤ ${formatDeviation(limit, units)}`);
   }
   if (query.verifiedOnly) parts.push("a verified report");
   if (query.priceMinor?.max != null && query.currency) parts.push(`a price up to ${formatMoney(query.priceMinor.max, query.currency)}`);

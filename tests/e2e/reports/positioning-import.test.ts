@@ -2,36 +2,18 @@
 // (a chosen file, then pasted tables with a decimal comma), maps its columns, sees the parsed runs previewed
 // with the axis's figures, is told the line of a table that does not parse, and signs; the mapping is offered
 // again after a reload. A buyer then finds the machine by its X axis's positioning accuracy.
-import { mkdirSync } from "node:fs";
 import { randomUUID } from "node:crypto";
-import type { Browser, Locator, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Locator, Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { deviationTable, demoAxisRuns } from "~/demo/positioning-runs";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize, viewports } from "../../support/browser-per-file";
 import { acceptedBooking } from "../../support/reports";
 
 const shots = "/tmp/positioning-screenshots";
-const widths = { tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 }, desktop: { width: 1280, height: 900 } };
-
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(widths)) {
-    await page.setViewportSize(size);
-    await page.waitForTimeout(200);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
+const screenshots = (page: Page, name: string) => screenshotAtEachSize(page, shots, name, { noSidewaysScroll: true });
 
 // Tolerances of the machining-centre profile up to 800 mm of travel (A 25, R 15, B 10 µm; from memory).
 const tolerances = { accuracy: 25, repeatability: 15, reversal: 10 };
@@ -52,7 +34,7 @@ describe("a machining centre's positioning tests", () => {
   it("imports each axis's table with a column mapping and a preview, refuses a broken line by its number, signs, and a buyer finds the machine by X-axis positioning accuracy", async () => {
     const word = `Varnholt${randomUUID().slice(0, 6)}`;
     const booked = await acceptedBooking({ category: "machining_centre", make: word, model: "VM 760" });
-    const { context, page } = await newRecordedPage(browser, widths.tablet);
+    const { context, page } = await newRecordedPage(browser(), viewports.tablet);
     const entryPath = `/inspector/bookings/${booked.bookingId}/report`;
     await signInPage(page, booked.inspector.email, booked.inspector.password, entryPath);
     await page.waitForURL((url) => url.pathname === entryPath);
@@ -127,6 +109,8 @@ describe("a machining centre's positioning tests", () => {
     await expect(figures.textContent()).resolves.not.toMatch(/Centre height|Table flatness/);
     const plot = page.locator('[data-plot="V-X-A"]');
     await expect(plot.getByTestId("positioning-figures").textContent()).resolves.toMatch(/Accuracy A [\d.]+ µm/);
+    // One plot per axis: its A, R and B share the runs.
+    await expect(page.locator('[data-plot^="V-"] [data-testid="positioning-figures"]').count()).resolves.toBe(3);
     await screenshots(page, "positioning-report");
     const accuracy = Number((await figures.textContent())!.match(/X axis, positioning accuracy([\d.]+) µm/)![1]);
 

@@ -132,8 +132,8 @@ describe("the demo scenario on a fresh database", () => {
     const [{ closed, paidOut }] = await rows<{ closed: number; paidOut: number }>(
       `select count(*)::int as closed, (select count(*)::int from payouts) as "paidOut" from bookings where status = 'closed'`,
     );
-    expect(closed).toBe(19);
-    expect(paidOut).toBe(19);
+    expect(closed).toBe(22);
+    expect(paidOut).toBe(22);
   });
 
   it("keeps the demo buyer's saved searches, and every published listing is in the index", async () => {
@@ -149,6 +149,6 @@ describe("the demo scenario on a fresh database", () => {
     const second = await runSeed();
     expect(second.loaded).toBe(false);
     const [{ total }] = await rows<{ total: number }>("select count(*)::int as total from listings");
-    expect(total).toBe(40);
+    expect(total).toBe(42);
   }, 120_000);
 });

@@ -245,10 +245,20 @@ export function TestDetails({ content, units, photoUrls }: { content: ReportCont
   const shown = Object.entries(content.measurements.tests)
     .sort(([a], [b]) => (order.get(a) ?? Infinity) - (order.get(b) ?? Infinity) || a.localeCompare(b))
     .filter(([code, measurement]) => PLOTTED.has(measurement.kind) || photoUrls[code] || content.tests[code]?.notes);
-  if (!shown.length) return null;
+  // An axis's A, R and B come from one set of runs: its plot is drawn once, on the first of its tests.
+  const axesDrawn = new Set<string>();
+  const drawn = new Set<string>();
+  for (const [code, measurement] of shown) {
+    const axis = measurement.kind === "positioning" ? code.replace(/-[^-]*$/, "") : null;
+    if (axis && axesDrawn.has(axis)) continue;
+    if (axis) axesDrawn.add(axis);
+    if (PLOTTED.has(measurement.kind)) drawn.add(code);
+  }
+  const kept = shown.filter(([code]) => drawn.has(code) || photoUrls[code] || content.tests[code]?.notes);
+  if (!kept.length) return null;
   return (
     <div className="grid gap-6 lg:grid-cols-2">
-      {shown.map(([code, measurement]) => {
+      {kept.map(([code, measurement]) => {
         const result = results.get(code) ?? null;
         const meta = content.tests[code];
         const instrument = content.instruments.find((candidate) => candidate.id === meta?.instrumentId);
@@ -256,7 +266,7 @@ export function TestDetails({ content, units, photoUrls }: { content: ReportCont
           <Card key={code} data-plot={code}>
             <CardHeader title={result ? lengthsInText(result.title, units) : code} description={`${code}${instrument ? ` · ${instrument.kindLabel}` : ""}`} action={result ? <VerdictBadge result={result} /> : null} />
             <CardBody className="space-y-3">
-              {PLOTTED.has(measurement.kind) ? <TestPlot measurement={measurement} result={result} units={units} /> : null}
+              {drawn.has(code) ? <TestPlot measurement={measurement} result={result} units={units} /> : null}
               {meta?.notes ? <p className="whitespace-pre-line text-sm text-ink-700">{meta.notes}</p> : null}
               {photoUrls[code] ? (
                 <a href={photoUrls[code].large} target="_blank" rel="noreferrer" className="block">

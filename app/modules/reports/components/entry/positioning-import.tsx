@@ -76,7 +76,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
   };
 
   return (
-    <div className="space-y-4 rounded-control border border-ink-200 bg-ink-50 p-3 sm:p-4" data-testid="positioning-import">
+    <div className="min-w-0 space-y-4 rounded-control border border-ink-200 bg-ink-50 p-3 sm:p-4" data-testid="positioning-import">
       <div className="grid gap-3 lg:grid-cols-2">
         <label className="block text-sm font-semibold text-ink-800">
           Paste the table (one reading per line)

@@ -485,6 +485,18 @@ export function TestCard({
 }) {
   const { test, result } = preview;
   const kinds = KINDS_FOR_METHOD[test.method].filter(isEntryKind);
+  // A test whose readings the form cannot take yet (the circular test's radial deviations) is shown, not entered.
+  if (!kinds.length) {
+    return (
+      <article id={`test-${test.code}`} className="rounded-panel border border-ink-200 bg-white px-4 py-3 shadow-panel sm:px-5" data-test-code={test.code}>
+        <h3 className="text-base font-bold text-ink-900">
+          {lengthsInText(test.title, units)} <span className="text-sm font-semibold text-ink-400">{test.code}</span>
+        </h3>
+        <p className="text-sm text-ink-600">{test.measures}</p>
+        <p className="mt-2 text-sm text-ink-500">{test.required ? "Required, but" : "Optional;"} its readings cannot be entered on this form yet. Note what you read in the report's notes.</p>
+      </article>
+    );
+  }
   const current = entry ?? emptyTestEntry(kinds[0]!);
   const errors = { ...preview.check.errors, ...serverErrors };
   const labels = unitLabels(units);
@@ -503,7 +515,7 @@ export function TestCard({
           {result ? <Badge tone={result.pass ? "within" : "beyond"}>{result.pass ? "Within" : "Fails"}</Badge> : null}
         </div>
       </header>
-      <fieldset disabled={disabled} className="space-y-4 px-4 py-4 sm:px-5">
+      <fieldset disabled={disabled} className="min-w-0 space-y-4 px-4 py-4 sm:px-5">
         <div className="grid gap-1 text-xs text-ink-500 sm:grid-cols-2">
           <p>
             <span className="font-semibold text-ink-700">Set-up: </span>
