@@ -3,134 +3,14 @@
 import { lazy, Suspense } from "react";
 import type { TestMeasurement, TestResult } from "~/geometry";
 import { straightnessReferenceLine } from "~/geometry/straightness-line";
-import { micrometresToInches } from "~/geometry/units";
-import { formatDeviation } from "../format";
 import type { DisplayUnits } from "~/modules/units/format";
 import { lengthsInText } from "~/modules/units/format";
+import { axisUnit, colours, Frame, H, linear, PAD, PlotFigures, readingLabel, readingScale, stationScale, ticksIn, W } from "./plot-parts";
 
 // Only a surface test (a mill's or grinder's table) draws a colour map, so a lathe's report never downloads it.
 const SurfacePlot = lazy(() => import("./surface-plot").then((module) => ({ default: module.SurfacePlot })));
-
-const W = 640;
-const H = 240;
-const PAD = { left: 64, right: 16, top: 16, bottom: 40 };
-
-// The tokens of app/app.css, whose pairs are checked for contrast there.
-const colours = {
-  ink: "var(--color-ink-900)",
-  muted: "var(--color-ink-500)",
-  axis: "var(--color-ink-300)",
-  grid: "var(--color-ink-100)",
-  brass: "var(--color-brass-500)",
-  within: "var(--color-within)",
-  withinSoft: "var(--color-within-soft)",
-  beyond: "var(--color-beyond)",
-};
-
-function niceStep(span: number, count: number) {
-  const raw = span / Math.max(count, 1);
-  const power = 10 ** Math.floor(Math.log10(raw || 1));
-  const [step] = [1, 2, 2.5, 5, 10].map((factor) => factor * power).filter((candidate) => candidate >= raw);
-  return step ?? 10 * power;
-}
-
-function ticks(min: number, max: number, count = 5) {
-  const step = niceStep(max - min || 1, count);
-  const first = Math.ceil(min / step) * step;
-  const values: number[] = [];
-  for (let value = first; value <= max + step * 1e-9; value += step) values.push(Number(value.toFixed(10)));
-  return values;
-}
-
-/** Ticks at round values of the unit the reader sees; `scale` turns a stored value into that unit. */
-function ticksIn(min: number, max: number, count: number, scale: number) {
-  return ticks(min * scale, max * scale, count).map((value) => value / scale);
-}
-
-/** A stored reading (µm) or tilt (µm/m) times this is what the reader's axis shows. */
-const readingScale = (units: DisplayUnits, unit: "µm" | "µm/m" = "µm") => (unit === "µm" && units === "inch" ? micrometresToInches(1) : 1);
-/** A station (mm) times this is what the reader's axis shows. */
-const stationScale = (units: DisplayUnits) => (units === "inch" ? 1 / 25.4 : 1);
-
-function readingLabel(micrometres: number, units: DisplayUnits, unit: "µm" | "µm/m" = "µm") {
-  if (unit === "µm/m") return `${Number(micrometres.toFixed(1))}`;
-  if (units === "inch") return micrometresToInches(micrometres).toFixed(5).replace(/^(-?)0\./, "$1.");
-  return `${Number(micrometres.toFixed(1))}`;
-}
-
-function axisUnit(units: DisplayUnits, unit: "µm" | "µm/m" = "µm") {
-  return unit === "µm/m" ? "µm/m" : units === "inch" ? "in" : "µm";
-}
-
-type Scale = (value: number) => number;
-
-/** The figures a plot draws, as a table: the plot's text alternative for anyone who cannot see it. */
-function PlotFigures({ title, columns, rows }: { title: string; columns: string[]; rows: (string | number)[][] }) {
-  return (
-    <details className="text-xs text-ink-600" data-testid="plot-figures">
-      <summary className="cursor-pointer font-semibold text-ink-700">Figures in this plot</summary>
-      <table className="mt-1 w-full text-left tabular">
-        <caption className="sr-only">Figures of the plot {title}</caption>
-        <thead>
-          <tr>
-            {columns.map((column) => (
-              <th key={column} scope="col" className="py-1 pr-3 font-semibold text-ink-700">
-                {column}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map(([head, ...cells], i) => (
-            <tr key={i} className="border-t border-ink-100">
-              <th scope="row" className="py-1 pr-3 font-normal">
-                {head}
-              </th>
-              {cells.map((cell, j) => (
-                <td key={j} className="py-1 pr-3">
-                  {cell}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </details>
-  );
-}
-
-function Frame({ x, y, xTicks, yTicks, xLabel, yLabel, xFormat, yFormat }: { x: Scale; y: Scale; xTicks: number[]; yTicks: number[]; xLabel: string; yLabel: string; xFormat: (v: number) => string; yFormat: (v: number) => string }) {
-  return (
-    <g fontSize="11" fill={colours.muted}>
-      {yTicks.map((value) => (
-        <g key={`y${value}`}>
-          <line x1={PAD.left} x2={W - PAD.right} y1={y(value)} y2={y(value)} stroke={value === 0 ? colours.axis : colours.grid} />
-          <text data-plot="y-tick" x={PAD.left - 6} y={y(value) + 4} textAnchor="end">
-            {yFormat(value)}
-          </text>
-        </g>
-      ))}
-      {xTicks.map((value) => (
-        <text key={`x${value}`} data-plot="x-tick" x={x(value)} y={H - PAD.bottom + 16} textAnchor="middle">
-          {xFormat(value)}
-        </text>
-      ))}
-      <text x={(PAD.left + W - PAD.right) / 2} y={H - 6} textAnchor="middle">
-        {xLabel}
-      </text>
-      <text x={14} y={(PAD.top + H - PAD.bottom) / 2} textAnchor="middle" transform={`rotate(-90 14 ${(PAD.top + H - PAD.bottom) / 2})`}>
-        {yLabel}
-      </text>
-    </g>
-  );
-}
-
-function linear(domain: [number, number], range: [number, number]): Scale {
-  const [d0, d1] = domain;
-  const [r0, r1] = range;
-  const span = d1 - d0 || 1;
-  return (value) => r0 + ((value - d0) / span) * (r1 - r0);
-}
+// Only a CNC machine's axes draw positioning runs.
+const PositioningPlot = lazy(() => import("./positioning-plot").then((module) => ({ default: module.PositioningPlot })));
 
 /** Readings along a travel; with the reference line, the band holding the points and the tolerance band when scored as a straightness. */
 export function ProfilePlot({
@@ -349,96 +229,6 @@ export function RunOutPlot({ measurement, units, title }: { measurement: Extract
   );
 }
 
-type PositioningFigures = NonNullable<TestResult["positioning"]>;
-
-/**
- * Positioning of one axis along its travel: the mean deviation of each direction of approach with its band
- * of ± 2s, and the axis's accuracy A, repeatability R, reversal value B and systematic deviation E.
- */
-export function PositioningPlot({ figures, units, title }: { figures: PositioningFigures; units: DisplayUnits; title: string }) {
-  const rows = figures.perTarget;
-  if (rows.length < 2) return null;
-  const xs = rows.map((row) => row.target);
-  const [xMin, xMax] = [Math.min(...xs), Math.max(...xs)];
-  const ys = rows.flatMap((row) => [row.meanForward + 2 * row.sForward, row.meanForward - 2 * row.sForward, row.meanReverse + 2 * row.sReverse, row.meanReverse - 2 * row.sReverse]);
-  const yPad = (Math.max(...ys) - Math.min(...ys)) * 0.12 || 1;
-  const yDomain: [number, number] = [Math.min(...ys, 0) - yPad, Math.max(...ys, 0) + yPad];
-  const x = linear([xMin, xMax], [PAD.left, W - PAD.right]);
-  const y = linear(yDomain, [H - PAD.bottom, PAD.top]);
-  const stationUnit = units === "inch" ? "in" : "mm";
-  const targetText = (value: number) => String(Number((value * stationScale(units)).toFixed(3)));
-  const directions = [
-    { key: "forward", label: "approaching in +", mean: (row: (typeof rows)[number]) => row.meanForward, s: (row: (typeof rows)[number]) => row.sForward, colour: colours.ink, dash: undefined },
-    { key: "reverse", label: "approaching in −", mean: (row: (typeof rows)[number]) => row.meanReverse, s: (row: (typeof rows)[number]) => row.sReverse, colour: colours.brass, dash: "5 3" },
-  ] as const;
-  const figureList: [string, number][] = [
-    ["Accuracy A", figures.accuracy],
-    ["Repeatability R", figures.repeatability],
-    ["Reversal value B", figures.reversalValue],
-    ["Systematic deviation E", figures.systematicDeviation],
-  ];
-  return (
-    <>
-      <figure className="w-full">
-        <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={`${title}: mean deviation ± 2s in each direction along the travel`}>
-          <Frame
-            x={x}
-            y={y}
-            xTicks={ticksIn(xMin, xMax, 6, stationScale(units))}
-            yTicks={ticksIn(yDomain[0], yDomain[1], 5, readingScale(units))}
-            xLabel={`Target (${stationUnit})`}
-            yLabel={`Deviation (${axisUnit(units)})`}
-            xFormat={targetText}
-            yFormat={(value) => readingLabel(value, units)}
-          />
-          {directions.map((direction) => (
-            <g key={direction.key} data-plot={`positioning-${direction.key}`}>
-              <polygon
-                points={[...rows.map((row) => `${x(row.target)},${y(direction.mean(row) + 2 * direction.s(row))}`), ...[...rows].reverse().map((row) => `${x(row.target)},${y(direction.mean(row) - 2 * direction.s(row))}`)].join(" ")}
-                fill={direction.colour}
-                opacity="0.12"
-              />
-              <polyline points={rows.map((row) => `${x(row.target)},${y(direction.mean(row))}`).join(" ")} fill="none" stroke={direction.colour} strokeWidth="1.75" strokeDasharray={direction.dash} />
-              {rows.map((row) => (
-                <line key={row.target} x1={x(row.target)} x2={x(row.target)} y1={y(direction.mean(row) - 2 * direction.s(row))} y2={y(direction.mean(row) + 2 * direction.s(row))} stroke={direction.colour} strokeWidth="1" />
-              ))}
-              {rows.map((row) =>
-                direction.key === "forward" ? (
-                  <circle key={row.target} data-plot="mean" cx={x(row.target)} cy={y(direction.mean(row))} r="3" fill="white" stroke={direction.colour} strokeWidth="1.5" />
-                ) : (
-                  <rect key={row.target} data-plot="mean" x={x(row.target) - 3} y={y(direction.mean(row)) - 3} width="6" height="6" fill="white" stroke={direction.colour} strokeWidth="1.5" />
-                ),
-              )}
-            </g>
-          ))}
-        </svg>
-        <figcaption className="mt-1 space-y-1 text-xs text-ink-500">
-          <span className="flex flex-wrap gap-x-4 gap-y-1">
-            {directions.map((direction) => (
-              <span key={direction.key}>
-                <span className="mr-1 inline-block h-0.5 w-4 align-middle" style={{ background: direction.colour }} />
-                mean {direction.label}, bar and band ± 2s ({direction.key === "forward" ? figures.runsForward : figures.runsReverse} runs)
-              </span>
-            ))}
-          </span>
-          <span className="flex flex-wrap gap-x-4 gap-y-1 text-ink-700" data-testid="positioning-figures">
-            {figureList.map(([label, value]) => (
-              <span key={label}>
-                {label} <span className="font-semibold tabular">{formatDeviation(value, units)}</span>
-              </span>
-            ))}
-          </span>
-        </figcaption>
-      </figure>
-      <PlotFigures
-        title={title}
-        columns={[`Target (${stationUnit})`, `Mean + (${axisUnit(units)})`, `2s + (${axisUnit(units)})`, `Mean − (${axisUnit(units)})`, `2s − (${axisUnit(units)})`]}
-        rows={rows.map((row) => [targetText(row.target), readingLabel(row.meanForward, units), readingLabel(2 * row.sForward, units), readingLabel(row.meanReverse, units), readingLabel(2 * row.sReverse, units)])}
-      />
-    </>
-  );
-}
-
 /** The plot that suits a test's readings, or nothing for a single pair of numbers. */
 export function TestPlot({ measurement, result, units }: { measurement: TestMeasurement; result: TestResult | null; units: DisplayUnits }) {
   const title = result ? `${result.code} ${lengthsInText(result.title, units)}` : "Readings";
@@ -466,7 +256,11 @@ export function TestPlot({ measurement, result, units }: { measurement: TestMeas
         </Suspense>
       );
     case "positioning":
-      return result?.positioning ? <PositioningPlot figures={result.positioning} units={units} title={title} /> : null;
+      return result?.positioning ? (
+        <Suspense fallback={null}>
+          <PositioningPlot figures={result.positioning} units={units} title={title} />
+        </Suspense>
+      ) : null;
     default:
       return null;
   }

@@ -6,7 +6,7 @@ import { Button, CheckboxField, SelectField } from "~/components/ui";
 import type { EntryUnits, PositioningRuns, TestEntry } from "../../form";
 import { formatDeviation } from "../../format";
 import { defaultMapping, importRuns, IMPORT_LIMITS, previewCells, type ColumnMapping } from "../../positioning-import";
-import { PositioningPlot } from "../plots";
+import { PositioningPlot } from "../positioning-plot";
 
 export interface PositioningImportProps {
   /** The inspector's saved mapping, if any. */
