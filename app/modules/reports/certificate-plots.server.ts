@@ -507,9 +507,16 @@ export function plotsOfReport(content: Pick<ReportContent, "measurements" | "sco
   const results = new Map(content.score.results.map((result) => [result.code, result]));
   const plots: PdfPlot[] = [];
   const codes = [...content.score.results.map((result) => result.code), ...Object.keys(content.measurements.tests).filter((code) => !results.has(code))];
+  // An axis's A, R and B come from one set of runs: its plot is drawn once, for the first of its tests.
+  const axesDrawn = new Set<string>();
   for (const code of codes) {
     const measurement = content.measurements.tests[code];
     if (!measurement) continue;
+    if (measurement.kind === "positioning") {
+      const axis = code.replace(/-[^-]*$/, "");
+      if (axesDrawn.has(axis)) continue;
+      axesDrawn.add(axis);
+    }
     const make = PLOT_MAKERS[measurement.kind as MeasurementKind | "positioning"];
     const result = results.get(code) ?? null;
     const plot = make?.({ code, title: result?.title ?? code, measurement, result, units });

@@ -208,6 +208,9 @@ describe("the plots", { timeout: 60_000 }, () => {
     // The registry draws any report test whose readings are positioning runs.
     const withRuns = { ...lathe, measurements: { ...lathe.measurements, tests: { "C-X-POS": { kind: "positioning", ...runs } as never } } };
     expect(plotsOfReport(withRuns, "inch").map((candidate) => candidate.code)).toContain("C-X-POS");
+    // An axis's three tests share their runs: one plot for the axis.
+    const axis = { ...lathe, measurements: { ...lathe.measurements, tests: Object.fromEntries(["C-X-A", "C-X-R", "C-X-B"].map((code) => [code, { kind: "positioning", ...runs } as never])) } };
+    expect(plotsOfReport(axis, "mm").map((candidate) => candidate.code)).toEqual(["C-X-A"]);
     // It draws into a page without error.
     const doc = new PDFDocument({ size: "A4" });
     doc.registerFont("regular", "Helvetica");
