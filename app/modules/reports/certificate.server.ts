@@ -103,10 +103,15 @@ export async function renderCertificate(report: PublicReport, options: Certifica
     }
   };
   const table = (columns: Array<{ label: string; width: number }>, rows: Array<{ cells: string[]; colour?: string[] }>) => {
+    const heightOf = (cells: string[], font: "bold" | "regular") =>
+      Math.max(...cells.map((cell, i) => doc.font(font).fontSize(8).heightOfString(cell, { width: columns[i]!.width - 6 }))) + 6;
+    const labels = columns.map((column) => column.label);
     const draw = (cells: string[], font: "bold" | "regular", colours?: string[]) => {
-      const heights = cells.map((cell, i) => doc.font(font).fontSize(8).heightOfString(cell, { width: columns[i]!.width - 6 }));
-      const height = Math.max(...heights) + 6;
+      const height = heightOf(cells, font);
+      const page = doc.page;
       ensureSpace(height);
+      // A table that runs onto a new page repeats its header there, so each page's columns are named.
+      if (font === "regular" && doc.page !== page) draw(labels, "bold");
       const y = doc.y;
       let x = left;
       cells.forEach((cell, i) => {
@@ -116,7 +121,8 @@ export async function renderCertificate(report: PublicReport, options: Certifica
       doc.y = y + height;
       doc.moveTo(left, doc.y).lineTo(left + width, doc.y).strokeColor(rule).lineWidth(0.5).stroke();
     };
-    draw(columns.map((column) => column.label), "bold");
+    ensureSpace(heightOf(labels, "bold") + heightOf(rows[0]?.cells.map(printable) ?? labels, "regular"));
+    draw(labels, "bold");
     for (const row of rows) draw(row.cells.map(printable), "regular", row.colour);
   };
 

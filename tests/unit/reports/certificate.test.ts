@@ -135,6 +135,16 @@ describe("page 1 of the certificate", { timeout: 60_000 }, () => {
   });
 });
 
+describe("the results table", { timeout: 60_000 }, () => {
+  it("names its columns again on each page it runs onto", async () => {
+    const pages = await pagesText(await renderCertificate(publicReport(lathe), { units: "mm", origin }));
+    // A results row ends in its ratio, direction and verdict ("0.40 no sign within").
+    const withResults = pages.filter((text) => /\d\.\d\d (no sign|either way|[+−-] only|convex only|concave only)/.test(text));
+    expect(withResults.length).toBeGreaterThan(1);
+    for (const text of withResults) expect(text).toMatch(/Test Value Tolerance \(at length\) Ratio Direction Verdict/);
+  });
+});
+
 describe("the reader's units", { timeout: 60_000 }, () => {
   it("writes deviations and lengths in µm and mm for a metric reader, with no inch figures beside them", async () => {
     const text = (await pagesText(await renderCertificate(publicReport(lathe), { units: "mm", origin }))).join(" ");
