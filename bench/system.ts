@@ -12,6 +12,7 @@ import { log } from "../scripts/lib/output.ts";
 import { freePort } from "../scripts/lib/ports.ts";
 import { buildForBench, startBenchApp, startBenchServices, stopBenchApp, stopBenchEnvironment, waitForSearchToSettle, type RunningApp } from "./lib/environment.ts";
 import { runLoad, type LoadOutcome } from "./lib/load.ts";
+import { measureEntryForm, type EntryFormOutcome } from "./lib/entry-form.ts";
 import { measurePages, type PageOutcome } from "./lib/pages.ts";
 import { measurePhotoPipeline, type PhotoOutcome } from "./lib/photo.ts";
 import { seedBenchData, type SeedResult } from "./lib/seed.ts";
@@ -38,6 +39,9 @@ export const BUDGETS = {
   detailPageGzipJsBytes: 130_000,
   // Report, search and listing pages: at least this share of the ceiling's requests per second.
   pageShareOfCeiling: 0.3,
+  // The report entry form at 820 × 1180 with the CPU slowed 4×: ready to type, and the live verdict's response.
+  entryFormReadyMs: 2_000,
+  entryFormInpMs: 100,
   lcpMs: 1_000,
   scoringMs: 1,
 } as const;
@@ -63,7 +67,7 @@ export type SystemBenchResult = {
   benchmark: "system";
   date: string;
   machine: { cpus: number; cpuModel: string; memoryGiB: number; node: string; platform: string; loadAverageStart: number[]; loadAverageEnd: number[]; commit: string | null };
-  config: { seconds: number; connections: number; listings: number; reports: number; seed: number; warmupSeconds: number; maxRequestsPerRun: number; pageLoads: number; throughputPairs: number; gzipLevel: 9 };
+  config: { seconds: number; connections: number; listings: number; reports: number; seed: number; warmupSeconds: number; maxRequestsPerRun: number; pageLoads: number; throughputPairs: number; pagesOnly: boolean; gzipLevel: 9 };
   timingsMs: { build: number; seed: SeedResult["timingsMs"]; indexing: number; total: number };
   seed: Omit<SeedResult, "timingsMs">;
   indexing: { indexed: number; removed: number; batchSize: number; ms: number };
@@ -75,6 +79,8 @@ export type SystemBenchResult = {
    */
   throughputPairs: { ceilingRps: number; searchApiRps: number; ratio: number }[];
   pages: (PageOutcome | { name: string; path: string; state: "not built yet" })[];
+  /** The report entry form on a tablet with the CPU slowed (bench/lib/entry-form.ts). */
+  entryForm: EntryFormOutcome | { error: string } | null;
   scoring: ScoringBenchResult | null;
   photo: { appDefaults: PhotoOutcome; cacheOff: PhotoOutcome } | null;
   budgets: { name: string; limit: string; actual: string; met: boolean | null }[];
@@ -173,6 +179,8 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     reports: numberFromEnv("BENCH_REPORTS", 3_000, 1, 20_000),
     seed: numberFromEnv("BENCH_SEED", 20_260_501, 0, 2 ** 32 - 1),
     throughputPairs: numberFromEnv("BENCH_PAIRS", 3, 1, 9),
+    // BENCH_ONLY=pages: Chromium's steps alone (scripts, LCP, the tablet entry form), no load runs or photo.
+    pagesOnly: process.env.BENCH_ONLY === "pages",
     warmupSeconds: 0,
     maxRequestsPerRun: 200_000,
     pageLoads: 3,
@@ -200,6 +208,7 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
     load: [],
     throughputPairs: [],
     pages: [],
+    entryForm: null,
     scoring: null,
     photo: null,
     budgets: [],
@@ -271,8 +280,16 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
       result.pages.push(found ?? { name: page.name, path: page.path, state: "not built yet" });
       if (found && found.status !== 200) result.errors.push(`${page.name} answered ${found.status} in Chromium`);
     }
+    log("bench", "Chromium: the report entry form on a tablet with the CPU slowed 4×");
+    try {
+      result.entryForm = await measureEntryForm(app.origin, environment.ownerUrl, config.pageLoads);
+    } catch (error) {
+      const cause = error instanceof Error && error.cause instanceof Error ? ` (${error.cause.message})` : "";
+      result.entryForm = { error: `${error instanceof Error ? error.message.split("\n")[0] : String(error)}${cause}` };
+      result.errors.push(`the report entry form: ${result.entryForm.error}`);
+    }
 
-    for (const target of ready) {
+    for (const target of config.pagesOnly ? [] : ready) {
       log("bench", `load: ${target.name} for ${config.seconds} s with ${config.connections} connections`);
       const before = countFallbacks(app);
       const outcome = await runLoad({ url: `${app.origin}${target.path}`, connections: config.connections, seconds: config.seconds, warmupSeconds: config.warmupSeconds, maxRequests: config.maxRequestsPerRun });
@@ -297,7 +314,7 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
         result.throughputPairs.push(pair(ceilingOutcome.requestsPerSecond, searchOutcome.requestsPerSecond));
       }
     }
-    if (ready.some((target) => target.key === "searchApi")) {
+    if (!config.pagesOnly && ready.some((target) => target.key === "searchApi")) {
       result.search.standInMsPerSearch = await timeStandInSearch(app.origin);
       // The same search API with the index out of reach, so that every search runs in PostgreSQL: the
       // product's own path, apart from the stand-in's speed.
@@ -332,8 +349,10 @@ export async function runSystemBench(): Promise<SystemBenchResult> {
   }
 
   // With everything else stopped: the photo pipeline in child processes, then the engine's scoring.
-  log("bench", "photo pipeline: a 24-megapixel JPEG, three runs per setting");
-  result.photo = await measurePhotoPipeline(3);
+  if (!config.pagesOnly) {
+    log("bench", "photo pipeline: a 24-megapixel JPEG, three runs per setting");
+    result.photo = await measurePhotoPipeline(3);
+  }
   result.scoring = await scoringResult();
   result.timingsMs.total = performance.now() - started;
   result.budgets = checkBudgets(result);
@@ -415,6 +434,21 @@ export function checkBudgets(result: SystemBenchResult): SystemBenchResult["budg
     if (!("lcpMs" in page)) continue;
     budgets.push({ name: `LCP, ${page.name}`, limit: `< ${ms(BUDGETS.lcpMs, 0)}`, actual: ms(page.lcpMs, 0), met: page.lcpMs < BUDGETS.lcpMs });
   }
+  const entry = result.entryForm && "readyMs" in result.entryForm ? result.entryForm : null;
+  budgets.push(
+    {
+      name: "report entry form on a tablet (4× CPU slowdown), page ready",
+      limit: `< ${ms(BUDGETS.entryFormReadyMs, 0)}`,
+      actual: entry ? `${ms(entry.readyMs, 0)} median of ${entry.readyRunsMs.map((value) => value.toFixed(0)).join(", ")} ms; ${kb(entry.htmlBytes)} of HTML` : result.entryForm && "error" in result.entryForm ? result.entryForm.error : "not measured",
+      met: entry ? entry.readyMs < BUDGETS.entryFormReadyMs : null,
+    },
+    {
+      name: "report entry form on a tablet (4× CPU slowdown), typing a reading: INP",
+      limit: `< ${ms(BUDGETS.entryFormInpMs, 0)}, live verdict shown`,
+      actual: entry ? `${ms(entry.inpMs, 0)} (worst of ${entry.interactions} interactions over 16 ms); verdict ${entry.verdictShown ? "shown" : "NOT shown"}` : "not measured",
+      met: entry ? entry.inpMs < BUDGETS.entryFormInpMs && entry.verdictShown : null,
+    },
+  );
   budgets.push({
     name: "scoring a full report",
     limit: `< ${BUDGETS.scoringMs} ms`,
