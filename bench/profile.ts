@@ -8,6 +8,7 @@ import { Session } from "node:inspector/promises";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import { log } from "../scripts/lib/output.ts";
+import { freePort } from "../scripts/lib/ports.ts";
 import { buildForBench, startBenchApp, startBenchServices, stopBenchApp, stopBenchEnvironment } from "./lib/environment.ts";
 import { runLoad } from "./lib/load.ts";
 import { seedBenchData } from "./lib/seed.ts";
@@ -49,7 +50,9 @@ async function main() {
     buildForBench(environment);
     await seedBenchData(environment.ownerUrl, { listings, reports: Math.min(3_000, listings), seed: 20_260_501 });
     await indexListings(environment.databaseUrl, 5_000);
-    const app = await startBenchApp(environment, { nodeFlags: ["--cpu-prof", `--cpu-prof-dir=${profileDir}`] }).catch((error: unknown) => {
+    // BENCH_PROFILE_SOURCE=database: the search service out of reach, as the system bench's PostgreSQL-path row.
+    const unreachable = process.env.BENCH_PROFILE_SOURCE === "database" ? { MEILISEARCH_HOST: `http://127.0.0.1:${await freePort()}` } : undefined;
+    const app = await startBenchApp(environment, { nodeFlags: ["--cpu-prof", `--cpu-prof-dir=${profileDir}`], ...(unreachable ? { env: unreachable } : {}) }).catch((error: unknown) => {
       console.error(readFileSync(path.join(environment.workDir, "app.log"), "utf8").slice(-3000));
       throw error;
     });
