@@ -144,6 +144,22 @@ function toHit(document: ListingSearchHit): ListingHit {
   };
 }
 
+// While the service is down every search falls back: say so once a minute with a count, not once per request
+// (a line per request is a flood of the log, and its write cost the fallback path a share of its CPU).
+const FALLBACK_LOG_EVERY_MS = 60_000;
+let fallbackLog = { at: 0, unlogged: 0 };
+
+function warnFallingBack(error: SearchUnavailableError) {
+  const now = Date.now();
+  if (now - fallbackLog.at < FALLBACK_LOG_EVERY_MS) {
+    fallbackLog.unlogged++;
+    return;
+  }
+  const since = fallbackLog.unlogged ? ` (and ${fallbackLog.unlogged} more searches since the last message)` : "";
+  fallbackLog = { at: now, unlogged: 0 };
+  console.warn(`[search] answering from PostgreSQL: ${error.message}${since}`);
+}
+
 /**
  * Runs searches against the index until it fails once, then against PostgreSQL for the rest of this
  * request, so that a down service costs one timeout, not one per query.
@@ -162,7 +178,7 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
           return await search.searchListings(query, now);
         } catch (error) {
           if (!(error instanceof SearchUnavailableError)) throw error;
-          console.warn(`[search] answering from PostgreSQL: ${error.message}`);
+          warnFallingBack(error);
           source = "database";
         }
       }
@@ -175,7 +191,7 @@ export function createListingFinder(db: Database, options: { search?: ListingSea
           return await search.searchListingsTogether(queries, now);
         } catch (error) {
           if (!(error instanceof SearchUnavailableError)) throw error;
-          console.warn(`[search] answering from PostgreSQL: ${error.message}`);
+          warnFallingBack(error);
           source = "database";
         }
       }
