@@ -299,7 +299,7 @@ export function entryOf(measurement: TestMeasurement, instrumentId: string, note
     case "positioning":
       return { ...base, kind: "positioning", runs: { targets: measurement.targets, forward: measurement.forward, reverse: measurement.reverse } };
     case "circular":
-      throw new Error(`Readings of kind ${measurement.kind} are not typed into the form as text.`);
+      return { ...base, kind: "circular", radial: { clockwise: measurement.clockwise, counterClockwise: measurement.counterClockwise } };
     case "sweep":
       return { ...base, kind: "sweep", readings: measurement.readings.map(text) };
     case "extremes":

@@ -106,5 +106,6 @@ export {
 } from "./positioning";
 export { circularTest, CIRCULAR_LIMITS, type CircularEvaluation, type RadialReading } from "./circular";
 export { parseDeviationCsv, DEVIATION_CSV_LIMITS, type DeviationColumns } from "./deviation-csv";
+export { parseRadialCsv, RADIAL_CSV_LIMITS, type RadialColumns } from "./radial-csv";
 export * from "./corrections";
 export { positioningGroups } from "./profiles-cnc";

@@ -48,6 +48,9 @@ function entryOf(measurement: TestMeasurement): TestEntry {
     case "positioning":
       entry.runs = { targets: measurement.targets, forward: measurement.forward, reverse: measurement.reverse };
       break;
+    case "circular":
+      entry.radial = { clockwise: measurement.clockwise, counterClockwise: measurement.counterClockwise };
+      break;
   }
   // The resolution travels with the test so the correction scores the same unless the inspector changes it.
   entry.resolution = text(measurement.resolution);

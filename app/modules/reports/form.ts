@@ -65,7 +65,7 @@ export const instrumentEntrySchema = z.object({
   calibrationDue: z.union([z.literal(""), z.iso.date({ error: "Give the calibration due date as YYYY-MM-DD." })]).default(""),
 });
 
-const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface", "positioning"] as const;
+const kinds = ["sweep", "extremes", "profile", "level", "mandrel", "near-far", "centre-height", "surface", "positioning", "circular"] as const;
 export type EntryKind = (typeof kinds)[number];
 export const isEntryKind = (kind: MeasurementKind): kind is EntryKind => (kinds as readonly string[]).includes(kind);
 
@@ -90,6 +90,17 @@ export const positioningRunsSchema = z.object({
 });
 export type PositioningRuns = z.output<typeof positioningRunsSchema>;
 
+/** Radial deviations of a circular test as imported, in the form's reading unit; at most one every half degree. */
+export const CIRCULAR_ENTRY_LIMITS = { readingsPerDirection: 720 } as const;
+const radialReadings = (direction: string) =>
+  z
+    .array(z.object({ angle: z.number({ error: "Each angle must be a finite number." }), deviation: z.number({ error: "Each deviation must be a finite number." }) }), {
+      error: `Give the readings ${direction} as a list.`,
+    })
+    .max(CIRCULAR_ENTRY_LIMITS.readingsPerDirection, `At most ${CIRCULAR_ENTRY_LIMITS.readingsPerDirection} readings ${direction} in a report.`);
+export const radialEntrySchema = z.object({ clockwise: radialReadings("clockwise"), counterClockwise: radialReadings("counter-clockwise") });
+export type RadialEntry = z.output<typeof radialEntrySchema>;
+
 export const testEntrySchema = z.object({
   kind: z.enum(kinds, { error: "Choose how the readings were taken." }),
   readings: z.array(numberText).max(MAX_READINGS, `At most ${MAX_READINGS} readings.`).default([]),
@@ -113,6 +124,8 @@ export const testEntrySchema = z.object({
   grid: gridEntrySchema.default(emptyGridEntry),
   /** Interferometer runs of an axis, imported from the instrument's table (positioning-import.ts). */
   runs: positioningRunsSchema.nullable().default(null),
+  /** A circular test's radial deviations, imported from the instrument's table. */
+  radial: radialEntrySchema.nullable().default(null),
   instrumentId: safeText({ label: "instrument", max: 40 }).default(""),
   /** Overrides the instrument's resolution for this test, in reading units. */
   resolution: numberText,
@@ -191,6 +204,11 @@ function* typedNumbersOf(entry: TestEntry): Generator<[string, number, Quantity]
   yield* typed("length", entry.length, "station");
   yield* typed("resolution", entry.resolution, readingIs);
   if (entry.kind === "surface") for (const [path, text, quantity] of gridNumbers(entry.grid)) yield* typed(`grid.${path}`, text, quantity);
+  if (entry.kind === "circular" && entry.radial) {
+    for (const [, value, quantity] of numbersOf({ kind: "circular", ...entry.radial })) {
+      if (typeof value === "number") yield ["radial", value, quantity];
+    }
+  }
   if (entry.kind === "positioning" && entry.runs) {
     // One message for the whole table: its readings are imported, not typed, so there is no field to point at.
     for (const [, value, quantity] of numbersOf({ kind: "positioning", ...entry.runs })) {
@@ -384,6 +402,14 @@ export function checkTestEntry(entry: TestEntry, instruments: readonly Instrumen
       }
       break;
     }
+    case "circular": {
+      needed = 1;
+      if (entry.radial) {
+        filled += 1;
+        candidate = { kind: "circular", clockwise: entry.radial.clockwise, counterClockwise: entry.radial.counterClockwise };
+      }
+      break;
+    }
     case "positioning": {
       needed = 1;
       if (entry.runs) {
@@ -422,6 +448,7 @@ function incompleteMessage(entry: TestEntry): Record<string, string[]> {
     "centre-height": "Give the readings at both ends.",
     surface: "Give the heights or level readings over the whole grid.",
     positioning: "Import the interferometer's table of runs for this axis.",
+    circular: "Import the instrument's table of radial deviations, both directions.",
   };
   return { entry: [message[entry.kind]] };
 }
@@ -431,6 +458,7 @@ function entryPath(kind: MeasurementKind, path: string[]): string {
   if (kind === "mandrel" && path.length === 2) return `${path[0]}${path[1] === "at0" ? "0" : "180"}`;
   if (kind === "surface") return path[0] === "points" ? "grid" : (path[0] ?? "entry");
   if (kind === "positioning") return path[0] === "resolution" ? "resolution" : "runs";
+  if (kind === "circular") return path[0] === "resolution" ? "resolution" : "radial";
   if (path[0] === "readings" || path[0] === "points") return path.join(".");
   return path[0] ?? "entry";
 }

@@ -3,8 +3,19 @@
 // parsed runs in the form's units with the figures they give, previewed before they are accepted. Pure:
 // the browser parses; the server checks the mapping it stores and scores the runs the form carries.
 import { z } from "zod";
-import { GeometryInputError, MICROMETRES_PER_INCH, MILLIMETRES_PER_INCH, parseDeviationCsv, positioningAccuracy, type DeviationColumns, type PositioningEvaluation } from "~/geometry";
-import { POSITIONING_ENTRY_LIMITS, type EntryUnits, type PositioningRuns } from "./form";
+import {
+  circularTest,
+  GeometryInputError,
+  MICROMETRES_PER_INCH,
+  MILLIMETRES_PER_INCH,
+  parseDeviationCsv,
+  parseRadialCsv,
+  positioningAccuracy,
+  type CircularEvaluation,
+  type DeviationColumns,
+  type PositioningEvaluation,
+} from "~/geometry";
+import { CIRCULAR_ENTRY_LIMITS, POSITIONING_ENTRY_LIMITS, type EntryUnits, type PositioningRuns, type RadialEntry } from "./form";
 
 /** A pasted or chosen table: far below the engine's own limit, since the browser parses it on a tablet. */
 export const IMPORT_LIMITS = { characters: 500_000, previewLines: 6, columns: 50 } as const;
@@ -84,6 +95,32 @@ export function importRuns(text: string, mapping: ColumnMapping, units: EntryUni
       evaluation,
       summary: { targets: parsed.targets.length, forwardRuns: parsed.forward.length, reverseRuns: parsed.reverse.length, from: parsed.targets[0]!, to: parsed.targets.at(-1)! },
     };
+  } catch (error) {
+    if (error instanceof GeometryInputError) return { ok: false, message: error.message };
+    throw error;
+  }
+}
+
+export type RadialImportResult = { ok: true; radial: RadialEntry; evaluation: CircularEvaluation } | { ok: false; message: string };
+
+/**
+ * A circular test's table with the same mapping: its direction column says clockwise or counter-clockwise,
+ * its target column holds the angle in degrees (the run column is not read).
+ */
+export function importRadial(text: string, mapping: ColumnMapping, units: EntryUnits): RadialImportResult {
+  if (text.length > IMPORT_LIMITS.characters) return { ok: false, message: `The table is longer than ${IMPORT_LIMITS.characters.toLocaleString("en-GB")} characters.` };
+  if (new Set([mapping.direction, mapping.target, mapping.deviation]).size < 3) return { ok: false, message: "Choose a different column for each of direction, angle and deviation." };
+  try {
+    const parsed = parseRadialCsv(text, { direction: mapping.direction, angle: mapping.target, deviation: mapping.deviation, deviationUnit: mapping.deviationUnit, decimalComma: mapping.decimalComma, header: mapping.header });
+    for (const direction of ["clockwise", "counterClockwise"] as const) {
+      if (parsed[direction].length > CIRCULAR_ENTRY_LIMITS.readingsPerDirection) {
+        return { ok: false, message: `${parsed[direction].length} readings in one direction; a report takes at most ${CIRCULAR_ENTRY_LIMITS.readingsPerDirection} (one every half degree).` };
+      }
+    }
+    const evaluation = circularTest(parsed);
+    const inUnits = (readings: typeof parsed.clockwise) =>
+      readings.map((reading) => ({ angle: round(reading.angle, 4), deviation: units === "inch" ? round(reading.deviation / MICROMETRES_PER_INCH, 8) : round(reading.deviation, 4) }));
+    return { ok: true, radial: { clockwise: inUnits(parsed.clockwise), counterClockwise: inUnits(parsed.counterClockwise) }, evaluation };
   } catch (error) {
     if (error instanceof GeometryInputError) return { ok: false, message: error.message };
     throw error;

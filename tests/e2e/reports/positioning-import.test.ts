@@ -97,6 +97,19 @@ describe("a machining centre's positioning tests", () => {
     await panel.getByLabel("Paste the table").fill(deviationTable(axes.Z, { decimalComma: true }));
     await panel.getByRole("button", { name: "Accept these runs" }).click();
     await expect(page.getByTestId("preview-bar").textContent()).resolves.toMatch(/grade [AB]/i);
+
+    // The optional circular test: its table of radial deviations, read with the same kind of mapping.
+    const circle = page.locator('[data-test-code="V-XY-CIRC"]');
+    panel = await openImport(circle);
+    await panel.getByLabel("Direction (cw or ccw)").selectOption("0");
+    await panel.getByLabel("Angle (degrees)").selectOption("1");
+    await panel.getByLabel("Deviation", { exact: true }).selectOption("2");
+    const angles = Array.from({ length: 36 }, (_, i) => i * 10);
+    const radial = ["direction;angle;deviation", ...angles.map((a) => `cw;${a};${(2 * Math.cos((2 * Math.PI * a) / 180)).toFixed(1).replace(".", ",")}`), ...angles.map((a) => `ccw;${a};${(2 * Math.cos((2 * Math.PI * a) / 180) - 1.5).toFixed(1).replace(".", ",")}`)];
+    await panel.getByLabel("Paste the table").fill(radial.join("\n"));
+    await expect(panel.getByTestId("circular-figures").textContent()).resolves.toMatch(/Circular deviation [\d.]+ µm.*hysteresis 1\.5 µm/s);
+    await panel.getByRole("button", { name: "Accept these readings" }).click();
+    await expect(circle.getByTestId("circular-readings").textContent()).resolves.toBe("36 readings clockwise, 36 counter-clockwise");
     await page.getByTestId("save-status").and(page.locator('[data-state="saved"]')).waitFor({ timeout: 20_000 });
 
     await Promise.all([page.waitForURL((url) => url.pathname === `${entryPath}/review`), page.getByRole("button", { name: "Submit for review" }).click()]);

@@ -411,6 +411,10 @@ const targets: Target[] = [
           `{"targets":[0,1],"forward":[${Array.from({ length: 21 }, () => "[0,1]").join(",")}],"reverse":[[0,1],[0,1]]}`,
         )
         .map((runs): Payload => ({ json: `{"form": ${JSON.stringify({ ...completeForm(), tests: { "L-SP-NOSE": "RUNS" } }).replace('"RUNS"', `{"kind":"positioning","runs":${runs}}`)}}` })),
+      // Imported radial deviations: a number too large for a double, more readings than a report takes.
+      fc
+        .constantFrom('{"clockwise":[{"angle":0,"deviation":1e400}],"counterClockwise":[]}', `{"clockwise":[${Array.from({ length: 721 }, (_, i) => `{"angle":${i / 2},"deviation":0}`).join(",")}],"counterClockwise":[]}`)
+        .map((radial): Payload => ({ json: `{"form": ${JSON.stringify({ ...completeForm(), tests: { "L-SP-NOSE": "RADIAL" } }).replace('"RADIAL"', `{"kind":"circular","radial":${radial}}`)}}` })),
 
     ),
   },

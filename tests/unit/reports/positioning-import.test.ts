@@ -5,7 +5,7 @@ import { MACHINING_CENTRE_NORMAL, positioningAccuracy } from "~/geometry";
 import { deviationTable, demoAxisRuns } from "~/demo/positioning-runs";
 import { checkTestEntry, emptyTestEntry, newReportForm, previewReport, testEntrySchema } from "~/modules/reports/form";
 import { formFromContent } from "~/modules/reports/form-from-content";
-import { columnMappingSchema, defaultMapping, importRuns, IMPORT_LIMITS, previewCells } from "~/modules/reports/positioning-import";
+import { columnMappingSchema, defaultMapping, importRadial, importRuns, IMPORT_LIMITS, previewCells } from "~/modules/reports/positioning-import";
 
 const axis = demoAxisRuns({ travel: 600, targets: 11, runs: 5, seed: 7, ratio: 0.45, tolerances: { accuracy: 25, repeatability: 15, reversal: 10 } });
 const mm = defaultMapping("mm");
@@ -103,5 +103,28 @@ describe("a positioning test's entry", () => {
       measurementsAsEntered: { tests: { "V-X-A": { kind: "positioning", ...axis } } },
     } as unknown as Parameters<typeof formFromContent>[0]);
     expect(form.tests["V-X-A"]!.runs).toEqual(axis);
+  });
+});
+
+describe("a circular test's table", () => {
+  const angles = Array.from({ length: 24 }, (_, i) => i * 15);
+  const table = ["dir;angle;dev", ...angles.map((angle) => `cw;${angle};${(1.5 * Math.cos((2 * Math.PI * angle) / 180)).toFixed(2).replace(".", ",")}`), ...angles.map((angle) => `ccw;${angle};0,5`)].join("\n");
+  const circular = { ...mm, direction: 0, target: 1, deviation: 2, decimalComma: true };
+
+  it("imports both directions with the mapping (its target column holds the angle) and previews the engine's figures", () => {
+    const imported = importRadial(table, circular, "mm");
+    if (!imported.ok) throw new Error(imported.message);
+    expect(imported.radial.clockwise).toHaveLength(24);
+    // An oval 1.5·cos 2θ spans 3 µm about its circle (by hand).
+    expect(imported.evaluation.circularDeviationClockwise).toBeCloseTo(3, 6);
+    const form = newReportForm({ profileKey: MACHINING_CENTRE_NORMAL.key, profileVersion: 1, units: "mm", measuredOn: "2026-11-30" });
+    form.tests["V-XY-CIRC"] = { ...emptyTestEntry("circular"), radial: imported.radial };
+    const result = previewReport(form, MACHINING_CENTRE_NORMAL)!.tests.find((test) => test.test.code === "V-XY-CIRC")!.result!;
+    expect(result.value).toBeCloseTo(imported.evaluation.circularDeviation, 9);
+  });
+
+  it("refuses a line that does not parse, naming it, and a mapping that reads a column twice", () => {
+    expect(importRadial(table.replace("cw;30;", "cw;thirty;"), circular, "mm")).toEqual({ ok: false, message: expect.stringMatching(/^Line 4: the angle "thirty"/) });
+    expect(importRadial(table, { ...circular, target: 2 }, "mm")).toEqual({ ok: false, message: expect.stringMatching(/different column/) });
   });
 });

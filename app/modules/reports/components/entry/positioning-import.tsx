@@ -3,25 +3,36 @@
 // axis's figures and plot, and accepted into every test of the axis. The mapping is kept for next time.
 import { useMemo, useState } from "react";
 import { Button, CheckboxField, SelectField } from "~/components/ui";
-import type { EntryUnits, PositioningRuns, TestEntry } from "../../form";
+import type { EntryUnits, PositioningRuns, RadialEntry, TestEntry } from "../../form";
 import { formatDeviation } from "../../format";
-import { defaultMapping, importRuns, IMPORT_LIMITS, previewCells, type ColumnMapping } from "../../positioning-import";
+import { defaultMapping, importRadial, importRuns, IMPORT_LIMITS, previewCells, type ColumnMapping } from "../../positioning-import";
 import { PositioningPlot } from "../positioning-plot";
 
+export type ImportedReadings = { runs: PositioningRuns } | { radial: RadialEntry };
+
 export interface PositioningImportProps {
+  /** An axis's positioning runs, or a circular test's radial deviations. */
+  kind: "positioning" | "circular";
   /** The inspector's saved mapping, if any. */
   mapping: ColumnMapping | null;
-  /** The codes of the tests that take the same runs (the axis's A, R and B). */
+  /** The codes of the tests that take the same readings (an axis's A, R and B; a circular test alone). */
   axisTests: string[];
-  onAccept: (runs: PositioningRuns, mapping: ColumnMapping) => void;
+  onAccept: (readings: ImportedReadings, mapping: ColumnMapping) => void;
 }
 
-const COLUMN_ROLES = [
-  ["run", "Run"],
-  ["direction", "Direction (+ or −)"],
-  ["target", "Target position"],
-  ["deviation", "Deviation"],
-] as const;
+const COLUMN_ROLES = {
+  positioning: [
+    ["run", "Run"],
+    ["direction", "Direction (+ or −)"],
+    ["target", "Target position"],
+    ["deviation", "Deviation"],
+  ],
+  circular: [
+    ["direction", "Direction (cw or ccw)"],
+    ["target", "Angle (degrees)"],
+    ["deviation", "Deviation"],
+  ],
+} as const;
 
 function RunsSummary({ runs, units }: { runs: PositioningRuns; units: EntryUnits }) {
   const unit = units === "inch" ? "in" : "mm";
@@ -34,15 +45,28 @@ function RunsSummary({ runs, units }: { runs: PositioningRuns; units: EntryUnits
 
 export function PositioningFields({ entry, units, importer }: { entry: TestEntry; units: EntryUnits; importer?: PositioningImportProps }) {
   const [open, setOpen] = useState(false);
+  const imported = entry.kind === "circular" ? entry.radial : entry.runs;
   return (
     <div className="space-y-3">
-      {entry.runs ? <RunsSummary runs={entry.runs} units={units} /> : <p className="text-sm text-ink-600">No runs yet. Import the instrument's table of deviations for this axis.</p>}
+      {entry.kind === "circular" ? (
+        entry.radial ? (
+          <p className="text-sm text-ink-700" data-testid="circular-readings">
+            {entry.radial.clockwise.length} readings clockwise, {entry.radial.counterClockwise.length} counter-clockwise
+          </p>
+        ) : (
+          <p className="text-sm text-ink-600">No readings yet. Import the instrument's table of radial deviations, both directions round the circle.</p>
+        )
+      ) : entry.runs ? (
+        <RunsSummary runs={entry.runs} units={units} />
+      ) : (
+        <p className="text-sm text-ink-600">No runs yet. Import the instrument's table of deviations for this axis.</p>
+      )}
       {importer ? (
         open ? (
           <ImportPanel units={units} importer={importer} onDone={() => setOpen(false)} />
         ) : (
           <Button variant="secondary" size="sm" onClick={() => setOpen(true)}>
-            {entry.runs ? "Import another table" : "Import the instrument's table"}
+            {imported ? "Import another table" : "Import the instrument's table"}
           </Button>
         )
       ) : null}
@@ -54,8 +78,9 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
   const [text, setText] = useState("");
   const [fileNote, setFileNote] = useState<string | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping>(importer.mapping ?? defaultMapping(units));
+  const circular = importer.kind === "circular";
   const cells = useMemo(() => previewCells(text, mapping.decimalComma), [text, mapping.decimalComma]);
-  const result = useMemo(() => (text.trim() ? importRuns(text, mapping, units) : null), [text, mapping, units]);
+  const result = useMemo(() => (text.trim() ? (circular ? importRadial(text, mapping, units) : importRuns(text, mapping, units)) : null), [text, mapping, units, circular]);
   const columnCount = Math.max(4, ...cells.map((row) => row.length));
   const set = <K extends keyof ColumnMapping>(key: K, value: ColumnMapping[K]) => setMapping((current) => ({ ...current, [key]: value }));
 
@@ -85,7 +110,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             value={text}
             maxLength={IMPORT_LIMITS.characters}
             spellCheck={false}
-            placeholder={"run,direction,target,deviation\n1,+,0,0.0\n1,+,100,-1.8"}
+            placeholder={circular ? "direction,angle,deviation\ncw,0,1.2\ncw,5,0.8" : "run,direction,target,deviation\n1,+,0,0.0\n1,+,100,-1.8"}
             onChange={(event) => setText(event.target.value)}
           />
         </label>
@@ -100,7 +125,10 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             </p>
           ) : null}
           <p className="text-xs text-ink-500">
-            Any instrument's export works once its columns are named below: one line per reading, with the run, the direction of approach (+ or −), the target position and the deviation from it. Up to {Math.round(IMPORT_LIMITS.characters / 1000)} kB.
+            {circular
+              ? "Any instrument's export works once its columns are named below: one line per reading, with the direction round the circle (cw or ccw), the angle in degrees and the radial deviation."
+              : "Any instrument's export works once its columns are named below: one line per reading, with the run, the direction of approach (+ or −), the target position and the deviation from it."}{" "}
+            Up to {Math.round(IMPORT_LIMITS.characters / 1000)} kB.
           </p>
         </div>
       </div>
@@ -136,7 +164,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
       <fieldset className="space-y-3">
         <legend className="text-sm font-bold text-ink-800">Which column holds what</legend>
         <div className="grid grid-cols-2 gap-3 lg:grid-cols-4">
-          {COLUMN_ROLES.map(([role, label]) => (
+          {COLUMN_ROLES[importer.kind].map(([role, label]) => (
             <SelectField
               key={role}
               label={label}
@@ -147,6 +175,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
           ))}
         </div>
         <div className="grid grid-cols-2 gap-3 lg:grid-cols-4">
+          {circular ? null : (
           <SelectField
             label="Targets in"
             value={mapping.targetUnit}
@@ -156,6 +185,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             ]}
             onChange={(event) => set("targetUnit", event.target.value as ColumnMapping["targetUnit"])}
           />
+          )}
           <SelectField
             label="Deviations in"
             value={mapping.deviationUnit}
@@ -171,7 +201,41 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
         </div>
       </fieldset>
 
-      {result === null ? null : result.ok ? (
+      {result === null ? null : result.ok && "radial" in result ? (
+        <div className="space-y-3 rounded-control border border-ink-200 bg-white p-3" data-testid="import-preview">
+          <p className="text-sm font-semibold text-ink-900">
+            Preview: {result.radial.clockwise.length} readings clockwise, {result.radial.counterClockwise.length} counter-clockwise
+          </p>
+          <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" data-testid="circular-figures">
+            <span>
+              Circular deviation <span className="font-semibold tabular">{formatDeviation(result.evaluation.circularDeviation, units)}</span>
+            </span>
+            <span>
+              clockwise <span className="font-semibold tabular">{formatDeviation(result.evaluation.circularDeviationClockwise, units)}</span>
+            </span>
+            <span>
+              counter-clockwise <span className="font-semibold tabular">{formatDeviation(result.evaluation.circularDeviationCounterClockwise, units)}</span>
+            </span>
+            <span>
+              hysteresis <span className="font-semibold tabular">{formatDeviation(result.evaluation.circularHysteresis, units)}</span>
+            </span>
+          </p>
+          <div className="flex flex-wrap items-center gap-2">
+            <Button
+              size="sm"
+              onClick={() => {
+                importer.onAccept({ radial: result.radial }, mapping);
+                onDone();
+              }}
+            >
+              Accept these readings
+            </Button>
+            <Button size="sm" variant="quiet" onClick={onDone}>
+              Cancel
+            </Button>
+          </div>
+        </div>
+      ) : result.ok && "runs" in result ? (
         <div className="space-y-3 rounded-control border border-ink-200 bg-white p-3" data-testid="import-preview">
           <p className="text-sm font-semibold text-ink-900">
             Preview: {result.summary.targets} targets over {units === "inch" ? `${((result.summary.to - result.summary.from) / 25.4).toFixed(2)} in` : `${Number((result.summary.to - result.summary.from).toFixed(3))} mm`} · {result.summary.forwardRuns} runs approaching in +, {result.summary.reverseRuns} in −
@@ -186,7 +250,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             <Button
               size="sm"
               onClick={() => {
-                importer.onAccept(result.runs, mapping);
+                importer.onAccept({ runs: result.runs }, mapping);
                 onDone();
               }}
             >
@@ -200,7 +264,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             </span>
           </div>
         </div>
-      ) : (
+      ) : !result.ok ? (
         <div className="space-y-2">
           <p className="rounded-control bg-beyond-soft px-3 py-2 text-sm font-medium text-beyond" role="alert" data-testid="import-refusal">
             {result.message}
@@ -209,7 +273,7 @@ function ImportPanel({ units, importer, onDone }: { units: EntryUnits; importer:
             Cancel
           </Button>
         </div>
-      )}
+      ) : null}
       {result === null ? (
         <Button size="sm" variant="quiet" onClick={onDone}>
           Cancel

@@ -6,6 +6,7 @@ import { Badge, Button, Card, CardBody, CardHeader, CheckboxField, cx, SelectFie
 import { formatDeviation } from "../../format";
 import { KINDS_FOR_METHOD, positioningGroups, type EvaluationMethod, type ReportScore, type ToleranceProfile } from "~/geometry";
 import type { ColumnMapping } from "../../positioning-import";
+import type { ImportedReadings } from "./positioning-import";
 import {
   emptyTestEntry,
   INSTRUMENT_KINDS,
@@ -69,6 +70,7 @@ function SaveStatus({ status, restored }: { status: SyncStatus; restored: boolea
 function hasReadings(form: ReportForm) {
   return Object.values(form.tests).some((entry) =>
     entry.runs !== null ||
+    entry.radial !== null ||
     [entry.max, entry.min, entry.near0, entry.near180, entry.far0, entry.far180, entry.near, entry.far, entry.headstockEnd, entry.tailstockEnd, ...entry.readings, ...entry.points.flatMap((p) => [p.station, p.reading])].some((value) => value.trim() !== ""),
   );
 }
@@ -129,14 +131,18 @@ export function ReportEntry({
   const axes = useMemo(() => positioningGroups(profile?.tests ?? []), [profile]);
   const axisOf = (code: string) => [...axes.values()].find((codes) => codes.includes(code));
   // One set of runs serves every test of the axis; the mapping is kept for the inspector's next import.
-  const acceptRuns = (codes: string[]) => (runs: NonNullable<TestEntry["runs"]>, mapping: ColumnMapping) => {
+  const acceptReadings = (codes: string[]) => (readings: ImportedReadings, mapping: ColumnMapping) => {
+    const kind = "runs" in readings ? "positioning" : "circular";
     change((draft) => {
       for (const code of codes) {
-        const entry = draft.tests[code]?.kind === "positioning" ? draft.tests[code]! : (structuredClone(emptyEntryFor("positioning")) as TestEntry);
-        entry.runs = structuredClone(runs);
+        const entry = draft.tests[code]?.kind === kind ? draft.tests[code]! : (structuredClone(emptyEntryFor(kind)) as TestEntry);
+        if ("runs" in readings) entry.runs = structuredClone(readings.runs);
+        else entry.radial = structuredClone(readings.radial);
         draft.tests[code] = entry;
       }
     });
+    // The saved mapping is an axis table's; a circular test's columns are read with it but do not replace it.
+    if (kind === "circular") return;
     setColumnMapping(mapping);
     void fetch(columnMappingUrl, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(mapping) }).catch(() => undefined);
   };
@@ -373,8 +379,9 @@ export function ReportEntry({
                   }}
                   disabled={locked}
                   positioning={(() => {
+                    if (testPreview.test.method === "circular-deviation") return { kind: "circular" as const, mapping: columnMapping, axisTests: [code], onAccept: acceptReadings([code]) };
                     const codes = axisOf(code);
-                    return codes ? { mapping: columnMapping, axisTests: codes, onAccept: acceptRuns(codes) } : undefined;
+                    return codes ? { kind: "positioning" as const, mapping: columnMapping, axisTests: codes, onAccept: acceptReadings(codes) } : undefined;
                   })()}
                 />
               );

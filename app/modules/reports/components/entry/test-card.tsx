@@ -399,6 +399,7 @@ function ReadingsFields({
     case "surface":
       return <GridFields entry={entry} change={change} units={units} errors={errors} check={check} />;
     case "positioning":
+    case "circular":
       return (
         <>
           <PositioningFields entry={entry} units={units} importer={positioning} />
