@@ -33,6 +33,23 @@ export function validListingFields(overrides: Record<string, string> = {}): Reco
   };
 }
 
+/** The trade's finer figures of that lathe (supply, speeds, tailstock, threads, cross-slide, footprint), in millimetres. */
+export const tradeSpecFields: Readonly<Record<string, string>> = {
+    supplyVoltage: "400",
+    supplyPhases: "3",
+    supplyFrequency: "50",
+    spindleSpeedMin: "40",
+    spindleSpeedMax: "2000",
+    tailstockTaper: "Morse taper 3",
+    threadPitchMin: "0.25",
+    threadPitchMax: "7",
+    threadTpiMin: "4",
+    threadTpiMax: "56",
+    swingOverCrossSlide: "170",
+    footprintLength: "1800",
+    footprintWidth: "800",
+};
+
 export function formBody(fields: Record<string, string>) {
   const body = new FormData();
   for (const [key, value] of Object.entries(fields)) body.set(key, value);

@@ -3,7 +3,7 @@ import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
 import type { ReactNode } from "react";
 import { Form, useNavigation } from "react-router";
 import { Button, Card, CardBody, CardHeader, SelectField, TextAreaField, TextField } from "~/components/ui";
-import { countryOptions, machineCategories, machineConditions } from "~/modules/listings/catalogue";
+import { countryOptions, isLathe, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { listingFormSchema } from "~/modules/listings/validation";
 import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
 import { powerUnitLabel, weightUnitLabel } from "~/modules/units/weight-power";
@@ -26,6 +26,18 @@ const spindleNoseSuggestions = [
   "Threaded 2¼\"-8",
   "Morse taper 5 bore",
 ] as const;
+
+// Tailstock quill tapers as sellers write them (Morse tapers: ISO 296); free text for anything else.
+const tailstockTaperSuggestions = ["Morse taper 2", "Morse taper 3", "Morse taper 4", "Morse taper 5", "Morse taper 6", "Metric taper 80"] as const;
+
+const phaseOptions = [
+  { value: "3", label: "Three-phase" },
+  { value: "1", label: "Single-phase" },
+];
+const frequencyOptions = [
+  { value: "50", label: "50 Hz" },
+  { value: "60", label: "60 Hz" },
+];
 
 type Props = {
   units: DisplayUnits;
@@ -56,6 +68,9 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
     errors: fields[name].errors,
   });
   const numeric = { inputMode: "decimal" as const, autoComplete: "off" };
+  // The lathe's own figures show until another kind of machine is chosen (and without script, always).
+  const category = fields.category.value as string | undefined;
+  const showLatheDetails = !category || isLathe(category);
 
   return (
     <Form method="post" {...getFormProps(form)} className="space-y-6">
@@ -98,6 +113,39 @@ export function ListingForm({ units, defaultValue, lastResult, submitLabel, asid
           <datalist id="spindle-nose-forms">
             {spindleNoseSuggestions.map((form) => (
               <option key={form} value={form} />
+            ))}
+          </datalist>
+        </CardBody>
+      </Card>
+
+      <Card>
+        <CardHeader title="Supply, speeds and floor space" description="Optional; buyers ask for these before they arrange a visit." />
+        <CardBody className="grid gap-5 sm:grid-cols-2">
+          <fieldset className="grid grid-cols-[minmax(0,1fr)_minmax(0,1.3fr)_minmax(0,1fr)] gap-3 sm:col-span-2">
+            <legend className="mb-1 text-sm font-semibold text-ink-800">Electrical supply</legend>
+            <TextField label="Voltage (V)" hint="e.g. 400" inputMode="numeric" autoComplete="off" {...field("supplyVoltage")} />
+            <SelectField label="Phases" options={phaseOptions} placeholder="Choose…" {...field("supplyPhases")} />
+            <SelectField label="Frequency" options={frequencyOptions} placeholder="Choose…" {...field("supplyFrequency")} />
+          </fieldset>
+          <TextField label="Lowest spindle speed (rpm)" {...numeric} {...field("spindleSpeedMin")} />
+          <TextField label="Highest spindle speed (rpm)" hint="The same as the lowest for a single speed" {...numeric} {...field("spindleSpeedMax")} />
+          <TextField label={`Footprint length (${length})`} hint="Floor space, with guards and pendant" {...numeric} {...field("footprintLength")} />
+          <TextField label={`Footprint width (${length})`} {...numeric} {...field("footprintWidth")} />
+        </CardBody>
+      </Card>
+
+      <Card hidden={!showLatheDetails} data-testid="lathe-details">
+        <CardHeader title="Lathe details" description="Optional; for lathes only. Thread pitches in mm and inch threads per inch, as the gearbox plate gives them." />
+        <CardBody className="grid gap-5 sm:grid-cols-2">
+          <TextField label={`Swing over the cross-slide (${length})`} {...numeric} {...field("swingOverCrossSlide")} />
+          <TextField label="Tailstock taper" hint="e.g. Morse taper 4" list="tailstock-tapers" autoComplete="off" {...field("tailstockTaper")} />
+          <TextField label="Finest metric pitch (mm)" hint="e.g. 0.2" {...numeric} {...field("threadPitchMin")} />
+          <TextField label="Coarsest metric pitch (mm)" hint="e.g. 14" {...numeric} {...field("threadPitchMax")} />
+          <TextField label="Coarsest inch thread (threads per inch)" hint="e.g. 2" {...numeric} {...field("threadTpiMin")} />
+          <TextField label="Finest inch thread (threads per inch)" hint="e.g. 112" {...numeric} {...field("threadTpiMax")} />
+          <datalist id="tailstock-tapers">
+            {tailstockTaperSuggestions.map((taper) => (
+              <option key={taper} value={taper} />
             ))}
           </datalist>
         </CardBody>

@@ -11,6 +11,10 @@ export const machineCategories = [
 ] as const;
 export type MachineCategory = (typeof machineCategories)[number]["value"];
 
+/** Lathes: sized by swing and centres, and the only machines with a tailstock, a cross-slide and a screw-cutting gearbox. */
+export const latheCategories: readonly string[] = ["centre_lathe", "toolroom_lathe", "cnc_lathe"];
+export const isLathe = (category: string | null | undefined) => latheCategories.includes(category ?? "");
+
 export const machineConditions = [
   { value: "reconditioned", label: "Reconditioned" },
   { value: "used", label: "Used" },

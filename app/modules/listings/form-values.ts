@@ -14,6 +14,19 @@ type StoredListing = {
   tableLengthMm?: number | null;
   tableWidthMm?: number | null;
   spindleNose: string | null;
+  supplyVoltage?: number | null;
+  supplyPhases?: number | null;
+  supplyFrequencyHz?: number | null;
+  spindleSpeedMinRpm?: number | null;
+  spindleSpeedMaxRpm?: number | null;
+  tailstockTaper?: string | null;
+  threadPitchMinMm?: number | null;
+  threadPitchMaxMm?: number | null;
+  threadTpiMin?: number | null;
+  threadTpiMax?: number | null;
+  swingOverCrossSlideMm?: number | null;
+  footprintLengthMm?: number | null;
+  footprintWidthMm?: number | null;
   motorPowerKw: number | null;
   weightKg: number | null;
   city: string;
@@ -43,6 +56,19 @@ export function formValuesOf(listing: StoredListing, units: DisplayUnits): Recor
     tableLength: length(listing.tableLengthMm ?? null),
     tableWidth: length(listing.tableWidthMm ?? null),
     spindleNose: listing.spindleNose ?? "",
+    supplyVoltage: text(listing.supplyVoltage),
+    supplyPhases: text(listing.supplyPhases),
+    supplyFrequency: text(listing.supplyFrequencyHz),
+    spindleSpeedMin: text(listing.spindleSpeedMinRpm),
+    spindleSpeedMax: text(listing.spindleSpeedMaxRpm),
+    tailstockTaper: listing.tailstockTaper ?? "",
+    threadPitchMin: text(listing.threadPitchMinMm),
+    threadPitchMax: text(listing.threadPitchMaxMm),
+    threadTpiMin: text(listing.threadTpiMin),
+    threadTpiMax: text(listing.threadTpiMax),
+    swingOverCrossSlide: length(listing.swingOverCrossSlideMm ?? null),
+    footprintLength: length(listing.footprintLengthMm ?? null),
+    footprintWidth: length(listing.footprintWidthMm ?? null),
     motorPower: listing.motorPowerKw === null ? "" : String(powerFromKilowatts(listing.motorPowerKw, units)),
     weight: listing.weightKg === null ? "" : String(weightFromKilograms(listing.weightKg, units)),
     city: listing.city,

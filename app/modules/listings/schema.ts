@@ -9,6 +9,7 @@ import {
   pgEnum,
   pgTable,
   primaryKey,
+  smallint,
   text,
   timestamp,
   uniqueIndex,
@@ -51,6 +52,24 @@ export const listings = pgTable(
     tableLengthMm: doublePrecision("table_length_mm"),
     tableWidthMm: doublePrecision("table_width_mm"),
     spindleNose: text("spindle_nose"),
+    // What a buyer asks before the rigger: the supply it runs on, its speeds, and (lathes) what fits it and what it cuts.
+    /** Nominal supply voltage between lines (three-phase) or line and neutral (single-phase), in volts. */
+    supplyVoltage: integer("supply_voltage"),
+    supplyPhases: smallint("supply_phases"),
+    supplyFrequencyHz: smallint("supply_frequency_hz"),
+    spindleSpeedMinRpm: doublePrecision("spindle_speed_min_rpm"),
+    spindleSpeedMaxRpm: doublePrecision("spindle_speed_max_rpm"),
+    /** Lathes: the tailstock quill's taper as the trade writes it ("Morse taper 4"). */
+    tailstockTaper: text("tailstock_taper"),
+    /** Lathes: the thread-cutting range, metric pitches in mm and inch threads in threads per inch, as the gearbox plate gives them. */
+    threadPitchMinMm: doublePrecision("thread_pitch_min_mm"),
+    threadPitchMaxMm: doublePrecision("thread_pitch_max_mm"),
+    threadTpiMin: doublePrecision("thread_tpi_min"),
+    threadTpiMax: doublePrecision("thread_tpi_max"),
+    swingOverCrossSlideMm: doublePrecision("swing_over_cross_slide_mm"),
+    /** Floor space the machine stands on, length by width. */
+    footprintLengthMm: doublePrecision("footprint_length_mm"),
+    footprintWidthMm: doublePrecision("footprint_width_mm"),
     motorPowerKw: doublePrecision("motor_power_kw"),
     weightKg: integer("weight_kg"),
     city: text("city").notNull(),
@@ -73,6 +92,8 @@ export const listings = pgTable(
     index("listings_published_idx").on(table.status, table.publishedAt),
     check("listings_price_positive", sql`${table.priceMinor} > 0`),
     check("listings_currency_code", sql`${table.currency} ~ '^[A-Z]{3}$'`),
+    check("listings_supply_phases", sql`${table.supplyPhases} in (1, 3)`),
+    check("listings_supply_frequency", sql`${table.supplyFrequencyHz} in (50, 60)`),
   ],
 );
 

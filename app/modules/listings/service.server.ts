@@ -26,7 +26,7 @@ import { renderEmail } from "~/modules/mail/render.server";
 import { queueListingIndexUpdate } from "~/modules/search/indexing.server";
 import { lengthToMillimetres, toMinorUnits } from "~/modules/units/format";
 import { powerToKilowatts, weightToKilograms } from "~/modules/units/weight-power";
-import { labelOf, machineCategories } from "./catalogue";
+import { isLathe, labelOf, machineCategories } from "./catalogue";
 import type { ListingStatus } from "./statuses";
 import { InquiryEmail } from "./emails/inquiry";
 import { listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
@@ -65,6 +65,10 @@ export function makeSlug(listing: Pick<Listing, "make" | "model" | "category" | 
 function columnsFrom(values: ListingFormValues) {
   const { units } = values;
   const length = (value: number | undefined) => (value === undefined ? null : lengthToMillimetres(value, units));
+  // A lathe's own figures (tailstock, cross-slide, screw-cutting) are kept for lathes only: the form hides them
+  // for other kinds, and a listing moved to another kind must not keep figures it no longer shows.
+  const lathe = isLathe(values.category);
+  const latheOnly = <T,>(value: T | undefined) => (lathe && value !== undefined ? value : null);
   return {
     category: values.category as Listing["category"],
     make: values.make,
@@ -77,6 +81,19 @@ function columnsFrom(values: ListingFormValues) {
     tableLengthMm: length(values.tableLength),
     tableWidthMm: length(values.tableWidth),
     spindleNose: values.spindleNose || null,
+    supplyVoltage: values.supplyVoltage ?? null,
+    supplyPhases: values.supplyPhases === undefined ? null : Number(values.supplyPhases),
+    supplyFrequencyHz: values.supplyFrequency === undefined ? null : Number(values.supplyFrequency),
+    spindleSpeedMinRpm: values.spindleSpeedMin ?? null,
+    spindleSpeedMaxRpm: values.spindleSpeedMax ?? null,
+    tailstockTaper: latheOnly(values.tailstockTaper || undefined),
+    threadPitchMinMm: latheOnly(values.threadPitchMin),
+    threadPitchMaxMm: latheOnly(values.threadPitchMax),
+    threadTpiMin: latheOnly(values.threadTpiMin),
+    threadTpiMax: latheOnly(values.threadTpiMax),
+    swingOverCrossSlideMm: latheOnly(length(values.swingOverCrossSlide) ?? undefined),
+    footprintLengthMm: length(values.footprintLength),
+    footprintWidthMm: length(values.footprintWidth),
     motorPowerKw: values.motorPower === undefined ? null : powerToKilowatts(values.motorPower, units),
     weightKg: values.weight === undefined ? null : weightToKilograms(values.weight, units),
     city: values.city,

@@ -3,7 +3,7 @@ import { z } from "zod";
 import { currencies, lengthUnitLabel, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
 import { KILOGRAMS_PER_POUND, KILOWATTS_PER_HORSEPOWER, powerUnitLabel, weightUnitLabel } from "~/modules/units/weight-power";
 import { decimalAmount, safeName, safeText } from "~/modules/validation/text";
-import { countryCodes, machineCategories, machineConditions } from "./catalogue";
+import { countryCodes, isLathe, machineCategories, machineConditions } from "./catalogue";
 
 const categoryValues = machineCategories.map((c) => c.value) as [string, ...string[]];
 const conditionValues = machineConditions.map((c) => c.value) as [string, ...string[]];
@@ -16,6 +16,9 @@ const ranges = {
   tableLength: { min: 100, max: 10_000 },
   tableWidth: { min: 50, max: 3_000 },
   motorPower: { min: 0.05, max: 500 },
+  swingOverCrossSlide: { min: 20, max: 4_000 },
+  footprintLength: { min: 200, max: 40_000 },
+  footprintWidth: { min: 200, max: 10_000 },
   weight: { min: 10, max: 250_000 },
 };
 
@@ -39,6 +42,33 @@ function quantity(label: string, unit: string, range: { min: number; max: number
         .max(range.max, { error: `The ${label} must be at most ${formatted(range.max)} ${unit}.` }),
     )
     .optional();
+}
+
+// Quantities the trade writes in one unit whatever the reader's: volts, revolutions per minute, thread pitches
+// in millimetres and inch threads per inch (a gearbox plate gives both, and nobody converts one to the other).
+const supply = { voltage: { min: 24, max: 1_000 } };
+const spindleSpeed = { min: 1, max: 100_000 };
+const threadPitchMm = { min: 0.05, max: 200 };
+const threadsPerInch = { min: 0.5, max: 400 };
+
+/** A choice from a native select; an empty choice arrives as undefined (Conform's coercion). */
+function choice<const T extends readonly [string, ...string[]]>(values: T, message: string) {
+  return z.enum(values, { error: message }).optional();
+}
+
+/** A range typed as two fields: both or neither, the first at most the second. */
+function pairRule(
+  context: z.RefinementCtx,
+  low: number | undefined,
+  high: number | undefined,
+  paths: [string, string],
+  words: { both: string; order?: string },
+) {
+  if ((low === undefined) !== (high === undefined)) {
+    context.addIssue({ code: "custom", path: [low === undefined ? paths[0] : paths[1]], message: words.both });
+  } else if (words.order && low !== undefined && high !== undefined && low > high) {
+    context.addIssue({ code: "custom", path: [paths[1]], message: words.order });
+  }
 }
 
 function text(label: string, max: number, multiline = false) {
@@ -75,6 +105,27 @@ export function listingFormSchema(units: DisplayUnits) {
     tableLength: quantity("table length", length, rangeIn(units, ranges.tableLength, "length")),
     tableWidth: quantity("table width", length, rangeIn(units, ranges.tableWidth, "length")),
     spindleNose: text("spindle nose", 60).optional(),
+    supplyVoltage: decimalAmount({ label: "supply voltage", decimals: 0, messages: { invalid: "Enter the supply voltage in whole volts, e.g. 400." } })
+      .pipe(
+        z
+          .number()
+          .int()
+          .min(supply.voltage.min, { error: `The supply voltage must be at least ${supply.voltage.min} V.` })
+          .max(supply.voltage.max, { error: `The supply voltage must be at most ${formatted(supply.voltage.max)} V.` }),
+      )
+      .optional(),
+    supplyPhases: choice(["1", "3"], "Choose single-phase or three-phase."),
+    supplyFrequency: choice(["50", "60"], "Choose 50 Hz or 60 Hz."),
+    spindleSpeedMin: quantity("lowest spindle speed", "rpm", spindleSpeed),
+    spindleSpeedMax: quantity("highest spindle speed", "rpm", spindleSpeed),
+    tailstockTaper: text("tailstock taper", 40).optional(),
+    threadPitchMin: quantity("finest metric pitch", "mm", threadPitchMm),
+    threadPitchMax: quantity("coarsest metric pitch", "mm", threadPitchMm),
+    threadTpiMin: quantity("coarsest inch thread", "threads per inch", threadsPerInch),
+    threadTpiMax: quantity("finest inch thread", "threads per inch", threadsPerInch),
+    swingOverCrossSlide: quantity("swing over the cross-slide", length, rangeIn(units, ranges.swingOverCrossSlide, "length")),
+    footprintLength: quantity("footprint length", length, rangeIn(units, ranges.footprintLength, "length")),
+    footprintWidth: quantity("footprint width", length, rangeIn(units, ranges.footprintWidth, "length")),
     motorPower: quantity("motor power", powerUnitLabel(units), rangeIn(units, ranges.motorPower, "power")),
     weight: quantity("weight", weightUnitLabel(units), rangeIn(units, ranges.weight, "weight")),
     city: requiredText("town or city", 80, "Enter the town or city where the machine stands."),
@@ -104,8 +155,34 @@ export function listingFormSchema(units: DisplayUnits) {
     }),
   })
     .superRefine((listing, context) => {
+      // A supply is read as voltage and phases together: "400 V" alone does not say what to wire.
+      if ((listing.supplyVoltage === undefined) !== (listing.supplyPhases === undefined)) {
+        const path = listing.supplyVoltage === undefined ? "supplyVoltage" : "supplyPhases";
+        context.addIssue({ code: "custom", path: [path], message: "Give the supply's voltage and its phases together, e.g. 400 V three-phase." });
+      }
+      if (listing.supplyFrequency !== undefined && listing.supplyVoltage === undefined) {
+        context.addIssue({ code: "custom", path: ["supplyVoltage"], message: "Give the supply's voltage and phases with its frequency." });
+      }
+      pairRule(context, listing.spindleSpeedMin, listing.spindleSpeedMax, ["spindleSpeedMin", "spindleSpeedMax"], {
+        both: "Give the lowest and the highest spindle speed (the same twice for a single speed).",
+        order: "The highest spindle speed must be at least the lowest.",
+      });
+      pairRule(context, listing.threadPitchMin, listing.threadPitchMax, ["threadPitchMin", "threadPitchMax"], {
+        both: "Give the finest and the coarsest metric pitch.",
+        order: "The coarsest metric pitch must be at least the finest.",
+      });
+      pairRule(context, listing.threadTpiMin, listing.threadTpiMax, ["threadTpiMin", "threadTpiMax"], {
+        both: "Give the coarsest and the finest inch thread, in threads per inch.",
+        order: "The finest inch thread must have at least as many threads per inch as the coarsest.",
+      });
+      pairRule(context, listing.footprintLength, listing.footprintWidth, ["footprintLength", "footprintWidth"], {
+        both: "Give the footprint's length and width.",
+      });
+      if (listing.swingOverCrossSlide !== undefined && listing.swingOverBed !== undefined && listing.swingOverCrossSlide > listing.swingOverBed) {
+        context.addIssue({ code: "custom", path: ["swingOverCrossSlide"], message: "The swing over the cross-slide is smaller than the swing over the bed; check both." });
+      }
       // Buyers size a lathe by these two figures first; a lathe listing without them cannot be found by size.
-      if (!lathes.has(listing.category)) return;
+      if (!isLathe(listing.category)) return;
       if (listing.swingOverBed === undefined) {
         context.addIssue({ code: "custom", path: ["swingOverBed"], message: `Enter the swing over bed in ${length}; buyers size a lathe by it.` });
       }
@@ -114,8 +191,6 @@ export function listingFormSchema(units: DisplayUnits) {
       }
     });
 }
-
-const lathes = new Set(["centre_lathe", "toolroom_lathe", "cnc_lathe"]);
 
 export type ListingFormValues = z.output<ReturnType<typeof listingFormSchema>>;
 

@@ -8,7 +8,7 @@ import type { InquiryConstraint } from "~/components/listings/inquiry-form";
 import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/components/ui";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
-import { countryName, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
+import { countryName, isLathe, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
 import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
 import { MachineHistorySection } from "~/components/machines/machine-history";
@@ -18,6 +18,7 @@ import { publicRebuildForListing } from "~/modules/rebuilds/service.server";
 import { VerifiedAccuracyPanel } from "~/modules/reports/components/listing-accuracy";
 import { currentReportForListing, type ListingReportSummary } from "~/modules/reports/service.server";
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
+import { formatFootprint, formatSpeedRange, formatSupply, formatThreadRange } from "~/modules/units/machine-specs";
 import { formatPower, formatWeight } from "~/modules/units/weight-power";
 import type { Route } from "./+types/machine";
 
@@ -180,6 +181,9 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
 }
 
 function SpecificationTable({ listing, units }: { listing: Route.ComponentProps["loaderData"]["listing"]; units: DisplayUnits }) {
+  const lathe = isLathe(listing.category);
+  // Rows every listing has say "not given" when empty; the trade's finer figures appear only when the seller gave them.
+  const optional = (term: string, value: string | null): Array<[string, string | null]> => (value ? [[term, value]] : []);
   const rows: Array<[string, string | null]> = [
     ["Kind of machine", labelOf(machineCategories, listing.category)],
     ["Make", listing.make],
@@ -187,12 +191,18 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
     ["Year of manufacture", listing.year ? String(listing.year) : null],
     ["Serial number", listing.serialNumber],
     ["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null],
+    ...(lathe ? optional("Swing over the cross-slide", listing.swingOverCrossSlideMm ? formatLength(listing.swingOverCrossSlideMm, units) : null) : []),
     ["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null],
     ["Spindle bore", listing.spindleBoreMm ? formatLength(listing.spindleBoreMm, units) : null],
     ...(listing.tableLengthMm ? [["Table", `${formatLength(listing.tableLengthMm, units)}${listing.tableWidthMm ? ` × ${formatLength(listing.tableWidthMm, units)}` : ""}`] as [string, string]] : []),
     ["Spindle nose", listing.spindleNose],
+    ...optional("Spindle speeds", formatSpeedRange(listing.spindleSpeedMinRpm, listing.spindleSpeedMaxRpm)),
+    ...(lathe ? optional("Tailstock taper", listing.tailstockTaper) : []),
+    ...(lathe ? optional("Thread cutting", formatThreadRange(listing, units)) : []),
     ["Main motor", listing.motorPowerKw ? formatPower(listing.motorPowerKw, units) : null],
+    ["Electrical supply", formatSupply(listing)],
     ["Weight", listing.weightKg ? formatWeight(listing.weightKg, units) : null],
+    ...optional("Footprint (length × width)", formatFootprint(listing.footprintLengthMm, listing.footprintWidthMm, units)),
     ["Condition", labelOf(machineConditions, listing.condition)],
   ];
   return (

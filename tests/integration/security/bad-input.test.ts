@@ -8,7 +8,7 @@ import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
-import { createListingAs, validListingFields } from "../../support/listings";
+import { createListingAs, tradeSpecFields, validListingFields } from "../../support/listings";
 import { acceptedBooking, completeForm, inspectorCookie, submitOverHttp } from "../../support/reports";
 
 const db = getDatabase();
@@ -138,6 +138,19 @@ const listingBreakers: Breakers = {
   distanceBetweenCentres: badNumber(100, 25_000),
   spindleBore: badNumber(5, 1_000),
   spindleNose: optionalText(60),
+  supplyVoltage: fc.oneof(notANumber, fc.constantFrom("23", "1001", "400.5", "-400", "Infinity", "1e309", "0x190")),
+  supplyPhases: unknownOf(["1", "3"]),
+  supplyFrequency: unknownOf(["50", "60"]),
+  spindleSpeedMin: badNumber(1, 100_000),
+  spindleSpeedMax: badNumber(1, 100_000),
+  tailstockTaper: optionalText(40),
+  threadPitchMin: badNumber(0.05, 200),
+  threadPitchMax: badNumber(0.05, 200),
+  threadTpiMin: badNumber(0.5, 400),
+  threadTpiMax: badNumber(0.5, 400),
+  swingOverCrossSlide: badNumber(20, 4_000),
+  footprintLength: badNumber(200, 40_000),
+  footprintWidth: badNumber(200, 10_000),
   motorPower: badNumber(0.05, 500),
   weight: badNumber(10, 250_000),
   city: requiredName(80),
@@ -166,7 +179,7 @@ const wrongJsonShapes = fc.oneof(
 const draft = () => `/inspector/bookings/${bookingId}/report`;
 
 const targets: Target[] = [
-  { route: "sell/new", path: () => "/sell/new", as: "seller", payloads: fc.oneof({ weight: 6, arbitrary: oneFieldBroken(validListingFields(), listingBreakers) }, wrongContentType(validListingFields())) },
+  { route: "sell/new", path: () => "/sell/new", as: "seller", payloads: fc.oneof({ weight: 6, arbitrary: oneFieldBroken(validListingFields(tradeSpecFields), listingBreakers) }, wrongContentType(validListingFields())) },
   {
     route: "sell/listings/:listingId",
     path: () => `/sell/listings/${listingId}`,
