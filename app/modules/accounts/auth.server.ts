@@ -11,6 +11,9 @@ import { sendPasswordResetEmail, sendVerificationEmail } from "./emails.server";
 
 export const MIN_PASSWORD_LENGTH = 10;
 
+/** The session cookies' name prefix (`tenthmark.session_token`, `__Secure-` first over https). */
+export const SESSION_COOKIE_PREFIX = "tenthmark";
+
 /** The origins a form may post from: the public one, and its 127.0.0.1 twin for local work. */
 export function trustedOrigins(origin = env().APP_ORIGIN): string[] {
   const url = new URL(origin);
@@ -107,7 +110,7 @@ function createAuth() {
       // The client address as our auth route worked it out (limits.server.ts: X-Forwarded-For only through
       // TRUSTED_PROXIES); the route removes any value a client sent under this name.
       ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] },
-      cookiePrefix: "tenthmark",
+      cookiePrefix: SESSION_COOKIE_PREFIX,
       // Secure only when the app is served over https: the local production build runs on http://localhost.
       useSecureCookies: secure,
       defaultCookieAttributes: { httpOnly: true, sameSite: "lax", secure },

@@ -1,6 +1,7 @@
 // Who is signed in and what they may do. Called in every loader and action that needs it.
+import { getSessionCookie } from "better-auth/cookies";
 import { data, redirect } from "react-router";
-import { getAuth } from "./auth.server";
+import { getAuth, SESSION_COOKIE_PREFIX } from "./auth.server";
 import { inspectorStatusOf, rolesOf, type InspectorStatus } from "./service.server";
 import type { DisplayUnits, Role } from "./validation";
 
@@ -20,6 +21,9 @@ export type SessionUser = {
 const perRequest = new WeakMap<Request, Promise<SessionUser | null>>();
 
 async function loadUser(request: Request): Promise<SessionUser | null> {
+  // Without a session cookie nobody is signed in (better-auth's own first check): most visitors to public
+  // pages are spared the session look-up's machinery.
+  if (!getSessionCookie(request.headers, { cookiePrefix: SESSION_COOKIE_PREFIX })) return null;
   const found = await getAuth().api.getSession({ headers: request.headers });
   if (!found) return null;
   const { user } = found;

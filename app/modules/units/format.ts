@@ -75,11 +75,9 @@ export function fromMinorUnits(minor: number): number {
 
 /** "€18,500" — whole amounts lose their cents, others keep two digits. */
 export function formatMoney(minor: number, currency: string): string {
-  const whole = minor % 100 === 0;
-  return new Intl.NumberFormat("en", {
-    style: "currency",
-    currency,
-    minimumFractionDigits: whole ? 0 : 2,
-    maximumFractionDigits: whole ? 0 : 2,
-  }).format(minor / 100);
+  const digits = minor % 100 === 0 ? 0 : 2;
+  const key = `¤${currency}${digits}`;
+  let format = numberFormats.get(key);
+  if (!format) numberFormats.set(key, (format = new Intl.NumberFormat("en", { style: "currency", currency, minimumFractionDigits: digits, maximumFractionDigits: digits })));
+  return format.format(minor / 100);
 }

@@ -54,5 +54,7 @@ describe("display units", () => {
     expect(toMinorUnits(0.29)).toBe(29);
     expect(formatMoney(1850000, "EUR")).toBe("€18,500");
     expect(formatMoney(1850050, "GBP")).toBe("£18,500.50");
+    // The formatters are kept per currency and cents: the same currency whole and with cents, in turn.
+    expect([formatMoney(1850050, "EUR"), formatMoney(1850000, "EUR"), formatMoney(5, "EUR"), formatMoney(1850000, "GBP")]).toEqual(["€18,500.50", "€18,500", "€0.05", "£18,500"]);
   });
 });
