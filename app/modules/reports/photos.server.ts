@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { and, count, eq, isNotNull, sql } from "drizzle-orm";
 import { z } from "zod";
-import { decimalAmount, safeName, safeText } from "~/modules/validation/text";
+import { fileSize, safeName, safeText } from "~/modules/validation/text";
 import type { Database } from "~/db/client.server";
 import { hasRole, type SessionUser } from "~/modules/accounts/guards.server";
 import { acceptUploadedPhoto, RejectedFileError } from "~/modules/files/images.server";
@@ -20,7 +20,7 @@ export const photoStepSchema = z.discriminatedUnion("intent", [
     intent: z.literal("presign"),
     testCode: safeText({ label: "test code", max: 40, min: 1 }),
     fileName: safeName({ label: "file name", max: 255 }),
-    size: decimalAmount({ label: "file size", decimals: 0 }),
+    size: fileSize(),
     contentType: safeText({ label: "file type", max: 100 }),
   }),
   z.object({ intent: z.literal("confirm"), testCode: safeText({ label: "test code", max: 40, min: 1 }), uploadKey: safeText({ label: "upload key", max: 200 }) }),

@@ -84,3 +84,8 @@ export function decimalAmount({ label, decimals = 2, messages = {} }: { label: s
     .regex(pattern, { error: invalid })
     .transform((value) => Number(value.replace(",", ".")));
 }
+
+/** A file's size in bytes as a browser reports it before an upload: whole, and more than nothing. */
+export function fileSize() {
+  return decimalAmount({ label: "file size", decimals: 0 }).pipe(z.number().positive({ error: "The file is empty: choose a file with something in it." }));
+}

@@ -1,7 +1,7 @@
 // The shared text schema: what hostile text it refuses, with a message, and what ordinary text it keeps.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { decimalAmount, formId, hasHostileCharacters, safeName, safeText } from "~/modules/validation/text";
+import { decimalAmount, fileSize, formId, hasHostileCharacters, safeName, safeText } from "~/modules/validation/text";
 
 const make = safeText({ label: "make", max: 80 });
 const notes = safeText({ label: "notes", max: 2_000, multiline: true });
@@ -83,6 +83,17 @@ describe("decimalAmount", () => {
   it("refuses what Number() would read kindly: hex, exponents, a plus sign, Infinity", () => {
     for (const value of ["0x10", "1e3", "-0x10", "+5", "--5", "Infinity", "1 000", "0b11", "0o7", "1.234", "", " "]) {
       expect(price.safeParse(value).success, value).toBe(false);
+    }
+  });
+});
+
+describe("fileSize", () => {
+  it("takes a whole number of bytes above nothing, and refuses zero, negatives and fractions with a message", () => {
+    expect(fileSize().parse("2048")).toBe(2048);
+    for (const bad of ["0", "-5", "1.5", "1e3", ""]) {
+      const result = fileSize().safeParse(bad);
+      expect(result.success, bad).toBe(false);
+      expect(result.error?.issues[0]?.message, bad).toMatch(/\w/);
     }
   });
 });
