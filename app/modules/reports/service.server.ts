@@ -244,7 +244,7 @@ export function machineTitle(listing: Pick<BookingForReport["listing"], "make" |
 }
 
 /** Everything the entry page needs: booking, machine, suggestion, saved draft (or a new form), photos, and whether it is editable. */
-export async function getReportEntry(db: Database, inspector: SessionUser, bookingId: string, today = new Date()) {
+export async function getReportEntry(db: Database, inspector: SessionUser, bookingId: string, today = new Date(), wanted?: { key: string; version: number }) {
   const found = await bookingOfInspector(db, inspector, bookingId);
   const draft = await draftOf(db, bookingId);
   const mode = await entryMode(db, found, draft);
@@ -278,13 +278,28 @@ export async function getReportEntry(db: Database, inspector: SessionUser, booki
       location: [found.listing.city, countryName(found.listing.country)].join(", "),
     },
     suggestion,
-    profiles: await profilesForEntry(db, offered, form),
+    ...(await entryProfiles(db, offered, form, wanted)),
     form,
     draft: draft ? { version: draft.version, updatedAt: draft.updatedAt.toISOString(), correctsReportId: draft.correctsReportId } : null,
     mode: mode.kind === "locked" ? { kind: "locked" as const, reason: mode.reason, signedReportId: mode.signed?.id ?? null } : { kind: mode.kind },
     submitted: submitted && draft && submitted.draftVersion === draft.version ? { reportId: submitted.id } : null,
     photos: await photosOfBooking(db, bookingId),
     columnMapping: await columnMappingOf(db, inspector),
+  };
+}
+
+/**
+ * Every version the form may choose, by name, and the whole of one only: the form's own, or the one the
+ * inspector has just chosen (`wanted`, if it may be chosen). Sending every profile's tests and tolerances
+ * made most of the entry page's HTML, and a tablet parsed it all before the form answered.
+ */
+async function entryProfiles(db: Executor, offered: ToleranceProfile[], form: ReportForm, wanted?: { key: string; version: number }) {
+  const choices = await profilesForEntry(db, offered, form);
+  const named = (key: string, version: number) => choices.find(({ profile }) => profile.key === key && profile.version === version);
+  const scoring = (wanted && named(wanted.key, wanted.version)) ?? named(form.profile.key, form.profile.version);
+  return {
+    profiles: choices.map(({ profile, retired }) => ({ key: profile.key, version: profile.version, title: profile.title, makersChart: Boolean(profile.scope.maker), retired })),
+    profile: scoring?.profile ?? null,
   };
 }
 

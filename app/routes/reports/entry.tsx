@@ -10,7 +10,10 @@ export const meta: Route.MetaFunction = ({ data: loaded }) => [{ title: loaded ?
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const inspector = await requireRole(request, "inspector");
   try {
-    return { entry: await getReportEntry(context.get(databaseContext), inspector, params.bookingId) };
+    // `?profile=key@version`: the profile just chosen in the form, whose tests and tolerances the page then loads.
+    const [key, version] = (new URL(request.url).searchParams.get("profile") ?? "").split("@");
+    const wanted = key && Number.isSafeInteger(Number(version)) ? { key: key.slice(0, 200), version: Number(version) } : undefined;
+    return { entry: await getReportEntry(context.get(databaseContext), inspector, params.bookingId, new Date(), wanted) };
   } catch (error) {
     if (error instanceof ReportRuleError) throw data(error.message, { status: error.status });
     throw error;

@@ -1,7 +1,7 @@
 // The inspector's report entry, built for a tablet in a workshop: safety first, then profile, conditions,
 // instruments and one card per test with its live verdict; the grade preview follows every keystroke.
-import { useMemo, useState } from "react";
-import { Form, Link, useNavigation } from "react-router";
+import { useDeferredValue, useMemo, useState } from "react";
+import { Form, Link, useNavigation, useSearchParams } from "react-router";
 import { Badge, Button, Card, CardBody, CardHeader, CheckboxField, cx, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { formatDeviation } from "../../format";
 import { KINDS_FOR_METHOD, positioningGroups, type EvaluationMethod, type ReportScore, type ToleranceProfile } from "~/geometry";
@@ -30,8 +30,10 @@ export type EntryData = {
   booking: { id: string; reference: string; status: string; startsAt: string; days: { today: string; visitDay: string } };
   machine: { title: string; slug: string; categoryLabel: string; year: number | null; swingOverBedMm: number | null; distanceBetweenCentresMm: number | null; location: string };
   suggestion: { profile: { key: string; version: number; title: string; makersChart: string | null } | null; reason: string; uncovered: boolean };
-  /** The versions this form may score with, its own (if since retired) included and marked. */
-  profiles: Array<{ profile: ToleranceProfile; retired: boolean }>;
+  /** The versions this form may score with, its own (if since retired) included and marked, by name. */
+  profiles: Array<{ key: string; version: number; title: string; makersChart: boolean; retired: boolean }>;
+  /** The one version whose tests and tolerances the page has: the form's own, or the one just chosen. */
+  profile: ToleranceProfile | null;
   form: ReportForm;
   draft: { version: number; updatedAt: string; correctsReportId: string | null } | null;
   mode: { kind: "first" | "correction" } | { kind: "locked"; reason: string; signedReportId: string | null };
@@ -102,11 +104,13 @@ export function ReportEntry({
     enabled: !locked,
   });
   const profiles = data.profiles;
-  const profile = profileOf(
-    form,
-    profiles.map((entry) => entry.profile),
-  );
-  const preview = useMemo(() => previewReport(form, profile), [form, profile]);
+  // Until the page has loaded a newly chosen profile, there is none to score with (no preview for a moment).
+  const profile = profileOf(form, data.profile ? [data.profile] : []);
+  const [, setSearchParams] = useSearchParams();
+  // Scoring the whole form follows the typing rather than holding it up: a keystroke repaints its own field
+  // (and card) first, and the verdicts are scored in a render React may interrupt for the next keystroke.
+  const scoredForm = useDeferredValue(form);
+  const preview = useMemo(() => previewReport(scoredForm, profile), [scoredForm, profile]);
   const navigation = useNavigation();
   const submitting = navigation.state === "submitting" && navigation.formData?.get("intent") === "submit";
   const errors = serverErrors ?? {};
@@ -121,11 +125,12 @@ export function ReportEntry({
       mutate(next);
       return next;
     });
+  // Only the changed test's entry is copied: the other cards keep their entries and are not drawn again.
   const changeTest = (code: string, kind: TestEntry["kind"]) => (mutate: (entry: TestEntry) => void) =>
-    change((draft) => {
-      const entry = draft.tests[code] ?? (structuredClone(emptyEntryFor(kind)) as TestEntry);
+    setForm((previous) => {
+      const entry = structuredClone(previous.tests[code] ?? emptyEntryFor(kind)) as TestEntry;
       mutate(entry);
-      draft.tests[code] = entry;
+      return { ...previous, tests: { ...previous.tests, [code]: entry } };
     });
 
   const axes = useMemo(() => positioningGroups(profile?.tests ?? []), [profile]);
@@ -211,18 +216,21 @@ export function ReportEntry({
                 <SelectField
                   label="Profile used"
                   value={`${form.profile.key}@${form.profile.version}`}
-                  options={profiles.map(({ profile: option, retired }) => ({
+                  options={profiles.map((option) => ({
                     value: `${option.key}@${option.version}`,
-                    label: `${option.scope.maker ? "Maker's chart: " : ""}${lengthsInText(option.title, form.units)} — v${option.version}${retired ? " (retired)" : ""}`,
+                    label: `${option.makersChart ? "Maker's chart: " : ""}${lengthsInText(option.title, form.units)} — v${option.version}${option.retired ? " (retired)" : ""}`,
                   }))}
                   errors={errors["profile.key"]}
-                  onChange={(event) =>
+                  onChange={(event) => {
+                    const chosen = event.target.value;
                     change((draft) => {
-                      const [key, version] = event.target.value.split("@");
+                      const [key, version] = chosen.split("@");
                       draft.profile.key = key!;
                       draft.profile.version = Number(version);
-                    })
-                  }
+                    });
+                    // The page loads the chosen profile's tests and tolerances; the readings typed stay.
+                    setSearchParams({ profile: chosen }, { replace: true, preventScrollReset: true });
+                  }}
                 />
                 {differs ? (
                   <TextAreaField

@@ -1,6 +1,6 @@
 // One test of the profile: what it measures, a reading form that fits its kind, the instrument, a set-up
 // photo, notes, and the live verdict from the engine as the readings go in.
-import { useId, useState, type ReactNode } from "react";
+import { memo, useId, useState, type ReactNode } from "react";
 import { Badge, Button, cx, SelectField, TextAreaField } from "~/components/ui";
 import { KINDS_FOR_METHOD, toMetric, type MeasurementKind, type ProfileTest } from "~/geometry";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, isSignedValue } from "../../format";
@@ -455,7 +455,7 @@ function LiveVerdict({ preview, units }: { preview: TestPreview; units: EntryUni
   );
 }
 
-export function TestCard({
+function TestCardView({
   preview,
   entry,
   onChange,
@@ -602,3 +602,26 @@ export function TestCard({
     </article>
   );
 }
+
+type TestCardProps = Parameters<typeof TestCardView>[0];
+
+/**
+ * A card is drawn again only when what it shows changes. Its callbacks are left out of the comparison: they
+ * update the form through state setters, so an older one does the same as a newer one. Server errors are
+ * compared by content (the form picks them out of the page's errors on every render).
+ */
+function sameCard(before: TestCardProps, after: TestCardProps): boolean {
+  for (const key of Object.keys({ ...before, ...after }) as (keyof TestCardProps)[]) {
+    const [a, b] = [before[key], after[key]];
+    if (typeof a === "function" && typeof b === "function") continue;
+    if (key === "serverErrors") {
+      if (JSON.stringify(a) !== JSON.stringify(b)) return false;
+    } else if (key === "positioning") {
+      const [x, y] = [a as TestCardProps["positioning"], b as TestCardProps["positioning"]];
+      if (x?.mapping !== y?.mapping || x?.axisTests !== y?.axisTests || Boolean(x) !== Boolean(y)) return false;
+    } else if (!Object.is(a, b)) return false;
+  }
+  return true;
+}
+
+export const TestCard = memo(TestCardView, sameCard);
