@@ -22,6 +22,9 @@ export type SearchableListing = {
   swingMm: number | null;
   betweenCentresMm: number | null;
   spindleBoreMm: number | null;
+  /** The electrical supply it runs on: volts and 1 or 3 phases (null when the seller did not say). */
+  supplyVoltage?: number | null;
+  supplyPhases?: number | null;
   /** Price in the currency's minor unit (cents); null when the seller asks for offers. */
   priceMinor: number | null;
   /** ISO 4217 code, e.g. `EUR`. */
@@ -103,6 +106,8 @@ export function listingToSearchDocument(listing: SearchableListing, report: Sear
     swingMm: listing.swingMm,
     betweenCentresMm: listing.betweenCentresMm,
     spindleBoreMm: listing.spindleBoreMm,
+    supplyVoltage: listing.supplyVoltage ?? null,
+    supplyPhases: listing.supplyPhases ?? null,
     priceMinor: listing.priceMinor,
     currency: listing.currency,
     city: listing.city,

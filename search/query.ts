@@ -6,6 +6,21 @@ export type NumberRange = { min?: number | null; max?: number | null };
 export const listingSorts = ["relevance", "newest", "price-ascending", "price-descending", "best-accuracy"] as const;
 export type ListingSort = (typeof listingSorts)[number];
 
+/**
+ * Mains supplies as buyers ask for them: phases and a nominal voltage band, since a machine plated 380 V or
+ * 415 V runs on a 400 V supply (`common practice`; the bands follow the nominal voltages of IEC 60038).
+ */
+export const supplyClasses = [
+  { value: "3x400", label: "Three-phase 400 V (380–415 V)", phases: 3, minVoltage: 380, maxVoltage: 415 },
+  { value: "3x230", label: "Three-phase 230 V (200–240 V)", phases: 3, minVoltage: 200, maxVoltage: 240 },
+  { value: "3x480", label: "Three-phase 480 V (440–480 V)", phases: 3, minVoltage: 440, maxVoltage: 480 },
+  { value: "3x600", label: "Three-phase 600 V (575–600 V)", phases: 3, minVoltage: 575, maxVoltage: 600 },
+  { value: "1x230", label: "Single-phase 230 V (220–240 V)", phases: 1, minVoltage: 220, maxVoltage: 240 },
+  { value: "1x120", label: "Single-phase 120 V (100–127 V)", phases: 1, minVoltage: 100, maxVoltage: 127 },
+] as const;
+export type SupplyClass = (typeof supplyClasses)[number]["value"];
+export const supplyClassOf = (value: string | undefined) => supplyClasses.find((supply) => supply.value === value);
+
 export type ListingSearchQuery = {
   text?: string;
   /** Only these listings (a saved search asks whether one listing matches). */
@@ -35,6 +50,8 @@ export type ListingSearchQuery = {
   maxZRepeatabilityUm?: number;
   /** Reports measured at most this many days ago. */
   maxReportAgeDays?: number;
+  /** Runs on this supply (one of `supplyClasses`). */
+  supply?: SupplyClass;
   countries?: string[];
   region?: string;
   /** Defaults to published listings only. */
@@ -66,6 +83,11 @@ function atMost(attribute: string, limit: number | undefined): string[] {
   return limit === undefined || limit === null ? [] : [`${attribute} <= ${limit}`];
 }
 
+function supplyFilter(value: SupplyClass | undefined): string[] {
+  const supply = supplyClassOf(value);
+  return supply ? [`supplyPhases = ${supply.phases}`, `supplyVoltage >= ${supply.minVoltage}`, `supplyVoltage <= ${supply.maxVoltage}`] : [];
+}
+
 /** The filter as the index takes it: every item must hold (an array of conditions ANDed). */
 export function listingFilter(query: ListingSearchQuery, now: Date = new Date()): string[] {
   const conditions = [
@@ -93,6 +115,7 @@ export function listingFilter(query: ListingSearchQuery, now: Date = new Date())
     ...atMost("zPositioningAccuracyUm", query.maxZPositioningAccuracyUm),
     ...atMost("zRepeatabilityUm", query.maxZRepeatabilityUm),
     query.maxReportAgeDays === undefined ? null : `reportDate >= ${Math.floor(now.getTime() / 1000) - Math.round(query.maxReportAgeDays * 86_400)}`,
+    ...supplyFilter(query.supply),
     anyOf("country", query.countries),
     query.region ? `region = ${quoteFilterValue(query.region)}` : null,
   ];

@@ -35,6 +35,8 @@ const filterableAttributes: Attribute[] = [
   "priceMinor",
   "currency",
   "swingMm",
+  "supplyVoltage",
+  "supplyPhases",
   "betweenCentresMm",
   "country",
   "region",

@@ -1,7 +1,7 @@
 // A buyer's search in words, for saved-search lists, default names and e-mails. Pure: server and browser.
 import { countryName, labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { formatLength, formatMoney, type DisplayUnits } from "~/modules/units/format";
-import type { ListingSearchQuery } from "../../../search/query.ts";
+import { supplyClassOf, type ListingSearchQuery } from "../../../search/query.ts";
 import { accuracyFilters, labelInText, formatDeviation } from "./figures";
 
 /** "Centre lathe · verified · spindle run-out ≤ 5 µm · up to €20,000" in the reader's units. */
@@ -24,6 +24,8 @@ export function describeSearch(query: ListingSearchQuery, units: DisplayUnits): 
   if (query.swingMm?.max != null) parts.push(`swing ≤ ${formatLength(query.swingMm.max, units)}`);
   if (query.betweenCentresMm?.min != null) parts.push(`centres ≥ ${formatLength(query.betweenCentresMm.min, units)}`);
   if (query.betweenCentresMm?.max != null) parts.push(`centres ≤ ${formatLength(query.betweenCentresMm.max, units)}`);
+  const supply = supplyClassOf(query.supply);
+  if (supply) parts.push(`runs on ${supply.label.replace(/ \(.*\)$/, "").toLowerCase()}`);
   if (query.countries?.length) parts.push(query.countries.map(countryName).join(", "));
   return parts.length ? parts.join(" · ") : "Every machine";
 }

@@ -18,7 +18,7 @@ import {
   type SearchableListing,
   type SearchableReport,
 } from "../../../search/document.ts";
-import type { ListingSearchQuery, NumberRange } from "../../../search/query.ts";
+import { supplyClassOf, type ListingSearchQuery, type NumberRange } from "../../../search/query.ts";
 import { listingSearch } from "./schema";
 import { LISTING_FACETS, type ListingCursorKey, type ListingFacet, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
 
@@ -125,6 +125,8 @@ function toSource(row: JoinedRow): SourceListing {
       swingMm: listing.swingOverBedMm,
       betweenCentresMm: listing.distanceBetweenCentresMm,
       spindleBoreMm: listing.spindleBoreMm,
+      supplyVoltage: listing.supplyVoltage,
+      supplyPhases: listing.supplyPhases,
       priceMinor: listing.priceMinor,
       currency: listing.currency,
       city: listing.city,
@@ -195,6 +197,14 @@ function figureAtMost(name: keyof KeyFigures, limit: number | undefined): SQL[] 
   return limit === undefined || limit === null ? [] : [sql`abs((${s.keyFigures} ->> ${name})::double precision) <= ${limit}`];
 }
 
+// The supply is a listing's own figure, not a report's: read from listings by primary key for the rows
+// listing_search has narrowed, so that listing_search and its triggers need no column for it.
+function supplyCondition(value: ListingSearchQuery["supply"]): SQL | undefined {
+  const supply = supplyClassOf(value);
+  if (!supply) return undefined;
+  return sql`exists (select 1 from ${listings} where ${listings.id} = ${s.listingId} and ${listings.supplyPhases} = ${supply.phases} and ${listings.supplyVoltage} between ${supply.minVoltage} and ${supply.maxVoltage})`;
+}
+
 function idsCondition(ids: string[]): SQL {
   const valid = ids.filter((id) => /^[0-9a-f-]{36}$/i.test(id));
   return valid.length ? inArray(s.listingId, valid) : sql`false`;
@@ -246,6 +256,7 @@ function conditionsFor(query: ListingSearchQuery, now: Date): KeyedCondition[] {
     const since = new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10);
     put("reportAge", since, gte(s.measuredOn, since));
   }
+  if (query.supply) put("supply", query.supply, supplyCondition(query.supply));
   if (query.countries?.length) put("countries", query.countries, inArray(s.country, query.countries));
   if (query.region) put("region", facetText(query.region), eq(s.regionKey, facetText(query.region)));
   return keyed;

@@ -6,7 +6,7 @@ import { safeText } from "~/modules/validation/text";
 import { inchesToMicrometres, inchesToMillimetres } from "~/geometry/units";
 import { machineCategories } from "~/modules/listings/catalogue";
 import { currencies, toMinorUnits } from "~/modules/units/format";
-import { listingSorts, type ListingSearchQuery } from "../../../search/query.ts";
+import { listingSorts, supplyClasses, type ListingSearchQuery } from "../../../search/query.ts";
 import { decodeListingCursor, MAX_CURSOR_LENGTH } from "./cursor.server";
 import type { ListingCursorKey } from "./search.server";
 
@@ -15,6 +15,7 @@ export const DEFAULT_HITS_PER_PAGE = 12;
 
 const categoryValues = machineCategories.map((category) => category.value) as [string, ...string[]];
 const gradeValues = ["A", "B", "C", "D", "incomplete"] as const;
+const supplyValues = supplyClasses.map((supply) => supply.value) as [(typeof supplyClasses)[number]["value"], ...(typeof supplyClasses)[number]["value"][]];
 
 // An empty form field means "no limit", not zero.
 const blankAsMissing = (value: unknown) => (value === "" || value === null ? undefined : value);
@@ -92,6 +93,7 @@ export const listingSearchParamsSchema = z
     zRepeatabilityMax: micrometres("Z axis, repeatability"),
     zRepeatabilityMaxIn: inches("Z axis, repeatability"),
     reportAgeMax: whole("Report age (days)", 1, 3650),
+    supply: z.preprocess(blankAsMissing, z.enum(supplyValues, { error: `Supply must be one of ${supplyValues.join(", ")}.` }).optional()),
     sort: z.preprocess(blankAsMissing, z.enum(listingSorts, { error: `Sort must be one of ${listingSorts.join(", ")}.` }).optional()),
     page: whole("Page", 1, 1000),
     // The continuation cursor of a previous answer (`nextCursor`): checked against this search below.
@@ -174,6 +176,7 @@ export function queryFromParams(params: ListingSearchParams): ListingSearchQuery
     maxZPositioningAccuracyUm: microns(params.zAccuracyMax, params.zAccuracyMaxIn),
     maxZRepeatabilityUm: microns(params.zRepeatabilityMax, params.zRepeatabilityMaxIn),
     maxReportAgeDays: params.reportAgeMax,
+    supply: params.supply,
     sort: params.sort ?? (params.q ? "relevance" : "newest"),
     page: params.page ?? 1,
     hitsPerPage: params.perPage ?? DEFAULT_HITS_PER_PAGE,
@@ -215,6 +218,7 @@ export function paramsFromQuery(query: ListingSearchQuery, options: { withPage?:
   put("zAccuracyMax", query.maxZPositioningAccuracyUm);
   put("zRepeatabilityMax", query.maxZRepeatabilityUm);
   put("reportAgeMax", query.maxReportAgeDays);
+  put("supply", query.supply);
   const defaultSort = query.text ? "relevance" : "newest";
   if (query.sort && query.sort !== defaultSort) put("sort", query.sort);
   if (options.withPage) {

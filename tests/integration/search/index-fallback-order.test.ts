@@ -21,6 +21,15 @@ const prices = [500_000, 900_000, 900_000, 1_400_000];
 const dates = [new Date("2026-01-10T09:00:00Z"), new Date("2026-02-01T12:00:00Z"), new Date("2026-02-01T12:00:00Z")];
 // “Île” composed and decomposed: the same region to the engine, and so to the fallback.
 const regions = ["\u00cele", "I\u0302le", "Nord", null];
+// Supplies at the edges of the search's bands (380 and 415 V are "three-phase 400 V"), and one not given.
+const supplies = [
+  { supplyVoltage: 400, supplyPhases: 3 },
+  { supplyVoltage: 415, supplyPhases: 3 },
+  { supplyVoltage: 230, supplyPhases: 1 },
+  { supplyVoltage: 230, supplyPhases: 3 },
+  { supplyVoltage: 380, supplyPhases: 3 },
+  { supplyVoltage: null, supplyPhases: null },
+];
 
 beforeAll(async () => {
   own = await ownSearch({ searchTimeoutMs: 2_000 });
@@ -35,6 +44,7 @@ beforeAll(async () => {
     country: n % 3 === 0 ? "FR" : "DE",
     region: regions[n % regions.length],
     publishedAt: dates[n % dates.length],
+    ...supplies[n % supplies.length],
   }));
   ids = (await insertListings(rows)).map((listing) => listing.id);
   await ensureIndexSettings(own.search);
@@ -56,6 +66,7 @@ const queryArbitrary: fc.Arbitrary<ListingSearchQuery> = fc
       swingMm: fc.record({ min: fc.constantFrom(200, 250), max: fc.constantFrom(300, 400) }, { requiredKeys: [] }),
       countries: fc.subarray(["FR", "DE"]),
       region: fc.constantFrom("\u00cele", "I\u0302le", "\u00eele", "nord"),
+      supply: fc.constantFrom("3x400", "3x230", "1x230", "3x480"),
       sort: fc.constantFrom(...listingSorts),
       page: fc.integer({ min: 1, max: 3 }),
       hitsPerPage: fc.integer({ min: 1, max: 6 }),
@@ -88,6 +99,14 @@ describe("the index and the PostgreSQL fallback", () => {
       expect(fromIndex.hits.map((hit) => hit.id), text).toEqual([ids[1]]);
       expect(fromDatabase.hits.map((hit) => hit.id), text).toEqual([ids[1]]);
     }
+  });
+
+  it("filter by the supply a machine runs on, the band's ends included", async () => {
+    const expected = ids.filter((_, n) => [0, 1, 4].includes(n % supplies.length));
+    const fromIndex = await own.search.searchListings({ ids, supply: "3x400", hitsPerPage: 20 });
+    const fromDatabase = await searchListingsInDatabase(db, { ids, supply: "3x400", hitsPerPage: 20 });
+    expect(new Set(fromIndex.hits.map((hit) => hit.id))).toEqual(new Set(expected));
+    expect(fromDatabase.hits.map((hit) => hit.id)).toEqual(fromIndex.hits.map((hit) => hit.id));
   });
 
   it("match a region written decomposed as the same region", async () => {

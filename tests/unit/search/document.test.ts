@@ -179,3 +179,19 @@ describe("a CNC machine's axes", () => {
     expect(listingFilter({ maxXPositioningAccuracyUm: 15, maxZRepeatabilityUm: 8 })).toEqual(expect.arrayContaining(["xPositioningAccuracyUm <= 15", "zRepeatabilityUm <= 8"]));
   });
 });
+
+describe("the supply a machine runs on", () => {
+  it("is indexed as volts and phases and filtered by the band of its class (IEC 60038 nominal voltages)", async () => {
+    const { listingFilter } = await import("../../../search/query");
+    expect(listingToSearchDocument({ ...listing, supplyVoltage: 415, supplyPhases: 3 }, null)).toMatchObject({ supplyVoltage: 415, supplyPhases: 3 });
+    expect(listingFilter({ supply: "3x400" })).toEqual(expect.arrayContaining(["supplyPhases = 3", "supplyVoltage >= 380", "supplyVoltage <= 415"]));
+  });
+  it("is a search parameter that round-trips and refuses unknown classes", async () => {
+    const { parseListingSearchParams, paramsFromQuery } = await import("~/modules/search/search-params.server");
+    const parsed = parseListingSearchParams(new URLSearchParams("supply=3x400"));
+    expect(parsed.success && parsed.query.supply).toBe("3x400");
+    if (parsed.success) expect(paramsFromQuery(parsed.query).get("supply")).toBe("3x400");
+    const refused = parseListingSearchParams(new URLSearchParams("supply=3x999"));
+    expect(refused.success).toBe(false);
+  });
+});

@@ -2,6 +2,7 @@ import type { ReactNode } from "react";
 import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
 import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
+import { supplyClasses } from "../../../../search/query.ts";
 import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
 import { accuracyFilters, deviationUnitLabel } from "../figures";
 import type { MachineSearch } from "../service.server";
@@ -212,6 +213,21 @@ export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, 
         </label>
         <p className="text-xs text-ink-500">Listings in other currencies are left out, not converted.</p>
         <FieldErrors messages={invalid(errors, "priceMin", "priceMax", "currency")} />
+      </Group>
+
+      <Group title="Electrical supply">
+        <label className="block">
+          <span className="sr-only">Runs on</span>
+          <select name="supply" className={cx(control, "border-ink-300")} value={draft.supply} onChange={(event) => onChange("supply", event.target.value, true)}>
+            <option value="">Any supply</option>
+            {supplyClasses.map((supply) => (
+              <option key={supply.value} value={supply.value}>
+                {supply.label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <FieldErrors messages={invalid(errors, "supply")} />
       </Group>
 
       <Group title="Location">

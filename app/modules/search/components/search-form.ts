@@ -30,6 +30,7 @@ export type SearchDraft = {
   zAccuracyMax: string;
   zRepeatabilityMax: string;
   reportAgeMax: string;
+  supply: string;
   sort: string;
 };
 
@@ -85,6 +86,7 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
     zAccuracyMax: deviation("zAccuracyMax"),
     zRepeatabilityMax: deviation("zRepeatabilityMax"),
     reportAgeMax: params.get("reportAgeMax") ?? "",
+    supply: params.get("supply") ?? "",
     sort: params.get("sort") ?? "",
   };
 }
@@ -115,6 +117,7 @@ export function paramsFromDraft(draft: SearchDraft, units: DisplayUnits): URLSea
     else put(key, micrometres);
   }
   put("reportAgeMax", draft.reportAgeMax);
+  put("supply", draft.supply);
   put("sort", draft.sort);
   return params;
 }
