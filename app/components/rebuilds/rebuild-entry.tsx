@@ -4,6 +4,7 @@ import { useMemo, useState, type ReactNode } from "react";
 import { Form, Link, useNavigation } from "react-router";
 import { KINDS_FOR_METHOD, type ToleranceProfile } from "~/geometry";
 import { Badge, Button, CheckboxField, SelectField, TextAreaField, TextField } from "~/components/ui";
+import { InstrumentsCard } from "~/modules/reports/components/entry/instruments-card";
 import { TestCard } from "~/modules/reports/components/entry/test-card";
 import { emptyTestEntry, isEntryKind, type TestEntry } from "~/modules/reports/form";
 import { previewRebuild, REBUILD_PHOTOS, WORK_ITEMS, type ReadingSetName, type RebuildForm } from "~/modules/rebuilds/record";
@@ -33,8 +34,11 @@ export function RebuildEntry({
   errors,
   machine,
   photos,
+  as = "seller",
 }: {
   machine?: ReactNode;
+  /** Who is entering it: an inspector's record is shown as entered by them, still not verified without a signed report. */
+  as?: "seller" | "staff" | "inspector";
   photos: { id: string; thumbnailUrl: string }[];
   listing: { id: string; slug: string; title: string; categoryLabel: string; status: string };
   profiles: ToleranceProfile[];
@@ -63,8 +67,10 @@ export function RebuildEntry({
       <p className="text-sm font-bold uppercase tracking-wide text-brass-600">Rebuild record</p>
       <h1 className="mt-1 text-3xl font-extrabold text-ink-900">{listing.title}</h1>
       <p className="mt-2 max-w-3xl text-ink-600">
-        Record the machine as found and as rebuilt, test by test, with the work done. Buyers see both sets side by side, marked as declared by you, until a certified inspector's signed report confirms the rebuilt
-        figures. Need the arithmetic for shims, scraping or bearings?{" "}
+        {as === "inspector"
+          ? "Record the machine as found and as rebuilt, test by test, with the work done, for the listing's seller. Buyers see both sets side by side, marked as entered by you; they stay unverified until a signed report of yours (or another inspector's) confirms the rebuilt figures."
+          : "Record the machine as found and as rebuilt, test by test, with the work done. Buyers see both sets side by side, marked as declared by you, until a certified inspector's signed report confirms the rebuilt figures."}{" "}
+        Need the arithmetic for shims, scraping or bearings?{" "}
         <Link to="/tools/corrections" className="font-semibold text-ink-900 underline underline-offset-2">
           Open the correction planner
         </Link>
@@ -98,6 +104,16 @@ export function RebuildEntry({
             { value: "inch", label: "inches" },
           ]}
           onChange={(event) => change((draft) => void (draft.units = event.target.value === "inch" ? "inch" : "mm"))}
+        />
+      </div>
+
+      <div className="mt-6">
+        <InstrumentsCard
+          instruments={form.instruments}
+          units={form.units}
+          measuredOn={form.asRebuilt.measuredOn || form.asFound.measuredOn}
+          description="The instruments both sets were read with; each test then names its instrument, and its resolution is checked as on a report."
+          onChange={(mutate) => change((draft) => mutate(draft.instruments))}
         />
       </div>
 
@@ -141,7 +157,7 @@ export function RebuildEntry({
               preview={testPreview}
               entry={entry}
               units={form.units}
-              instruments={[]}
+              instruments={form.instruments}
               serverErrors={under(serverErrors, `${set}.tests.${code}`)}
               onChange={(mutate: (entry: TestEntry) => void) =>
                 change((draft) => {

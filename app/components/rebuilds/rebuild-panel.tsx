@@ -68,7 +68,13 @@ export function RebuildSection({ rebuild, units, manageUrl }: { rebuild: PublicR
           <Link to={`/reports/${confirmed.reportId}`} className="font-semibold underline underline-offset-2">
             signed report
           </Link>{" "}
-          measured on {formatAbsoluteDate(confirmed.measuredOn)}. The as-found figures are declared by the seller.
+          measured on {formatAbsoluteDate(confirmed.measuredOn)}.{" "}
+          {rebuild.enteredBy.kind === "inspector" ? `The as-found figures were entered by inspector ${rebuild.enteredBy.name} and are not signed.` : "The as-found figures are declared by the seller."}
+        </p>
+      ) : rebuild.enteredBy.kind === "inspector" ? (
+        <p className="rounded-control border-l-4 border-caution bg-white px-4 py-3 text-sm text-ink-800" data-testid="rebuild-standing">
+          <strong>Entered by inspector {rebuild.enteredBy.name}.</strong> These readings were typed for the seller by an inspector booked to visit the machine and are not verified: no certified inspector's signed
+          report confirms the as-rebuilt figures.
         </p>
       ) : (
         <p className="rounded-control border-l-4 border-caution bg-white px-4 py-3 text-sm text-ink-800" data-testid="rebuild-standing">

@@ -1,7 +1,7 @@
 // What each party to a booking may see of it. The buyer, the inspector, the listing's seller and staff share
 // one booking row, but not its payment details, the buyer's address or each other's account ids: every page
 // that shows a booking loads it through one of these shapes, never the row itself.
-import type { BookingStatus } from "./rules";
+import { VISIT_TAKEN_ON, type BookingStatus } from "./rules";
 import type { bookingEvents, bookingRefunds, bookings } from "./schema";
 
 export type BookingRole = "buyer" | "inspector" | "seller" | "admin";
@@ -68,6 +68,8 @@ function forInspector(row: Row) {
     listing: place(row.listing),
     inspectorName: row.inspectorName,
     buyerName: row.buyerName,
+    /** Once the visit is taken on, the inspector may record the machine's rebuild for its seller. */
+    rebuildUrl: VISIT_TAKEN_ON.includes(booking.status) ? `/sell/listings/${booking.listingId}/rebuild` : null,
   };
 }
 

@@ -20,7 +20,7 @@ import { bookingFor, historyFor, refundsFor } from "./booking-view.server";
 import { BookingRuleError, isExclusionViolation, SlotTakenError } from "./errors";
 import { sendBookingNotice, type BookingNotice } from "./notices.server";
 import { findListingBySlug, inspectorUserIdFor, listCertifiedInspectors, regionMatches, type Executor } from "./profiles.server";
-import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule } from "./rules";
+import { bookingReference, CHECKOUT_MINUTES, refundFor, splitFee, type BookingStatus, type RefundRule, VISIT_TAKEN_ON } from "./rules";
 import {
   HELD_REVIEW_QUEUE,
   PAYOUT_FAILED_QUEUE,
@@ -584,6 +584,16 @@ export async function listPayments(db: Executor) {
       unclaimedShares: shares.filter((share) => share.status === "unclaimed").length,
     },
   };
+}
+
+/** Whether this inspector has an accepted or completed booking on this listing (their standing to record its rebuild). */
+export async function hasVisitToListing(db: Executor, inspectorId: string, listingId: string) {
+  const [row] = await db
+    .select({ id: bookings.id })
+    .from(bookings)
+    .where(and(eq(bookings.inspectorId, inspectorId), eq(bookings.listingId, listingId), inArray(bookings.status, [...VISIT_TAKEN_ON])))
+    .limit(1);
+  return Boolean(row);
 }
 
 /** Whether this person is a certified inspector (holds the role an admin grants). */

@@ -12,6 +12,9 @@ export type BookingStatus =
   | "refunded"
   | "expired";
 
+/** The booking states in which an inspector has taken on, or done, the visit to a listing's machine. */
+export const VISIT_TAKEN_ON: readonly BookingStatus[] = ["accepted", "report_filed", "closed"];
+
 export const bookingStatusLabels: Record<BookingStatus, string> = {
   awaiting_payment: "Awaiting payment",
   paid: "Paid, waiting for the inspector",

@@ -2,7 +2,7 @@
 // and the server (the authoritative scoring on save). The readings are report forms, scored by the report engine.
 import { z } from "zod";
 import type { TestResult, ToleranceProfile } from "~/geometry";
-import { previewReport, reportFormSchema, testEntrySchema, type ReportForm } from "~/modules/reports/form";
+import { instrumentEntrySchema, previewReport, reportFormSchema, testEntrySchema, type ReportForm } from "~/modules/reports/form";
 import { keyedByTestCode } from "~/geometry";
 import { safeText } from "~/modules/validation/text";
 
@@ -29,6 +29,8 @@ const readingSet = z.object({
 export const rebuildFormSchema = z.object({
   units: z.enum(["mm", "inch"], { error: 'Choose "mm" or "inch" for the readings.' }),
   profile: z.object({ key: safeText({ label: "profile", max: 80, min: 1 }), version: z.number().int().positive() }),
+  /** The instruments the readings were taken with (both sets choose from the same list, as on the report form). */
+  instruments: z.array(instrumentEntrySchema).max(30, "At most 30 instruments.").default([]),
   asFound: readingSet,
   asRebuilt: readingSet,
   workDone: z
@@ -49,6 +51,7 @@ export function asReportForm(form: RebuildForm, set: ReadingSetName): ReportForm
     units: form.units,
     profile: { ...form.profile, reason: "" },
     measuredOn: form[set].measuredOn,
+    instruments: form.instruments,
     tests: form[set].tests,
   });
 }

@@ -7,12 +7,15 @@ import type { Database } from "~/db/client.server";
 import type { ToleranceProfile } from "~/geometry";
 import { findProfile } from "~/geometry";
 import { hasRole, type SessionUser } from "~/modules/accounts/guards.server";
+import { hasVisitToListing } from "~/modules/inspections/bookings.server";
 import type { Executor } from "~/modules/inspections/profiles.server";
+import { user as users } from "~/modules/accounts/schema";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { listingPhotos, listings } from "~/modules/listings/schema";
 import { profilesForNewReports, scorableProfile } from "~/modules/profiles/service.server";
 import { currentReportForListing, getPublicReport, suggestionFor } from "~/modules/reports/service.server";
-import { confirmsRebuild, emptyRebuildForm, pairResults, previewRebuild, rebuildFormSchema, WORK_ITEMS, type RebuildForm, type StoredResult } from "./record";
+import { formLimitErrors, parseTypedNumber } from "~/modules/reports/form";
+import { asReportForm, confirmsRebuild, emptyRebuildForm, pairResults, previewRebuild, rebuildFormSchema, WORK_ITEMS, type RebuildForm, type StoredResult } from "./record";
 import { rebuildRecords } from "./schema";
 
 export class RebuildRuleError extends Error {
@@ -24,16 +27,24 @@ export class RebuildRuleError extends Error {
   }
 }
 
-async function ownedListing(db: Executor, user: SessionUser, listingId: string) {
+export type RebuildEditorRole = "seller" | "staff" | "inspector";
+
+/**
+ * The listing whose rebuild this person may record, and as whom: its seller, staff, or a certified inspector with an
+ * accepted or completed booking on it (the seller still owns the listing; the record names who entered it).
+ */
+async function editableListing(db: Executor, user: SessionUser, listingId: string): Promise<{ listing: typeof listings.$inferSelect; as: RebuildEditorRole }> {
   if (!z.uuid().safeParse(listingId).success) throw new RebuildRuleError("There is no such listing.", 404);
   const [listing] = await db.select().from(listings).where(eq(listings.id, listingId));
   if (!listing) throw new RebuildRuleError("There is no such listing.", 404);
-  if (listing.sellerId !== user.id && !hasRole(user, "admin")) throw new RebuildRuleError("Only the listing's seller can record its rebuild.", 403);
-  return listing;
+  if (listing.sellerId === user.id) return { listing, as: "seller" };
+  if (hasRole(user, "admin")) return { listing, as: "staff" };
+  if (hasRole(user, "inspector") && (await hasVisitToListing(db, user.id, listing.id))) return { listing, as: "inspector" };
+  throw new RebuildRuleError("Only the listing's seller, or an inspector booked to visit the machine, can record its rebuild.", 403);
 }
 
 export async function getRebuildEditor(db: Database, user: SessionUser, listingId: string) {
-  const listing = await ownedListing(db, user, listingId);
+  const { listing, as } = await editableListing(db, user, listingId);
   const profiles = await profilesForNewReports(db);
   const [record] = await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
   const suggestion = suggestionFor(listing as Parameters<typeof suggestionFor>[0], profiles);
@@ -51,6 +62,7 @@ export async function getRebuildEditor(db: Database, user: SessionUser, listingI
     profiles,
     form,
     status: (record?.status ?? "new") as "new" | "draft" | "published",
+    as,
   };
 }
 
@@ -58,7 +70,7 @@ export type SaveOutcome = { ok: true; published: boolean } | { ok: false; errors
 
 /** Saves the record (and publishes it when asked); the server scores both sets with the engine. */
 export async function saveRebuild(db: Database, user: SessionUser, listingId: string, body: unknown, publish: boolean): Promise<SaveOutcome> {
-  const listing = await ownedListing(db, user, listingId);
+  const { listing } = await editableListing(db, user, listingId);
   const parsed = rebuildFormSchema.safeParse(body);
   if (!parsed.success) {
     const errors: Record<string, string[]> = {};
@@ -74,6 +86,18 @@ export async function saveRebuild(db: Database, user: SessionUser, listingId: st
     for (const test of preview?.tests ?? []) {
       if (test.check.state === "invalid") errors[`${set}.tests.${test.test.code}`] = Object.values(test.check.errors).flat();
       if (test.engineError) errors[`${set}.tests.${test.test.code}`] = [test.engineError];
+    }
+  }
+  form.instruments.forEach((instrument, i) => {
+    if (parseTypedNumber(instrument.resolution) === "invalid") errors[`instruments.${i}.resolution`] = ["Not a number."];
+  });
+  for (const set of ["asFound", "asRebuilt"] as const) {
+    // A number beyond what the tests can read is never stored or scored (the report form's own limits).
+    for (const [path, messages] of Object.entries(formLimitErrors(asReportForm(form, set)))) errors[path.startsWith("tests.") ? `${set}.${path}` : path] ??= messages;
+    for (const [code, entry] of Object.entries(form[set].tests)) {
+      if (entry.instrumentId && !form.instruments.some((instrument) => instrument.id === entry.instrumentId)) {
+        errors[`${set}.tests.${code}.instrumentId`] = ["This instrument is no longer in the list; choose another."];
+      }
     }
   }
   const resultsOf = (preview: typeof asFound): StoredResult[] =>
@@ -97,7 +121,7 @@ export async function saveRebuild(db: Database, user: SessionUser, listingId: st
     profileKey: form.profile.key,
     profileVersion: form.profile.version,
     units: form.units,
-    forms: { asFound: form.asFound, asRebuilt: form.asRebuilt },
+    forms: { asFound: form.asFound, asRebuilt: form.asRebuilt, instruments: form.instruments },
     results,
     asFoundOn: form.asFound.measuredOn || null,
     asRebuiltOn: form.asRebuilt.measuredOn || null,
@@ -129,6 +153,18 @@ export async function publicRebuildForListing(db: Database, listingId: string) {
   return rebuildView(db, record);
 }
 
+/**
+ * Who entered the record, as a buyer reads it: the seller (or staff on their behalf), or a certified inspector who had
+ * a booking on the listing. Either way the figures stay declared until a signed report confirms them.
+ */
+async function enteredBy(db: Executor, record: typeof rebuildRecords.$inferSelect): Promise<{ kind: "seller" } | { kind: "inspector"; name: string }> {
+  const [listing] = await db.select({ sellerId: listings.sellerId }).from(listings).where(eq(listings.id, record.listingId));
+  if (!listing || listing.sellerId === record.authorId) return { kind: "seller" };
+  const [author] = await db.select({ name: users.name }).from(users).where(eq(users.id, record.authorId));
+  if (author && (await hasVisitToListing(db, record.authorId, record.listingId))) return { kind: "inspector", name: author.name };
+  return { kind: "seller" };
+}
+
 export async function rebuildView(db: Database, record: typeof rebuildRecords.$inferSelect) {
   const results = record.results as { asFound: StoredResult[]; asRebuilt: StoredResult[] };
   const pairs = pairResults(results.asFound, results.asRebuilt);
@@ -154,6 +190,7 @@ export async function rebuildView(db: Database, record: typeof rebuildRecords.$i
     return photo ? [{ thumbnailUrl: fileUrl(photo.thumbnailKey), largeUrl: fileUrl(photo.largeKey) }] : [];
   });
   return {
+    enteredBy: await enteredBy(db, record),
     photos,
     asFoundOn: record.asFoundOn,
     asRebuiltOn: record.asRebuiltOn,

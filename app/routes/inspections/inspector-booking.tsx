@@ -112,6 +112,15 @@ export default function InspectorBooking() {
               {cancellable ? "File the report" : "Read the signed report"}
             </ButtonLink>
           ) : null}
+          {detail.role === "inspector" && detail.rebuildUrl ? (
+            <p className="text-sm text-ink-700">
+              Did the seller recondition this machine?{" "}
+              <Link to={detail.rebuildUrl} className="font-semibold text-ink-900 underline underline-offset-2">
+                Enter its rebuild record
+              </Link>{" "}
+              (readings as found and as rebuilt, shown on the listing as entered by you, not as a signed report).
+            </p>
+          ) : null}
           {answerable || cancellable ? (
             <Card>
               <CardHeader title={answerable ? "Your answer" : "Cannot make it?"} />

@@ -1,4 +1,4 @@
-// A listing's rebuild record over HTTP: only the listing's seller records it, hostile input is refused at its field
+// A listing's rebuild record over HTTP: only the listing's seller (or an inspector booked to visit it) records it, hostile input is refused at its field
 // with nothing written, and the listing says "declared by the seller" unless a signed report confirms the
 // as-rebuilt figures.
 import { randomUUID } from "node:crypto";
@@ -7,6 +7,8 @@ import { listingPhotos } from "~/modules/listings/schema";
 import { describe, expect, it } from "vitest";
 import { rebuildRecords } from "~/modules/rebuilds/schema";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
+import { certifiedInspector } from "../../support/inspections";
+import { bookings } from "~/modules/inspections/schema";
 import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
 
 const today = new Date().toISOString().slice(0, 10);
@@ -91,6 +93,74 @@ describe("a listing's rebuild record", () => {
     expect((await postRebuild(await signInCookie(otherSeller.email, otherSeller.password), listing.id, rebuildForm())).status).toBe(403);
     expect((await postRebuild(await signInCookie(buyer.email, buyer.password), listing.id, rebuildForm())).status).toBe(403);
     expect(await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id))).toHaveLength(0);
+  });
+
+  it("may be entered by the inspector booked to visit the machine, says so, and is still not verified", async () => {
+    const { listing, inspector, bookingId, seller } = await acceptedBooking();
+    const cookie = await inspectorCookie(inspector);
+    const page = await fetch(`${testAppOrigin}/sell/listings/${listing.id}/rebuild`, { headers: { cookie } });
+    expect(page.status).toBe(200);
+    const html = await page.text();
+    expect(html).toContain("marked as entered by you");
+    // Matching the machine across listings stays the seller's decision.
+    expect(html).not.toContain("Yes, the same machine");
+
+    expect((await postRebuild(cookie, listing.id, rebuildForm())).status).toBe(302);
+    const [row] = await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id));
+    expect(row!.authorId).toBe(inspector.id);
+    const standing = await standingOn(listing.slug);
+    expect(standing).toContain("Entered by inspector Aldo Verrin.");
+    expect(standing).toContain("not verified");
+    expect(standing).not.toMatch(/confirmed/i);
+
+    // Machine history stays the seller's: the inspector cannot confirm or split a match.
+    for (const intent of ["confirm-machine", "refuse-machine", "split-machine"]) {
+      const body = new FormData();
+      body.set("intent", intent);
+      body.set("otherListingId", randomUUID());
+      const response = await fetch(`${testAppOrigin}/sell/listings/${listing.id}/rebuild`, { method: "POST", body, headers: { cookie, origin: testAppOrigin }, redirect: "manual" });
+      expect(response.status, intent).toBe(403);
+    }
+
+    // Only the signed report confirms it; the as-found figures then stay the inspector's unsigned entry.
+    await fileAndSign(cookie, bookingId, completeForm());
+    const confirmed = await standingOn(listing.slug);
+    expect(confirmed).toContain("As-rebuilt figures confirmed");
+    expect(confirmed).toContain("entered by inspector Aldo Verrin and are not signed");
+
+    // The seller still owns the listing and may edit the record; it is then theirs.
+    expect((await postRebuild(await signInCookie(seller.email, seller.password), listing.id, rebuildForm({ notes: "Checked by us." }))).status).toBe(302);
+    expect(await standingOn(listing.slug)).toContain("declared by the seller");
+  });
+
+  it("is refused to an inspector with no taken-on booking on the listing, and to one whose booking is not yet accepted", async () => {
+    const { listing, bookingId, inspector } = await acceptedBooking();
+    const stranger = await certifiedInspector();
+    const strangerCookie = await signInCookie(stranger.email, stranger.password);
+    expect((await fetch(`${testAppOrigin}/sell/listings/${listing.id}/rebuild`, { headers: { cookie: strangerCookie } })).status).toBe(403);
+    expect((await postRebuild(strangerCookie, listing.id, rebuildForm())).status).toBe(403);
+    // The booked inspector before accepting (the booking only paid): refused too.
+    await db.update(bookings).set({ status: "paid" }).where(eq(bookings.id, bookingId));
+    expect((await postRebuild(await inspectorCookie(inspector), listing.id, rebuildForm())).status).toBe(403);
+    expect(await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id))).toHaveLength(0);
+  });
+
+  it("lists the instruments typed on it in each test's instrument choice, and refuses an instrument not in the list", async () => {
+    const { seller, listing } = await acceptedBooking();
+    const cookie = await signInCookie(seller.email, seller.password);
+    const form = rebuildForm();
+    const withInstruments = {
+      ...form,
+      instruments: [{ id: "i1", kind: "dial-indicator", description: "Bench indicator 0.001", resolution: "1", calibrationDue: "2030-01-01" }],
+      asRebuilt: { ...form.asRebuilt, tests: { ...form.asRebuilt.tests, "L-SP-NOSE": { kind: "sweep", readings: ["0", "2", "4", "2"], instrumentId: "i1" } } },
+    };
+    expect((await postRebuild(cookie, listing.id, withInstruments, "save")).status).toBe(200);
+    const html = await (await fetch(`${testAppOrigin}/sell/listings/${listing.id}/rebuild`, { headers: { cookie } })).text();
+    expect(html).toContain("Bench indicator 0.001");
+    const stray = { ...withInstruments, asRebuilt: { ...withInstruments.asRebuilt, tests: { ...withInstruments.asRebuilt.tests, "L-SP-NOSE": { kind: "sweep", readings: ["0", "2", "4", "2"], instrumentId: "i9" } } } };
+    const refused = await postRebuild(cookie, listing.id, stray, "save");
+    expect(refused.status).toBe(422);
+    expect(await refused.text()).toContain("asRebuilt.tests.L-SP-NOSE.instrumentId");
   });
 
   it("refuses hostile or impossible input at its field, writing nothing", async () => {

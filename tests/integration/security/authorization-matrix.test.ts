@@ -18,6 +18,7 @@ import { savedSearches } from "~/modules/search/saved-searches/schema";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
 import { certifiedInspector, publicIdOf } from "../../support/inspections";
 import { rebuildRecords } from "~/modules/rebuilds/schema";
+import { machineListings, machineMatchRefusals } from "~/modules/machines/schema";
 import { jpegWithGps } from "../../support/images";
 import { createListingAs, uploadFileAs, validListingFields } from "../../support/listings";
 import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
@@ -406,6 +407,49 @@ const table: Record<string, RouteRow> = {
         }),
         expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 200, admin: 200 }),
         unchanged: (params) => db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, params.listingId ?? fx.draftListingId)),
+      },
+    ],
+  },
+  // The same page on the published lathe that inspector A is booked to visit: they may enter its rebuild record
+  // (shown as entered by them), but matching the machine across listings stays the seller's and staff's.
+  "sell/listings/:listingId/rebuild (listing an inspector is booked on)": {
+    get: by({ ...REFUSED_LISTING_EDIT, sellerA: 200, admin: 200, inspectorA: 200 }),
+    getParams: () => ({ listingId: fx.publishedListingId }),
+    actions: [
+      {
+        intent: "save a rebuild draft",
+        params: () => ({ listingId: fx.publishedListingId }),
+        body: () => ({
+          form: {
+            intent: "save",
+            form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, asFound: { measuredOn: "", tests: { "L-SP-NOSE": { kind: "sweep", readings: ["0", "4"] } } }, asRebuilt: {} }),
+          },
+        }),
+        expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 200, admin: 200, inspectorA: 200 }),
+        unchanged: () => db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, fx.publishedListingId)),
+      },
+      {
+        intent: "confirm-machine",
+        params: () => ({ listingId: fx.publishedListingId }),
+        body: () => ({ form: { intent: "confirm-machine", otherListingId: fx.draftListingId } }),
+        // The owner and staff name a listing that is no suggested match (a draft is never suggested).
+        expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 422, admin: 422 }),
+        unchanged: () => db.select().from(machineListings).where(eq(machineListings.listingId, fx.publishedListingId)),
+      },
+      {
+        intent: "refuse-machine",
+        params: () => ({ listingId: fx.publishedListingId }),
+        body: () => ({ form: { intent: "refuse-machine", otherListingId: randomId() } }),
+        expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 404, admin: 404 }),
+        unchanged: () => db.select().from(machineMatchRefusals).where(eq(machineMatchRefusals.listingId, fx.publishedListingId)),
+      },
+      {
+        intent: "split-machine",
+        params: () => ({ listingId: fx.publishedListingId }),
+        body: () => ({ form: { intent: "split-machine" } }),
+        // Staff only; this listing is linked to no machine, so there is nothing to split.
+        expect: by({ ...REFUSED_LISTING_EDIT, sellerA: 403, admin: 422 }),
+        unchanged: () => db.select().from(machineListings).where(eq(machineListings.listingId, fx.publishedListingId)),
       },
     ],
   },

@@ -26,6 +26,7 @@ let cookies: Partial<Record<Person, string>>;
 let listingId: string;
 let slug: string;
 let bookingId: string;
+let bookedListingId: string;
 let ownedIds: string[];
 
 beforeAll(async () => {
@@ -36,6 +37,7 @@ beforeAll(async () => {
   listingId = await createListingAs(cookies.seller!);
   slug = filed.listing.slug;
   bookingId = filed.bookingId;
+  bookedListingId = filed.listing.id;
   // A scored draft, so that the review page (and its signing form) is there to be sent bad input.
   const submitted = await submitOverHttp(await inspectorCookie(filed.inspector), bookingId, completeForm());
   if (submitted.status !== 302) throw new Error(`submitting the fixture report answered ${submitted.status}`);
@@ -378,6 +380,32 @@ const targets: Target[] = [
       wrongJsonShapes.map((body): Payload => ({ form: { intent: "publish", form: JSON.stringify((JSON.parse(body) as { form?: unknown } | null)?.form ?? null) } })),
       fc.constant<Payload>({ form: { intent: "save", form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, asFound: { tests: { "L-SP-NOSE": { kind: "sweep", readings: ["1e999", "0"] } } }, asRebuilt: {}, notes: "\u0000" }) } }),
       oneFieldBroken({ intent: "confirm-machine", otherListingId: randomUUID() }, { intent: unknownOf(["save", "publish", "confirm-machine", "refuse-machine", "split-machine"]), otherListingId: notAUuid }),
+      wrongContentType({ intent: "save", form: "{}" }),
+    ),
+  },
+  {
+    // The inspector booked to visit the machine enters its rebuild record, instruments included.
+    route: "sell/listings/:listingId/rebuild (the booked inspector)",
+    path: () => `/sell/listings/${bookedListingId}/rebuild`,
+    as: "inspector",
+    payloads: fc.oneof(
+      malformedJson.map((form): Payload => ({ form: { intent: "save", form } })),
+      fc
+        .record({ description: fc.oneof(junkText, loneSurrogateText, huge(400)), resolution: fc.oneof(junkText, fc.constantFrom("1e999", "-1", "NaN", "Infinity")), id: fc.oneof(junkText, huge(60)) })
+        .chain((broken) =>
+          fc.constantFrom<Array<keyof typeof broken>>(["description"], ["resolution"], ["id"]).map((fields): Payload => {
+            const instrument: Record<string, string> = { id: "i1", kind: "dial-indicator", description: "Bench indicator", resolution: "1", calibrationDue: "" };
+            for (const field of fields) instrument[field] = broken[field];
+            return {
+              form: {
+                intent: "save",
+                form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, instruments: [instrument], asFound: { tests: { "L-SP-NOSE": { kind: "sweep", readings: ["0", "4"], instrumentId: "i1" } } }, asRebuilt: {} }),
+              },
+            };
+          }),
+        ),
+      fc.constant<Payload>({ form: { intent: "save", form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, instruments: Array.from({ length: 31 }, (_, i) => ({ id: `i${i}`, kind: "dial-indicator" })), asFound: {}, asRebuilt: {} }) } }),
+      fc.constant<Payload>({ form: { intent: "save", form: JSON.stringify({ units: "mm", profile: { key: "centre-lathe-normal", version: 1 }, asFound: { tests: { "L-SP-NOSE": { kind: "sweep", readings: ["0", "4"], instrumentId: "nowhere" } } }, asRebuilt: {} }) } }),
       wrongContentType({ intent: "save", form: "{}" }),
     ),
   },

@@ -9,12 +9,9 @@ import type { ColumnMapping } from "../../positioning-import";
 import type { ImportedReadings } from "./positioning-import";
 import {
   emptyTestEntry,
-  INSTRUMENT_KINDS,
-  instrumentReads,
   measuredOnCheck,
   previewReport,
   profileOf,
-  unitLabels,
   type ReportForm,
   type ReportPreview,
   type TestEntry,
@@ -22,6 +19,7 @@ import {
 import { GradeMark, KeyFigureList } from "../grade";
 import { SafetyCautions } from "../safety";
 import type { SetupPhotoView } from "./setup-photo";
+import { InstrumentsCard } from "./instruments-card";
 import { TestCard } from "./test-card";
 import { useDraftSync, type SyncStatus } from "./use-draft-sync";
 import { lengthsInText } from "~/modules/units/format";
@@ -115,7 +113,6 @@ export function ReportEntry({
   const submitting = navigation.state === "submitting" && navigation.formData?.get("intent") === "submit";
   const errors = serverErrors ?? {};
   const dated = measuredOnCheck(form.measuredOn, data.booking.days);
-  const labels = unitLabels(form.units);
   const suggested = data.suggestion.profile;
   const differs = !suggested || suggested.key !== form.profile.key || suggested.version !== form.profile.version;
 
@@ -313,51 +310,7 @@ export function ReportEntry({
               </CardBody>
             </Card>
 
-            <Card>
-              <CardHeader title="Instruments" description={`Resolution is the smallest step the instrument reads (${labels.resolution}; µm/m for levels).`} />
-              <CardBody className="space-y-4">
-                {form.instruments.map((instrument, i) => (
-                  <div key={instrument.id} className="grid gap-3 rounded-control border border-ink-200 p-3 sm:grid-cols-2 sm:items-end" data-instrument={i}>
-                    <SelectField
-                      label={`${i + 1}. Kind`}
-                      value={instrument.kind}
-                      options={INSTRUMENT_KINDS.map((kind) => ({ value: kind.value, label: kind.label }))}
-                      onChange={(event) => change((draft) => void (draft.instruments[i]!.kind = event.target.value as typeof instrument.kind))}
-                    />
-                    <TextField label="Make, model, serial" value={instrument.description} onChange={(event) => change((draft) => void (draft.instruments[i]!.description = event.target.value))} />
-                    <TextField
-                      label={`Resolution (${instrumentReads(instrument.kind) === "tilt" ? "µm/m" : labels.resolution})`}
-                      inputMode="decimal"
-                      value={instrument.resolution}
-                      disabled={instrumentReads(instrument.kind) === "none"}
-                      onChange={(event) => change((draft) => void (draft.instruments[i]!.resolution = event.target.value))}
-                    />
-                    <TextField
-                      label="Calibration due"
-                      type="date"
-                      value={instrument.calibrationDue}
-                      errors={instrument.calibrationDue && form.measuredOn && instrument.calibrationDue < form.measuredOn ? ["Overdue on the date of the tests."] : null}
-                      onChange={(event) => change((draft) => void (draft.instruments[i]!.calibrationDue = event.target.value))}
-                    />
-                    <Button variant="quiet" size="sm" className="justify-self-start sm:col-span-2" onClick={() => change((draft) => void draft.instruments.splice(i, 1))}>
-                      Remove this instrument<span className="sr-only"> (instrument {i + 1})</span>
-                    </Button>
-                  </div>
-                ))}
-                <Button
-                  variant="secondary"
-                  size="sm"
-                  onClick={() =>
-                    change((draft) => {
-                      const next = Math.max(0, ...draft.instruments.map((entry) => Number(entry.id.replace(/\D/g, "")) || 0)) + 1;
-                      draft.instruments.push({ id: `i${next}`, kind: "dial-indicator", description: "", resolution: "", calibrationDue: "" });
-                    })
-                  }
-                >
-                  + Add an instrument
-                </Button>
-              </CardBody>
-            </Card>
+            <InstrumentsCard instruments={form.instruments} units={form.units} measuredOn={form.measuredOn} onChange={(mutate) => change((draft) => mutate(draft.instruments))} />
           </fieldset>
 
           <section aria-labelledby="tests-heading" className="space-y-4">
