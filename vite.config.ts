@@ -15,6 +15,9 @@ export default defineConfig({
             codeSplitting: {
               groups: [
                 { name: "framework", test: /node_modules[\\/](react|react-dom|scheduler|react-router)[\\/]|rolldown[\\/]runtime|entry\.client|app[\\/](components[\\/]layout[\\/]route-announcer|components[\\/]ui[\\/](button|card|badge|cx)|modules[\\/]units[\\/]format|modules[\\/]listings[\\/]catalogue)\.tsx?$/ },
+                // What a signed report's pages share (the report and listing pages, the entry form): grade, figures,
+                // sources, dates and the engine's few small files they need. One file instead of about eight.
+                { name: "report-shared", test: /app[\\/](modules[\\/]reports[\\/](format|sources|content|components[\\/]grade)|geometry[\\/](sources|units|errors|straightness-line))\.tsx?$/ },
               ],
             },
           },

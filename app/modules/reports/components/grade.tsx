@@ -1,7 +1,8 @@
 // Grade, key figures, verdicts and the ratio bar: shared by the entry preview, the review, the report page
 // and the listing's accuracy panel.
 import type { KeyFigures, TestResult } from "~/geometry";
-import { Badge, cx } from "~/components/ui";
+import { Badge } from "~/components/ui/badge";
+import { cx } from "~/components/ui/cx";
 import type { DisplayUnits } from "~/modules/units/format";
 import { KEY_FIGURE_LABELS, keyFigureNamesFor, SIGNED_KEY_FIGURES } from "../content";
 import { formatDeviation, GRADE_MEANING } from "../format";
