@@ -45,6 +45,11 @@ export type SearchConnection = {
   searchTimeoutMs: number;
   /** How long an index update may take to be accepted and processed (default 10 s). */
   writeTimeoutMs?: number;
+  /**
+   * After a search finds the service down, slow or failing, how long searches fail at once without asking it
+   * (default 0: every search asks). Spares each request of a down period the timeout or the refused connection.
+   */
+  holdOffMs?: number;
 };
 
 export const LISTING_FACETS = ["category", "grade", "verified", "country"] as const;
@@ -95,6 +100,23 @@ export function createListingSearch(connection: SearchConnection) {
   // a second SDK client spares each one the SDK's extra timer.
   const searchClient = new Meilisearch({ host: connection.host, apiKey: connection.apiKey, httpClient: searchHttpClient });
   const searchIndex = searchClient.index<ListingSearchDocument>(LISTINGS_INDEX_UID);
+  const holdOffMs = connection.holdOffMs ?? 0;
+  let heldOff: { until: number; error: SearchUnavailableError } | null = null;
+
+  /** A search through the hold-off: refused at once while it lasts, and starting one when the service fails. */
+  async function searchCall<T>(call: () => Promise<T>): Promise<T> {
+    if (heldOff && performance.now() < heldOff.until) {
+      throw new SearchUnavailableError(heldOff.error.reason, `${heldOff.error.message} (not asked again for ${holdOffMs} ms)`, { cause: heldOff.error });
+    }
+    try {
+      const result = await call();
+      heldOff = null;
+      return result;
+    } catch (error) {
+      if (error instanceof SearchUnavailableError && holdOffMs > 0) heldOff = { until: performance.now() + holdOffMs, error };
+      throw error;
+    }
+  }
 
   /** Sends an index update and waits until the service has processed it. */
   async function update(what: string, send: () => EnqueuedTaskPromise): Promise<Task> {
@@ -139,10 +161,12 @@ export function createListingSearch(connection: SearchConnection) {
     },
 
     async searchListings(query: ListingSearchRequest, now: Date = new Date()): Promise<ListingSearchResult> {
-      const response = await callService(
-        "Searching listings",
-        () => searchIndex.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
-        connection.searchTimeoutMs,
+      const response = await searchCall(() =>
+        callService(
+          "Searching listings",
+          () => searchIndex.search(null, searchParameters(query, now), { signal: AbortSignal.timeout(connection.searchTimeoutMs) }),
+          connection.searchTimeoutMs,
+        ),
       );
       return toResult(response);
     },
@@ -154,14 +178,16 @@ export function createListingSearch(connection: SearchConnection) {
     async searchListingsTogether(queries: ListingSearchRequest[], now: Date = new Date()): Promise<ListingSearchResult[]> {
       if (queries.length === 0) return [];
       if (queries.length === 1) return [await this.searchListings(queries[0]!, now)];
-      const response = await callService(
-        "Searching listings",
-        () =>
-          searchClient.multiSearch<MultiSearchParams, ListingSearchDocument>(
-            { queries: queries.map((query): MultiSearchQuery => ({ indexUid: LISTINGS_INDEX_UID, ...searchParameters(query, now) })) },
-            { signal: AbortSignal.timeout(connection.searchTimeoutMs) },
-          ),
-        connection.searchTimeoutMs,
+      const response = await searchCall(() =>
+        callService(
+          "Searching listings",
+          () =>
+            searchClient.multiSearch<MultiSearchParams, ListingSearchDocument>(
+              { queries: queries.map((query): MultiSearchQuery => ({ indexUid: LISTINGS_INDEX_UID, ...searchParameters(query, now) })) },
+              { signal: AbortSignal.timeout(connection.searchTimeoutMs) },
+            ),
+          connection.searchTimeoutMs,
+        ),
       );
       return response.results.map(toResult);
     },
@@ -240,6 +266,9 @@ function describeCause(cause: unknown): string {
   return String(cause);
 }
 
+/** The app's hold-off after a failed search: short, so the index is back in use within a second of recovering. */
+export const SEARCH_HOLD_OFF_MS = 1_000;
+
 let fromEnvironment: ListingSearch | undefined;
 
 /** The listing search configured by MEILISEARCH_HOST, MEILISEARCH_API_KEY and MEILISEARCH_SEARCH_TIMEOUT_MS. */
@@ -249,6 +278,7 @@ export function listingSearch(): ListingSearch {
     host: settings.MEILISEARCH_HOST,
     apiKey: settings.MEILISEARCH_API_KEY,
     searchTimeoutMs: settings.MEILISEARCH_SEARCH_TIMEOUT_MS,
+    holdOffMs: SEARCH_HOLD_OFF_MS,
   });
   return fromEnvironment;
 }
