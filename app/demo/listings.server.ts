@@ -60,11 +60,21 @@ export const demoListings: DemoListing[] = [
   },
   {
     seller: "brandmoor", paint: 3, photos: 1, daysAgo: 470, status: "published", category: "centre_lathe", condition: "as_is",
-    make: "Orsay-Lindqvist", model: "OL 400", year: 1969, serialNumber: null,
+    make: "Orsay-Lindqvist", model: "OL 400", year: 1969, serialNumber: "OL400-5108",
     swingOverBedMm: 400, distanceBetweenCentresMm: 1500, spindleBoreMm: 52, spindleNose: "L1 long taper", motorPowerKw: 5.5, weightKg: 2100,
     priceMinor: 2_400_00, currency: "GBP",
     toolingIncluded: null,
     description: "Heavy lathe sold as seen, for a rebuild or for parts. Spindle turns freely by hand; motor not tested. Bed has a worn patch near the chuck. Needs a crane or a machinery skate team to move.",
+  },
+  // The same OL 400, bought by the Ostervik dealer, rebuilt and listed again (model and serial typed their own way):
+  // its rebuild record and the earlier listing's signed report are seeded in rebuilds.server.ts.
+  {
+    seller: "dealer", paint: 1, photos: 2, daysAgo: 8, status: "published", category: "centre_lathe", condition: "reconditioned",
+    make: "Orsay-Lindqvist", model: "OL-400", year: 1969, serialNumber: "OL 400/5108",
+    swingOverBedMm: 400, distanceBetweenCentresMm: 1500, spindleBoreMm: 52, spindleNose: "L1 long taper", motorPowerKw: 5.5, weightKg: 2100,
+    priceMinor: 118_000_00, currency: "NOK",
+    toolingIncluded: "Three-jaw and four-jaw chucks, fixed and travelling steadies, test mandrel",
+    description: "Rebuilt in our shop: spindle bearings adjusted, headstock shimmed and its seating scraped, bed ways scraped, gibs refitted. The rebuild record on this page shows every test as found and as rebuilt.",
   },
   {
     seller: "vernois", paint: 0, photos: 1, daysAgo: 1, status: "draft", category: "centre_lathe", condition: "used",

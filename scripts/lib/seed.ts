@@ -177,6 +177,11 @@ export async function seedDemoDataIfEmpty(_databaseUrl: string): Promise<boolean
   reports += await seedDemoReports({ inspectors, bookers }, "fresh", now);
   log("postgres", `demo accuracy reports signed (${reports}, one corrected) and ${searches} saved searches in ${took(step)}`);
 
+  step = Date.now();
+  const { seedDemoRebuild } = await import("../../app/demo/rebuilds.server.ts");
+  await seedDemoRebuild(people.dealer, now);
+  log("postgres", `demo rebuild record and machine history written in ${took(step)}`);
+
   // The listings must be searchable as soon as the app answers; the app's own start-up re-index runs later.
   step = Date.now();
   const { reindexAllListings } = await import("../../app/modules/search/indexing.server.ts");

@@ -84,7 +84,7 @@ describe("the demo scenario on a fresh database", () => {
 
   it("has about forty listings of every category from five dealers and a private seller, photos on each published one", async () => {
     const [{ total }] = await rows<{ total: number }>("select count(*)::int as total from listings");
-    expect(total).toBe(42);
+    expect(total).toBe(43);
     const categories = await rows<{ category: string }>("select distinct category from listings");
     expect(categories.map((row) => row.category).sort()).toEqual(["centre_lathe", "cnc_lathe", "machining_centre", "milling_machine", "other", "surface_grinder", "toolroom_lathe"]);
     const statuses = Object.fromEntries((await rows<{ status: string; n: number }>("select status, count(*)::int as n from listings group by status")).map((row) => [row.status, row.n]));
@@ -98,6 +98,20 @@ describe("the demo scenario on a fresh database", () => {
     expect(most).toBeLessThanOrEqual(4);
     const [{ currencies }] = await rows<{ currencies: number }>("select count(distinct currency)::int as currencies from listings");
     expect(currencies).toBeGreaterThanOrEqual(3);
+  });
+
+  it("has a rebuilt lathe with its rebuild record, linked by its dealer to the earlier listing of the same machine and its signed report", async () => {
+    const records = await rows<{ model: string; status: string; author_is_seller: boolean; found: number; rebuilt: number; work: number }>(
+      "select l.model, r.status, r.author_id = l.seller_id as author_is_seller, jsonb_array_length(r.results -> 'asFound')::int as found, jsonb_array_length(r.results -> 'asRebuilt')::int as rebuilt, jsonb_array_length(r.work_done)::int as work from rebuild_records r join listings l on l.id = r.listing_id",
+    );
+    expect(records).toEqual([{ model: "OL-400", status: "published", author_is_seller: true, found: 4, rebuilt: 4, work: 5 }]);
+    const linked = await rows<{ model: string; status: string; signed: number }>(
+      "select l.model, l.status, (select count(*)::int from reports p where p.listing_id = l.id and p.status = 'signed') as signed from machine_listings m join listings l on l.id = m.listing_id order by l.model",
+    );
+    expect(linked).toEqual([
+      { model: "OL 400", status: "sold", signed: 1 },
+      { model: "OL-400", status: "published", signed: 0 },
+    ]);
   });
 
   it("has twenty-three signed reports across every grade (mills, grinders and CNC machines among them), one past twelve months, and a corrected revision", async () => {
@@ -149,6 +163,6 @@ describe("the demo scenario on a fresh database", () => {
     const second = await runSeed();
     expect(second.loaded).toBe(false);
     const [{ total }] = await rows<{ total: number }>("select count(*)::int as total from listings");
-    expect(total).toBe(42);
+    expect(total).toBe(43);
   }, 120_000);
 });
