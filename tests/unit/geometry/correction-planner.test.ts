@@ -35,19 +35,19 @@ describe("tilt of a headstock or tailstock (docs/correction-planner.md §1, by h
     expect(inclinationAfterPadMoves(input, padMovesOf(result))).toBeCloseTo(0, 12);
   });
 
-  it("example 1c: 0.0008 in over 12 in, pads 18 in apart → 0.0012 in (30.48 µm)", () => {
+  it("example 1c: 0.0008 in over 12 in, pads 18 in apart → 0.0012 in (30.48 µm; 1 in = 25.4 mm exactly, NIST SP 811)", () => {
     const result = tiltCorrection({ plane: "vertical", inclination: 20.32, measuringLength: 304.8, padDistance: 457.2 });
     expect(result.amount).toBeCloseTo(30.48, 10);
     expect(result.amount / 25_400).toBeCloseTo(0.0012, 12);
   });
 
-  it("a free end that is low is raised by a shim under the nose pad", () => {
+  it("example 1d: a free end 9 µm low is raised by a 9 µm shim under the nose pad (sign conventions, §1)", () => {
     expect(tiltCorrection({ plane: "vertical", inclination: -9, measuringLength: 300, padDistance: 300 })).toEqual({
       signed: -9, amount: 9, pad: "nose", direction: "up",
     });
   });
 
-  it("a test that reads true needs nothing", () => {
+  it("example 1e: a test that reads true needs nothing", () => {
     expect(tiltCorrection({ plane: "horizontal", inclination: 0, measuringLength: 300, padDistance: 300 })).toEqual({
       signed: 0, amount: 0, pad: null, direction: null,
     });
@@ -118,7 +118,7 @@ describe("scraping after shimming (docs/correction-planner.md §2, by hand)", ()
     expect(depths.map((pad) => pad.depth)).toEqual([0, 10, 20, 30, 40]);
   });
 
-  it("example 2b: 0.0015 in shim over 10 in, pads at 2.5 and 7.5 in → 0.000375 and 0.001125 in", () => {
+  it("example 2b: 0.0015 in shim over 10 in, pads at 2.5 and 7.5 in → 0.000375 and 0.001125 in (1 in = 25.4 mm exactly, NIST SP 811)", () => {
     const depths = scrapingDepths({ shim: 38.1, shimDistance: 254, padPositions: [63.5, 190.5] });
     expect(depths[0].depth).toBeCloseTo(9.525, 10);
     expect(depths[1].depth).toBeCloseTo(28.575, 10);
@@ -198,7 +198,7 @@ describe("bearing running clearance and end float (docs/correction-planner.md §
     expect(backOffAngleFor({ pitch: 1.5, clearance: 25 })).toBeCloseTo(6, 12);
   });
 
-  it("example 4c: 20° on a 16 threads-per-inch nut → 88.19 µm (0.003 47 in)", () => {
+  it("example 4c: 20° on a 16 threads-per-inch nut → 88.19 µm (0.003 47 in; 1 in = 25.4 mm exactly, NIST SP 811)", () => {
     const movement = nutAxialMovement({ pitch: 25.4 / 16, angle: 20 });
     expect(movement).toBeCloseTo(88.194, 3);
     expect(movement / 25_400).toBeCloseTo(0.00347, 5);

@@ -1,5 +1,6 @@
 // Rebuild records: the pairing a buyer reads and the rule that alone lets a signed report confirm the
 // as-rebuilt figures (our own rule, docs/decisions/rebuild-records.md).
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { CONFIRMATION_SLACK, confirmsRebuild, pairResults, type StoredResult } from "~/modules/rebuilds/record";
 
@@ -33,6 +34,21 @@ describe("confirming the as-rebuilt figures", () => {
     expect(confirmsRebuild(declared, "2026-05-01", null)).toBe(false);
     expect(confirmsRebuild(declared, null, signed({ A: 18, B: 4 }))).toBe(false);
     expect(confirmsRebuild([], "2026-05-01", signed({ A: 18, B: 4 }))).toBe(false);
+  });
+
+  it("property: whatever is declared, and however well, nothing is confirmed without a signed report", () => {
+    const declaredSets = fc.array(
+      fc.record({ code: fc.constantFrom("A", "B", "C", "D"), value: fc.double({ min: -500, max: 500, noNaN: true }), tolerance: fc.double({ min: 1, max: 100, noNaN: true }) }),
+      { maxLength: 6 },
+    );
+    fc.assert(
+      fc.property(declaredSets, fc.option(fc.constantFrom("2020-01-01", "2026-05-01", "2099-12-31")), (set, on) => {
+        const figures = set.map((entry) => result(entry.code, entry.value, entry.tolerance));
+        expect(confirmsRebuild(figures, on, null)).toBe(false);
+        // A pairing with no signed report carries no signed figure either.
+        expect(pairResults(figures, figures).every((pair) => pair.signed === null)).toBe(true);
+      }),
+    );
   });
 
   it("does not confirm from a report measured before the rebuild", () => {
