@@ -39,9 +39,10 @@ export function TiltSketch({ plane, pad, direction, label }: { plane: "vertical"
       <rect x={noseX - 12} y="110" width="24" height="8" fill="currentColor" />
       <text x={rearX} y="136" fontSize="10" textAnchor="middle" fill="currentColor">rear pad</text>
       <text x={noseX} y="136" fontSize="10" textAnchor="middle" fill="currentColor">nose pad</text>
+      {/* The arrow comes in from the lower right, clear of the pad's label. */}
       {pad ? (
         plane === "vertical" ? (
-          <line x1={(pad === "rear" ? rearX : noseX) + 22} y1="148" x2={(pad === "rear" ? rearX : noseX) + 14} y2="120" stroke={accent} strokeWidth="2.5" markerEnd="url(#planner-arrow)" />
+          <line x1={(pad === "rear" ? rearX : noseX) + 52} y1="134" x2={(pad === "rear" ? rearX : noseX) + 16} y2="120" stroke={accent} strokeWidth="2.5" markerEnd="url(#planner-arrow)" />
         ) : (
           <line x1={noseX + 30} y1={direction === "back" ? 96 : 60} x2={noseX + 30} y2={direction === "back" ? 60 : 96} stroke={accent} strokeWidth="2.5" markerEnd="url(#planner-arrow)" />
         )

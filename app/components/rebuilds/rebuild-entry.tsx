@@ -5,6 +5,7 @@ import { Form, Link, useNavigation } from "react-router";
 import { KINDS_FOR_METHOD, type ToleranceProfile } from "~/geometry";
 import { Badge, Button, CheckboxField, SelectField, TextAreaField, TextField } from "~/components/ui";
 import { InstrumentsCard } from "~/modules/reports/components/entry/instruments-card";
+import { SafetyCautions } from "~/modules/reports/components/safety";
 import { TestCard } from "~/modules/reports/components/entry/test-card";
 import { emptyTestEntry, isEntryKind, type TestEntry } from "~/modules/reports/form";
 import { previewRebuild, REBUILD_PHOTOS, WORK_ITEMS, type ReadingSetName, type RebuildForm } from "~/modules/rebuilds/record";
@@ -77,6 +78,14 @@ export function RebuildEntry({
         .
       </p>
       {machine}
+      <div className="mt-4">
+        {/* The readings are taken and the work done at a machine that can hurt: the report form's cautions, and the rebuild's own. */}
+        <SafetyCautions heading="Measuring and rebuilding: safety">
+          <p className="mt-2">
+            Before shimming, scraping or adjusting bearings: lock out and tag out the supply, support a headstock on blocks or rated lifting gear before its bolts come out, and never reach under it.
+          </p>
+        </SafetyCautions>
+      </div>
       {status === "published" ? (
         <p className="mt-3">
           <Badge tone="within">Published on the listing</Badge>

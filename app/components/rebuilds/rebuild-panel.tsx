@@ -84,8 +84,43 @@ export function RebuildSection({ rebuild, units, manageUrl }: { rebuild: PublicR
       <p className="text-sm text-ink-600">
         As found {rebuild.asFoundOn ? formatAbsoluteDate(rebuild.asFoundOn) : "(undated)"} · as rebuilt {rebuild.asRebuiltOn ? formatAbsoluteDate(rebuild.asRebuiltOn) : "(undated)"} · scored against {rebuild.profileTitle}
       </p>
+      {/* On a phone each test is a short card (a five-column table would scroll sideways and hide its plot). */}
+      <ul className="space-y-3 sm:hidden" aria-label="Each test as found and as rebuilt" data-testid="rebuild-cards">
+        {rebuild.pairs.map((pair) => (
+          <li key={pair.code} className="rounded-panel border border-ink-200 bg-white px-3 py-3" data-test-code={pair.code}>
+            <p className="font-semibold text-ink-900">{pair.title}</p>
+            <p className="text-xs text-ink-500">tolerance {formatFigure(pair.tolerance, pair.unit, units)}</p>
+            <dl className="mt-2 grid grid-cols-3 gap-2 text-sm">
+              <div>
+                <dt className="text-xs text-ink-500">As found</dt>
+                <dd className="tabular text-ink-900">{pair.before === null ? "—" : formatFigure(pair.before, pair.unit, units)}</dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-500">As rebuilt</dt>
+                <dd className="tabular text-ink-900">{pair.after === null ? "—" : formatFigure(pair.after, pair.unit, units)}</dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-500">Change</dt>
+                <dd className="tabular text-ink-900">{pair.change === null ? "—" : formatFigure(pair.change, pair.unit, units, true)}</dd>
+              </div>
+              {confirmed ? (
+                <div className="col-span-3">
+                  <dt className="text-xs text-ink-500">Signed report</dt>
+                  <dd className="tabular text-ink-900">{pair.signed === null ? "—" : formatFigure(pair.signed, pair.unit, units)}</dd>
+                </div>
+              ) : null}
+            </dl>
+            <div className="mt-1" aria-hidden="true">
+              <PairedPlot pair={pair} units={units} />
+            </div>
+          </li>
+        ))}
+      </ul>
+      <p className="text-xs text-ink-500 sm:hidden" aria-hidden="true">
+        ○ found ● rebuilt ┆ tolerance
+      </p>
       {/* Positioned, so the table's visually hidden captions are clipped by this scroll box instead of widening the page. */}
-      <div className="relative overflow-x-auto rounded-panel border border-ink-200 bg-white">
+      <div className="relative hidden overflow-x-auto rounded-panel border border-ink-200 bg-white sm:block">
         <table className="w-full min-w-[36rem] text-sm">
           <caption className="sr-only">Each test as found and as rebuilt</caption>
           <thead className="bg-ink-50 text-left text-xs uppercase tracking-wide text-ink-500">

@@ -63,6 +63,9 @@ describe("an inspector enters a rebuild record", () => {
       expect(standing).toContain("Entered by inspector Aldo Verrin.");
       expect(standing).toContain("not verified");
       expect(standing).not.toMatch(/confirmed/i);
+      // A phone reads each test as a card; wider screens the table with its plot column.
+      expect(await page.getByTestId("rebuild-cards").isVisible()).toBe(size === "phone");
+      expect(await page.locator("#rebuild table").isVisible()).toBe(size !== "phone");
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
       expect(overflow, `the listing scrolls sideways on a ${size}`).toBeLessThanOrEqual(0);
       await page.locator("#rebuild").screenshot({ path: `${shots}/inspector-rebuild-listing-${size}.png` });
@@ -75,7 +78,14 @@ describe("an inspector enters a rebuild record", () => {
     const { context, page } = await newRecordedPage(browser(), viewports.tablet);
     await signInPage(page, inspector.email, inspector.password, "/tools/corrections");
     await page.goto("/tools/corrections", { waitUntil: "networkidle" });
+    await hydrated(page);
+    // A result with its sketch and formula in each card, as a rebuilder at the machine would see it.
+    const tilt = page.locator("#tilt");
+    await tilt.getByLabel(/Inclination over the measuring length/).fill("50");
+    await tilt.getByLabel(/Distance between the seating pads/).fill("450");
+    await expect.poll(() => tilt.getByRole("status").textContent()).toContain("Raise the rear pad by 75 µm");
     await screenshotAtEachSize(page, shots, "correction-planner", { noSidewaysScroll: true });
+    await screenshotAtEachSize(page, shots, "correction-planner-tilt", { part: tilt });
     await context.close();
   }, 120_000);
 });
