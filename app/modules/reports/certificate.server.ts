@@ -4,7 +4,7 @@
 import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
-import { KEY_FIGURE_LABELS, keyFigureNamesFor, reportAge, SIGNED_KEY_FIGURES } from "./content";
+import { KEY_FIGURE_LABELS, keyFigureNamesFor, latheSizeRows, reportAge, SIGNED_KEY_FIGURES } from "./content";
 import { DIRECTION_LABELS, formatDeviation, formatRatio, formatReportDate, formatSignedAt, GRADE_MEANING, isSignedValue, observedLabel } from "./format";
 import { formatLength, lengthsInText, type DisplayUnits } from "~/modules/units/format";
 import { plotsOfReport, type PdfPlot } from "./certificate-plots.server";
@@ -186,8 +186,7 @@ export async function renderCertificate(report: PublicReport, options: Certifica
   facts([
     ["Machine", [content.machine.make, content.machine.model, content.machine.year ? `(${content.machine.year})` : ""].filter(Boolean).join(" ")],
     ["Serial number", content.machine.serialNumber ?? "not given"],
-    ["Swing over bed", content.machine.swingOverBedMm ? formatLength(content.machine.swingOverBedMm, units) : "not given"],
-    ["Distance between centres", content.machine.distanceBetweenCentresMm ? formatLength(content.machine.distanceBetweenCentresMm, units) : "not given"],
+    ...latheSizeRows(content.machine, (mm) => formatLength(mm, units)),
     ["Location", content.machine.location],
     ["Inspector", content.inspector.name],
     ["Booking", content.booking.reference],

@@ -65,6 +65,16 @@ export interface ReportContent {
 }
 
 /** Machine categories of listings mapped to the engine's, where it has profiles. */
+/** Swing and distance between centres size a lathe; on other machines they are left out unless given. */
+export function latheSizeRows(machine: Pick<ReportContent["machine"], "category" | "swingOverBedMm" | "distanceBetweenCentresMm">, format: (mm: number) => string): Array<[string, string]> {
+  const lathe = /lathe/.test(machine.category);
+  const rows: Array<[string, number | null]> = [
+    ["Swing over bed", machine.swingOverBedMm],
+    ["Distance between centres", machine.distanceBetweenCentresMm],
+  ];
+  return rows.flatMap(([label, mm]) => (mm ? [[label, format(mm)] as [string, string]] : lathe ? [[label, "not given"] as [string, string]] : []));
+}
+
 export function engineCategory(listingCategory: string): MachineCategory | null {
   if (listingCategory === "centre_lathe") return "centre-lathe";
   if (listingCategory === "toolroom_lathe") return "toolroom-lathe";

@@ -4,7 +4,7 @@ import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/compone
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { entityTag } from "~/modules/http/conditional.server";
-import { reportAge } from "~/modules/reports/content";
+import { latheSizeRows, reportAge } from "~/modules/reports/content";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
 import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
@@ -71,8 +71,7 @@ export default function ReportPage() {
     ...(report.reissuedOn ? ([["Credential re-issued", `${formatSignedAt(report.reissuedOn)} (the report predates signed credentials)`]] as Array<[string, string]>) : []),
     ["Tolerance profile", `${content.profile.title} — ${content.profile.key} v${content.profile.version}`],
     ["Why this profile", content.profile.reason],
-    ["Swing over bed", content.machine.swingOverBedMm ? formatLength(content.machine.swingOverBedMm, units) : "not given"],
-    ["Between centres", content.machine.distanceBetweenCentresMm ? formatLength(content.machine.distanceBetweenCentresMm, units) : "not given"],
+    ...latheSizeRows(content.machine, (mm) => formatLength(mm, units)),
     ["Serial number", content.machine.serialNumber ?? "not given"],
     ["Booking", content.booking.reference],
     ["Revision", `${content.revision}${content.supersedes ? ` (corrects revision ${content.revision - 1})` : ""}`],

@@ -135,6 +135,15 @@ describe("page 1 of the certificate", { timeout: 60_000 }, () => {
   });
 });
 
+describe("the machine's sizes", { timeout: 60_000 }, () => {
+  it("gives a lathe's swing and distance between centres, and leaves them off a grinder that has none", async () => {
+    const latheText = (await pagesText(await renderCertificate(publicReport(lathe), { units: "mm", origin }))).join(" ");
+    expect(latheText).toMatch(/Swing over bed 330 mm/);
+    const grinderText = (await pagesText(await renderCertificate(publicReport({ ...grinder, machine: { ...grinder.machine, category: "surface_grinder", swingOverBedMm: null, distanceBetweenCentresMm: null } }), { units: "mm", origin }))).join(" ");
+    expect(grinderText).not.toMatch(/Swing over bed|Distance between centres/);
+  });
+});
+
 describe("the results table", { timeout: 60_000 }, () => {
   it("names its columns again on each page it runs onto", async () => {
     const pages = await pagesText(await renderCertificate(publicReport(lathe), { units: "mm", origin }));

@@ -146,17 +146,17 @@ export function ResultsTable({ content, units }: { content: ReportContent; units
   return (
     <>
       <ResultsList content={content} units={units} />
-      <div className="hidden md:block">
+      <div className="hidden lg:block">
         <ResultsGrid content={content} units={units} />
       </div>
     </>
   );
 }
 
-/** On a phone: one block per test instead of a table too wide to read. */
+/** On a phone or tablet: one block per test instead of a table too wide to read (its sources column was cut off). */
 function ResultsList({ content, units }: { content: ReportContent; units: DisplayUnits }) {
   return (
-    <ul className="divide-y divide-ink-100 rounded-panel border border-ink-200 bg-white md:hidden">
+    <ul className="divide-y divide-ink-100 rounded-panel border border-ink-200 bg-white lg:hidden">
       {content.score.results.map((result) => (
         <li key={result.code} className="space-y-2 px-4 py-3" data-result-item={result.code}>
           <div className="flex items-start justify-between gap-3">
