@@ -27,7 +27,8 @@ async function listingFor(db: Database, user: SessionUser, listingId: string) {
   if (!z.uuid().safeParse(listingId).success) throw new MachineRuleError("There is no such listing.", 404);
   const [listing] = await db.select().from(listings).where(eq(listings.id, listingId));
   if (!listing) throw new MachineRuleError("There is no such listing.", 404);
-  if (listing.sellerId !== user.id && !hasRole(user, "admin")) throw new MachineRuleError("Only the listing's seller can do that.", 403);
+  const owner = listing.sellerId === user.id && hasRole(user, "seller");
+  if (!owner && !hasRole(user, "admin")) throw new MachineRuleError("Only the listing's seller can do that.", 403);
   return listing;
 }
 

@@ -37,7 +37,8 @@ async function editableListing(db: Executor, user: SessionUser, listingId: strin
   if (!z.uuid().safeParse(listingId).success) throw new RebuildRuleError("There is no such listing.", 404);
   const [listing] = await db.select().from(listings).where(eq(listings.id, listingId));
   if (!listing) throw new RebuildRuleError("There is no such listing.", 404);
-  if (listing.sellerId === user.id) return { listing, as: "seller" };
+  // The owner records it while they are a seller (a seller whose role was withdrawn keeps no write access).
+  if (listing.sellerId === user.id && hasRole(user, "seller")) return { listing, as: "seller" };
   if (hasRole(user, "admin")) return { listing, as: "staff" };
   if (hasRole(user, "inspector") && (await hasVisitToListing(db, user.id, listing.id))) return { listing, as: "inspector" };
   throw new RebuildRuleError("Only the listing's seller, or an inspector booked to visit the machine, can record its rebuild.", 403);

@@ -6,6 +6,7 @@ import { eq } from "drizzle-orm";
 import { listingPhotos } from "~/modules/listings/schema";
 import { describe, expect, it } from "vitest";
 import { rebuildRecords } from "~/modules/rebuilds/schema";
+import { revokeRole } from "~/modules/accounts/service.server";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
 import { certifiedInspector } from "../../support/inspections";
 import { bookings } from "~/modules/inspections/schema";
@@ -92,6 +93,14 @@ describe("a listing's rebuild record", () => {
     const otherSeller = await createTestUser({ roles: ["seller"] });
     expect((await postRebuild(await signInCookie(otherSeller.email, otherSeller.password), listing.id, rebuildForm())).status).toBe(403);
     expect((await postRebuild(await signInCookie(buyer.email, buyer.password), listing.id, rebuildForm())).status).toBe(403);
+    expect(await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id))).toHaveLength(0);
+  });
+
+  it("is not recorded by an owner whose seller role was withdrawn", async () => {
+    const { listing, seller } = await acceptedBooking();
+    const cookie = await signInCookie(seller.email, seller.password);
+    await revokeRole(seller.id, "seller");
+    expect((await postRebuild(cookie, listing.id, rebuildForm())).status).toBe(403);
     expect(await db.select().from(rebuildRecords).where(eq(rebuildRecords.listingId, listing.id))).toHaveLength(0);
   });
 
