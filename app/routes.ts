@@ -30,6 +30,7 @@ export default [
   route("saved-searches/unsubscribe", "routes/search/unsubscribe.tsx"),
 
   // Listings: buyers browse, sellers manage
+  route("compare", "routes/listings/compare.tsx"),
   route("machines/:slug", "routes/listings/machine.tsx"),
   route("sell", "routes/listings/sell-dashboard.tsx"),
   route("sell/new", "routes/listings/sell-new.tsx"),

@@ -59,8 +59,16 @@ export default function WatchedMachines({ loaderData }: Route.ComponentProps) {
         </Form>
       </div>
 
+      {machines.some((machine) => machine.href) ? (
+        <form method="get" action="/compare" id="compare-form" className="mt-8 flex flex-wrap items-center gap-3 text-sm text-ink-600">
+          Tick up to four machines to see them side by side.
+          <Button type="submit" size="sm" variant="secondary">
+            Compare the ticked machines
+          </Button>
+        </form>
+      ) : null}
       {machines.length ? (
-        <ul className="mt-8 space-y-3" data-testid="watched-machines">
+        <ul className="mt-4 space-y-3" data-testid="watched-machines">
           {machines.map((machine) => (
             <li key={machine.listingId}>
               <Card className="flex gap-4 p-4" data-watched={machine.title}>
@@ -80,6 +88,12 @@ export default function WatchedMachines({ loaderData }: Route.ComponentProps) {
                       {machine.year ? <span className="font-normal text-ink-500"> · {machine.year}</span> : null}
                     </h2>
                     <p className="text-sm text-ink-600">{machine.place}</p>
+                    {machine.href ? (
+                      <label className="mt-1 flex w-fit items-center gap-2 text-sm font-semibold text-ink-700">
+                        <input type="checkbox" name="m" value={machine.href.replace(/^\/machines\//, "")} form="compare-form" className="size-4 accent-ink-900" />
+                        Compare<span className="sr-only"> {machine.title}</span>
+                      </label>
+                    ) : null}
                     <p className="mt-1 flex flex-wrap items-center gap-2 text-sm">
                       <span className="font-bold text-ink-900 tabular">{machine.price}</span>
                       <Badge tone={machine.status === "published" ? "neutral" : "caution"}>{machine.statusLabel}</Badge>

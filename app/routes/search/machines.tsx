@@ -244,6 +244,15 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             ) : null}
 
             {search && search.hits.length ? (
+              <p className="mt-3 text-sm text-ink-600">
+                Tick up to four machines, then{" "}
+                <button type="submit" form="compare-form" className="font-semibold text-ink-900 underline underline-offset-2">
+                  compare the ticked machines
+                </button>
+                .
+              </p>
+            ) : null}
+            {search && search.hits.length ? (
               <ul className="mt-4 grid gap-3 sm:grid-cols-2 sm:gap-5 xl:grid-cols-3" data-view={list ? "list" : "cards"} data-testid="results">
                 {search.hits.map((hit) => (
                   <li key={hit.id}>
@@ -309,6 +318,8 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
           </section>
         </div>
       </form>
+      {/* Apart from the filters' form, so that ticking a machine is no filter; its checkboxes name it. */}
+      <form id="compare-form" method="get" action="/compare" hidden />
     </div>
   );
 }

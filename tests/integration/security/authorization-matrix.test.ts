@@ -327,6 +327,8 @@ const table: Record<string, RouteRow> = {
   },
 
   // Listings
+  // Public comparison: only public listings are read, whoever asks (an empty one without machines).
+  compare: { get: everyone(200), actions: "none" },
   "machines/:slug": {
     get: everyone(200),
     actions: [

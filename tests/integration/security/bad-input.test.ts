@@ -522,11 +522,22 @@ const targets: Target[] = [
       fc.tuple(fc.constantFrom("q", "region"), fc.oneof(junkText, longInQuery(200))).map(([name, value]): Payload => ({ method: "GET", query: `?${new URLSearchParams({ [name]: value })}` })),
       fc
       .tuple(
-        fc.constantFrom("priceMin", "priceMax", "swingMin", "swingMax", "runoutMax", "page", "sort", "category", "grade", "units", "verified", "after"),
+        fc.constantFrom("priceMin", "priceMax", "swingMin", "swingMax", "runoutMax", "page", "sort", "category", "grade", "units", "verified", "after", "supply"),
         // Long, but within the 16 KB a request line may have (Node answers 431 beyond it).
         fc.oneof(notANumber, fc.constantFrom("-1", "Infinity", "NaN", "1e309", "unknown-value", "-0.5"), fc.integer({ min: 2_001, max: 8_000 }).map((length) => "9".repeat(length))),
       )
       .map(([name, value]): Payload => ({ method: "GET", query: `?${new URLSearchParams({ [name]: value })}` })),
+    ),
+  },
+  {
+    route: "compare",
+    path: () => "/compare",
+    as: "visitor",
+    payloads: fc.oneof(
+      // A machine's address that is not one: control characters, capitals, paths, too long.
+      fc.oneof(junkText, longInQuery(120), fc.constantFrom("", "   ", "Halvorsen-ML", "../../etc/passwd", "a b", "slug--x", "-lead")).map((m): Payload => ({ method: "GET", query: `?${new URLSearchParams({ m })}` })),
+      // More than four machines, or a flood of them.
+      fc.integer({ min: 5, max: 60 }).map((count): Payload => ({ method: "GET", query: `?${Array.from({ length: count }, (_, n) => `m=machine-${n}`).join("&")}` })),
     ),
   },
   {

@@ -107,6 +107,11 @@ export function ResultCard({ hit, units, now }: { hit: ListingHit; units: Displa
           <p className="text-sm text-ink-500">
             {[hit.location.city, countryName(hit.location.country)].filter(Boolean).join(", ")}
           </p>
+          {/* Ticked cards go to /compare by the page's plain GET form (no script): above the card's stretched link. */}
+          <label className="relative z-10 flex w-fit items-center gap-2 text-sm font-semibold text-ink-700">
+            <input type="checkbox" name="m" value={hit.slug} form="compare-form" className="size-4 accent-ink-900" />
+            Compare<span className="sr-only"> {hit.title}</span>
+          </label>
           <div className="mt-auto flex flex-wrap items-end justify-between gap-2 pt-1">
             <p className="text-lg font-extrabold text-ink-900 tabular">{hit.price ? formatMoney(hit.price.minor, hit.price.currency) : "Price on request"}</p>
             <div className="flex flex-wrap justify-end gap-1">
