@@ -1,3 +1,6 @@
+/** How many machines one comparison shows: four columns still fit a laptop's width. */
+export const MAX_COMPARED = 4;
+
 // Which of the compared machines has the better figure. Pure: the compare page and its tests share it.
 
 /**

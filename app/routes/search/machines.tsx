@@ -11,6 +11,7 @@ import { draftFromParams, paramsFromDraft, type DraftKey, type SearchDraft } fro
 import { parseListingSearchParams } from "~/modules/search/search-params.server";
 import { searchMachines, type MachineSearch } from "~/modules/search/service.server";
 import type { DisplayUnits } from "~/modules/units/format";
+import { supplyClasses } from "../../../search/query.ts";
 import type { Route } from "./+types/machines";
 
 export const meta: Route.MetaFunction = () => [
@@ -23,9 +24,11 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const units: DisplayUnits = viewer?.displayUnits ?? "mm";
   const account = viewer ? { verified: viewer.emailVerified } : null;
   const parsed = parseListingSearchParams(new URL(request.url).searchParams);
-  if (!parsed.success) return { units, account, search: null, errors: parsed.errors, now: Date.now() };
+  // The supply classes as data, not as a list in the page's script (which is at its budget).
+  const supplies = supplyClasses.map(({ value, label }) => ({ value, label }));
+  if (!parsed.success) return { units, account, supplies, search: null, errors: parsed.errors, now: Date.now() };
   const search = await searchMachines(context.get(databaseContext), parsed.query, { units, after: parsed.after });
-  return { units, account, search, errors: null, now: Date.now() };
+  return { units, account, supplies, search, errors: null, now: Date.now() };
 }
 
 // After the first page, the page fetches its results from the API itself: a change of the search alone
@@ -179,6 +182,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                 draft={draft}
                 units={units}
                 facets={search?.facets ?? null}
+                supplies={loaderData.supplies}
                 errors={errors}
                 onChange={change}
                 onCommit={() => commit()}

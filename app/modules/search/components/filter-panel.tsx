@@ -2,7 +2,6 @@ import type { ReactNode } from "react";
 import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
 import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
-import { supplyClasses } from "../../../../search/query.ts";
 import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
 import { accuracyFilters, deviationUnitLabel } from "../figures";
 import type { MachineSearch } from "../service.server";
@@ -50,6 +49,8 @@ type PanelProps = {
   draft: SearchDraft;
   units: DisplayUnits;
   facets: MachineSearch["facets"] | null;
+  /** The supply classes as the server words them (sent as data: the page's script carries no list of its own). */
+  supplies: ReadonlyArray<{ value: string; label: string }>;
   errors: Record<string, string[]> | null;
   /** A field changed; `commit` when the change should search at once (boxes, menus). */
   onChange: (key: DraftKey, value: SearchDraft[DraftKey], commit: boolean) => void;
@@ -58,7 +59,7 @@ type PanelProps = {
 };
 
 /** Facets, ranges and accuracy limits. A plain GET form underneath, so it also works before JavaScript loads. */
-export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, onClear }: PanelProps) {
+export function FilterPanel({ draft, units, facets, supplies, errors, onChange, onCommit, onClear }: PanelProps) {
   const length = lengthUnitLabel(units);
   const deviation = deviationUnitLabel(units);
   const toggle = (key: "category" | "grade", value: string, checked: boolean) =>
@@ -220,7 +221,7 @@ export function FilterPanel({ draft, units, facets, errors, onChange, onCommit, 
           <span className="sr-only">Runs on</span>
           <select name="supply" className={cx(control, "border-ink-300")} value={draft.supply} onChange={(event) => onChange("supply", event.target.value, true)}>
             <option value="">Any supply</option>
-            {supplyClasses.map((supply) => (
+            {supplies.map((supply) => (
               <option key={supply.value} value={supply.value}>
                 {supply.label}
               </option>
