@@ -5,12 +5,14 @@ export const MAX_COMPARED = 4;
 
 /**
  * The positions holding the smallest deviation (by size: a figure's sign says which way, not how far), when
- * at least two machines have the figure; ties are all best. Lower is better for every deviation compared.
+ * at least two machines have the figure and they differ; ties for the smallest are all best. Lower is better for every deviation compared.
  */
 export function bestDeviations(values: ReadonlyArray<number | null | undefined>): Set<number> {
   const known = values.flatMap((value, index) => (value === null || value === undefined || !Number.isFinite(value) ? [] : [{ index, size: Math.abs(value) }]));
   if (known.length < 2) return new Set();
   const smallest = Math.min(...known.map((entry) => entry.size));
+  // When every machine reads the same, none is better: nothing is marked.
+  if (known.every((entry) => entry.size - smallest < 0.0005)) return new Set();
   // Figures are stored to a thousandth of a micrometre; closer than that is the same reading.
   return new Set(known.filter((entry) => entry.size - smallest < 0.0005).map((entry) => entry.index));
 }
