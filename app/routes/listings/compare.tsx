@@ -53,9 +53,9 @@ export default function CompareMachines({ loaderData }: Route.ComponentProps) {
       )}
 
       {columns.length ? (
-        // The table scrolls inside its frame on a narrow screen; inline-size containment keeps its width from
-        // widening the page (the layout's flex column would otherwise grow to the table's).
-        <div className="mt-6 overflow-x-auto rounded-panel border border-ink-200 bg-white [contain:inline-size]" data-testid="comparison">
+        // The table scrolls inside its frame on a narrow screen; the frame is positioned so that the screen-reader
+        // texts (absolutely placed) of columns out of view are clipped with them instead of widening the page.
+        <div className="relative mt-6 overflow-x-auto rounded-panel border border-ink-200 bg-white" data-testid="comparison">
           <table className="w-full border-collapse text-sm">
             <caption className="sr-only">Specifications and verified figures of the compared machines, one machine per column</caption>
             <thead>

@@ -72,6 +72,7 @@ describe("comparing machines", () => {
 
     await page.getByLabel(`Compare ${word} Tight 330`).check();
     await page.getByLabel(`Compare ${word} Loose 330`).check();
+    await shoot(page, "compare-search-results-desktop");
     await Promise.all([page.waitForURL((url) => url.pathname === "/compare"), page.getByRole("button", { name: "compare the ticked machines" }).click()]);
     const compared = new URL(page.url()).searchParams.getAll("m");
     expect(new Set(compared)).toEqual(new Set([tight.listing.slug, loose.listing.slug]));
@@ -106,9 +107,15 @@ describe("comparing machines", () => {
       expect(await table.getByText("Unavailable", { exact: true }).count()).toBe(2);
       // Nothing of the draft leaks: not its model, not its seller.
       expect(await page.content()).not.toContain("Hidden 2");
-      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-      expect(overflow, `the page scrolls sideways at ${size.name} size`).toBeLessThanOrEqual(0);
       await shoot(page, `compare-${size.name}`);
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+      const wide = await page.evaluate(() =>
+        [...document.querySelectorAll("body *")]
+          .filter((element) => element.getBoundingClientRect().right > window.innerWidth + 1 && !element.closest("[data-testid=comparison] table"))
+          .slice(0, 6)
+          .map((element) => `${element.tagName}.${element.className} ${Math.round(element.getBoundingClientRect().right)}`),
+      );
+      expect(overflow, `the page scrolls sideways at ${size.name} size: ${wide.join(" | ")}`).toBeLessThanOrEqual(0);
       await context.close();
     }
   }, 120_000);
