@@ -2,6 +2,7 @@
 // which column holds the run, the direction, the target and the deviation, their units, and whether decimals
 // use a comma. The result is the input of positioningAccuracy. Refusals name the line.
 import { GeometryInputError } from "./errors";
+import { numberIn, tableRows } from "./instrument-table";
 import { POSITIONING_LIMITS } from "./positioning";
 import { MICROMETRES_PER_INCH, MILLIMETRES_PER_INCH } from "./units";
 
@@ -26,38 +27,11 @@ const REVERSE = new Set(["-", "\u2212", "reverse", "negative", "down", "-1"]);
 const TO_MM = { mm: 1, in: MILLIMETRES_PER_INCH } as const;
 const TO_UM = { um: 1, mm: 1000, in: MICROMETRES_PER_INCH } as const;
 
-function numberIn(field: string | undefined, decimalComma: boolean, what: string, line: number): number {
-  const text = (field ?? "").trim();
-  const normal = decimalComma ? text.replace(",", ".") : text;
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normal)) {
-    throw new GeometryInputError(`Line ${line}: the ${what} "${text.slice(0, 40)}" is not a number${decimalComma ? " (decimal comma expected)" : ""}.`, [line]);
-  }
-  const value = Number(normal);
-  if (!Number.isFinite(value)) throw new GeometryInputError(`Line ${line}: the ${what} ${text.slice(0, 40)} is too large to be a number.`, [line]);
-  return value;
-}
-
 /** Parses the table into targets (mm) and forward / reverse runs (µm) for positioningAccuracy. */
 export function parseDeviationCsv(text: string, columns: DeviationColumns): { targets: number[]; forward: number[][]; reverse: number[][] } {
-  if (typeof text !== "string") throw new GeometryInputError("The file must be text.");
-  if (text.length > DEVIATION_CSV_LIMITS.characters) throw new GeometryInputError(`The file is longer than ${DEVIATION_CSV_LIMITS.characters} characters.`);
-  if (text.includes("\u0000")) throw new GeometryInputError("The file contains NUL bytes; it is not a text table.");
-  const lines = text.replace(/^\uFEFF/, "").split(/\r\n|\r|\n/);
-  if (lines.length > DEVIATION_CSV_LIMITS.lines) throw new GeometryInputError(`The file has more than ${DEVIATION_CSV_LIMITS.lines} lines.`);
-  const separator = columns.decimalComma ? /[;\t]/ : /[,;\t]/;
-  const widest = Math.max(columns.run, columns.direction, columns.target, columns.deviation);
   const runs = { forward: new Map<string, Map<number, number>>(), reverse: new Map<string, Map<number, number>>() };
   const targets = new Set<number>();
-  let headerSkipped = !columns.header;
-  lines.forEach((raw, index) => {
-    const line = index + 1;
-    if (raw.trim() === "") return;
-    if (!headerSkipped) {
-      headerSkipped = true;
-      return;
-    }
-    const fields = raw.split(separator);
-    if (fields.length <= widest) throw new GeometryInputError(`Line ${line}: ${fields.length} columns; the mapping reads column ${widest + 1}.`, [line]);
+  for (const { line, fields } of tableRows(text, { ...DEVIATION_CSV_LIMITS, decimalComma: columns.decimalComma, header: columns.header, widest: Math.max(columns.run, columns.direction, columns.target, columns.deviation) })) {
     const directionText = fields[columns.direction]!.trim().toLowerCase();
     const direction = FORWARD.has(directionText) ? "forward" : REVERSE.has(directionText) ? "reverse" : null;
     if (!direction) throw new GeometryInputError(`Line ${line}: direction "${directionText.slice(0, 20)}" is neither + (forward) nor − (reverse).`, [line]);
@@ -71,7 +45,7 @@ export function parseDeviationCsv(text: string, columns: DeviationColumns): { ta
     runs[direction].set(run, readings);
     targets.add(target);
     if (targets.size > POSITIONING_LIMITS.targets) throw new GeometryInputError(`Line ${line}: more than ${POSITIONING_LIMITS.targets} targets.`, [line]);
-  });
+  }
   const sorted = [...targets].sort((a, b) => a - b);
   const assemble = (direction: "forward" | "reverse") =>
     [...runs[direction].entries()].map(([run, readings]) =>

@@ -3,6 +3,7 @@
 // unit and whether decimals use a comma. The result is the input of circularTest. Refusals name the line.
 import { CIRCULAR_LIMITS } from "./circular";
 import { GeometryInputError } from "./errors";
+import { numberIn, tableRows } from "./instrument-table";
 import { MICROMETRES_PER_INCH } from "./units";
 import type { RadialReading } from "./circular";
 
@@ -24,37 +25,10 @@ const CLOCKWISE = new Set(["cw", "clockwise", "+", "1"]);
 const COUNTER_CLOCKWISE = new Set(["ccw", "counter-clockwise", "counterclockwise", "anticlockwise", "anti-clockwise", "-", "\u2212", "-1"]);
 const TO_UM = { um: 1, mm: 1000, in: MICROMETRES_PER_INCH } as const;
 
-function numberIn(field: string | undefined, decimalComma: boolean, what: string, line: number): number {
-  const text = (field ?? "").trim();
-  const normal = decimalComma ? text.replace(",", ".") : text;
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normal)) {
-    throw new GeometryInputError(`Line ${line}: the ${what} "${text.slice(0, 40)}" is not a number${decimalComma ? " (decimal comma expected)" : ""}.`, [line]);
-  }
-  const value = Number(normal);
-  if (!Number.isFinite(value)) throw new GeometryInputError(`Line ${line}: the ${what} ${text.slice(0, 40)} is too large to be a number.`, [line]);
-  return value;
-}
-
 /** Parses the table into clockwise and counter-clockwise readings (degrees, µm) for circularTest. */
 export function parseRadialCsv(text: string, columns: RadialColumns): { clockwise: RadialReading[]; counterClockwise: RadialReading[] } {
-  if (typeof text !== "string") throw new GeometryInputError("The file must be text.");
-  if (text.length > RADIAL_CSV_LIMITS.characters) throw new GeometryInputError(`The file is longer than ${RADIAL_CSV_LIMITS.characters} characters.`);
-  if (text.includes("\u0000")) throw new GeometryInputError("The file contains NUL bytes; it is not a text table.");
-  const lines = text.replace(/^\uFEFF/, "").split(/\r\n|\r|\n/);
-  if (lines.length > RADIAL_CSV_LIMITS.lines) throw new GeometryInputError(`The file has more than ${RADIAL_CSV_LIMITS.lines} lines.`);
-  const separator = columns.decimalComma ? /[;\t]/ : /[,;\t]/;
-  const widest = Math.max(columns.direction, columns.angle, columns.deviation);
   const readings = { clockwise: [] as RadialReading[], counterClockwise: [] as RadialReading[] };
-  let headerSkipped = !columns.header;
-  lines.forEach((raw, index) => {
-    const line = index + 1;
-    if (raw.trim() === "") return;
-    if (!headerSkipped) {
-      headerSkipped = true;
-      return;
-    }
-    const fields = raw.split(separator);
-    if (fields.length <= widest) throw new GeometryInputError(`Line ${line}: ${fields.length} columns; the mapping reads column ${widest + 1}.`, [line]);
+  for (const { line, fields } of tableRows(text, { ...RADIAL_CSV_LIMITS, decimalComma: columns.decimalComma, header: columns.header, widest: Math.max(columns.direction, columns.angle, columns.deviation) })) {
     const directionText = fields[columns.direction]!.trim().toLowerCase();
     const direction = CLOCKWISE.has(directionText) ? "clockwise" : COUNTER_CLOCKWISE.has(directionText) ? "counterClockwise" : null;
     if (!direction) throw new GeometryInputError(`Line ${line}: direction "${directionText.slice(0, 20)}" is neither clockwise (cw) nor counter-clockwise (ccw).`, [line]);
@@ -64,11 +38,11 @@ export function parseRadialCsv(text: string, columns: RadialColumns): { clockwis
     if (!(turned >= 0 && turned < 360)) throw new GeometryInputError(`Line ${line}: the angle ${angle} is outside 0–360 degrees.`, [line]);
     const deviation = numberIn(fields[columns.deviation], columns.decimalComma, "deviation", line) * TO_UM[columns.deviationUnit];
     if (readings[direction].some((reading) => reading.angle === turned)) {
-      if (angle === 360) return; // the closing reading of a full turn, already read at 0°
+      if (angle === 360) continue; // the closing reading of a full turn, already read at 0°
       throw new GeometryInputError(`Line ${line}: the angle ${angle}° is read twice ${direction === "clockwise" ? "clockwise" : "counter-clockwise"}.`, [line]);
     }
     readings[direction].push({ angle: turned, deviation });
     if (readings[direction].length > CIRCULAR_LIMITS.readingsPerDirection) throw new GeometryInputError(`Line ${line}: more than ${CIRCULAR_LIMITS.readingsPerDirection} readings in one direction.`, [line]);
-  });
+  }
   return readings;
 }
