@@ -59,21 +59,34 @@ export function FileUploader({ endpoint, accept, maxBytes, limitText, label, mul
   const update = (id: string, change: Partial<Upload>) =>
     setUploads((current) => current.map((upload) => (upload.id === id ? { ...upload, ...change } : upload)));
 
-  async function send(file: File) {
-    const id = `${file.name}-${file.size}-${Math.random().toString(36).slice(2)}`;
-    setUploads((current) => [...current, { id, name: file.name, size: file.size, progress: 0, state: "sending" }]);
-    try {
-      if (!accept.includes(file.type)) throw new Error(`This file is not one we accept. ${limitText}.`);
-      if (file.size > maxBytes) throw new Error(`This file is ${formatBytes(file.size)}, over the ${formatBytes(maxBytes)} limit.`);
-      const ticket = await postForm(endpoint, { intent: "presign", fileName: file.name, size: String(file.size), contentType: file.type });
-      await putWithProgress(ticket.uploadUrl!, file, (progress) => update(id, { progress }));
-      update(id, { progress: 1, state: "checking" });
-      await postForm(endpoint, { intent: "confirm", fileName: file.name, uploadKey: ticket.uploadKey! });
-      update(id, { state: "done" });
-      revalidator.revalidate();
-    } catch (error) {
-      update(id, { state: "rejected", message: error instanceof Error ? error.message : String(error) });
+  /**
+   * Asks for each file's upload address in the order the seller chose them (a photo's gallery place is
+   * reserved then), and sends each file as soon as its address is in: uploads finish in any order.
+   */
+  async function sendAll(files: File[]) {
+    const chosen = files.map((file) => ({ file, id: `${file.name}-${file.size}-${Math.random().toString(36).slice(2)}` }));
+    setUploads((current) => [...current, ...chosen.map(({ file, id }) => ({ id, name: file.name, size: file.size, progress: 0, state: "sending" as const }))]);
+    const reject = (id: string, error: unknown) => update(id, { state: "rejected", message: error instanceof Error ? error.message : String(error) });
+    const transfers: Promise<void>[] = [];
+    for (const { file, id } of chosen) {
+      try {
+        if (!accept.includes(file.type)) throw new Error(`This file is not one we accept. ${limitText}.`);
+        if (file.size > maxBytes) throw new Error(`This file is ${formatBytes(file.size)}, over the ${formatBytes(maxBytes)} limit.`);
+        const ticket = await postForm(endpoint, { intent: "presign", fileName: file.name, size: String(file.size), contentType: file.type });
+        transfers.push(
+          (async () => {
+            await putWithProgress(ticket.uploadUrl!, file, (progress) => update(id, { progress }));
+            update(id, { progress: 1, state: "checking" });
+            await postForm(endpoint, { intent: "confirm", fileName: file.name, uploadKey: ticket.uploadKey! });
+            update(id, { state: "done" });
+            revalidator.revalidate();
+          })().catch((error) => reject(id, error)),
+        );
+      } catch (error) {
+        reject(id, error);
+      }
     }
+    await Promise.all(transfers);
   }
 
   return (
@@ -92,7 +105,7 @@ export function FileUploader({ endpoint, accept, maxBytes, limitText, label, mul
           onChange={(event) => {
             const files = [...(event.target.files ?? [])];
             event.target.value = "";
-            files.forEach((file) => void send(file));
+            void sendAll(files);
           }}
         />
       </label>

@@ -126,6 +126,8 @@ export const uploadTickets = pgTable(
     listingId: uuid("listing_id")
       .notNull()
       .references(() => listings.id, { onDelete: "cascade" }),
+    /** A photo's place in the gallery, reserved when the seller chose it: uploads finish in any order. */
+    position: integer("position"),
     expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
   },
   (table) => [index("upload_tickets_listing_idx").on(table.listingId)],

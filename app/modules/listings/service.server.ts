@@ -279,7 +279,7 @@ function refuseOversized(file: UploadRequest, maxBytes: number) {
 }
 
 /** A fresh upload key of the shape `uploadKeyPattern` accepts, and its presigned PUT address. */
-async function presignListingUpload(db: Database, listingId: string, file: UploadRequest, now = new Date()) {
+async function presignListingUpload(db: Database, listingId: string, file: UploadRequest, { reservePosition = false } = {}, now = new Date()) {
   const uploadKey = `uploads/${listingId}/${randomUUID()}`;
   // Each address handed out is a ticket; a listing holds only so many at once, so presigning in a loop cannot
   // hand out storage without end.
@@ -290,15 +290,27 @@ async function presignListingUpload(db: Database, listingId: string, file: Uploa
     if (outstanding >= OUTSTANDING_UPLOADS_PER_LISTING) {
       throw new RejectedFileError(`${OUTSTANDING_UPLOADS_PER_LISTING} uploads to this listing are already under way; finish them, or wait ${UPLOAD_URL_SECONDS / 60} minutes.`);
     }
-    await tx.insert(uploadTickets).values({ uploadKey, listingId, expiresAt: new Date(now.getTime() + UPLOAD_URL_SECONDS * 1000) });
+    // A photo takes its gallery place now, in the order the seller chose the files, not when its upload ends.
+    const position = reservePosition ? await nextPhotoPosition(tx, listingId) : null;
+    await tx.insert(uploadTickets).values({ uploadKey, listingId, position, expiresAt: new Date(now.getTime() + UPLOAD_URL_SECONDS * 1000) });
   });
   const uploadUrl = await presignUpload({ key: uploadKey, contentType: file.contentType, contentLength: file.size, expiresInSeconds: UPLOAD_URL_SECONDS });
   return { uploadKey, uploadUrl, contentType: file.contentType };
 }
 
-/** A confirmed (or refused) upload gives its ticket back. */
+type Transaction = Parameters<Parameters<Database["transaction"]>[0]>[0];
+
+/** After every photo kept and every place reserved by an upload under way; call with the listing row locked. */
+async function nextPhotoPosition(tx: Transaction, listingId: string) {
+  const [{ kept }] = await tx.select({ kept: max(listingPhotos.position) }).from(listingPhotos).where(eq(listingPhotos.listingId, listingId));
+  const [{ reserved }] = await tx.select({ reserved: max(uploadTickets.position) }).from(uploadTickets).where(eq(uploadTickets.listingId, listingId));
+  return Math.max(kept ?? -1, reserved ?? -1) + 1;
+}
+
+/** A confirmed (or refused) upload gives its ticket back; the answer is the place it reserved, if any. */
 async function returnTicket(db: Database, uploadKey: string) {
-  await db.delete(uploadTickets).where(eq(uploadTickets.uploadKey, uploadKey));
+  const [ticket] = await db.delete(uploadTickets).where(eq(uploadTickets.uploadKey, uploadKey)).returning({ position: uploadTickets.position });
+  return ticket?.position ?? null;
 }
 
 export type UploadRequest = { fileName: string; size: number; contentType: string };
@@ -312,31 +324,30 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
   refuseOversized(file, PHOTO_MAX_BYTES);
   const [{ photos }] = await db.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
   if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
-  return presignListingUpload(db, listing.id, file);
+  return presignListingUpload(db, listing.id, file, { reservePosition: true });
 }
 
 /** Checks the uploaded object by its content and keeps its variants; a rejected file leaves nothing behind. */
 export async function confirmPhotoUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {
   const listing = await managedListing(db, actor, listingId);
   if (!uploadKeyPattern(listing.id).test(upload.uploadKey)) throw new RejectedFileError("This upload does not belong to this listing.");
-  await returnTicket(db, upload.uploadKey);
+  const reservedPosition = await returnTicket(db, upload.uploadKey);
   const photoId = randomUUID();
   const accepted = await acceptUploadedPhoto({ uploadKey: upload.uploadKey, destinationPrefix: `listings/${listing.id}/photos/${photoId}` });
   try {
     const [photo] = await db.transaction(async (tx) => {
       // Serialises concurrent confirmations of one listing, so positions and the limit hold.
       await tx.execute(sql`select id from ${listings} where ${listings.id} = ${listing.id} for update`);
-      const [{ photos, last }] = await tx
-        .select({ photos: count(), last: max(listingPhotos.position) })
-        .from(listingPhotos)
-        .where(eq(listingPhotos.listingId, listing.id));
+      const [{ photos }] = await tx.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
       if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
+      // A ticket that expired before its confirmation reserved nothing any more: such a photo goes last.
+      const position = reservedPosition ?? (await nextPhotoPosition(tx, listing.id));
       return tx
         .insert(listingPhotos)
         .values({
           id: photoId,
           listingId: listing.id,
-          position: (last ?? -1) + 1,
+          position,
           thumbnailKey: accepted.thumbnailKey,
           largeKey: accepted.largeKey,
           width: accepted.width,
@@ -369,6 +380,7 @@ export async function movePhoto(db: Database, actor: SessionUser, listingId: str
     if (from < 0) notFound();
     const to = move === "cover" ? 0 : move === "earlier" ? Math.max(0, from - 1) : Math.min(order.length - 1, from + 1);
     order.splice(to, 0, ...order.splice(from, 1));
+    // An upload under way that reserved a place now taken arrives after the photo there (ties go by arrival).
     for (const [position, id] of order.entries()) {
       await tx.update(listingPhotos).set({ position }).where(eq(listingPhotos.id, id));
     }
@@ -443,7 +455,8 @@ export async function getPublicListing(db: Database, slug: string, viewer: Sessi
     .where(eq(listings.slug, slug));
   if (!row) return null;
   const { listing } = row;
-  const isManager = Boolean(viewer && (viewer.id === listing.sellerId || hasRole(viewer, "admin")));
+  const isOwner = Boolean(viewer && viewer.id === listing.sellerId);
+  const isManager = isOwner || Boolean(viewer && hasRole(viewer, "admin"));
   if (!publicStatuses.includes(listing.status) && !isManager) return null;
   const [[watch], photos, documents] = await Promise.all([
     viewer
@@ -462,6 +475,7 @@ export async function getPublicListing(db: Database, slug: string, viewer: Sessi
     photos,
     documents,
     isManager,
+    isOwner,
     isWatching: Boolean(watch),
   };
 }

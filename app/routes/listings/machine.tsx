@@ -83,16 +83,13 @@ export async function action({ request, context }: Route.ActionArgs) {
 }
 
 export default function MachinePage({ loaderData }: Route.ComponentProps) {
-  const { listing, photos, documents, sellerName, isManager, isWatching, units, signedIn } = loaderData;
+  const { listing, photos, documents, sellerName, isManager, isOwner, isWatching, units, signedIn } = loaderData;
   const place = [listing.city, listing.region, countryName(listing.country)].filter(Boolean).join(", ");
   return (
     <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">
       {isManager && listing.status !== "published" ? (
         <p className="mb-6 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800">
-          {listing.status === "sold" ? "This listing is sold." : "Preview: only you can see this page until the listing is published."}{" "}
-          <Link to={`/sell/listings/${listing.id}`} className="font-semibold underline underline-offset-2">
-            Edit the listing
-          </Link>
+          {listing.status === "sold" ? "This listing is sold." : "Preview: only you can see this page until the listing is published."}
         </p>
       ) : null}
 
@@ -119,6 +116,11 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
             {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
           </div>
           <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
+          {isOwner ? (
+            <ButtonLink to={`/sell/listings/${listing.id}`} variant="secondary" size="sm" className="mt-4" data-testid="edit-own-listing">
+              Edit
+            </ButtonLink>
+          ) : null}
           {listing.status === "published" && !isManager ? (
             <WatchButton listingId={listing.id} isWatching={isWatching} signedIn={signedIn} />
           ) : null}

@@ -118,6 +118,32 @@ describe("a real photo", () => {
     await expectNothingLeft(listingId);
   });
 
+  it("keeps the order the seller chose the photos in, whichever upload finishes first", async () => {
+    const listingId = await createListingAs(cookie);
+    const endpoint = `/sell/listings/${listingId}/photos`;
+    const chosen = ["#aa3322", "#2233aa", "#22aa33"];
+    const tickets: Array<{ name: string; bytes: Buffer; uploadKey: string; uploadUrl: string }> = [];
+    for (const tint of chosen) {
+      const bytes = await jpegWithGps({ width: 640, height: 480, tint });
+      const presign = await postForm(endpoint, cookie, { intent: "presign", fileName: `${tint}.jpg`, size: String(bytes.length), contentType: "image/jpeg" });
+      tickets.push({ name: `${tint}.jpg`, bytes, ...((await presign.json()) as { uploadKey: string; uploadUrl: string }) });
+    }
+    const order = async () => (await photoRows(listingId)).sort((a, b) => a.position - b.position).map((row) => row.originalName);
+    // The last one chosen finishes first, then the first; the seller's cover is still the first chosen.
+    for (const ticket of [tickets[2], tickets[0]]) {
+      await fetch(ticket.uploadUrl, { method: "PUT", body: new Uint8Array(ticket.bytes), headers: { "content-type": "image/jpeg" } });
+      expect((await postForm(endpoint, cookie, { intent: "confirm", fileName: ticket.name, uploadKey: ticket.uploadKey })).status).toBe(200);
+    }
+    expect(await order()).toEqual(["#aa3322.jpg", "#22aa33.jpg"]);
+    // After a move while the middle one is still on its way, it arrives after the photo now in its place.
+    const lastId = (await photoRows(listingId)).find((photo) => photo.originalName === "#22aa33.jpg")!.id;
+    expect((await postForm(`/sell/listings/${listingId}`, cookie, { intent: "photo-cover", photoId: lastId })).status).toBe(302);
+    expect(await order()).toEqual(["#22aa33.jpg", "#aa3322.jpg"]);
+    await fetch(tickets[1].uploadUrl, { method: "PUT", body: new Uint8Array(tickets[1].bytes), headers: { "content-type": "image/jpeg" } });
+    expect((await postForm(endpoint, cookie, { intent: "confirm", fileName: tickets[1].name, uploadKey: tickets[1].uploadKey })).status).toBe(200);
+    expect(await order()).toEqual(["#22aa33.jpg", "#aa3322.jpg", "#2233aa.jpg"]);
+  });
+
   it("shows a published listing's new cover in search results", async () => {
     const word = uniqueWord("cover");
     const listingId = await createListingAs(cookie, { model: `ML ${word}` });

@@ -1,0 +1,1 @@
+ALTER TABLE "upload_tickets" ADD COLUMN "position" integer;

@@ -1,0 +1,104 @@
+// A seller's tools, each at desktop, tablet and phone sizes: photos keep the order the seller chose them in
+// and can be moved by keyboard, the seller's own public page offers "Edit" (nobody else's does).
+import { mkdirSync } from "node:fs";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createTestUser, signInCookie, signInPage } from "../../support/accounts";
+import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { jpegWithGps } from "../../support/images";
+import { createListingAs, listingRow, postForm, uploadFileAs } from "../../support/listings";
+
+const shots = process.env.SCREENSHOT_DIR ?? "/tmp/seller-tools-screenshots";
+const sizes = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+  mkdirSync(shots, { recursive: true });
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function screenshots(page: Page, name: string) {
+  const original = page.viewportSize()!;
+  for (const [label, size] of Object.entries(sizes)) {
+    await page.setViewportSize(size);
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow, `${name} scrolls sideways at ${label}`).toBeLessThanOrEqual(0);
+    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
+  }
+  await page.setViewportSize(original);
+}
+
+/** A published listing with one photo, made over HTTP as the seller's browser would. */
+async function publishedListingOf(seller: { email: string; password: string }, overrides: Record<string, string> = {}) {
+  const cookie = await signInCookie(seller.email, seller.password);
+  const listingId = await createListingAs(cookie, overrides);
+  await uploadFileAs(cookie, listingId, "photos", { bytes: await jpegWithGps({ width: 800, height: 600 }), name: "front.jpg", type: "image/jpeg" });
+  const published = await postForm(`/sell/listings/${listingId}`, cookie, { intent: "publish" });
+  expect(published.status).toBe(302);
+  return { listingId, slug: (await listingRow(listingId)).slug, cookie };
+}
+
+describe("a seller's tools", () => {
+  it("keeps the photos in the order chosen, whichever upload ends first, and moves them by keyboard", { timeout: 180_000 }, async () => {
+    const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
+    const cookie = await signInCookie(seller.email, seller.password);
+    const listingId = await createListingAs(cookie);
+    const { context, page } = await newRecordedPage(browser);
+    await signInPage(page, seller.email, seller.password, `/sell/listings/${listingId}`);
+
+    // The first file chosen is the largest, so it finishes last.
+    const files = [
+      { name: "1-whole-machine.jpg", mimeType: "image/jpeg", buffer: await jpegWithGps({ width: 3200, height: 2400, tint: "#7a5230" }) },
+      { name: "2-headstock.jpg", mimeType: "image/jpeg", buffer: await jpegWithGps({ width: 400, height: 300, tint: "#2d5a7a" }) },
+      { name: "3-nameplate.jpg", mimeType: "image/jpeg", buffer: await jpegWithGps({ width: 400, height: 300, tint: "#3a7a2d" }) },
+    ];
+    await page.locator('#photos input[type="file"]').setInputFiles(files);
+    await page.locator('#photos [data-upload-state="done"]').nth(2).waitFor({ timeout: 60_000 });
+    const gallery = page.locator('ol[aria-label="Photos in gallery order"] > li');
+    await expect.poll(() => gallery.count(), { timeout: 20_000 }).toBe(3);
+    const order = () => gallery.locator("img").evaluateAll((images) => images.map((image) => (image as HTMLImageElement).alt.replace(/^Photo \d+: /, "")));
+    expect(await order()).toEqual(files.map((file) => file.name));
+    expect(await gallery.first().textContent()).toContain("Cover");
+
+    // Keyboard only: focus "Make cover" on the third photo and press Enter; then move the new second one later.
+    await gallery.nth(2).getByRole("button", { name: "Make cover" }).focus();
+    await page.keyboard.press("Enter");
+    await expect.poll(order, { timeout: 15_000 }).toEqual(["3-nameplate.jpg", "1-whole-machine.jpg", "2-headstock.jpg"]);
+    expect(await gallery.first().textContent()).toContain("Cover");
+    await page.getByRole("button", { name: "Move photo 2 later" }).focus();
+    await page.keyboard.press("Enter");
+    await expect.poll(order, { timeout: 15_000 }).toEqual(["3-nameplate.jpg", "2-headstock.jpg", "1-whole-machine.jpg"]);
+    await page.locator("#photos").scrollIntoViewIfNeeded();
+    await screenshots(page, "photo-order");
+    await context.close();
+  });
+
+  it("offers the seller an Edit link on their own public page, and nobody else", { timeout: 120_000 }, async () => {
+    const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
+    const { listingId, slug } = await publishedListingOf(seller);
+    const { context, page } = await newRecordedPage(browser);
+    await signInPage(page, seller.email, seller.password, `/machines/${slug}`);
+    const edit = page.getByRole("link", { name: "Edit", exact: true });
+    await edit.waitFor();
+    await screenshots(page, "own-listing-edit");
+    await edit.click();
+    await page.waitForURL((url) => url.pathname === `/sell/listings/${listingId}`);
+    await context.close();
+
+    // Another seller, a buyer and a visitor: no link, and the edit address is nowhere in the page.
+    const otherSeller = await createTestUser({ roles: ["seller"] });
+    const buyer = await createTestUser();
+    for (const viewer of [otherSeller, buyer, null]) {
+      const visit = await newRecordedPage(browser);
+      if (viewer) await signInPage(visit.page, viewer.email, viewer.password, `/machines/${slug}`);
+      else await visit.page.goto(`/machines/${slug}`);
+      await visit.page.getByRole("heading", { level: 1 }).waitFor();
+      expect(await visit.page.getByRole("link", { name: "Edit", exact: true }).count()).toBe(0);
+      expect(await visit.page.content()).not.toContain("/sell/listings/");
+      await visit.context.close();
+    }
+  });
+});
