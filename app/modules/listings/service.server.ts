@@ -307,10 +307,9 @@ async function nextPhotoPosition(tx: Transaction, listingId: string) {
   return Math.max(kept ?? -1, reserved ?? -1) + 1;
 }
 
-/** A confirmed (or refused) upload gives its ticket back; the answer is the place it reserved, if any. */
+/** A confirmed (or refused) upload gives its ticket back. */
 async function returnTicket(db: Database, uploadKey: string) {
-  const [ticket] = await db.delete(uploadTickets).where(eq(uploadTickets.uploadKey, uploadKey)).returning({ position: uploadTickets.position });
-  return ticket?.position ?? null;
+  await db.delete(uploadTickets).where(eq(uploadTickets.uploadKey, uploadKey));
 }
 
 export type UploadRequest = { fileName: string; size: number; contentType: string };
@@ -331,13 +330,19 @@ export async function startPhotoUpload(db: Database, actor: SessionUser, listing
 export async function confirmPhotoUpload(db: Database, actor: SessionUser, listingId: string, upload: { uploadKey: string; fileName: string }) {
   const listing = await managedListing(db, actor, listingId);
   if (!uploadKeyPattern(listing.id).test(upload.uploadKey)) throw new RejectedFileError("This upload does not belong to this listing.");
-  const reservedPosition = await returnTicket(db, upload.uploadKey);
+  // The ticket, and with it the reserved place, is given back only when the photo row holds the place.
+  const [ticket] = await db.select({ position: uploadTickets.position }).from(uploadTickets).where(eq(uploadTickets.uploadKey, upload.uploadKey));
+  const reservedPosition = ticket?.position ?? null;
   const photoId = randomUUID();
-  const accepted = await acceptUploadedPhoto({ uploadKey: upload.uploadKey, destinationPrefix: `listings/${listing.id}/photos/${photoId}` });
+  const accepted = await acceptUploadedPhoto({ uploadKey: upload.uploadKey, destinationPrefix: `listings/${listing.id}/photos/${photoId}` }).catch(async (error) => {
+    await returnTicket(db, upload.uploadKey);
+    throw error;
+  });
   try {
     const [photo] = await db.transaction(async (tx) => {
       // Serialises concurrent confirmations of one listing, so positions and the limit hold.
       await tx.execute(sql`select id from ${listings} where ${listings.id} = ${listing.id} for update`);
+      await tx.delete(uploadTickets).where(eq(uploadTickets.uploadKey, upload.uploadKey));
       const [{ photos }] = await tx.select({ photos: count() }).from(listingPhotos).where(eq(listingPhotos.listingId, listing.id));
       if (photos >= PHOTOS_PER_LISTING) throw new RejectedFileError(`A listing holds up to ${PHOTOS_PER_LISTING} photos; delete one first.`);
       // A ticket that expired before its confirmation reserved nothing any more: such a photo goes last.
@@ -360,6 +365,7 @@ export async function confirmPhotoUpload(db: Database, actor: SessionUser, listi
     await reindexIfListed(listing);
     return photoView(photo);
   } catch (error) {
+    await returnTicket(db, upload.uploadKey);
     await deleteObjects([accepted.thumbnailKey, accepted.largeKey]);
     throw error;
   }
