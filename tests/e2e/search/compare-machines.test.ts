@@ -92,6 +92,24 @@ describe("comparing machines", () => {
     await context.close();
   }, 120_000);
 
+  it("keeps the compare boxes usable in the phone rows, the tablet cards and the desktop list view", async () => {
+    for (const size of [
+      { name: "phone", width: 390, height: 844, query: "" },
+      { name: "tablet", width: 820, height: 1180, query: "" },
+      { name: "desktop-list", width: 1280, height: 900, query: "&view=list" },
+    ]) {
+      const { context, page } = await newRecordedPage(browser, size);
+      await page.goto(`/machines?q=${word}${size.query}`);
+      const box = page.getByLabel(`Compare ${word} Tight 330`);
+      await box.check();
+      expect(await box.isChecked()).toBe(true);
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+      expect(overflow, `the search page scrolls sideways at ${size.name} size`).toBeLessThanOrEqual(0);
+      await shoot(page, `compare-search-results-${size.name}`);
+      await context.close();
+    }
+  }, 90_000);
+
   it("is a shareable link: public machines for anyone, unavailable for withdrawn and unpublished ones, at three sizes", async () => {
     const link = `/compare?m=${tight.listing.slug}&m=${loose.listing.slug}&m=${withdrawnSlug}&m=${draftSlug}`;
     for (const size of [
