@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { createTestUser, signInCookie } from "../../support/accounts";
-import { listingsOfSeller, postForm, validListingFields } from "../../support/listings";
+import { listingsOfSeller, postForm, tradeSpecFields, validListingFields } from "../../support/listings";
 
 const decode = (html: string) => html.replace(/&#x27;|&#39;/g, "'").replace(/&quot;/g, '"').replace(/&amp;/g, "&");
 const long = (length: number) => "x".repeat(length);
@@ -73,5 +73,20 @@ describe("the listing form rejects every field's bad value with its message and 
     expect([row.swingOverBedMm, row.distanceBetweenCentresMm, row.spindleBoreMm]).toEqual([330.2, 1016, 38.1]);
     expect(row.weightKg).toBe(780);
     expect(row.motorPowerKw).toBe(2.237);
+  });
+
+  it("stores the trade's figures, and a lathe's own ones only for lathes", async () => {
+    const millSeller = await createTestUser({ roles: ["seller"] });
+    const cookie = await signInCookie(millSeller.email, millSeller.password);
+    const lathe = await postForm("/sell/new", cookie, validListingFields({ ...tradeSpecFields }));
+    expect(lathe.status).toBe(302);
+    const mill = await postForm("/sell/new", cookie, validListingFields({ ...tradeSpecFields, category: "milling_machine", make: "Rocholt" }));
+    expect(mill.status).toBe(302);
+    const rows = await listingsOfSeller(millSeller.id);
+    const latheRow = rows.find((row) => row.category === "centre_lathe")!;
+    const millRow = rows.find((row) => row.category === "milling_machine")!;
+    expect(latheRow).toMatchObject({ supplyVoltage: 400, supplyPhases: 3, supplyFrequencyHz: 50, spindleSpeedMinRpm: 40, spindleSpeedMaxRpm: 2000, tailstockTaper: "Morse taper 3", threadPitchMinMm: 0.25, threadPitchMaxMm: 7, threadTpiMin: 4, threadTpiMax: 56, swingOverCrossSlideMm: 170, footprintLengthMm: 1800, footprintWidthMm: 800 });
+    // A mill keeps its supply, speeds and footprint, and no tailstock, cross-slide or screw-cutting figures.
+    expect(millRow).toMatchObject({ supplyVoltage: 400, spindleSpeedMaxRpm: 2000, footprintWidthMm: 800, tailstockTaper: null, threadPitchMinMm: null, threadTpiMax: null, swingOverCrossSlideMm: null });
   });
 });
