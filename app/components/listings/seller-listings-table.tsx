@@ -15,6 +15,7 @@ import { listingStatuses } from "~/modules/listings/statuses";
 import { formatMoney } from "~/modules/units/format";
 import { StatusBadge } from "./status-badge";
 import { formatDate } from "~/modules/units/dates";
+import { bookingStatusLabels, type BookingStatus } from "~/modules/inspections/rules";
 
 export type SellerListingRow = {
   id: string;
@@ -29,14 +30,21 @@ export type SellerListingRow = {
   coverUrl: string | null;
   inquiries: number;
   watchers: number;
+  views: number;
+  grade: string | null;
+  bookingStatus: BookingStatus | null;
+  createdAt: string;
   updatedAt: string;
 };
+
+/** A booking in one of these states is under way: no second "Book an inspection" is offered. */
+const bookingUnderWay: BookingStatus[] = ["awaiting_payment", "paid", "accepted", "report_filed"];
 
 const column = createColumnHelper<SellerListingRow>();
 
 /** The seller's listings: sortable columns, a status filter and a search over make, model and place. */
 export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
-  const [sorting, setSorting] = useState<SortingState>([{ id: "updatedAt", desc: true }]);
+  const [sorting, setSorting] = useState<SortingState>([{ id: "createdAt", desc: true }]);
   const [search, setSearch] = useState("");
   const [status, setStatus] = useState("");
 
@@ -70,8 +78,41 @@ export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
         cell: ({ row }) => <span className="tabular whitespace-nowrap">{formatMoney(row.original.priceMinor, row.original.currency)}</span>,
       }),
       column.accessor((row) => `${row.city}, ${countryName(row.country)}`, { id: "place", header: "Location" }),
+      column.accessor((row) => row.grade ?? "", {
+        id: "verification",
+        header: "Verification",
+        cell: ({ row }) =>
+          row.original.grade ? (
+            <span className="whitespace-nowrap font-semibold text-within">Verified · grade {row.original.grade}</span>
+          ) : (
+            <span className="whitespace-nowrap text-ink-500">Not yet verified</span>
+          ),
+      }),
+      column.accessor((row) => row.bookingStatus ?? "", {
+        id: "inspection",
+        header: "Inspection",
+        cell: ({ row }) => {
+          const { bookingStatus, status, slug, title } = row.original;
+          const canBook = status === "published" && !(bookingStatus && bookingUnderWay.includes(bookingStatus));
+          return (
+            <div className="min-w-36 space-y-1">
+              <p className="text-sm text-ink-700">{bookingStatus ? bookingStatusLabels[bookingStatus] : "None booked"}</p>
+              {canBook ? (
+                <Link to={`/machines/${slug}/book`} className="text-sm font-semibold text-ink-900 underline underline-offset-2" aria-label={`Book an inspection of ${title}`}>
+                  Book an inspection
+                </Link>
+              ) : null}
+            </div>
+          );
+        },
+      }),
+      column.accessor("views", { header: "Views", cell: ({ getValue }) => <span className="tabular">{getValue()}</span> }),
       column.accessor("inquiries", { header: "Questions", cell: ({ getValue }) => <span className="tabular">{getValue()}</span> }),
       column.accessor("watchers", { header: "Watching", cell: ({ getValue }) => <span className="tabular">{getValue()}</span> }),
+      column.accessor("createdAt", {
+        header: "Listed",
+        cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDate(getValue())}</span>,
+      }),
       column.accessor("updatedAt", {
         header: "Last change",
         cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDate(getValue())}</span>,

@@ -622,3 +622,16 @@ export function declareInspectionWorkers(getDb: () => Database) {
     await reviewHeldShares(getDb());
   }, undefined, { cron: "17 6 * * *" });
 }
+
+/** Each listing's latest booking status (by when it was made), for the seller's dashboard; no buyer or inspector detail. */
+export async function latestBookingStatusOfListings(db: Database, listingIds: string[]) {
+  const found = new Map<string, BookingStatus>();
+  if (!listingIds.length) return found;
+  const rows = await db
+    .selectDistinctOn([bookings.listingId], { listingId: bookings.listingId, status: bookings.status })
+    .from(bookings)
+    .where(inArray(bookings.listingId, listingIds))
+    .orderBy(bookings.listingId, desc(bookings.createdAt));
+  for (const row of rows) found.set(row.listingId, row.status);
+  return found;
+}

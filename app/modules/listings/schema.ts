@@ -194,6 +194,20 @@ export const watchDigests = pgTable("watch_digests", {
   digestsOff: boolean("digests_off").notNull().default(false),
 });
 
+// Views of a public listing page: one counter per listing and day, so a busy page adds no row per view.
+// Bots and the listing's own seller are not counted.
+export const listingDailyViews = pgTable(
+  "listing_daily_views",
+  {
+    listingId: uuid("listing_id")
+      .notNull()
+      .references(() => listings.id, { onDelete: "cascade" }),
+    day: text("day").notNull(),
+    views: integer("views").notNull().default(0),
+  },
+  (table) => [primaryKey({ columns: [table.listingId, table.day] })],
+);
+
 export type Listing = typeof listings.$inferSelect;
 export type ListingPhoto = typeof listingPhotos.$inferSelect;
 export type ListingDocument = typeof listingDocuments.$inferSelect;

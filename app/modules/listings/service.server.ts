@@ -29,7 +29,7 @@ import { powerToKilowatts, weightToKilograms } from "~/modules/units/weight-powe
 import { isLathe, labelOf, machineCategories } from "./catalogue";
 import type { ListingStatus } from "./statuses";
 import { InquiryEmail } from "./emails/inquiry";
-import { listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
+import { listingDailyViews, listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
 import type { ListingFormValues } from "./validation";
 import { WATCHES_PER_USER } from "./watchlist.server";
 
@@ -233,7 +233,7 @@ export async function getListingForEditing(db: Database, actor: SessionUser, lis
   return { listing, photos: await photosOf(db, listing.id), documents: await documentsOf(db, listing.id) };
 }
 
-/** Every listing of one seller, newest first, for the dashboard table. */
+/** Every listing of one seller, newest first (by when it was made), for the dashboard table. */
 export async function listSellerListings(db: Database, seller: SessionUser) {
   requireSeller(seller);
   const cover = db
@@ -247,12 +247,13 @@ export async function listSellerListings(db: Database, seller: SessionUser) {
       coverKey: cover.thumbnailKey,
       inquiries: sql<number>`(select count(*)::int from ${listingInquiries} where ${listingInquiries.listingId} = ${listings.id})`,
       watchers: sql<number>`(select count(*)::int from ${listingWatches} where ${listingWatches.listingId} = ${listings.id})`,
+      views: sql<number>`(select coalesce(sum(${listingDailyViews.views}), 0)::int from ${listingDailyViews} where ${listingDailyViews.listingId} = ${listings.id})`,
     })
     .from(listings)
     .leftJoin(cover, eq(cover.listingId, listings.id))
     .where(eq(listings.sellerId, seller.id))
-    .orderBy(desc(listings.updatedAt));
-  return rows.map(({ listing, coverKey, inquiries, watchers }) => ({
+    .orderBy(desc(listings.createdAt), desc(listings.id));
+  return rows.map(({ listing, coverKey, inquiries, watchers, views }) => ({
     id: listing.id,
     slug: listing.slug,
     title: machineTitle(listing),
@@ -265,6 +266,8 @@ export async function listSellerListings(db: Database, seller: SessionUser) {
     coverUrl: coverKey ? fileUrl(coverKey) : null,
     inquiries,
     watchers,
+    views,
+    createdAt: listing.createdAt.toISOString(),
     updatedAt: listing.updatedAt.toISOString(),
   }));
 }
@@ -449,6 +452,14 @@ export async function deleteDocument(db: Database, actor: SessionUser, listingId
 }
 
 // ————— Public pages —————
+
+/** One more view of a public listing today: a counter per listing and day (callers leave out bots and the seller). */
+export async function countListingView(db: Database, listingId: string, now = new Date()) {
+  await db
+    .insert(listingDailyViews)
+    .values({ listingId, day: now.toISOString().slice(0, 10), views: 1 })
+    .onConflictDoUpdate({ target: [listingDailyViews.listingId, listingDailyViews.day], set: { views: sql`${listingDailyViews.views} + 1` } });
+}
 
 const publicStatuses: ListingStatus[] = ["published", "sold"];
 

@@ -1,6 +1,7 @@
 import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
 import { lazy, Suspense } from "react";
 import { data, Form, Link, useNavigation } from "react-router";
+import { isbot } from "isbot";
 import { z } from "zod";
 import { PhotoGallery } from "~/components/listings/photo-gallery";
 import { StatusBadge } from "~/components/listings/status-badge";
@@ -9,7 +10,7 @@ import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/compone
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
 import { countryName, isLathe, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
-import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
+import { countListingView, getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
 import { MachineHistorySection } from "~/components/machines/machine-history";
 import { RebuildSection } from "~/components/rebuilds/rebuild-panel";
@@ -37,6 +38,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
+  if (isNewView(request) && found.listing.status === "published" && !found.isOwner) await countListingView(context.get(databaseContext), found.listing.id);
   const db = context.get(databaseContext);
   // Independent reads: sent together rather than one after another.
   const [accuracy, rebuild, history] = await Promise.all([
@@ -47,6 +49,15 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   // The question form's limits are read from its schema here, so that the page's script carries no schema.
   const inquiryConstraint: InquiryConstraint | null = viewer ? getZodConstraint(inquiryFormSchema) : null;
   return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer), inquiryConstraint };
+}
+
+/** A person's arrival at the page: not a robot, and not this page reloaded or revalidated after its own forms. */
+function isNewView(request: Request) {
+  const userAgent = request.headers.get("user-agent") ?? "";
+  if (!userAgent || isbot(userAgent)) return false;
+  const referer = URL.parse(request.headers.get("referer") ?? "");
+  const here = new URL(request.url);
+  return !(referer && referer.origin === here.origin && referer.pathname === here.pathname.replace(/\.data$/, ""));
 }
 
 const otherIntents = z.object({ intent: z.enum(["watch", "unwatch"]), listingId: z.uuid() });

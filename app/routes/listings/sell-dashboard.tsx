@@ -2,7 +2,9 @@ import { ButtonLink, Card } from "~/components/ui";
 import { SellerListingsTable } from "~/components/listings/seller-listings-table";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, hasRole } from "~/modules/accounts/guards.server";
+import { latestBookingStatusOfListings } from "~/modules/inspections/bookings.server";
 import { listSellerListings } from "~/modules/listings/service.server";
+import { currentReportsForListings } from "~/modules/reports/service.server";
 import type { Route } from "./+types/sell-dashboard";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sell a machine — Tenthmark" }];
@@ -11,7 +13,15 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   // Visitors and buyers see why and how to sell; sellers see their listings.
   if (!user || !(hasRole(user, "seller") || hasRole(user, "admin"))) return { seller: null, signedIn: Boolean(user), listings: [], notice: null };
-  const listings = await listSellerListings(context.get(databaseContext), user);
+  const db = context.get(databaseContext);
+  const own = await listSellerListings(db, user);
+  const ids = own.map((listing) => listing.id);
+  const [reportsById, bookingsById] = await Promise.all([currentReportsForListings(db, ids), latestBookingStatusOfListings(db, ids)]);
+  const listings = own.map((listing) => ({
+    ...listing,
+    grade: reportsById.get(listing.id)?.grade ?? null,
+    bookingStatus: bookingsById.get(listing.id) ?? null,
+  }));
   return { seller: { name: user.name, emailVerified: user.emailVerified }, signedIn: true, listings, notice: new URL(request.url).searchParams.get("notice") };
 }
 

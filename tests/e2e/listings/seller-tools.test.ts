@@ -4,9 +4,9 @@ import { mkdirSync } from "node:fs";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestUser, signInCookie, signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { appOrigin, launchBrowser, newRecordedPage } from "../../support/browser";
 import { jpegWithGps } from "../../support/images";
-import { createListingAs, listingRow, postForm, uploadFileAs } from "../../support/listings";
+import { createListingAs, listingRow, postForm, uploadFileAs, validListingFields } from "../../support/listings";
 
 const shots = process.env.SCREENSHOT_DIR ?? "/tmp/seller-tools-screenshots";
 const sizes = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
@@ -100,5 +100,45 @@ describe("a seller's tools", () => {
       expect(await visit.page.content()).not.toContain("/sell/listings/");
       await visit.context.close();
     }
+  });
+
+  it("shows each listing's verification, booking, views, watchers and questions on the dashboard, newest first", { timeout: 150_000 }, async () => {
+    const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
+    const older = await publishedListingOf(seller, { model: "ML 190" });
+    const newer = await publishedListingOf(seller, { model: "ML 450" });
+    // The older one changed last: the list is still newest first, by when each was listed.
+    await postForm(`/sell/listings/${older.listingId}`, older.cookie, { ...validListingFields({ model: "ML 190" }), price: "8800" });
+
+    // A buyer's visit counts; the seller's own visit and a crawler's do not.
+    const buyer = await createTestUser();
+    const visit = await newRecordedPage(browser);
+    // Headless Chromium names itself in its user agent, and is rightly taken for a robot: this buyer's does not.
+    await visit.context.setExtraHTTPHeaders({ "user-agent": "Mozilla/5.0 (X11; Linux x86_64) AppleWebKit/537.36 (KHTML, like Gecko) Chrome/130.0 Safari/537.36" });
+    await signInPage(visit.page, buyer.email, buyer.password, `/machines/${newer.slug}`);
+    await visit.page.getByRole("heading", { level: 1 }).waitFor();
+    await visit.page.getByRole("button", { name: "☆ Watch this machine" }).click();
+    await visit.page.getByRole("button", { name: "★ Watching — stop" }).waitFor();
+    await visit.context.close();
+    await fetch(`${appOrigin}/machines/${newer.slug}`, { headers: { "user-agent": "Mozilla/5.0 (compatible; Googlebot/2.1; +http://www.google.com/bot.html)" } });
+    await fetch(`${appOrigin}/machines/${newer.slug}`, { headers: { cookie: newer.cookie, "user-agent": "Mozilla/5.0 (X11; Linux x86_64) Chrome/130.0" } });
+
+    const { context, page } = await newRecordedPage(browser);
+    await signInPage(page, seller.email, seller.password, "/sell");
+    const rows = page.locator("tbody tr[data-listing-id]");
+    await rows.first().waitFor();
+    expect(await rows.evaluateAll((found) => found.map((row) => row.getAttribute("data-listing-id")))).toEqual([newer.listingId, older.listingId]);
+    const newest = page.locator(`tr[data-listing-id="${newer.listingId}"]`);
+    const cells = await newest.locator("td").allTextContents();
+    const header = await page.locator("thead th").allTextContents();
+    const cell = (name: string) => cells[header.findIndex((text) => text.startsWith(name))];
+    expect(cell("Verification")).toBe("Not yet verified");
+    expect(cell("Inspection")).toContain("None booked");
+    expect(cell("Views")).toBe("1");
+    expect(cell("Watching")).toBe("1");
+    expect(cell("Questions")).toBe("0");
+    await screenshots(page, "dashboard");
+    await newest.getByRole("link", { name: /Book an inspection/ }).click();
+    await page.waitForURL((url) => url.pathname === `/machines/${newer.slug}/book`);
+    await context.close();
   });
 });
