@@ -32,6 +32,7 @@ export default [
   // Listings: buyers browse, sellers manage
   route("compare", "routes/listings/compare.tsx"),
   route("machines/:slug", "routes/listings/machine.tsx"),
+  route("sellers/:publicId", "routes/listings/seller.tsx"),
   route("sell", "routes/listings/sell-dashboard.tsx"),
   route("sell/new", "routes/listings/sell-new.tsx"),
   route("sell/listings/:listingId", "routes/listings/sell-edit.tsx"),

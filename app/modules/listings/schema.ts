@@ -208,6 +208,14 @@ export const listingDailyViews = pgTable(
   (table) => [primaryKey({ columns: [table.listingId, table.day] })],
 );
 
+// A seller's public page address: a random id of its own, so no page shows the account's internal id.
+export const sellerPages = pgTable("seller_pages", {
+  userId: text("user_id")
+    .primaryKey()
+    .references(() => user.id, { onDelete: "cascade" }),
+  publicId: uuid("public_id").notNull().unique().defaultRandom(),
+});
+
 export type Listing = typeof listings.$inferSelect;
 export type ListingPhoto = typeof listingPhotos.$inferSelect;
 export type ListingDocument = typeof listingDocuments.$inferSelect;

@@ -29,7 +29,7 @@ import { powerToKilowatts, weightToKilograms } from "~/modules/units/weight-powe
 import { isLathe, labelOf, machineCategories } from "./catalogue";
 import type { ListingStatus } from "./statuses";
 import { InquiryEmail } from "./emails/inquiry";
-import { listingDailyViews, listingDocuments, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
+import { listingDailyViews, listingDocuments, sellerPages, listingInquiries, listingPhotos, listings, listingWatches, uploadTickets, type Listing } from "./schema";
 import type { ListingFormValues } from "./validation";
 import { WATCHES_PER_USER } from "./watchlist.server";
 
@@ -489,11 +489,65 @@ export async function getPublicListing(db: Database, slug: string, viewer: Sessi
   return {
     listing: { ...shown, serialNumber, title: machineTitle(listing) },
     sellerName: row.sellerName,
+    sellerPageId: await sellerPublicId(db, listing.sellerId),
     photos,
     documents,
     isManager,
     isOwner,
     isWatching: Boolean(watch),
+  };
+}
+
+/** The seller's public page id, made on first use. */
+async function sellerPublicId(db: Database, sellerId: string) {
+  const [found] = await db.select({ publicId: sellerPages.publicId }).from(sellerPages).where(eq(sellerPages.userId, sellerId));
+  if (found) return found.publicId;
+  await db.insert(sellerPages).values({ userId: sellerId }).onConflictDoNothing();
+  const [made] = await db.select({ publicId: sellerPages.publicId }).from(sellerPages).where(eq(sellerPages.userId, sellerId));
+  return made!.publicId;
+}
+
+const SELLER_PAGE_LISTINGS = 60;
+
+/** A seller's public page: their name, town (that of their latest public listing) and public listings, newest first. */
+export async function getSellerPage(db: Database, publicId: string) {
+  if (!/^[0-9a-f-]{36}$/i.test(publicId)) return null;
+  const [seller] = await db
+    .select({ id: user.id, name: user.name })
+    .from(sellerPages)
+    .innerJoin(user, eq(user.id, sellerPages.userId))
+    .where(eq(sellerPages.publicId, publicId));
+  if (!seller) return null;
+  const cover = db
+    .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
+    .from(listingPhotos)
+    .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
+    .as("cover");
+  const rows = await db
+    .select({ listing: listings, coverKey: cover.thumbnailKey })
+    .from(listings)
+    .leftJoin(cover, eq(cover.listingId, listings.id))
+    .where(and(eq(listings.sellerId, seller.id), inArray(listings.status, publicStatuses)))
+    .orderBy(desc(listings.publishedAt), desc(listings.id))
+    .limit(SELLER_PAGE_LISTINGS);
+  if (!rows.length) return null;
+  const latest = rows[0].listing;
+  return {
+    name: seller.name,
+    town: { city: latest.city, region: latest.region, country: latest.country },
+    listings: rows.map(({ listing, coverKey }) => ({
+      id: listing.id,
+      slug: listing.slug,
+      title: machineTitle(listing),
+      category: listing.category,
+      status: listing.status,
+      year: listing.year,
+      city: listing.city,
+      country: listing.country,
+      priceMinor: listing.priceMinor,
+      currency: listing.currency,
+      coverUrl: coverKey ? fileUrl(coverKey) : null,
+    })),
   };
 }
 

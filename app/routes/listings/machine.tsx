@@ -126,7 +126,12 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
             {loaderData.accuracy ? <Badge tone="within">Verified · grade {loaderData.accuracy.grade}</Badge> : <Badge tone="caution">Not yet verified</Badge>}
             {listing.status !== "published" ? <StatusBadge status={listing.status} /> : null}
           </div>
-          <p className="mt-1 text-sm text-ink-500">Offered by {sellerName}</p>
+          <p className="mt-1 text-sm text-ink-500">
+            Offered by{" "}
+            <Link to={`/sellers/${loaderData.sellerPageId}`} className="font-semibold text-ink-800 underline underline-offset-2">
+              {sellerName}
+            </Link>
+          </p>
           {isOwner ? (
             <ButtonLink to={`/sell/listings/${listing.id}`} variant="secondary" size="sm" className="mt-4" data-testid="edit-own-listing">
               Edit

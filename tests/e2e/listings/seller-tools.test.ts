@@ -141,4 +141,25 @@ describe("a seller's tools", () => {
     await page.waitForURL((url) => url.pathname === `/machines/${newer.slug}/book`);
     await context.close();
   });
+
+  it("links Offered by to the seller's public page: name, town, machines and how many are verified, no e-mail or account id", { timeout: 120_000 }, async () => {
+    const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
+    const first = await publishedListingOf(seller, { model: "ML 190", city: "Tindvik" });
+    await publishedListingOf(seller, { model: "ML 450", city: "Tindvik" });
+    const { context, page } = await newRecordedPage(browser);
+    await page.goto(`/machines/${first.slug}`);
+    await page.getByRole("link", { name: "Brekke Maskin" }).click();
+    await page.waitForURL((url) => /^\/sellers\/[0-9a-f-]{36}$/.test(url.pathname));
+    await page.getByRole("heading", { level: 1, name: "Brekke Maskin" }).waitFor();
+    expect(await page.getByText("Tindvik, Vestmark, Norway").count()).toBe(1);
+    expect(await page.getByTestId("seller-counts").textContent()).toBe("2 machines on show, 0 verified by a certified inspector");
+    expect(await page.getByRole("list", { name: "Machines offered by Brekke Maskin" }).getByRole("listitem").count()).toBe(2);
+    const html = await page.content();
+    expect(html).not.toContain(seller.email);
+    expect(html).not.toContain(seller.id);
+    expect(page.url()).not.toContain(seller.id);
+    await screenshots(page, "seller-page");
+    expect((await page.goto("/sellers/00000000-0000-4000-8000-000000000000"))?.status()).toBe(404);
+    await context.close();
+  });
 });

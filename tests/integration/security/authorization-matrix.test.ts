@@ -12,7 +12,7 @@ import routeConfig from "~/routes";
 import { getDatabase } from "~/db/client.server";
 import { acceptBooking, createBooking } from "~/modules/inspections/bookings.server";
 import { bookings, inspectorSlots, machineSites } from "~/modules/inspections/schema";
-import { listingDocuments, listingPhotos, listings } from "~/modules/listings/schema";
+import { listingDocuments, listingPhotos, listings, sellerPages } from "~/modules/listings/schema";
 import { deviationColumnMappings, reportDrafts, reports } from "~/modules/reports/schema";
 import { savedSearches } from "~/modules/search/saved-searches/schema";
 import { createTestUser, signInCookie, testAppOrigin, type TestUser } from "../../support/accounts";
@@ -53,6 +53,7 @@ type Fixture = {
   savedSearchId: string;
   freeSlotId: string; // inspector A's
   inspectorAPublicId: string;
+  sellerAPageId: string;
 };
 let fx: Fixture;
 
@@ -121,6 +122,7 @@ beforeAll(async () => {
     people,
     cookies,
     inspectorAPublicId: await publicIdOf(people.inspectorA.id),
+    sellerAPageId: (await db.insert(sellerPages).values({ userId: people.sellerA.id }).onConflictDoUpdate({ target: sellerPages.userId, set: { userId: people.sellerA.id } }).returning())[0]!.publicId,
     publishedSlug: filed.listing.slug,
     publishedListingId: filed.listing.id,
     draftListingId,
@@ -341,6 +343,8 @@ const table: Record<string, RouteRow> = {
       },
     ],
   },
+  // A seller's public page, by its own public id: anyone may read it; an unknown id is 404 below.
+  "sellers/:publicId": { get: everyone(200), actions: "none" },
   "machines/:slug (a draft)": {
     get: by({ rest: 404, sellerA: 200, admin: 200 }),
     getParams: () => ({ slug: fx.draftSlug }),
@@ -746,6 +750,7 @@ function defaultParams(): Params {
     slug: fx.publishedSlug,
     listingId: fx.draftListingId,
     inspectorId: fx.inspectorAPublicId,
+    publicId: fx.sellerAPageId,
     bookingId: fx.bookingId,
     reportId: fx.reportId,
     photoId: randomId(),
