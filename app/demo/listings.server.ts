@@ -5,7 +5,7 @@ import { getDatabase } from "~/db/client.server";
 import { makePhotoVariants } from "~/modules/files/images.server";
 import { writeObject } from "~/modules/files/storage.server";
 import { drawMachinePhoto, paints, type MachineDrawing } from "./listing-photos.server";
-import { listingPhotos, listings } from "~/modules/listings/schema";
+import { listingPhotos, listings, sellerPages } from "~/modules/listings/schema";
 import { makeSlug } from "~/modules/listings/service.server";
 
 /** The sellers of the demo listings, by the key the seed knows their accounts by. */
@@ -436,6 +436,7 @@ export async function seedDemoListings(sellers: Record<DemoSellerKey, string>, n
     const listedAt = new Date(now.getTime() - daysAgo * 86_400_000);
     const wasPublished = columns.status !== "draft";
     const endedAt = new Date(listedAt.getTime() + Math.max(1, Math.round(daysAgo / 2)) * 86_400_000);
+    await db.insert(sellerPages).values({ userId: sellers[seller] }).onConflictDoNothing();
     const [listing] = await db
       .insert(listings)
       .values({

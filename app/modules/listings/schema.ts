@@ -112,6 +112,8 @@ export const listingPhotos = pgTable(
     height: integer("height").notNull(),
     originalName: text("original_name").notNull(),
     originalBytes: integer("original_bytes").notNull(),
+    /** What the photo shows, in the seller's words; shown under it in the gallery. */
+    caption: text("caption"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [index("listing_photos_listing_idx").on(table.listingId, table.position)],

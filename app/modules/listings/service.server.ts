@@ -131,6 +131,7 @@ function requireSeller(actor: SessionUser) {
 export async function createListing(db: Database, seller: SessionUser, values: ListingFormValues) {
   requireSeller(seller);
   const columns = columnsFrom(values);
+  await db.insert(sellerPages).values({ userId: seller.id }).onConflictDoNothing();
   const [created] = await db
     .insert(listings)
     .values({ ...columns, sellerId: seller.id, slug: makeSlug(columns) })
@@ -207,6 +208,7 @@ export function photoView(photo: typeof listingPhotos.$inferSelect) {
     width: photo.width,
     height: photo.height,
     originalName: photo.originalName,
+    caption: photo.caption,
   };
 }
 
@@ -397,6 +399,17 @@ export async function movePhoto(db: Database, actor: SessionUser, listingId: str
   await reindexIfListed(listing);
 }
 
+/** The seller's caption for one photo; an empty one clears it. */
+export async function setPhotoCaption(db: Database, actor: SessionUser, listingId: string, photoId: string, caption: string) {
+  const listing = await managedListing(db, actor, listingId);
+  const updated = await db
+    .update(listingPhotos)
+    .set({ caption: caption || null })
+    .where(and(eq(listingPhotos.id, photoId), eq(listingPhotos.listingId, listing.id)))
+    .returning({ id: listingPhotos.id });
+  if (!updated.length) notFound();
+}
+
 export async function deletePhoto(db: Database, actor: SessionUser, listingId: string, photoId: string) {
   const listing = await managedListing(db, actor, listingId);
   const [photo] = await db
@@ -498,13 +511,10 @@ export async function getPublicListing(db: Database, slug: string, viewer: Sessi
   };
 }
 
-/** The seller's public page id, made on first use. */
+/** The seller's public page id (made with their first listing; reading a page writes nothing). */
 async function sellerPublicId(db: Database, sellerId: string) {
   const [found] = await db.select({ publicId: sellerPages.publicId }).from(sellerPages).where(eq(sellerPages.userId, sellerId));
-  if (found) return found.publicId;
-  await db.insert(sellerPages).values({ userId: sellerId }).onConflictDoNothing();
-  const [made] = await db.select({ publicId: sellerPages.publicId }).from(sellerPages).where(eq(sellerPages.userId, sellerId));
-  return made!.publicId;
+  return found?.publicId ?? null;
 }
 
 const SELLER_PAGE_LISTINGS = 60;

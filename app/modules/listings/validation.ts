@@ -210,3 +210,7 @@ export const inquiryFormSchema = z.object({
 });
 
 export const documentTitleSchema = safeName({ label: "document title", max: 120 });
+
+export const PHOTO_CAPTION_MAX = 160;
+/** What a photo shows; empty clears it. */
+export const photoCaptionSchema = z.preprocess((value) => value ?? "", safeText({ label: "caption", max: PHOTO_CAPTION_MAX }));

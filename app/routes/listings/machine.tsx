@@ -128,9 +128,13 @@ export default function MachinePage({ loaderData }: Route.ComponentProps) {
           </div>
           <p className="mt-1 text-sm text-ink-500">
             Offered by{" "}
-            <Link to={`/sellers/${loaderData.sellerPageId}`} className="font-semibold text-ink-800 underline underline-offset-2">
-              {sellerName}
-            </Link>
+            {loaderData.sellerPageId ? (
+              <Link to={`/sellers/${loaderData.sellerPageId}`} className="font-semibold text-ink-800 underline underline-offset-2">
+                {sellerName}
+              </Link>
+            ) : (
+              sellerName
+            )}
           </p>
           {isOwner ? (
             <ButtonLink to={`/sell/listings/${listing.id}`} variant="secondary" size="sm" className="mt-4" data-testid="edit-own-listing">

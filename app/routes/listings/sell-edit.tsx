@@ -17,9 +17,10 @@ import {
   getListingForEditing,
   ListingRuleError,
   movePhoto,
+  setPhotoCaption,
   updateListing,
 } from "~/modules/listings/service.server";
-import { listingFormSchema } from "~/modules/listings/validation";
+import { listingFormSchema, PHOTO_CAPTION_MAX, photoCaptionSchema } from "~/modules/listings/validation";
 import type { Route } from "./+types/sell-edit";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data ? `${data.listing.make} ${data.listing.model}` : "Listing"} — Tenthmark` }];
@@ -42,6 +43,7 @@ const otherIntents = z.discriminatedUnion("intent", [
   z.object({ intent: z.enum(["publish", "mark-sold", "withdraw", "delete"]) }),
   z.object({ intent: z.enum(["photo-earlier", "photo-later", "photo-cover", "photo-delete"]), photoId: z.uuid() }),
   z.object({ intent: z.literal("document-delete"), documentId: z.uuid() }),
+  z.object({ intent: z.literal("photo-caption"), photoId: z.uuid(), caption: photoCaptionSchema }),
 ]);
 
 const notices = {
@@ -66,7 +68,12 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   }
 
   const parsed = otherIntents.safeParse(Object.fromEntries(formData));
-  if (!parsed.success) return data({ formResult: null, problem: "That request was not understood. Reload the page and try again." }, { status: 400 });
+  if (!parsed.success) {
+    // A caption the seller typed wrong is theirs to fix (422 with its message); anything else is a stale or tampered page.
+    const captionProblem = formData.get("intent") === "photo-caption" ? parsed.error.issues.find((issue) => issue.path[0] === "caption") : undefined;
+    if (captionProblem) return data({ formResult: null, problem: captionProblem.message }, { status: 422 });
+    return data({ formResult: null, problem: "That request was not understood. Reload the page and try again." }, { status: 400 });
+  }
   const request_ = parsed.data;
   try {
     switch (request_.intent) {
@@ -85,6 +92,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       case "photo-later":
       case "photo-cover":
         await movePhoto(db, seller, params.listingId, request_.photoId, request_.intent.replace("photo-", "") as "earlier" | "later" | "cover");
+        return redirect(`${here}#photos`);
+      case "photo-caption":
+        await setPhotoCaption(db, seller, params.listingId, request_.photoId, request_.caption);
         return redirect(`${here}#photos`);
       case "document-delete":
         await deleteDocument(db, seller, params.listingId, request_.documentId);
@@ -187,6 +197,22 @@ export default function EditListing({ loaderData, actionData }: Route.ComponentP
                           </Badge>
                         ) : null}
                       </div>
+                      <Form method="post" preventScrollReset className="flex items-end gap-1 px-2 pt-2">
+                        <input type="hidden" name="photoId" value={photo.id} />
+                        <label className="min-w-0 flex-1 text-xs font-semibold text-ink-700">
+                          Caption of photo {index + 1}
+                          <input
+                            name="caption"
+                            defaultValue={photo.caption ?? ""}
+                            maxLength={PHOTO_CAPTION_MAX}
+                            placeholder="e.g. Bed ways at the chuck end"
+                            className="mt-1 block w-full rounded-control border border-ink-300 bg-white px-2 py-1 text-sm font-normal text-ink-900"
+                          />
+                        </label>
+                        <Button type="submit" name="intent" value="photo-caption" variant="secondary" size="sm" aria-label={`Save the caption of photo ${index + 1}`}>
+                          Save
+                        </Button>
+                      </Form>
                       <Form method="post" preventScrollReset className="flex flex-wrap items-center gap-1 p-2">
                         <input type="hidden" name="photoId" value={photo.id} />
                         <Button type="submit" name="intent" value="photo-earlier" variant="quiet" size="sm" disabled={index === 0} aria-label={`Move photo ${index + 1} earlier`}>

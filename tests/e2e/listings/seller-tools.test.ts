@@ -162,4 +162,37 @@ describe("a seller's tools", () => {
     expect((await page.goto("/sellers/00000000-0000-4000-8000-000000000000"))?.status()).toBe(404);
     await context.close();
   });
+
+  it("lets the seller caption a photo, and a buyer open it full screen and zoom by keyboard alone", { timeout: 120_000 }, async () => {
+    const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
+    const { listingId, slug } = await publishedListingOf(seller);
+    const { context, page } = await newRecordedPage(browser);
+    await signInPage(page, seller.email, seller.password, `/sell/listings/${listingId}`);
+    await page.getByLabel("Caption of photo 1", { exact: true }).fill("Bed ways at the chuck end, after regrinding");
+    await page.getByRole("button", { name: "Save the caption of photo 1" }).focus();
+    await page.keyboard.press("Enter");
+    await expect.poll(() => page.getByLabel("Caption of photo 1", { exact: true }).inputValue(), { timeout: 15_000 }).toBe("Bed ways at the chuck end, after regrinding");
+    // A caption with a control character is refused with a message, and the saved one stays.
+    await page.getByLabel("Caption of photo 1", { exact: true }).fill("Bed\u0007 ways");
+    await page.getByRole("button", { name: "Save the caption of photo 1" }).click();
+    await page.getByRole("alert").filter({ hasText: "caption" }).waitFor();
+    await context.close();
+
+    const visit = await newRecordedPage(browser);
+    await visit.page.goto(`/machines/${slug}`);
+    await visit.page.getByText("Bed ways at the chuck end, after regrinding").waitFor();
+    await screenshots(visit.page, "photo-caption");
+    await visit.page.getByRole("button", { name: "Enlarge and zoom" }).focus();
+    await visit.page.keyboard.press("Enter");
+    const zoomIn = visit.page.getByRole("button", { name: "Zoom in" });
+    await zoomIn.waitFor({ timeout: 20_000 });
+    expect(await visit.page.locator(".yarl__slide_description").first().textContent()).toBe("Bed ways at the chuck end, after regrinding");
+    await zoomIn.focus();
+    await visit.page.keyboard.press("Enter");
+    await expect.poll(() => visit.page.getByRole("button", { name: "Zoom out" }).isEnabled(), { timeout: 10_000 }).toBe(true);
+    await screenshots(visit.page, "photo-lightbox");
+    await visit.page.keyboard.press("Escape");
+    await expect.poll(() => zoomIn.count(), { timeout: 10_000 }).toBe(0);
+    await visit.context.close();
+  });
 });

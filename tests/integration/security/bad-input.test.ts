@@ -190,6 +190,7 @@ const targets: Target[] = [
       { weight: 4, arbitrary: oneFieldBroken(validListingFields({ make: "Unchanged" }), listingBreakers) },
       oneFieldBroken({ intent: "photo-delete", photoId: randomUUID() }, { intent: unknownOf(["photo-delete", "photo-earlier", "photo-later", "photo-cover", "save", "publish", "withdraw", "mark-sold", "delete", "document-delete"]), photoId: notAUuid }),
       oneFieldBroken({ intent: "document-delete", documentId: randomUUID() }, { documentId: notAUuid }),
+      oneFieldBroken({ intent: "photo-caption", photoId: randomUUID(), caption: "Bed ways at the chuck end" }, { caption: optionalText(160), photoId: notAUuid }),
       wrongContentType({ intent: "publish" }),
     ),
   },
