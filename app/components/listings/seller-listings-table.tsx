@@ -92,13 +92,13 @@ export function SellerListingsTable({ rows }: { rows: SellerListingRow[] }) {
         id: "inspection",
         header: "Inspection",
         cell: ({ row }) => {
-          const { bookingStatus, status, slug, title } = row.original;
+          const { bookingStatus, status, slug } = row.original;
           const canBook = status === "published" && !(bookingStatus && bookingUnderWay.includes(bookingStatus));
           return (
             <div className="min-w-36 space-y-1">
               <p className="text-sm text-ink-700">{bookingStatus ? bookingStatusLabels[bookingStatus] : "None booked"}</p>
               {canBook ? (
-                <Link to={`/machines/${slug}/book`} className="text-sm font-semibold text-ink-900 underline underline-offset-2" aria-label={`Book an inspection of ${title}`}>
+                <Link to={`/machines/${slug}/book`} className="text-sm font-semibold text-ink-900 underline underline-offset-2">
                   Book an inspection
                 </Link>
               ) : null}
