@@ -64,6 +64,7 @@ export default [
   route("admin/payments", "routes/inspections/admin-payments.tsx"),
 
   // Accuracy reports: the inspector's entry, review and signing; public reports, certificates, verification
+  route("inspector/bookings/:bookingId/rebuild", "routes/inspections/inspector-rebuild.ts"),
   route("inspector/bookings/:bookingId/report", "routes/reports/entry.tsx"),
   route("inspector/bookings/:bookingId/report/draft", "routes/reports/draft.ts"),
   route("inspector/bookings/:bookingId/report/photos", "routes/reports/setup-photos.ts"),

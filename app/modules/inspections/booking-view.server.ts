@@ -69,7 +69,7 @@ function forInspector(row: Row) {
     inspectorName: row.inspectorName,
     buyerName: row.buyerName,
     /** Once the visit is taken on, the inspector may record the machine's rebuild for its seller. */
-    rebuildUrl: VISIT_TAKEN_ON.includes(booking.status) ? `/sell/listings/${booking.listingId}/rebuild` : null,
+    rebuildUrl: VISIT_TAKEN_ON.includes(booking.status) ? `/inspector/bookings/${booking.id}/rebuild` : null,
   };
 }
 

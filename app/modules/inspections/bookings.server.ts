@@ -1,6 +1,7 @@
 // Paid inspection bookings: the hold on an inspector's time, checkout, acceptance, decline and cancellation
 // with the refund rules, the inspector's payout, and the lists behind the dashboards.
 import { and, asc, desc, eq, inArray, isNotNull, isNull, lt, or, sql } from "drizzle-orm";
+import { z } from "zod";
 import { alias } from "drizzle-orm/pg-core";
 import type { Database } from "~/db/client.server";
 import { env } from "~/env.server";
@@ -594,6 +595,19 @@ export async function hasVisitToListing(db: Executor, inspectorId: string, listi
     .where(and(eq(bookings.inspectorId, inspectorId), eq(bookings.listingId, listingId), inArray(bookings.status, [...VISIT_TAKEN_ON])))
     .limit(1);
   return Boolean(row);
+}
+
+/**
+ * The listing of an inspector's own booking whose visit is taken on, for the way from the booking to its rebuild
+ * record (the booking page carries the booking's id only, never the listing's); null for any other booking.
+ */
+export async function listingOfVisit(db: Executor, inspectorId: string, bookingId: string): Promise<string | null> {
+  if (!z.uuid().safeParse(bookingId).success) return null;
+  const [row] = await db
+    .select({ listingId: bookings.listingId })
+    .from(bookings)
+    .where(and(eq(bookings.id, bookingId), eq(bookings.inspectorId, inspectorId), inArray(bookings.status, [...VISIT_TAKEN_ON])));
+  return row?.listingId ?? null;
 }
 
 /** Whether this person is a certified inspector (holds the role an admin grants). */

@@ -31,7 +31,8 @@ describe("an inspector enters a rebuild record", () => {
       await Promise.all([page.waitForURL((url) => url.pathname === `/sell/listings/${listing.id}/rebuild`), page.getByRole("link", { name: "Enter its rebuild record" }).click()]);
       await page.waitForLoadState("networkidle");
       await hydrated(page);
-      expect(await page.textContent("main")).toContain("marked as entered by you");
+      // The address changes as the navigation starts: wait for the record's own words, not the booking page's.
+      await page.locator("main").getByText(/marked as entered by you/).first().waitFor();
       expect(await page.getByRole("button", { name: "Yes, the same machine" }).count()).toBe(0);
 
       // The instrument typed on the record is offered in each test's "Instrument" choice.

@@ -581,6 +581,8 @@ const table: Record<string, RouteRow> = {
       },
     ],
   },
+  // The way from the booking to its machine's rebuild record: only for the inspector whose visit it is.
+  "inspector/bookings/:bookingId/rebuild": { get: by({ ...INSPECTOR_ONLY, inspectorA: "→/sell/listings/", inspectorB: 404 }), actions: "none" },
   "admin/payments": {
     get: by(STAFF_ONLY),
     actions: [
