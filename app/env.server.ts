@@ -81,6 +81,9 @@ export const environmentSchema = z.object({
         }
       }
     }),
+  // Sign-in requests per minute from one client address before the flood guard answers 429 (all of them
+  // share one count where TRUSTED_PROXIES is unset). `npm test` raises it: every test signs in from 127.0.0.1.
+  SIGN_IN_REQUESTS_PER_MINUTE: z.coerce.number().int().min(10).max(100_000).default(300),
   // Job queue (pg-boss) schema in DATABASE_URL; tests may run a queue of their own in another schema.
   JOB_QUEUE_SCHEMA: z.string().regex(/^[a-z_][a-z0-9_]*$/).default("pgboss"),
   // Set to "false" to run no job workers in this process (e.g. a web-only server).

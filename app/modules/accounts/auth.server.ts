@@ -99,7 +99,7 @@ function createAuth() {
       // Per client address (or one shared bucket when it cannot be known: no TRUSTED_PROXIES, as in local
       // runs): a flood guard. Guessing passwords is limited per account in limits.server.ts.
       customRules: {
-        "/sign-in/email": { window: 60, max: 300 },
+        "/sign-in/email": { window: 60, max: settings.SIGN_IN_REQUESTS_PER_MINUTE },
         "/sign-up/email": { window: 60, max: 120 },
         "/request-password-reset": { window: 60, max: 60 },
         "/send-verification-email": { window: 60, max: 60 },

@@ -54,9 +54,9 @@ describe("filing an accuracy report on a tablet", () => {
     await horizontal.getByLabel("Far, spindle at 0°", { exact: true }).fill("-2");
     await horizontal.getByLabel("Far, turned 180°", { exact: true }).fill("−2");
     const verdict = horizontal.getByTestId("live-verdict");
-    await expect(verdict.getAttribute("data-pass")).resolves.toBe("false");
-    await expect(verdict.textContent()).resolves.toMatch(/ratio 0\.13.*Leans the wrong way/s);
-    await expect(page.getByTestId("preview-bar").textContent()).resolves.toMatch(/grade C · 16 of 16 required/);
+    await expect.poll(() => verdict.getAttribute("data-pass"), { timeout: 15_000 }).toBe("false");
+    await expect.poll(() => verdict.textContent(), { timeout: 15_000 }).toMatch(/ratio 0\.13.*Leans the wrong way/s);
+    await expect.poll(() => page.getByTestId("preview-bar").textContent(), { timeout: 15_000 }).toMatch(/grade C · 16 of 16 required/);
 
     // The draft reaches the server; a reload brings every reading back.
     await page.getByTestId("save-status").and(page.locator('[data-state="saved"]')).waitFor();

@@ -39,11 +39,11 @@ describe("a milling machine's report", () => {
     await expect(table.getByLabel("Height, row 2, column 3", { exact: true }).inputValue()).resolves.toBe("-5");
 
     const verdict = table.getByTestId("live-verdict");
-    await expect(verdict.getAttribute("data-pass")).resolves.toBe("true");
+    await expect.poll(() => verdict.getAttribute("data-pass"), { timeout: 15_000 }).toBe("true");
     const plot = table.getByTestId("surface-plot");
     await plot.waitFor();
     await expect(plot.getByTestId("zone-width").textContent()).resolves.toMatch(/^Zone \d+(\.\d)? µm wide$/);
-    await expect(page.getByTestId("preview-bar").textContent()).resolves.toMatch(/of 11 required|grade [AB]/);
+    await expect.poll(() => page.getByTestId("preview-bar").textContent(), { timeout: 15_000 }).toMatch(/of 11 required|grade [AB]/);
     await page.getByTestId("save-status").and(page.locator('[data-state="saved"]')).waitFor();
     await screenshotAtEachSize(page, shots, "mill-entry");
 

@@ -67,7 +67,7 @@ describe("a machining centre's positioning tests", () => {
     for (const code of ["V-X-A", "V-X-R", "V-X-B"]) {
       await expect(page.locator(`[data-test-code="${code}"]`).getByTestId("positioning-runs").textContent()).resolves.toContain("11 targets from 0 to 760 mm · 5 runs approaching in +, 5 in −");
     }
-    await expect(x.getByTestId("live-verdict").getAttribute("data-pass")).resolves.toBe("true");
+    await expect.poll(() => x.getByTestId("live-verdict").getAttribute("data-pass"), { timeout: 15_000 }).toBe("true");
 
     // Y: pasted from a spreadsheet with a decimal comma; the mapping from X is offered and adjusted.
     const y = page.locator('[data-test-code="V-Y-A"]');
@@ -96,7 +96,8 @@ describe("a machining centre's positioning tests", () => {
     await screenshots(page, "import-refusal");
     await panel.getByLabel("Paste the table").fill(deviationTable(axes.Z, { decimalComma: true }));
     await panel.getByRole("button", { name: "Accept these runs" }).click();
-    await expect(page.getByTestId("preview-bar").textContent()).resolves.toMatch(/grade [AB]/i);
+    // The grade is scored in a deferred render after the runs land: wait for it.
+    await expect.poll(() => page.getByTestId("preview-bar").textContent(), { timeout: 15_000 }).toMatch(/grade [AB]/i);
 
     // The optional circular test: its table of radial deviations, read with the same kind of mapping.
     const circle = page.locator('[data-test-code="V-XY-CIRC"]');
