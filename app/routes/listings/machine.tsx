@@ -212,9 +212,12 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
     ["Model", listing.model],
     ["Year of manufacture", listing.year ? String(listing.year) : null],
     ["Serial number", listing.serialNumber],
-    ["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null],
+    // Swing and distance between centres size a lathe: "not given" there, left off other machines unless given.
+    ...(lathe ? ([["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null]] as Array<[string, string | null]>) : optional("Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null)),
     ...(lathe ? optional("Swing over the cross-slide", listing.swingOverCrossSlideMm ? formatLength(listing.swingOverCrossSlideMm, units) : null) : []),
-    ["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null],
+    ...(lathe
+      ? ([["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null]] as Array<[string, string | null]>)
+      : optional("Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null)),
     ["Spindle bore", listing.spindleBoreMm ? formatLength(listing.spindleBoreMm, units) : null],
     ...(listing.tableLengthMm ? [["Table", `${formatLength(listing.tableLengthMm, units)}${listing.tableWidthMm ? ` × ${formatLength(listing.tableWidthMm, units)}` : ""}`] as [string, string]] : []),
     ["Spindle nose", listing.spindleNose],

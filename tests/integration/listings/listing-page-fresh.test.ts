@@ -37,3 +37,16 @@ describe("the listing page after an edit or a signed report", () => {
     expect(verified).not.toContain("Not yet verified");
   });
 });
+
+describe("the listing page's specification", () => {
+  it("says a lathe's swing is not given, and leaves a lathe's sizes off a machine of another kind", async () => {
+    const booking = await acceptedBooking();
+    const { slug, id } = booking.listing;
+    await db.update(listings).set({ swingOverBedMm: null, distanceBetweenCentresMm: null }).where(eq(listings.id, id));
+    expect(await page(slug)).toMatch(/Swing over bed<\/dt><dd[^>]*>not given/);
+    await db.update(listings).set({ category: "machining_centre" }).where(eq(listings.id, id));
+    const centre = await page(slug);
+    expect(centre).not.toContain("Swing over bed");
+    expect(centre).not.toContain("Distance between centres");
+  });
+});
