@@ -235,14 +235,19 @@ export async function getListingForEditing(db: Database, actor: SessionUser, lis
   return { listing, photos: await photosOf(db, listing.id), documents: await documentsOf(db, listing.id) };
 }
 
-/** Every listing of one seller, newest first (by when it was made), for the dashboard table. */
-export async function listSellerListings(db: Database, seller: SessionUser) {
-  requireSeller(seller);
-  const cover = db
+/** Each listing's cover (its first photo in the seller's order), as a subquery to join on `listingId`. */
+function coverPhotos(db: Database) {
+  return db
     .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
     .from(listingPhotos)
     .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
     .as("cover");
+}
+
+/** Every listing of one seller, newest first (by when it was made), for the dashboard table. */
+export async function listSellerListings(db: Database, seller: SessionUser) {
+  requireSeller(seller);
+  const cover = coverPhotos(db);
   const rows = await db
     .select({
       listing: listings,
@@ -528,11 +533,7 @@ export async function getSellerPage(db: Database, publicId: string) {
     .innerJoin(user, eq(user.id, sellerPages.userId))
     .where(eq(sellerPages.publicId, publicId));
   if (!seller) return null;
-  const cover = db
-    .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
-    .from(listingPhotos)
-    .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
-    .as("cover");
+  const cover = coverPhotos(db);
   const rows = await db
     .select({ listing: listings, coverKey: cover.thumbnailKey })
     .from(listings)
@@ -568,11 +569,7 @@ export async function browseListings(db: Database, { page }: { page: number }) {
   const [{ total }] = await db.select({ total: count() }).from(listings).where(eq(listings.status, "published"));
   const pageCount = Math.max(1, Math.ceil(total / LISTINGS_PER_PAGE));
   const current = Math.min(Math.max(1, page), pageCount);
-  const cover = db
-    .selectDistinctOn([listingPhotos.listingId], { listingId: listingPhotos.listingId, thumbnailKey: listingPhotos.thumbnailKey })
-    .from(listingPhotos)
-    .orderBy(listingPhotos.listingId, asc(listingPhotos.position), asc(listingPhotos.createdAt))
-    .as("cover");
+  const cover = coverPhotos(db);
   const rows = await db
     .select({ listing: listings, coverKey: cover.thumbnailKey })
     .from(listings)
