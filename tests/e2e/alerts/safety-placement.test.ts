@@ -2,24 +2,19 @@
 // form's review, how scoring works) and nowhere else: not on the home page, the search, a listing, its
 // booking page, the public inspector pages or a published report.
 import { mkdirSync } from "node:fs";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { SAFETY_CAUTIONS, SAFETY_DEFERENCE } from "~/modules/reports/safety";
 import { signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile } from "../../support/browser-per-file";
 import { acceptedBooking } from "../../support/reports";
 
 const shots = process.env.SCREENSHOT_DIR ?? "/tmp/alerts-screenshots";
 const widths = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = chromiumPerFile();
+mkdirSync(shots, { recursive: true });
 
 async function cautionsOn(page: Page, path: string, ready: string) {
   await page.goto(path);
@@ -30,7 +25,7 @@ async function cautionsOn(page: Page, path: string, ready: string) {
 describe("where safety cautions appear", () => {
   it("shows them in full where the work is described and drops them elsewhere", { timeout: 90_000 }, async () => {
     const booking = await acceptedBooking();
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
 
     // In full: every caution and the deference to the manual, local rules and licensed practice.
     const full = (texts: string[]) => {

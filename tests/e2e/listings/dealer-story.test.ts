@@ -1,20 +1,15 @@
 import { randomUUID } from "node:crypto";
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import type { Browser, Cookie, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Cookie, Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { drawLathePhoto, paints } from "~/demo/listing-photos.server";
 import { createTestUser, signInPage } from "../../support/accounts";
-import { appOrigin, isLocal, launchBrowser, newRecordedPage } from "../../support/browser";
+import { appOrigin, isLocal, newRecordedPage } from "../../support/browser";
+import { chromiumPerFile } from "../../support/browser-per-file";
 import { latestEmailTo, linkIn } from "../../support/mailbox";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = chromiumPerFile();
 
 // Set SCREENSHOT_DIR to keep phone and desktop screenshots of each page the story passes.
 const screenshotDir = process.env.SCREENSHOT_DIR;
@@ -26,7 +21,7 @@ async function shoot(page: Page, name: string) {
 }
 async function shootOnPhone(url: string, name: string, cookies: Cookie[]) {
   if (!screenshotDir) return;
-  const phone = await newRecordedPage(browser, { width: 390, height: 844 });
+  const phone = await newRecordedPage(browser(), { width: 390, height: 844 });
   await phone.context.addCookies(cookies);
   await phone.page.goto(url, { waitUntil: "networkidle" });
   const overflow = await phone.page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
@@ -37,7 +32,7 @@ async function shootOnPhone(url: string, name: string, cookies: Cookie[]) {
 
 describe("the dealer's story", () => {
   it("signs up as a seller, lists a centre lathe with two photos, publishes it and finds it on the browse and public pages", async () => {
-    const { context, page, requests } = await newRecordedPage(browser);
+    const { context, page, requests } = await newRecordedPage(browser());
     const email = `dealer-${randomUUID().slice(0, 8)}@example.test`;
     const model = `ML ${Math.floor(Math.random() * 900 + 100)}`;
 
@@ -153,7 +148,7 @@ describe("the dealer's story", () => {
 
     // A buyer watches the machine and writes to the seller, who gets the question by e-mail.
     const buyer = await createTestUser({ name: "Ilka Brenner" });
-    const visit = await newRecordedPage(browser);
+    const visit = await newRecordedPage(browser());
     await signInPage(visit.page, buyer.email, buyer.password, new URL(publicUrl).pathname);
     await visit.page.getByRole("button", { name: "☆ Watch this machine" }).click();
     await visit.page.getByRole("button", { name: "★ Watching — stop" }).waitFor();

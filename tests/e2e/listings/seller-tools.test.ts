@@ -1,35 +1,15 @@
 // A seller's tools, each at desktop, tablet and phone sizes: photos keep the order the seller chose them in
 // and can be moved by keyboard, the seller's own public page offers "Edit" (nobody else's does).
-import { mkdirSync } from "node:fs";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { createTestUser, signInCookie, signInPage } from "../../support/accounts";
-import { appOrigin, launchBrowser, newRecordedPage } from "../../support/browser";
+import { appOrigin, newRecordedPage } from "../../support/browser";
+import { chromiumPerFile, screenshotAtEachSize } from "../../support/browser-per-file";
 import { jpegWithGps } from "../../support/images";
 import { createListingAs, listingRow, postForm, uploadFileAs, validListingFields } from "../../support/listings";
 
 const shots = process.env.SCREENSHOT_DIR ?? "/tmp/seller-tools-screenshots";
-const sizes = { desktop: { width: 1280, height: 900 }, tablet: { width: 820, height: 1180 }, phone: { width: 390, height: 844 } };
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  mkdirSync(shots, { recursive: true });
-});
-afterAll(async () => {
-  await browser?.close();
-});
-
-async function screenshots(page: Page, name: string) {
-  const original = page.viewportSize()!;
-  for (const [label, size] of Object.entries(sizes)) {
-    await page.setViewportSize(size);
-    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-    expect(overflow, `${name} scrolls sideways at ${label}`).toBeLessThanOrEqual(0);
-    await page.screenshot({ path: `${shots}/${name}-${label}.png`, fullPage: true });
-  }
-  await page.setViewportSize(original);
-}
+const browser = chromiumPerFile();
 
 /** A published listing with one photo, made over HTTP as the seller's browser would. */
 async function publishedListingOf(seller: { email: string; password: string }, overrides: Record<string, string> = {}) {
@@ -46,7 +26,7 @@ describe("a seller's tools", () => {
     const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
     const cookie = await signInCookie(seller.email, seller.password);
     const listingId = await createListingAs(cookie);
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, seller.email, seller.password, `/sell/listings/${listingId}`);
 
     // The first file chosen is the largest, so it finishes last.
@@ -72,18 +52,18 @@ describe("a seller's tools", () => {
     await page.keyboard.press("Enter");
     await expect.poll(order, { timeout: 15_000 }).toEqual(["3-nameplate.jpg", "2-headstock.jpg", "1-whole-machine.jpg"]);
     await page.locator("#photos").scrollIntoViewIfNeeded();
-    await screenshots(page, "photo-order");
+    await screenshotAtEachSize(page, shots, "photo-order", { noSidewaysScroll: true });
     await context.close();
   });
 
   it("offers the seller an Edit link on their own public page, and nobody else", { timeout: 120_000 }, async () => {
     const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
     const { listingId, slug } = await publishedListingOf(seller);
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, seller.email, seller.password, `/machines/${slug}`);
     const edit = page.getByRole("link", { name: "Edit", exact: true });
     await edit.waitFor();
-    await screenshots(page, "own-listing-edit");
+    await screenshotAtEachSize(page, shots, "own-listing-edit", { noSidewaysScroll: true });
     await edit.click();
     await page.waitForURL((url) => url.pathname === `/sell/listings/${listingId}`);
     await context.close();
@@ -92,7 +72,7 @@ describe("a seller's tools", () => {
     const otherSeller = await createTestUser({ roles: ["seller"] });
     const buyer = await createTestUser();
     for (const viewer of [otherSeller, buyer, null]) {
-      const visit = await newRecordedPage(browser);
+      const visit = await newRecordedPage(browser());
       if (viewer) await signInPage(visit.page, viewer.email, viewer.password, `/machines/${slug}`);
       else await visit.page.goto(`/machines/${slug}`);
       await visit.page.getByRole("heading", { level: 1 }).waitFor();
@@ -111,7 +91,7 @@ describe("a seller's tools", () => {
 
     // A buyer's visit counts; the seller's own visit and a crawler's do not.
     const buyer = await createTestUser();
-    const visit = await newRecordedPage(browser);
+    const visit = await newRecordedPage(browser());
     // Headless Chromium names itself in its user agent, and is rightly taken for a robot: this buyer's does not.
     await visit.context.setExtraHTTPHeaders({ "user-agent": "Mozilla/5.0 (X11; Linux x86_64) AppleWebKit/537.36 (KHTML, like Gecko) Chrome/130.0 Safari/537.36" });
     await signInPage(visit.page, buyer.email, buyer.password, `/machines/${newer.slug}`);
@@ -122,7 +102,7 @@ describe("a seller's tools", () => {
     await fetch(`${appOrigin}/machines/${newer.slug}`, { headers: { "user-agent": "Mozilla/5.0 (compatible; Googlebot/2.1; +http://www.google.com/bot.html)" } });
     await fetch(`${appOrigin}/machines/${newer.slug}`, { headers: { cookie: newer.cookie, "user-agent": "Mozilla/5.0 (X11; Linux x86_64) Chrome/130.0" } });
 
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, seller.email, seller.password, "/sell");
     const rows = page.locator("tbody tr[data-listing-id]");
     await rows.first().waitFor();
@@ -136,7 +116,7 @@ describe("a seller's tools", () => {
     expect(cell("Views")).toBe("1");
     expect(cell("Watching")).toBe("1");
     expect(cell("Questions")).toBe("0");
-    await screenshots(page, "dashboard");
+    await screenshotAtEachSize(page, shots, "dashboard", { noSidewaysScroll: true });
     await newest.getByRole("link", { name: /Book an inspection/ }).click();
     await page.waitForURL((url) => url.pathname === `/machines/${newer.slug}/book`);
     await context.close();
@@ -146,7 +126,7 @@ describe("a seller's tools", () => {
     const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
     const first = await publishedListingOf(seller, { model: "ML 190", city: "Tindvik" });
     await publishedListingOf(seller, { model: "ML 450", city: "Tindvik" });
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await page.goto(`/machines/${first.slug}`);
     await page.getByRole("link", { name: "Brekke Maskin" }).click();
     await page.waitForURL((url) => /^\/sellers\/[0-9a-f-]{36}$/.test(url.pathname));
@@ -158,7 +138,7 @@ describe("a seller's tools", () => {
     expect(html).not.toContain(seller.email);
     expect(html).not.toContain(seller.id);
     expect(page.url()).not.toContain(seller.id);
-    await screenshots(page, "seller-page");
+    await screenshotAtEachSize(page, shots, "seller-page", { noSidewaysScroll: true });
     expect((await page.goto("/sellers/00000000-0000-4000-8000-000000000000"))?.status()).toBe(404);
     await context.close();
   });
@@ -166,7 +146,7 @@ describe("a seller's tools", () => {
   it("lets the seller caption a photo, and a buyer open it full screen and zoom by keyboard alone", { timeout: 120_000 }, async () => {
     const seller = await createTestUser({ roles: ["seller"], name: "Brekke Maskin" });
     const { listingId, slug } = await publishedListingOf(seller);
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, seller.email, seller.password, `/sell/listings/${listingId}`);
     await page.getByLabel("Caption of photo 1", { exact: true }).fill("Bed ways at the chuck end, after regrinding");
     await page.getByRole("button", { name: "Save the caption of photo 1" }).focus();
@@ -178,10 +158,10 @@ describe("a seller's tools", () => {
     await page.getByRole("alert").filter({ hasText: "caption" }).waitFor();
     await context.close();
 
-    const visit = await newRecordedPage(browser);
+    const visit = await newRecordedPage(browser());
     await visit.page.goto(`/machines/${slug}`);
     await visit.page.getByText("Bed ways at the chuck end, after regrinding").waitFor();
-    await screenshots(visit.page, "photo-caption");
+    await screenshotAtEachSize(visit.page, shots, "photo-caption", { noSidewaysScroll: true });
     await visit.page.getByRole("button", { name: "Enlarge and zoom" }).focus();
     await visit.page.keyboard.press("Enter");
     const zoomIn = visit.page.getByRole("button", { name: "Zoom in" });
@@ -190,7 +170,7 @@ describe("a seller's tools", () => {
     await zoomIn.focus();
     await visit.page.keyboard.press("Enter");
     await expect.poll(() => visit.page.getByRole("button", { name: "Zoom out" }).isEnabled(), { timeout: 10_000 }).toBe(true);
-    await screenshots(visit.page, "photo-lightbox");
+    await screenshotAtEachSize(visit.page, shots, "photo-lightbox", { noSidewaysScroll: true });
     await visit.page.keyboard.press("Escape");
     await expect.poll(() => zoomIn.count(), { timeout: 10_000 }).toBe(0);
     await visit.context.close();

@@ -3,19 +3,14 @@
 // desktop, tablet and phone sizes.
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { createTestUser, signInCookie, signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile } from "../../support/browser-per-file";
 import { createListingAs, tradeSpecFields } from "../../support/listings";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = chromiumPerFile();
 
 const screenshotDir = process.env.SCREENSHOT_DIR;
 async function shoot(page: Page, name: string) {
@@ -33,7 +28,7 @@ const sizes = [
 describe("the trade's specification of a listing", () => {
   it("is entered on the form, with the lathe's details for lathes only", async () => {
     const seller = await createTestUser({ roles: ["seller"] });
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, seller.email, seller.password, "/sell/new");
     await page.waitForURL((url) => url.pathname === "/sell/new");
     const latheCard = page.getByTestId("lathe-details");
@@ -94,7 +89,7 @@ describe("the trade's specification of a listing", () => {
     const inches = { units: "inch", swingOverBed: "13", distanceBetweenCentres: "40", spindleBore: "1.5", weight: "1720", motorPower: "3", swingOverCrossSlide: "8", footprintLength: "82.7", footprintWidth: "37.4" };
     const listingId = await createListingAs(cookie, { ...tradeSpecFields, ...inches });
     for (const size of sizes) {
-      const { context, page } = await newRecordedPage(browser, { width: size.width, height: size.height });
+      const { context, page } = await newRecordedPage(browser(), { width: size.width, height: size.height });
       await signInPage(page, seller.email, seller.password, `/sell/listings/${listingId}`);
       await page.getByRole("link", { name: "Preview the public page" }).click();
       await page.waitForURL((url) => url.pathname.startsWith("/machines/"));

@@ -3,18 +3,13 @@
 // and a phone, in mm and in inches.
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { createTestUser, signInPage } from "../../support/accounts";
-import { launchBrowser, newRecordedPage } from "../../support/browser";
+import { newRecordedPage } from "../../support/browser";
+import { chromiumPerFile } from "../../support/browser-per-file";
 
-let browser: Browser;
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = chromiumPerFile();
 
 const screenshotDir = process.env.SCREENSHOT_DIR;
 async function shoot(page: Page, name: string) {
@@ -36,7 +31,7 @@ describe("the correction planner", () => {
   ] as const) {
     it(`plans a headstock shim, scraping and a bearing back-off on a ${name}`, async () => {
       const dealer = await createTestUser({ roles: ["seller"] });
-      const { context, page } = await newRecordedPage(browser, viewport);
+      const { context, page } = await newRecordedPage(browser(), viewport);
       await signInPage(page, dealer.email, dealer.password, "/tools/corrections");
       await openPlanner(page);
       await expect(page.getByRole("heading", { name: "Correction planner" }).isVisible()).resolves.toBe(true);
@@ -80,7 +75,7 @@ describe("the correction planner", () => {
 
   it("is for sellers and inspectors: a buyer is refused", async () => {
     const buyer = await createTestUser({ roles: ["buyer"] });
-    const { context, page } = await newRecordedPage(browser);
+    const { context, page } = await newRecordedPage(browser());
     await signInPage(page, buyer.email, buyer.password);
     const response = await page.goto("/tools/corrections");
     expect(response?.status()).toBe(403);

@@ -5,11 +5,12 @@
 // charges and transfers; the stand-in's controls stand for time passing at Stripe.
 import { randomUUID } from "node:crypto";
 import { addDays, addMinutes } from "date-fns";
-import { eq } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import Stripe from "stripe";
 import { describe, expect, it } from "vitest";
 import { acceptBooking, recordReportFiled, refundAsAdmin, releaseLapsedCheckouts } from "~/modules/inspections/bookings.server";
-import { getPayoutAccount, payInspector, recordPayoutFailure, reviewHeldShares, startPayoutOnboarding } from "~/modules/inspections/payouts.server";
+import { env } from "~/env.server";
+import { getPayoutAccount, PAYOUT_QUEUE, payInspector, recordPayoutFailure, reviewHeldShares, startPayoutOnboarding } from "~/modules/inspections/payouts.server";
 import { bookingEvents, bookingRefunds, payoutAccounts, payoutReversals, payouts } from "~/modules/inspections/schema";
 import { createTestUser } from "../../support/accounts";
 import { latestEmailTo } from "../../support/mailbox";
@@ -22,6 +23,14 @@ async function filedBooking(card?: string) {
   const held = await paidBooking(card);
   await acceptBooking(db, held.inspector, held.bookingId);
   await recordReportFiled(db, { bookingId: held.bookingId, reportId: randomUUID(), inspectorId: held.inspector.id });
+  // Filing queues the payout job: wait for it, so that it cannot run over what the test sets next (it would put
+  // a share the test marked failed back on hold).
+  await until(async () => {
+    const { rows } = await db.execute(
+      sql`select state from ${sql.identifier(env().JOB_QUEUE_SCHEMA)}.job where name = ${PAYOUT_QUEUE} and data->>'bookingId' = ${held.bookingId}`,
+    );
+    return rows.length > 0 && rows.every((row) => row.state === "completed" || row.state === "failed");
+  }, "the payout job queued by the filing", 20_000);
   return held;
 }
 
