@@ -1,6 +1,7 @@
 // What a signed report says: the exact object whose RFC 8785 canonical JSON is hashed. Pure types and
 // helpers, shared by the report page, the certificate and the API.
 import type { MachineCategory, ReportMeasurements, ReportScore } from "~/geometry";
+import { isLathe } from "~/modules/listings/catalogue";
 import type { EntryUnits } from "./form";
 
 export const REPORT_FORMAT = "tenthmark.accuracy-report/1";
@@ -67,7 +68,7 @@ export interface ReportContent {
 /** Machine categories of listings mapped to the engine's, where it has profiles. */
 /** Swing and distance between centres size a lathe; on other machines they are left out unless given. */
 export function latheSizeRows(machine: Pick<ReportContent["machine"], "category" | "swingOverBedMm" | "distanceBetweenCentresMm">, format: (mm: number) => string): Array<[string, string]> {
-  const lathe = /lathe/.test(machine.category);
+  const lathe = isLathe(machine.category);
   const rows: Array<[string, number | null]> = [
     ["Swing over bed", machine.swingOverBedMm],
     ["Distance between centres", machine.distanceBetweenCentresMm],

@@ -206,18 +206,20 @@ function SpecificationTable({ listing, units }: { listing: Route.ComponentProps[
   const lathe = isLathe(listing.category);
   // Rows every listing has say "not given" when empty; the trade's finer figures appear only when the seller gave them.
   const optional = (term: string, value: string | null): Array<[string, string | null]> => (value ? [[term, value]] : []);
+  // Swing and distance between centres size a lathe: "not given" there, left off other machines unless given.
+  const latheSize = (term: string, mm: number | null): Array<[string, string | null]> => {
+    const value = mm ? formatLength(mm, units) : null;
+    return lathe ? [[term, value]] : optional(term, value);
+  };
   const rows: Array<[string, string | null]> = [
     ["Kind of machine", labelOf(machineCategories, listing.category)],
     ["Make", listing.make],
     ["Model", listing.model],
     ["Year of manufacture", listing.year ? String(listing.year) : null],
     ["Serial number", listing.serialNumber],
-    // Swing and distance between centres size a lathe: "not given" there, left off other machines unless given.
-    ...(lathe ? ([["Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null]] as Array<[string, string | null]>) : optional("Swing over bed", listing.swingOverBedMm ? formatLength(listing.swingOverBedMm, units) : null)),
+    ...latheSize("Swing over bed", listing.swingOverBedMm),
     ...(lathe ? optional("Swing over the cross-slide", listing.swingOverCrossSlideMm ? formatLength(listing.swingOverCrossSlideMm, units) : null) : []),
-    ...(lathe
-      ? ([["Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null]] as Array<[string, string | null]>)
-      : optional("Distance between centres", listing.distanceBetweenCentresMm ? formatLength(listing.distanceBetweenCentresMm, units) : null)),
+    ...latheSize("Distance between centres", listing.distanceBetweenCentresMm),
     ["Spindle bore", listing.spindleBoreMm ? formatLength(listing.spindleBoreMm, units) : null],
     ...(listing.tableLengthMm ? [["Table", `${formatLength(listing.tableLengthMm, units)}${listing.tableWidthMm ? ` × ${formatLength(listing.tableWidthMm, units)}` : ""}`] as [string, string]] : []),
     ["Spindle nose", listing.spindleNose],
