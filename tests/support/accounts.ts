@@ -48,4 +48,7 @@ export async function signInPage(page: Page, email: string, password: string, re
   await page.getByLabel("E-mail address").fill(email);
   await page.getByLabel("Password", { exact: true }).fill(password);
   await Promise.all([page.waitForURL((url) => url.pathname !== "/sign-in"), page.getByRole("button", { name: "Sign in" }).click()]);
+  // The address changes before the destination renders: wait until the sign-in form has gone, so a test's next
+  // read of the page is the destination, not the form it came from.
+  await page.getByText("Welcome back. Sign in to").waitFor({ state: "detached" });
 }
