@@ -26,8 +26,10 @@ try {
 // Once per process, when the server bundle is first loaded. A database that is down is retried inside.
 void startJobWorkers();
 
-// Our server (server/index.mjs) takes the static files' headers from the build, so they have one home.
+// Our server (server/index.mjs) takes the static files' headers from the build, so they have one home, and
+// makes each request's router context here (it tells a page request from a client navigation's data request).
 export { staticFileHeaders } from "~/modules/security/headers.server";
+export { createLoadContext } from "~/modules/http/page-cache.server";
 
 export const streamTimeout = 5_000;
 

@@ -31,7 +31,8 @@ app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(bu
 app.use(build.publicPath, express.static(build.assetsBuildDirectory, withHeaders()));
 app.use(express.static("public", withHeaders({ maxAge: "1h" })));
 app.use(morgan("tiny"));
-app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+// Each request's router context comes from the app (the page cache needs to know a data request by its address).
+app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV, getLoadContext: (request) => build.entry.module.createLoadContext(request.originalUrl) }));
 
 const port = Number(process.env.PORT ?? 3000);
 const onListen = () => console.log(`[server] http://localhost:${port}${process.env.HOST ? ` (on ${process.env.HOST})` : ""}`);

@@ -20,10 +20,16 @@ export type SessionUser = {
 // Loaders of one request share its Request object: look the session up once per request.
 const perRequest = new WeakMap<Request, Promise<SessionUser | null>>();
 
+/**
+ * Whether the request carries a session cookie at all (better-auth's own first check). Without one nobody is
+ * signed in: most visitors to public pages are spared the session look-up, and may be sent a shared page.
+ */
+export function hasSessionCookie(request: Request): boolean {
+  return Boolean(getSessionCookie(request.headers, { cookiePrefix: SESSION_COOKIE_PREFIX }));
+}
+
 async function loadUser(request: Request): Promise<SessionUser | null> {
-  // Without a session cookie nobody is signed in (better-auth's own first check): most visitors to public
-  // pages are spared the session look-up's machinery.
-  if (!getSessionCookie(request.headers, { cookiePrefix: SESSION_COOKIE_PREFIX })) return null;
+  if (!hasSessionCookie(request)) return null;
   const found = await getAuth().api.getSession({ headers: request.headers });
   if (!found) return null;
   const { user } = found;

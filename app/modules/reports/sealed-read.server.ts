@@ -64,6 +64,21 @@ export function forgetSigningKeys() {
   keyCache = undefined;
 }
 
+let keysSeen: string | undefined;
+/**
+ * Told the digest of the signing keys' rows as a request read them: when it differs from the last one seen,
+ * the cached keys and every proof checked with them are forgotten, so that a withdrawn key or changed dates
+ * decide the next check at once, not a minute later.
+ */
+export function signingKeysAre(digest: string) {
+  if (keysSeen === digest) return;
+  if (keysSeen !== undefined) {
+    keyCache = undefined;
+    verified.clear();
+  }
+  keysSeen = digest;
+}
+
 // A proof already checked, by report id, with the exact credential text it was checked on: a row read again
 // unchanged is not verified again, and any changed byte misses the cache.
 const verified = new Map<string, { credential: string; subject: ReportCredentialSubject; keyId: string }>();

@@ -53,7 +53,7 @@ import { reportUrl, verificationUrl } from "./links.server";
 import { HASH_PATTERN, canonicalJson, sealContent, sealHolds } from "./seal.server";
 import { unrenderableNotice, unrenderableReason } from "./unrenderable";
 import { buildReportCredential, credentialUrl, didWebOf } from "./credential";
-import { readSealedReport } from "./sealed-read.server";
+import { readSealedReport, signingKeysAre } from "./sealed-read.server";
 import { currentKeyFragment, reportSigningKey, signCredential, SigningKeyError } from "./signing.server";
 
 /** An expected refusal: the route answers with `status` and shows `errors` at their fields. */
@@ -672,20 +672,57 @@ export async function startCorrection(db: Database, inspector: SessionUser, repo
 
 // ————— Public reads —————
 
-/** A signed or superseded report as anyone may read it; a draft only tells its own inspector where to review it. */
-export async function getPublicReport(db: Database, reportId: string, viewer: Pick<SessionUser, "id"> | null) {
+/**
+ * What a signed report's page and API answer depend on, read in one query on every request: the row's
+ * digest (any change of any column, a correction superseding it, a change behind the app's back), its
+ * booking's other signed and superseded revisions (a later correction, which lists it as superseded), and
+ * the signing keys' rows (a key withdrawn or its dates changed). `version` changes when any of them does.
+ */
+export async function publicReportStamp(db: Database, reportId: string) {
   if (!z.uuid().safeParse(reportId).success) return null;
-  // A signed report does not change, so what was read and checked is kept per report (publicReportCache) as
-  // long as the row is the same to the byte: its digest is read first, which any change of any column
-  // (a correction superseding it, a change behind the app's back) alters.
   const [stamp] = await db
-    .select({ version: sql<string>`md5(${reports}::text)`, status: reports.status, inspectorId: reports.inspectorId, bookingId: reports.bookingId })
+    .select({
+      row: sql<string>`md5(${reports}::text)`,
+      // Written out: Drizzle leaves a column of the only table unqualified, which inside this subquery would
+      // name the subquery's own row.
+      family: sql<string>`(select md5(coalesce(string_agg(other.id::text || ':' || other.status || ':' || coalesce(other.supersedes_id::text, ''), ',' order by other.revision, other.id), ''))
+        from reports other where other.booking_id = reports.booking_id and other.id <> reports.id and other.status in ('signed', 'superseded'))`,
+      keys: sql<string>`(select md5(coalesce(string_agg(signing_key::text, ',' order by signing_key.id), '')) from report_signing_keys signing_key)`,
+      status: reports.status,
+      inspectorId: reports.inspectorId,
+      bookingId: reports.bookingId,
+    })
     .from(reports)
     .where(eq(reports.id, reportId));
+  if (!stamp) return null;
+  return { version: `${stamp.row}.${stamp.family}.${stamp.keys}`, keys: stamp.keys, status: stamp.status, inspectorId: stamp.inspectorId, bookingId: stamp.bookingId };
+}
+
+/**
+ * The report page as a visitor without a session sees it, for the page cache: one page per report and units
+ * choice (none, `mm` or `inch`; any other parameter is rendered each time), valid while the report's stamp
+ * and the day (the report's age is shown) are the same. Null for a draft, a missing report or another address.
+ */
+export async function publicReportPageIdentity(db: Database, reportId: string | undefined, url: URL, now = new Date()) {
+  const names = [...url.searchParams.keys()];
+  const units = url.searchParams.get("units");
+  if (names.some((name) => name !== "units") || names.length > 1 || (units !== null && units !== "mm" && units !== "inch")) return null;
+  const stamp = reportId ? await publicReportStamp(db, reportId) : null;
+  if (!stamp || stamp.status === "draft") return null;
+  return { key: `report ${reportId} ${units ?? ""}`, version: `${stamp.version} ${now.toISOString().slice(0, 10)}` };
+}
+
+/** A signed or superseded report as anyone may read it; a draft only tells its own inspector where to review it. */
+export async function getPublicReport(db: Database, reportId: string, viewer: Pick<SessionUser, "id"> | null) {
+  // A signed report does not change, so what was read and checked is kept per report (publicReportCache) as
+  // long as its stamp is the same: the row to the byte, its booking's revisions and the signing keys.
+  const stamp = await publicReportStamp(db, reportId);
   if (!stamp) return null;
   if (stamp.status === "draft") {
     return viewer?.id === stamp.inspectorId ? { kind: "draft" as const, bookingId: stamp.bookingId } : null;
   }
+  // Keys changed since the last read: every proof is checked again against the keys as they are now.
+  signingKeysAre(stamp.keys);
   const known = publicReportCache.get(reportId, stamp.version);
   const published = known ?? (await readPublicReport(db, reportId));
   if (!published) return null;

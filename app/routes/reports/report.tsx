@@ -4,11 +4,12 @@ import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/compone
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
 import { entityTag } from "~/modules/http/conditional.server";
+import { cachedPage } from "~/modules/http/page-cache.server";
 import { latheSizeRows, reportAge } from "~/modules/reports/content";
 import { ConditionsAndInstruments, GradeCard, ResultsTable, TestDetails } from "~/modules/reports/components/report-body";
 import { StoredReadings } from "~/modules/reports/components/stored-readings";
 import { formatReportDate, formatSignedAt } from "~/modules/reports/format";
-import { getPublicReport, unsealedMessage } from "~/modules/reports/service.server";
+import { getPublicReport, publicReportPageIdentity, unsealedMessage } from "~/modules/reports/service.server";
 import { formatLength, type DisplayUnits } from "~/modules/units/format";
 import type { Route } from "./+types/report";
 
@@ -19,6 +20,10 @@ export const meta: Route.MetaFunction = ({ data: loaded }) =>
         { name: "description", content: `Geometric accuracy of the ${loaded.report.content.machine.title}, measured ${loaded.report.content.measuredOn} by ${loaded.report.content.inspector.name}.` },
       ]
     : [{ title: "Report not found — Tenthmark" }];
+
+// A visitor without a session is sent the page as rendered for the report and units, while the report's
+// stamp and the day are unchanged (docs/decisions/page-cache.md).
+export const middleware: Route.MiddlewareFunction[] = [cachedPage(({ url, params, context }) => publicReportPageIdentity(context.get(databaseContext), params.reportId, url))];
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
@@ -38,7 +43,10 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     viewer && [viewer.id, viewer.name, viewer.email, viewer.roles, viewer.displayUnits, viewer.emailVerified],
     units, url.search, now.toISOString().slice(0, 10),
   ]);
-  return data({ report, units, qrSvg, now: now.toISOString() }, { headers: { ETag: dependsOn, "Cache-Control": "private, no-cache", Vary: "Cookie" } });
+  // Without a session the page is the same for everyone: a shared cache may keep it for a minute, then asks
+  // again with the tag (a correction or a changed row shows within that minute). Signed in, it is the viewer's.
+  const cacheControl = viewer ? "private, no-cache" : "public, max-age=60";
+  return data({ report, units, qrSvg, now: now.toISOString() }, { headers: { ETag: dependsOn, "Cache-Control": cacheControl, Vary: "Cookie" } });
 }
 
 export const headers: Route.HeadersFunction = ({ loaderHeaders }) => loaderHeaders;

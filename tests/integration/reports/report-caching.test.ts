@@ -29,7 +29,7 @@ describe("a signed report's page and API", () => {
       expect((await get(path, { "if-none-match": 'W/"something-else"' })).status).toBe(200);
     }
     const page = await get(`/reports/${first.id}`);
-    expect(page.headers.get("cache-control")).toBe("private, no-cache");
+    expect(page.headers.get("cache-control")).toBe("public, max-age=60");
     expect(page.headers.get("vary")).toMatch(/cookie/i);
     const pageTag = page.headers.get("etag")!;
     expect((await get(`/reports/${first.id}?units=inch`, { "if-none-match": pageTag })).status).toBe(200);

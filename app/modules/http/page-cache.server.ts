@@ -1,0 +1,220 @@
+// Rendered pages kept in memory for visitors without a session: the answer a CDN could hold, made once and
+// sent again until what it depends on changes. A route opts in with `cachedPage(identify)` as its middleware;
+// `identify` names the page (the key: which report, which units) and reads, on every request, the version
+// of everything the page shows (a report's row digest, its revisions, the signing keys, the day). A page is
+// sent from memory only while that version is the one it was rendered at.
+//
+// What is never shared: a request with a session cookie always gets its own render (its header names the
+// viewer), and only an answer that declares itself `Cache-Control: public` with status 200 and no Set-Cookie
+// is kept. The Content-Security-Policy nonce is fresh on every answer: a page is rendered with a placeholder
+// for it (random per process, never sent), stored in pieces around it, and joined with this request's nonce;
+// every security header is set per answer by the security middleware, as for any page.
+// See docs/decisions/page-cache.md.
+import { randomBytes } from "node:crypto";
+import { createContext, RouterContextProvider, type MiddlewareFunction } from "react-router";
+import { hasSessionCookie } from "~/modules/accounts/guards.server";
+import { cspNonceContext } from "~/modules/security/headers.server";
+import { holdsTag, notModified } from "./conditional.server";
+
+/** A document (HTML) request, or a client-side navigation's data request (`.data`). */
+export type RequestKind = "document" | "data";
+
+/**
+ * How the browser asked, read from its address before React Router rewrote a data request's (which hides
+ * the `.data` from middleware). Null when the server did not say (the development server): no page is cached.
+ */
+export const requestKindContext = createContext<RequestKind | null>(null);
+
+/** The router context of one request, made by our server (server/index.mjs through the server entry). */
+export function createLoadContext(originalUrl: string): RouterContextProvider {
+  const context = new RouterContextProvider();
+  const { pathname } = new URL(originalUrl, "http://localhost");
+  context.set(requestKindContext, pathname.endsWith(".data") ? "data" : "document");
+  return context;
+}
+
+/**
+ * Stands in for the nonce while a page to be kept is rendered. 192 random bits per process, in hex (no
+ * character HTML or JavaScript escapes, so it is written as given); it leaves the process only replaced by a
+ * nonce, so no page, address or user text can carry it unless it was guessed.
+ */
+export const NONCE_PLACEHOLDER = `n${randomBytes(24).toString("hex")}`;
+
+/** What a route says about a request: which page it is and the version of what that page shows. */
+export type PageIdentity = { key: string; version: string };
+
+type StoredPage = {
+  version: string;
+  kind: RequestKind;
+  headers: Array<[string, string]>;
+  /** The body in pieces around the nonce's places (one piece for a data answer). */
+  parts: Buffer<ArrayBuffer>[];
+  bytes: number;
+};
+
+/** The only headers kept with a page; Set-Cookie and the security headers are never stored. */
+const KEPT_HEADERS = ["content-type", "etag", "cache-control", "vary", "last-modified", "x-remix-response"];
+
+/** A byte-bounded store, least recently used first out. */
+export class PageStore {
+  private readonly pages = new Map<string, StoredPage>();
+  private used = 0;
+
+  constructor(
+    readonly budgetBytes: number,
+    readonly largestPageBytes: number,
+  ) {}
+
+  get size() {
+    return this.pages.size;
+  }
+
+  get bytes() {
+    return this.used;
+  }
+
+  /** The page kept under `key` if it was stored at `version`; one stored at another version is dropped. */
+  get(key: string, version: string): StoredPage | undefined {
+    const page = this.pages.get(key);
+    if (!page) return undefined;
+    this.pages.delete(key);
+    if (page.version !== version) {
+      this.used -= page.bytes;
+      return undefined;
+    }
+    // Most recently used last.
+    this.pages.set(key, page);
+    return page;
+  }
+
+  set(key: string, page: StoredPage): boolean {
+    this.delete(key);
+    if (page.bytes > this.largestPageBytes) return false;
+    this.pages.set(key, page);
+    this.used += page.bytes;
+    for (const [oldest, stored] of this.pages) {
+      if (this.used <= this.budgetBytes) break;
+      this.pages.delete(oldest);
+      this.used -= stored.bytes;
+    }
+    return true;
+  }
+
+  delete(key: string) {
+    const page = this.pages.get(key);
+    if (!page) return;
+    this.pages.delete(key);
+    this.used -= page.bytes;
+  }
+
+  clear() {
+    this.pages.clear();
+    this.used = 0;
+  }
+}
+
+/**
+ * The process's pages: 32 MiB in all, a page of at most 1 MiB (a report page is about 0.1–0.3 MB with its
+ * hydration data, so a couple of hundred pages; keys and bookkeeping are small beside the bodies).
+ */
+export const pageStore = new PageStore(32 * 1024 * 1024, 1024 * 1024);
+
+/** Whether a Cache-Control value lets a shared cache keep the answer. */
+function isPublic(cacheControl: string | null): boolean {
+  if (!cacheControl) return false;
+  const directives = cacheControl.toLowerCase().split(",").map((directive) => directive.trim().split("=")[0]);
+  return directives.includes("public") && !directives.some((name) => name === "private" || name === "no-store");
+}
+
+/** The answer from a stored page, with this request's nonce in it. */
+function answerFrom(page: StoredPage, request: Request, nonce: string): Response {
+  const headers = new Headers(page.headers);
+  const tag = headers.get("etag");
+  if (tag && holdsTag(request, tag)) return notModified(headers);
+  if (request.method.toUpperCase() === "HEAD") return new Response(null, { status: 200, headers });
+  return new Response(joinAround(page.parts, nonce), { status: 200, headers });
+}
+
+/**
+ * The route middleware that keeps the route's page for visitors without a session. `identify` returns null
+ * for a request whose page is not to be kept (an address with other parameters, a draft, nothing there);
+ * it is given the address without React Router's `_routes` (which is part of a data request's key).
+ */
+export function cachedPage(
+  identify: (args: { url: URL; params: Record<string, string | undefined>; context: Readonly<RouterContextProvider> }) => Promise<PageIdentity | null>,
+  store: PageStore = pageStore,
+): MiddlewareFunction<Response> {
+  return async ({ request, params, context }, next) => {
+    const kind = context.get(requestKindContext);
+    const method = request.method.toUpperCase();
+    if (!kind || (method !== "GET" && method !== "HEAD") || hasSessionCookie(request)) return next();
+    const url = new URL(request.url);
+    const routes = url.searchParams.get("_routes");
+    url.searchParams.delete("_routes");
+    // Which loaders a data request asks for is part of its answer; a document never names any.
+    if (routes !== null && (kind === "document" || routes.length > 200)) return next();
+    const identity = await identify({ url, params, context });
+    if (!identity) return next();
+    const key = `${kind}\n${identity.key}\n${routes === null ? "" : routes.split(",").sort().join(",")}`;
+    const nonce = context.get(cspNonceContext);
+    if (!nonce) return next();
+
+    const stored = store.get(key, identity.version);
+    if (stored) return answerFrom(stored, request, nonce);
+    // A HEAD has no body to keep.
+    if (method === "HEAD") return next();
+
+    if (kind === "document") context.set(cspNonceContext, NONCE_PLACEHOLDER);
+    let response: Response;
+    try {
+      response = await next();
+    } finally {
+      context.set(cspNonceContext, nonce);
+    }
+    // Whatever came back (a page, an error page, a 304), the placeholder never leaves: read it whole, keep it if
+    // it may be kept, and answer with this request's nonce in its place.
+    const body = response.body ? Buffer.from(await response.arrayBuffer()) : null;
+    const parts = body ? splitAround(body, NONCE_PLACEHOLDER) : [];
+    const headers = new Headers();
+    for (const [name, value] of response.headers) headers.append(name, value.replaceAll(NONCE_PLACEHOLDER, nonce));
+    const contentType = headers.get("content-type") ?? "";
+    const keepable =
+      body !== null &&
+      response.status === 200 &&
+      !headers.has("set-cookie") &&
+      isPublic(headers.get("cache-control")) &&
+      (kind === "document" ? contentType.startsWith("text/html") && parts.length > 1 : parts.length === 1);
+    if (keepable) {
+      const kept: Array<[string, string]> = [];
+      for (const name of KEPT_HEADERS) {
+        const value = headers.get(name);
+        if (value !== null) kept.push([name, value]);
+      }
+      store.set(key, { version: identity.version, kind, headers: kept, parts, bytes: body.length + key.length + identity.version.length });
+    }
+    return new Response(body === null ? null : joinAround(parts, nonce), { status: response.status, statusText: response.statusText, headers });
+  };
+}
+
+function splitAround(body: Buffer<ArrayBuffer>, marker: string): Buffer<ArrayBuffer>[] {
+  const needle = Buffer.from(marker);
+  const parts: Buffer<ArrayBuffer>[] = [];
+  let from = 0;
+  for (let at = body.indexOf(needle, from); at !== -1; at = body.indexOf(needle, from)) {
+    parts.push(body.subarray(from, at));
+    from = at + needle.length;
+  }
+  parts.push(body.subarray(from));
+  return parts;
+}
+
+function joinAround(parts: Buffer<ArrayBuffer>[], nonce: string): Buffer<ArrayBuffer> {
+  if (parts.length === 1) return parts[0];
+  const nonceBytes = Buffer.from(nonce);
+  const pieces: Buffer[] = [];
+  parts.forEach((part, index) => {
+    if (index > 0) pieces.push(nonceBytes);
+    pieces.push(part);
+  });
+  return Buffer.concat(pieces);
+}
