@@ -47,6 +47,14 @@ describe("under the Content-Security-Policy", () => {
     for (const path of ["/", "/machines", `/machines/${booking.listing.slug}`, "/inspectors", `/inspectors/${await publicIdOf(booking.inspector.id)}`, "/how-scoring-works", `/reports/${report.id}`, "/sign-in"]) {
       await visitHydrated(page, path);
     }
+    // The report page again, now sent from the page cache with this answer's nonce, and its units switched
+    // by a client-side navigation (a kept data answer the second time).
+    for (let round = 0; round < 2; round += 1) {
+      await visitHydrated(page, `/reports/${report.id}`);
+      await page.getByRole("group", { name: "Units" }).getByRole("link", { name: "in" }).click();
+      await page.waitForURL(/units=inch/);
+      await expect.poll(() => page.locator('a[href*="certificate.pdf?units=inch"]').count()).toBe(1);
+    }
     // A client-side navigation (fetching `.data`) and a search through the API.
     await page.goto("/", { waitUntil: "networkidle" });
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Machines" }).click();
