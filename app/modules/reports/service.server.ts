@@ -698,18 +698,20 @@ export async function publicReportStamp(db: Database, reportId: string) {
   return { version: `${stamp.row}.${stamp.family}.${stamp.keys}`, keys: stamp.keys, status: stamp.status, inspectorId: stamp.inspectorId, bookingId: stamp.bookingId };
 }
 
+const pageAddresses = new Map([["", ""], ["?units=mm", "mm"], ["?units=inch", "inch"]]);
+
 /**
  * The report page as a visitor without a session sees it, for the page cache: one page per report and units
  * choice (none, `mm` or `inch`; any other parameter is rendered each time), valid while the report's stamp
  * and the day (the report's age is shown) are the same. Null for a draft, a missing report or another address.
  */
 export async function publicReportPageIdentity(db: Database, reportId: string | undefined, url: URL, now = new Date()) {
-  const names = [...url.searchParams.keys()];
-  const units = url.searchParams.get("units");
-  if (names.some((name) => name !== "units") || names.length > 1 || (units !== null && units !== "mm" && units !== "inch")) return null;
+  // Exactly these addresses: one spelling each, so the kept page's tag is the one its address would get.
+  const units = pageAddresses.get(url.search);
+  if (units === undefined) return null;
   const stamp = reportId ? await publicReportStamp(db, reportId) : null;
   if (!stamp || stamp.status === "draft") return null;
-  return { key: `report ${reportId} ${units ?? ""}`, version: `${stamp.version} ${now.toISOString().slice(0, 10)}` };
+  return { key: `report ${reportId} ${units}`, version: `${stamp.version} ${now.toISOString().slice(0, 10)}` };
 }
 
 /** A signed or superseded report as anyone may read it; a draft only tells its own inspector where to review it. */
