@@ -10,6 +10,7 @@ import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { EnvironmentError, env } from "~/env.server";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
 import { entityTag, holdsTag, notModified } from "~/modules/http/conditional.server";
+import { renderFailedContext } from "~/modules/http/page-cache.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
 
@@ -107,6 +108,8 @@ export default function handleRequest(
       },
       onError(error: unknown) {
         responseStatusCode = 500;
+        // The status may have gone already: at least the page cache must not keep this page.
+        loadContext.set(renderFailedContext, true);
         // Errors inside the shell are logged here; shell errors reject and are logged by React Router.
         if (shellRendered) console.error(error);
       },

@@ -11,6 +11,7 @@
 // every security header is set per answer by the security middleware, as for any page.
 // See docs/decisions/page-cache.md.
 import { randomBytes } from "node:crypto";
+import { isbot } from "isbot";
 import { createContext, RouterContextProvider, type MiddlewareFunction } from "react-router";
 import { hasSessionCookie } from "~/modules/accounts/guards.server";
 import { cspNonceContext } from "~/modules/security/headers.server";
@@ -24,6 +25,9 @@ export type RequestKind = "document" | "data";
  * the `.data` from middleware). Null when the server did not say (the development server): no page is cached.
  */
 export const requestKindContext = createContext<RequestKind | null>(null);
+
+/** Set by the server entry when React reported an error while rendering the page (after its status was sent). */
+export const renderFailedContext = createContext<boolean>(false);
 
 /** The router context of one request, made by our server (server/index.mjs through the server entry). */
 export function createLoadContext(originalUrl: string): RouterContextProvider {
@@ -155,7 +159,9 @@ export function cachedPage(
     if (routes !== null && (kind === "document" || routes.length > 200)) return next();
     const identity = await identify({ url, params, context });
     if (!identity) return next();
-    const key = `${kind}\n${identity.key}\n${routes === null ? "" : routes.split(",").sort().join(",")}`;
+    // Robots are sent the page whole (the server entry waits for all of it), people as it streams: two pages.
+    const reader = isbot(request.headers.get("user-agent") ?? "") ? "robot" : "person";
+    const key = `${kind}\n${reader}\n${identity.key}\n${routes === null ? "" : routes.split(",").sort().join(",")}`;
     const nonce = context.get(cspNonceContext);
     if (!nonce) return next();
 
@@ -181,6 +187,7 @@ export function cachedPage(
     const keepable =
       body !== null &&
       response.status === 200 &&
+      !context.get(renderFailedContext) &&
       !headers.has("set-cookie") &&
       isPublic(headers.get("cache-control")) &&
       (kind === "document" ? contentType.startsWith("text/html") && parts.length > 1 : parts.length === 1);

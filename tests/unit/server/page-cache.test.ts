@@ -2,7 +2,7 @@
 // how the nonce is put back, and the byte budget.
 import { RouterContextProvider } from "react-router";
 import { describe, expect, it } from "vitest";
-import { cachedPage, createLoadContext, NONCE_PLACEHOLDER, PageStore, requestKindContext } from "~/modules/http/page-cache.server";
+import { cachedPage, createLoadContext, NONCE_PLACEHOLDER, PageStore, renderFailedContext, requestKindContext } from "~/modules/http/page-cache.server";
 import { cspNonceContext } from "~/modules/security/headers.server";
 
 const origin = "http://localhost";
@@ -11,7 +11,7 @@ const origin = "http://localhost";
 async function through(
   middleware: ReturnType<typeof cachedPage>,
   address: string,
-  render: (nonce: string) => Response,
+  render: (nonce: string, context: RouterContextProvider) => Response,
   options: { headers?: Record<string, string>; method?: string } = {},
 ) {
   const context = createLoadContext(address);
@@ -22,15 +22,16 @@ async function through(
   let rendered = 0;
   const response = (await middleware({ request, params: {}, context, unstable_pattern: "" } as never, async () => {
     rendered += 1;
-    return render(context.get(cspNonceContext)!);
+    return render(context.get(cspNonceContext)!, context);
   })) as Response;
   return { response, nonce, rendered, text: response.body ? await response.text() : "" };
 }
 
-const page = (nonce: string, headers: Record<string, string> = {}) =>
+const pageWith = (headers: Record<string, string>) => (nonce: string) =>
   new Response(`<html><script nonce="${nonce}">1</script><p>report</p><script nonce="${nonce}">2</script></html>`, {
     headers: { "content-type": "text/html", "cache-control": "public, max-age=60", etag: 'W/"t1"', "content-security-policy": `script-src 'nonce-${nonce}'`, ...headers },
   });
+const page = pageWith({});
 
 function setUp(version = { current: "v1" }) {
   const store = new PageStore(10_000, 5_000);
@@ -63,10 +64,10 @@ describe("the page cache", () => {
 
   it("never keeps an answer with a cookie, a private or uncacheable one, or one that is not 200", async () => {
     const answers: Array<(nonce: string) => Response> = [
-      (nonce) => page(nonce, { "set-cookie": "a=b" }),
-      (nonce) => page(nonce, { "cache-control": "private, no-cache" }),
-      (nonce) => page(nonce, { "cache-control": "public, no-store" }),
-      (nonce) => page(nonce, { "cache-control": "" }),
+      pageWith({ "set-cookie": "a=b" }),
+      pageWith({ "cache-control": "private, no-cache" }),
+      pageWith({ "cache-control": "public, no-store" }),
+      pageWith({ "cache-control": "" }),
       (nonce) => new Response(`<html><script nonce="${nonce}"></script></html>`, { status: 404, headers: { "content-type": "text/html", "cache-control": "public" } }),
       // A page that carries no nonce at all was not rendered as expected: not kept.
       () => new Response("<html></html>", { headers: { "content-type": "text/html", "cache-control": "public" } }),
@@ -80,9 +81,26 @@ describe("the page cache", () => {
     }
   });
 
+  it("never keeps a page React reported an error in while it streamed", async () => {
+    const { middleware, store } = setUp();
+    const failing = (nonce: string, context: RouterContextProvider) => {
+      context.set(renderFailedContext, true);
+      return page(nonce);
+    };
+    await through(middleware, "/reports/a", failing);
+    expect(store.size).toBe(0);
+  });
+
+  it("keeps robots' pages (sent whole) apart from people's (streamed)", async () => {
+    const { middleware } = setUp();
+    await through(middleware, "/reports/a", page, { headers: { "user-agent": "Mozilla/5.0 (X11; Linux x86_64) Chrome/131.0 Safari/537.36" } });
+    expect((await through(middleware, "/reports/a", page, { headers: { "user-agent": "Googlebot/2.1 (+http://www.google.com/bot.html)" } })).rendered).toBe(1);
+    expect((await through(middleware, "/reports/a", page, { headers: { "user-agent": "Googlebot/2.1 (+http://www.google.com/bot.html)" } })).rendered).toBe(0);
+  });
+
   it("keeps no header but the page's own: no cookie, no security header replayed", async () => {
     const { middleware } = setUp();
-    await through(middleware, "/reports/a", (nonce) => page(nonce, { "x-frame-options": "DENY", "x-other": "1" }));
+    await through(middleware, "/reports/a", pageWith({ "x-frame-options": "DENY", "x-other": "1" }));
     const kept = await through(middleware, "/reports/a", page);
     expect(kept.rendered).toBe(0);
     expect([...kept.response.headers.keys()].sort()).toEqual(["cache-control", "content-type", "etag"]);
