@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link, NavLink } from "react-router";
+import { Link, useLocation } from "react-router";
 import { ButtonLink } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
 import type { Role } from "~/modules/accounts/validation";
@@ -23,6 +23,10 @@ const navigation = [
 
 export function SiteHeader({ user }: { user: HeaderUser }) {
   const [menuOpen, setMenuOpen] = useState(false);
+  // The section a page belongs to, as a link to it marks itself (a plain Link: React Router's NavLink brings
+  // view-transition code that no page uses into every page's script).
+  const { pathname } = useLocation();
+  const current = (to: string) => (pathname === to || pathname.startsWith(`${to}/`) ? "page" : undefined);
   return (
     <header className="sticky top-0 z-30 border-b border-ink-200 bg-paper/95 backdrop-blur">
       <div className="mx-auto flex h-16 max-w-6xl items-center gap-6 px-4 sm:px-6">
@@ -31,18 +35,14 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
         </Link>
         <nav aria-label="Main" className="hidden flex-1 items-center gap-1 lg:flex">
           {navigation.map((item) => (
-            <NavLink
+            <Link
               key={item.to}
               to={item.to}
-              className={({ isActive }) =>
-                cx(
-                  "rounded-control px-3 py-2 text-sm font-semibold",
-                  isActive ? "bg-ink-100 text-ink-900" : "text-ink-600 hover:text-ink-900",
-                )
-              }
+              aria-current={current(item.to)}
+              className="rounded-control px-3 py-2 text-sm font-semibold text-ink-600 hover:text-ink-900 aria-[current=page]:bg-ink-100 aria-[current=page]:text-ink-900"
             >
               {item.label}
-            </NavLink>
+            </Link>
           ))}
         </nav>
         <div className="ml-auto hidden items-center gap-2 lg:flex" data-slot="account">
@@ -66,9 +66,9 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
           <ul className="flex flex-col py-2">
             {navigation.map((item) => (
               <li key={item.to}>
-                <NavLink to={item.to} onClick={() => setMenuOpen(false)} className="block rounded px-2 py-3 text-base font-semibold text-ink-800">
+                <Link to={item.to} aria-current={current(item.to)} onClick={() => setMenuOpen(false)} className="block rounded px-2 py-3 text-base font-semibold text-ink-800">
                   {item.label}
-                </NavLink>
+                </Link>
               </li>
             ))}
           </ul>
