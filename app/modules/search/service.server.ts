@@ -6,6 +6,7 @@ import type { DisplayUnits } from "~/modules/units/format";
 import { formatLength, formatMoney } from "~/modules/units/format";
 import type { ListingSearchQuery } from "../../../search/query.ts";
 import { describeSearch } from "./describe";
+import { hitDisplay, type HitDisplay } from "./hit-display";
 import { accuracyFilters, labelInText, formatDeviation, widerLimits, type AccuracyFilterKey } from "./figures";
 import { encodeListingCursor, MAX_CURSOR_PAGE } from "./cursor.server";
 import { searchListingsInDatabase, searchListingsInDatabaseTogether } from "./listing-source.server";
@@ -66,6 +67,8 @@ export type ListingHit = {
       zRepeatabilityUm: number | null;
     };
   } | null;
+  /** The card's words in the reader's units (`units`): sizes, chosen figures, place, price, condition, badge. */
+  display: HitDisplay;
 };
 
 /** A way out of an empty result: the search with one filter widened or dropped, and how many it finds. */
@@ -97,9 +100,9 @@ export type MachineSearch = {
 
 export const INCOMPLETE_NOTICE = "Results may be incomplete: the search service is not answering, so these come straight from our database, with simpler word matching.";
 
-function toHit(document: ListingSearchHit): ListingHit {
+function toHit(document: ListingSearchHit, units: DisplayUnits, now: Date): ListingHit {
   const reportDate = document.reportDate === null ? null : new Date(document.reportDate * 1000).toISOString().slice(0, 10);
-  return {
+  const hit: Omit<ListingHit, "display"> = {
     id: document.id,
     slug: document.slug,
     url: `/machines/${document.slug}`,
@@ -142,6 +145,7 @@ function toHit(document: ListingSearchHit): ListingHit {
           }
         : null,
   };
+  return { ...hit, display: hitDisplay(hit, units, now) };
 }
 
 // While the service is down every search falls back: say so once a minute with a count, not once per request
@@ -319,7 +323,7 @@ export async function searchMachines(
   return {
     source: finder.source,
     notice: finder.source === "database" ? INCOMPLETE_NOTICE : null,
-    hits: result!.hits.map(toHit),
+    hits: result!.hits.map((hit) => toHit(hit, units, options.now ?? new Date())),
     totalHits: result!.totalHits,
     page: result!.page,
     totalPages: result!.totalPages,

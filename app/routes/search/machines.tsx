@@ -5,12 +5,13 @@ import { Card } from "~/components/ui/card";
 import { cx } from "~/components/ui/cx";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
-import { FilterPanel } from "~/modules/search/components/filter-panel";
+import { FilterPanel, type FilterChoices } from "~/modules/search/components/filter-panel";
 import { ResultCard } from "~/modules/search/components/result-card";
 import { draftFromParams, paramsFromDraft, type DraftKey, type SearchDraft } from "~/modules/search/components/search-form";
 import { parseListingSearchParams } from "~/modules/search/search-params.server";
 import { searchMachines, type MachineSearch } from "~/modules/search/service.server";
-import type { DisplayUnits } from "~/modules/units/format";
+import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
+import { currencies, type DisplayUnits } from "~/modules/units/format";
 import { supplyClasses } from "../../../search/query.ts";
 import type { Route } from "./+types/machines";
 
@@ -24,11 +25,16 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const units: DisplayUnits = viewer?.displayUnits ?? "mm";
   const account = viewer ? { verified: viewer.emailVerified } : null;
   const parsed = parseListingSearchParams(new URL(request.url).searchParams);
-  // The supply classes as data, not as a list in the page's script (which is at its budget).
-  const supplies = supplyClasses.map(({ value, label }) => ({ value, label }));
-  if (!parsed.success) return { units, account, supplies, search: null, errors: parsed.errors, now: Date.now() };
+  // The filter panel's choices as data, not as lists in the page's script (which is held to a budget).
+  const choices: FilterChoices = {
+    categories: machineCategories,
+    countries: countryOptions,
+    currencies,
+    supplies: supplyClasses.map(({ value, label }) => ({ value, label })),
+  };
+  if (!parsed.success) return { units, account, choices, search: null, errors: parsed.errors };
   const search = await searchMachines(context.get(databaseContext), parsed.query, { units, after: parsed.after });
-  return { units, account, supplies, search, errors: null, now: Date.now() };
+  return { units, account, choices, search, errors: null };
 }
 
 // After the first page, the page fetches its results from the API itself: a change of the search alone
@@ -48,7 +54,7 @@ const sorts = [
 ];
 
 export default function MachineSearchPage({ loaderData }: Route.ComponentProps) {
-  const { units, account, now } = loaderData;
+  const { units, account } = loaderData;
   const location = useLocation();
   const [searchParams, setSearchParams] = useSearchParams();
   const [answer, setAnswer] = useState<Answer>({ key: location.search, search: loaderData.search, errors: loaderData.errors, failed: false });
@@ -182,7 +188,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                 draft={draft}
                 units={units}
                 facets={search?.facets ?? null}
-                supplies={loaderData.supplies}
+                choices={loaderData.choices}
                 errors={errors}
                 onChange={change}
                 onCommit={() => commit()}
@@ -260,7 +266,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               <ul className="mt-4 grid gap-3 sm:grid-cols-2 sm:gap-5 xl:grid-cols-3" data-view={list ? "list" : "cards"} data-testid="results">
                 {search.hits.map((hit) => (
                   <li key={hit.id}>
-                    <ResultCard hit={hit} units={units} now={now} />
+                    <ResultCard hit={hit} />
                   </li>
                 ))}
               </ul>

@@ -1,8 +1,7 @@
 import type { ReactNode } from "react";
 import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
-import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
-import { currencies, lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
+import { lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
 import { accuracyFilters, deviationUnitLabel } from "../figures";
 import type { MachineSearch } from "../service.server";
 import { inputName, type DraftKey, type SearchDraft } from "./search-form";
@@ -45,12 +44,22 @@ function FieldErrors({ messages }: { messages: string[] }) {
   ) : null;
 }
 
+type Choice = { value: string; label: string };
+
+/** The panel's fixed choices, sent by the server as data: the page's script carries no lists of its own. */
+export type FilterChoices = {
+  categories: ReadonlyArray<Choice>;
+  countries: ReadonlyArray<Choice>;
+  currencies: ReadonlyArray<string>;
+  /** The supply classes as the server words them. */
+  supplies: ReadonlyArray<Choice>;
+};
+
 type PanelProps = {
   draft: SearchDraft;
   units: DisplayUnits;
   facets: MachineSearch["facets"] | null;
-  /** The supply classes as the server words them (sent as data: the page's script carries no list of its own). */
-  supplies: ReadonlyArray<{ value: string; label: string }>;
+  choices: FilterChoices;
   errors: Record<string, string[]> | null;
   /** A field changed; `commit` when the change should search at once (boxes, menus). */
   onChange: (key: DraftKey, value: SearchDraft[DraftKey], commit: boolean) => void;
@@ -59,7 +68,7 @@ type PanelProps = {
 };
 
 /** Facets, ranges and accuracy limits. A plain GET form underneath, so it also works before JavaScript loads. */
-export function FilterPanel({ draft, units, facets, supplies, errors, onChange, onCommit, onClear }: PanelProps) {
+export function FilterPanel({ draft, units, facets, choices, errors, onChange, onCommit, onClear }: PanelProps) {
   const length = lengthUnitLabel(units);
   const deviation = deviationUnitLabel(units);
   const toggle = (key: "category" | "grade", value: string, checked: boolean) =>
@@ -97,7 +106,7 @@ export function FilterPanel({ draft, units, facets, supplies, errors, onChange, 
       </Group>
 
       <Group title="Kind of machine">
-        {machineCategories.map((category) => {
+        {choices.categories.map((category) => {
           const counted = facets?.category[category.value] ?? 0;
           return (
             <label key={category.value} className={cx("flex cursor-pointer items-center justify-between gap-3 text-sm", counted === 0 && !draft.category.includes(category.value) && "text-ink-400")}>
@@ -205,7 +214,7 @@ export function FilterPanel({ draft, units, facets, supplies, errors, onChange, 
             value={draft.currency}
             onChange={(event) => onChange("currency", event.target.value, Boolean(draft.priceMin || draft.priceMax))}
           >
-            {currencies.map((currency) => (
+            {choices.currencies.map((currency) => (
               <option key={currency} value={currency}>
                 {currency}
               </option>
@@ -221,7 +230,7 @@ export function FilterPanel({ draft, units, facets, supplies, errors, onChange, 
           <span className="sr-only">Runs on</span>
           <select name="supply" className={cx(control, "border-ink-300")} value={draft.supply} onChange={(event) => onChange("supply", event.target.value, true)}>
             <option value="">Any supply</option>
-            {supplies.map((supply) => (
+            {choices.supplies.map((supply) => (
               <option key={supply.value} value={supply.value}>
                 {supply.label}
               </option>
@@ -236,7 +245,7 @@ export function FilterPanel({ draft, units, facets, supplies, errors, onChange, 
           <span className="sr-only">Country</span>
           <select name="country" className={cx(control, "border-ink-300")} value={draft.country} onChange={(event) => onChange("country", event.target.value, true)}>
             <option value="">Any country</option>
-            {countryOptions.map((country) => (
+            {choices.countries.map((country) => (
               <option key={country.value} value={country.value}>
                 {country.label}
                 {facets?.country[country.value] ? ` (${facets.country[country.value]})` : ""}
