@@ -2,7 +2,8 @@
 // key figure or date (listings, search, the API, the report page) checks the stored credential's Ed25519
 // proof against the issuer's registered keys, that it seals this row's content hash, and that the row's
 // columns still say what the credential says; a report that fails is not shown as verified.
-import { asc } from "drizzle-orm";
+import { asc, sql, type SQL } from "drizzle-orm";
+import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { Executor } from "~/modules/inspections/profiles.server";
 import { publicKeyFromMultibase, verifyDataIntegrityProof, type ReportCredential, type ReportCredentialSubject } from "./credential";
 import type { ReportContent } from "./content";
@@ -27,6 +28,17 @@ export interface StoredSealedReport {
   canonicalJson: string | null;
   contentHash: string | null;
   credential: string | null;
+  /**
+   * Instead of the credential's text, lists may read its SHA-256 (lower-case hex of the UTF-8 text, computed
+   * by the database: `credentialSha256Sql`). A credential verified earlier with that digest is used as it
+   * was; otherwise `loadCredential` reads the text and it is verified.
+   */
+  credentialSha256?: string | null;
+  /**
+   * The key figures as the database's JSON text (`key_figures::text`), instead of parsed: a text already
+   * found equal to the signed figures is not compared again.
+   */
+  keyFiguresText?: string | null;
 }
 
 export type SealedReading =
@@ -79,18 +91,42 @@ export function signingKeysAre(digest: string) {
   keysSeen = digest;
 }
 
-// A proof already checked, by report id, with the exact credential text it was checked on: a row read again
-// unchanged is not verified again, and any changed byte misses the cache.
-const verified = new Map<string, { credential: string; subject: ReportCredentialSubject; keyId: string }>();
+/**
+ * The SHA-256 of a report's stored credential as lower-case hex of its UTF-8 text, computed by the database
+ * (named in pg_catalog, so that no function of the same name in another schema stands in for it).
+ */
+export const credentialSha256Sql = (credential: SQL | AnyPgColumn) => sql<string | null>`encode(pg_catalog.sha256(convert_to(${credential}, 'UTF8')), 'hex')`;
+
+// A proof already checked, by report id, with the exact credential text it was checked on and that text's
+// SHA-256 (computed here, from the text verified): a row read again unchanged is not verified again, and any
+// changed byte misses the cache. A list that reads the database's digest of the stored text instead of the
+// text stays as safe against a hostile database: what it shows is always a credential verified here for this
+// report id (the subject's report id, hash and figures are still compared with the row); a changed credential
+// has another digest and is read whole and verified; and a database that lied about the digest could at most
+// have a credential shown that was verified for this very report — as it could by storing that text again.
+type VerifiedEntry = { credential: string; sha256: string; subject: ReportCredentialSubject; keyId: string; subjectFigures: string; figuresTextsMatched: Set<string> };
+const verified = new Map<string, VerifiedEntry>();
 const VERIFIED_CACHE_SIZE = 50_000;
 
 function sameFigures(a: unknown, b: unknown) {
   return canonicalJson(a ?? null) === canonicalJson(b ?? null);
 }
 
-async function verifiedCredential(db: Executor, id: string, text: string): Promise<{ ok: true; subject: ReportCredentialSubject; keyId: string } | { ok: false; reason: string }> {
+/** Whether the stored figures (as given, or as the database's JSON text) are the signed ones. */
+function figuresMatch(entry: VerifiedEntry | undefined, subject: ReportCredentialSubject, row: StoredSealedReport): boolean {
+  if (row.keyFiguresText === undefined || row.keyFiguresText === null) return sameFigures(subject.keyFigures, row.keyFigures);
+  if (entry?.subject === subject && entry.figuresTextsMatched.has(row.keyFiguresText)) return true;
+  const same = (entry?.subject === subject ? entry.subjectFigures : canonicalJson(subject.keyFigures ?? null)) === canonicalJson(JSON.parse(row.keyFiguresText) ?? null);
+  // Only texts found equal are remembered (a few per report at most: JSONB prints one value one way).
+  if (same && entry?.subject === subject && entry.figuresTextsMatched.size < 4) entry.figuresTextsMatched.add(row.keyFiguresText);
+  return same;
+}
+
+type CredentialCheck = { ok: true; subject: ReportCredentialSubject; keyId: string; entry?: VerifiedEntry } | { ok: false; reason: string };
+
+async function verifiedCredential(db: Executor, id: string, text: string): Promise<CredentialCheck> {
   const cached = verified.get(id);
-  if (cached && cached.credential === text) return { ok: true, subject: cached.subject, keyId: cached.keyId };
+  if (cached && cached.credential === text) return { ok: true, subject: cached.subject, keyId: cached.keyId, entry: cached };
   let credential: ReportCredential;
   try {
     credential = JSON.parse(text) as ReportCredential;
@@ -106,8 +142,24 @@ async function verifiedCredential(db: Executor, id: string, text: string): Promi
   const proof = await verifyDataIntegrityProof(credential as unknown as Record<string, unknown>, key.publicKey);
   if (!proof.verified) return { ok: false, reason: proof.reason };
   if (verified.size >= VERIFIED_CACHE_SIZE) verified.clear();
-  verified.set(id, { credential: text, subject: credential.credentialSubject, keyId });
-  return { ok: true, subject: credential.credentialSubject, keyId };
+  const subject = credential.credentialSubject;
+  const entry: VerifiedEntry = { credential: text, sha256: sha256Hex(text), subject, keyId, subjectFigures: canonicalJson(subject?.keyFigures ?? null), figuresTextsMatched: new Set() };
+  verified.set(id, entry);
+  return { ok: true, subject, keyId, entry };
+}
+
+/** Whether this report's credential with this digest was verified in this process (and is still remembered). */
+export function credentialKnown(id: string, sha256: string | null | undefined): boolean {
+  return !!sha256 && verified.get(id)?.sha256 === sha256;
+}
+
+async function storedCredential(db: Executor, row: StoredSealedReport, loadCredential: ((id: string) => Promise<string | null>) | undefined): Promise<CredentialCheck | null> {
+  if (row.credential !== null) return verifiedCredential(db, row.id, row.credential);
+  if (!row.credentialSha256) return null;
+  const cached = verified.get(row.id);
+  if (cached && cached.sha256 === row.credentialSha256) return { ok: true, subject: cached.subject, keyId: cached.keyId, entry: cached };
+  const text = loadCredential ? await loadCredential(row.id) : null;
+  return text === null ? null : verifiedCredential(db, row.id, text);
 }
 
 /**
@@ -115,17 +167,21 @@ async function verifiedCredential(db: Executor, id: string, text: string): Promi
  * JSON and compares the JSONB copy and the identity columns (the report page and the API); lists check the
  * proof and the figures they show.
  */
-export async function readSealedReport(db: Executor, row: StoredSealedReport, options: { checkContent?: boolean } = {}): Promise<SealedReading> {
-  if (!row.credential) return refuse(row.id, "The report has no signed credential.", ["credential"]);
-  const credential = await verifiedCredential(db, row.id, row.credential);
+export async function readSealedReport(
+  db: Executor,
+  row: StoredSealedReport,
+  options: { checkContent?: boolean; loadCredential?: (id: string) => Promise<string | null> } = {},
+): Promise<SealedReading> {
+  const credential = row.credential === "" ? null : await storedCredential(db, row, options.loadCredential);
+  if (!credential) return refuse(row.id, "The report has no signed credential.", ["credential"]);
   if (!credential.ok) return refuse(row.id, credential.reason, ["credential"]);
-  const { subject, keyId } = credential;
+  const { subject, keyId, entry } = credential;
 
   const mismatched: string[] = [];
   if (subject.reportId !== row.id) mismatched.push("id");
   if (subject.content.sha256 !== row.contentHash) mismatched.push("content_hash");
   if (subject.grade !== row.grade) mismatched.push("grade");
-  if (!sameFigures(subject.keyFigures, row.keyFigures)) mismatched.push("key_figures");
+  if (!figuresMatch(entry, subject, row)) mismatched.push("key_figures");
   if (subject.measuredOn !== row.measuredOn) mismatched.push("measured_on");
   if (subject.signedAt !== row.signedAt?.toISOString()) mismatched.push("signed_at");
   if (row.listingId !== undefined && subject.machine.listingId !== row.listingId) mismatched.push("listing_id");

@@ -2,7 +2,7 @@
 // the full re-index) and for the fallback search that runs the buyer's filters here when the search service
 // is down or slow. It reads the listings' and reports' tables directly because those domains export no
 // query of this shape; it never writes to them.
-import { and, asc, count, desc, eq, gt, gte, inArray, lte, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, lte, or, sql, type SQL } from "drizzle-orm";
 import type { AnyPgColumn } from "drizzle-orm/pg-core";
 import type { Database } from "~/db/client.server";
 import type { KeyFigures } from "~/geometry/types";
@@ -11,16 +11,15 @@ import { fileUrl } from "~/modules/files/serve.server";
 import { labelOf, machineCategories } from "~/modules/listings/catalogue";
 import { listingPhotos, listings } from "~/modules/listings/schema";
 import { reports } from "~/modules/reports/schema";
-import { readSealedReport } from "~/modules/reports/sealed-read.server";
+import { credentialKnown, credentialSha256Sql, readSealedReport } from "~/modules/reports/sealed-read.server";
 import {
   listingToSearchDocument,
-  type ListingSearchDocument,
   type SearchableListing,
   type SearchableReport,
 } from "../../../search/document.ts";
 import { supplyClassOf, type ListingSearchQuery, type NumberRange } from "../../../search/query.ts";
 import { listingSearch } from "./schema";
-import { LISTING_FACETS, type ListingCursorKey, type ListingFacet, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
+import { LISTING_FACETS, LISTING_HIT_ATTRIBUTES, type ListingCursorKey, type ListingFacet, type ListingSearchHit, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
 
 /** A listing as the search sees it, with its current report and when that report was signed. */
 export type SourceListing = { listing: SearchableListing; report: SearchableReport | null; reportSignedAt: Date | null };
@@ -80,6 +79,149 @@ async function sealed<Row extends JoinedRow>(db: Database, rows: Row[]): Promise
       return { ...row, grade: subject.grade, keyFigures: subject.keyFigures, measuredOn: subject.measuredOn, signedAt: new Date(subject.signedAt) };
     }),
   );
+}
+
+// A page of results reads only what a result shows (LISTING_HIT_ATTRIBUTES): no description or seller, and
+// the report's credential as the database's digest of it, its text only when this process has not verified
+// that credential yet (readSealedReport).
+const pageSelection = {
+  id: listings.id,
+  slug: listings.slug,
+  status: listings.status,
+  category: listings.category,
+  condition: listings.condition,
+  make: listings.make,
+  model: listings.model,
+  year: listings.year,
+  swingOverBedMm: listings.swingOverBedMm,
+  distanceBetweenCentresMm: listings.distanceBetweenCentresMm,
+  priceMinor: listings.priceMinor,
+  currency: listings.currency,
+  city: listings.city,
+  region: listings.region,
+  country: listings.country,
+  publishedAt: listings.publishedAt,
+  coverKey,
+  reportId: reports.id,
+  grade: reports.grade,
+  keyFiguresText: sql<string | null>`${reports.keyFigures}::text`,
+  measuredOn: reports.measuredOn,
+  signedAt: reports.signedAt,
+  contentHash: reports.contentHash,
+  credentialSha256: credentialSha256Sql(reports.credential),
+  profileKey: reports.profileKey,
+  profileVersion: reports.profileVersion,
+};
+
+type PageRow = {
+  id: string;
+  slug: string;
+  status: string;
+  category: string;
+  condition: string;
+  make: string;
+  model: string;
+  year: number | null;
+  swingOverBedMm: number | null;
+  distanceBetweenCentresMm: number | null;
+  priceMinor: number | null;
+  currency: string | null;
+  city: string | null;
+  region: string | null;
+  country: string;
+  publishedAt: Date | null;
+  coverKey: string | null;
+  reportId: string | null;
+  grade: string | null;
+  keyFiguresText: string | null;
+  measuredOn: string | null;
+  signedAt: Date | null;
+  contentHash: string | null;
+  credentialSha256: string | null;
+  profileKey: string | null;
+  profileVersion: number | null;
+  cursorKey: ListingCursorKey;
+};
+
+type SealedPageRow = PageRow & { keyFigures: unknown };
+
+/** The page's rows with their report figures as the signed credentials seal them (as `sealed`). */
+async function sealedPage(db: Database, rows: PageRow[]): Promise<SealedPageRow[]> {
+  // The credentials this process has not verified with these digests are read in one statement.
+  const unknown = rows.filter((row) => row.reportId && row.credentialSha256 && !credentialKnown(row.reportId, row.credentialSha256)).map((row) => row.reportId!);
+  const texts = unknown.length
+    ? new Map((await db.select({ id: reports.id, credential: reports.credential }).from(reports).where(inArray(reports.id, unknown))).map((row) => [row.id, row.credential]))
+    : new Map<string, string | null>();
+  const loadCredential = async (id: string) =>
+    texts.has(id) ? (texts.get(id) ?? null) : ((await db.select({ credential: reports.credential }).from(reports).where(eq(reports.id, id)))[0]?.credential ?? null);
+  return Promise.all(
+    rows.map(async (row) => {
+      if (!row.reportId || !row.grade || !row.measuredOn) return { ...row, keyFigures: null };
+      const reading = await readSealedReport(
+        db,
+        {
+          id: row.reportId,
+          listingId: row.id,
+          grade: row.grade,
+          keyFigures: undefined,
+          keyFiguresText: row.keyFiguresText ?? "null",
+          measuredOn: row.measuredOn,
+          signedAt: row.signedAt,
+          contentHash: row.contentHash,
+          canonicalJson: null,
+          credential: null,
+          credentialSha256: row.credentialSha256,
+          profileKey: row.profileKey ?? undefined,
+          profileVersion: row.profileVersion ?? undefined,
+        },
+        { loadCredential },
+      );
+      if (!reading.ok) return { ...row, reportId: null, grade: null, keyFigures: null, measuredOn: null, signedAt: null };
+      const { subject } = reading;
+      return { ...row, grade: subject.grade, keyFigures: subject.keyFigures, measuredOn: subject.measuredOn, signedAt: new Date(subject.signedAt) };
+    }),
+  );
+}
+
+/** One result as the index answers it: the document's hit attributes only. */
+function hitOf(row: SealedPageRow): ListingSearchHit {
+  const report: SearchableReport | null =
+    row.reportId && row.grade && row.measuredOn
+      ? {
+          id: row.reportId,
+          grade: row.grade as SearchableReport["grade"],
+          measuredOn: new Date(`${row.measuredOn}T00:00:00Z`),
+          keyFigures: { ...emptyFigures, ...((row.keyFigures ?? {}) as Partial<KeyFigures>) },
+        }
+      : null;
+  const document = listingToSearchDocument(
+    {
+      id: row.id,
+      slug: row.slug,
+      status: row.status,
+      category: row.category,
+      categoryLabel: labelOf(machineCategories, row.category),
+      condition: row.condition,
+      make: row.make,
+      model: row.model,
+      year: row.year,
+      // Not hit attributes: the page does not read them.
+      description: "",
+      sellerName: "",
+      spindleBoreMm: null,
+      swingMm: row.swingOverBedMm,
+      betweenCentresMm: row.distanceBetweenCentresMm,
+      priceMinor: row.priceMinor,
+      currency: row.currency,
+      city: row.city,
+      region: row.region,
+      country: row.country,
+      publishedAt: row.publishedAt,
+      photoUrl: row.coverKey ? fileUrl(row.coverKey) : null,
+    },
+    report,
+  );
+  return Object.fromEntries(LISTING_HIT_ATTRIBUTES.map((name) => [name, document[name]])) as ListingSearchHit;
 }
 
 const emptyFigures: KeyFigures = {
@@ -210,6 +352,12 @@ function idsCondition(ids: string[]): SQL {
   return valid.length ? inArray(s.listingId, valid) : sql`false`;
 }
 
+/** The accuracy limits: each holds only listings whose current report has the figure. */
+const accuracyLimitKeys = [
+  "maxSpindleRunoutUm", "maxAxialSlipUm", "maxSpindleParallelismUm", "maxCentreHeightUm", "maxBedStraightnessUm", "maxTableFlatnessUm", "maxTravelSquarenessUm",
+  "maxXPositioningAccuracyUm", "maxXRepeatabilityUm", "maxYPositioningAccuracyUm", "maxYRepeatabilityUm", "maxZPositioningAccuracyUm", "maxZRepeatabilityUm",
+] as const satisfies readonly (keyof ListingSearchQuery)[];
+
 // Each condition keyed by what it tests and with which values, so that the searches of one request can share the
 // conditions they have in common (searchListingsInDatabaseTogether).
 type KeyedCondition = { key: string; condition: SQL };
@@ -256,6 +404,11 @@ function conditionsFor(query: ListingSearchQuery, now: Date): KeyedCondition[] {
     const since = new Date(now.getTime() - query.maxReportAgeDays * 86_400_000).toISOString().slice(0, 10);
     put("reportAge", since, gte(s.measuredOn, since));
   }
+  // Said again where a condition above implies it (a grade, figure, date or verified mark is a report's), so
+  // that PostgreSQL may read the indexes kept for listings with a report (the best-accuracy order).
+  const reportImplied =
+    query.verifiedOnly || query.grades?.length || query.maxReportAgeDays !== undefined || accuracyLimitKeys.some((key) => query[key] !== undefined && query[key] !== null);
+  if (reportImplied) put("hasReport", true, isNotNull(s.reportId));
   if (query.supply) put("supply", query.supply, supplyCondition(query.supply));
   if (query.countries?.length) put("countries", query.countries, inArray(s.country, query.countries));
   if (query.region) put("region", facetText(query.region), eq(s.regionKey, facetText(query.region)));
@@ -321,16 +474,9 @@ function afterCondition(keys: SortKey[], after: ListingCursorKey): SQL | undefin
   return and(bound, or(...terms.filter((term): term is SQL => term !== undefined)) ?? sql`false`);
 }
 
-const facetColumns: Record<ListingFacet, SQL> = {
-  category: sql`${s.category}::text`,
-  grade: sql`${s.grade}`,
-  verified: sql`${s.verified}::text`,
-  country: sql`${s.country}`,
-};
-
-/** The bit GROUPING() sets for each facet's row (1 = aggregated away; first argument highest), and the total's. */
-const facetGroupings: Record<ListingFacet, number> = { category: 0b0111, grade: 0b1011, verified: 0b1101, country: 0b1110 };
-const totalGrouping = 0b1111;
+// The facets' columns: the counts are grouped by every facet asked for at once (one hash or one ordered pass
+// over the facets index), and each facet's counts are the sums over the other columns.
+const facetColumns: Record<ListingFacet, AnyPgColumn> = { category: s.category, grade: s.grade, verified: s.verified, country: s.country };
 
 type DatabaseResult = ListingSearchResult & {
   /** The page's last row's sort values (null past the last page): where a cursor continues. */
@@ -356,7 +502,7 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
   if (!queries.length) return [];
   const conditions = queries.map((query) => conditionsFor(query, now));
 
-  const pageRows = async (query: ListingSearchRequest, where: SQL | undefined): Promise<(JoinedRow & { cursorKey: ListingCursorKey })[]> => {
+  const pageRows = async (query: ListingSearchRequest, where: SQL | undefined): Promise<PageRow[]> => {
     const hitsPerPage = query.hitsPerPage ?? 20;
     if (hitsPerPage === 0) return [];
     // The page's ids first, in order, from listing_search alone (an index read in order that stops at the
@@ -364,10 +510,11 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
     const keys = sortKeysFor(query);
     const order = orderOf(keys);
     const after = query.after ? afterCondition(keys, query.after) : undefined;
+    // Ordered again outside by the same columns of the joined listing_search row (a window's row number would
+    // make PostgreSQL sort every match instead of keeping the page's top rows).
     const ids = db
       .select({
         listingId: s.listingId,
-        position: sql<number>`row_number() over (order by ${sql.join(order, sql`, `)})`.as("position"),
         cursorKey: sql<ListingCursorKey>`json_build_array(${sql.join(keys.map(keyValueOf), sql`, `)})`.as("cursor_key"),
       })
       .from(s)
@@ -377,13 +524,12 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
       .offset(after ? 0 : ((query.page ?? 1) - 1) * hitsPerPage)
       .as("page");
     return db
-      .select({ ...joinedSelection, cursorKey: ids.cursorKey })
+      .select({ ...pageSelection, cursorKey: ids.cursorKey })
       .from(ids)
       .innerJoin(listings, eq(listings.id, ids.listingId))
-      .innerJoin(user, eq(user.id, listings.sellerId))
-      .leftJoin(s, eq(s.listingId, ids.listingId))
+      .innerJoin(s, eq(s.listingId, ids.listingId))
       .leftJoin(reports, currentReportOf(s.reportId))
-      .orderBy(ids.position);
+      .orderBy(...order);
   };
 
   // What every search filters on is the scan's condition; what differs is counted per search.
@@ -396,34 +542,21 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
     (queries.length === 1 ? sql`count(*)` : sql`count(*) filter (where ${ownConditions[position]})`).mapWith(Number).as(`count_${position}`),
   );
 
-  type CountRow = { grouping: number; value: string | null } & Record<string, unknown>;
+  type CountRow = Record<string, unknown>;
   const countRows = async (): Promise<CountRow[]> => {
     const where = and(allOf(shared), anyOwn);
-    if (!facetNames.length) {
-      const rows = await db.select(Object.fromEntries(counts.map((column, position) => [`count_${position}`, column]))).from(s).where(where);
-      return rows.map((row) => ({ ...row, grouping: totalGrouping, value: null }));
-    }
-    const sets = facetNames.map((facet) => sql`(${facetColumns[facet]})`);
-    // GROUPING() bits in LISTING_FACETS' order (a facet not asked for counts as aggregated away), and the
-    // value of the one facet a row is grouped by (the others are null in its grouping set).
-    const bits = LISTING_FACETS.map((facet, position) => {
-      const weight = 1 << (LISTING_FACETS.length - 1 - position);
-      return facetNames.includes(facet) ? sql`grouping(${facetColumns[facet]}) * ${sql.raw(String(weight))}` : sql.raw(String(weight));
-    });
-    const value = sql`coalesce(${sql.join(facetNames.map((facet) => facetColumns[facet]), sql`, `)})`;
+    const countColumns = Object.fromEntries(counts.map((column, position) => [`count_${position}`, column]));
+    if (!facetNames.length) return db.select(countColumns).from(s).where(where);
+    const groups = facetNames.map((facet) => facetColumns[facet]);
     return db
-      .select({
-        grouping: sql<number>`${sql.join(bits, sql` + `)}`.mapWith(Number),
-        value: sql<string | null>`${value}`,
-        ...Object.fromEntries(counts.map((column, position) => [`count_${position}`, column])),
-      })
+      .select({ ...Object.fromEntries(facetNames.map((facet) => [facet, facetColumns[facet]])), ...countColumns })
       .from(s)
       .where(where)
-      .groupBy(sql`grouping sets (${sql.join([...sets, sql`()`], sql`, `)})`) as Promise<CountRow[]>;
+      .groupBy(...groups);
   };
 
   const [pages, grouped] = await Promise.all([
-    Promise.all(queries.map(async (query, position) => sealed(db, await pageRows(query, allOf(conditions[position]!))))),
+    Promise.all(queries.map(async (query, position) => sealedPage(db, await pageRows(query, allOf(conditions[position]!))))),
     countRows(),
   ]);
 
@@ -435,21 +568,22 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
     let total = 0;
     for (const row of grouped) {
       const counted = Number(row[`count_${position}`] ?? 0);
-      if (row.grouping === totalGrouping) {
-        total = counted;
-        continue;
+      if (counted === 0) continue;
+      total += counted;
+      for (const facet of facetNames) {
+        const value = row[facet];
+        if (!asked.includes(facet) || value === null || value === undefined) continue;
+        const key = String(value);
+        facets[facet][key] = (facets[facet][key] ?? 0) + counted;
       }
-      const facet = facetNames.find((name) => facetGroupings[name] === row.grouping);
-      if (facet && asked.includes(facet) && counted > 0 && row.value !== null && row.value !== undefined) facets[facet][String(row.value)] = counted;
     }
+    // Each facet's values in the index's order (alphabetical), whatever order the groups came in.
+    for (const facet of facetNames) facets[facet] = Object.fromEntries(Object.entries(facets[facet]).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
     const rows = pages[position]!;
     const totalPages = hitsPerPage === 0 ? 0 : Math.ceil(total / hitsPerPage);
     const last = rows.at(-1);
     return {
-      hits: rows.map((row) => {
-        const source = toSource(row);
-        return listingToSearchDocument(source.listing, source.report) satisfies ListingSearchDocument;
-      }),
+      hits: rows.map(hitOf),
       totalHits: total,
       page,
       hitsPerPage,

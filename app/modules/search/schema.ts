@@ -51,6 +51,8 @@ export const listingSearch = pgTable(
       .on(table.gradeRank, table.spindleRunoutUm, table.publishedAt.desc().nullsLast(), table.listingId.desc())
       .where(sql`${table.status} = 'published' and ${table.reportId} is not null`),
     // An accuracy limit (`<=`) only matches listings that have the figure: each figure's index holds those.
+    // These four and the best-accuracy index also carry the facets' columns (INCLUDE, which this builder cannot
+    // declare: drizzle/0031_search-covering-indexes.sql), so their searches count facets from the index alone.
     index("listing_search_runout_idx").on(table.spindleRunoutUm).where(sql`${table.spindleRunoutUm} is not null`),
     index("listing_search_axial_slip_idx").on(table.axialSlipUm).where(sql`${table.axialSlipUm} is not null`),
     index("listing_search_parallelism_idx").on(table.parallelismVerticalUm).where(sql`${table.parallelismVerticalUm} is not null`),

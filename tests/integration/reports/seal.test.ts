@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestUser, testAppOrigin } from "../../support/accounts";
 import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
 import { currentReportForListing } from "~/modules/reports/service.server";
-import { loadSearchableListings } from "~/modules/search/listing-source.server";
+import { loadSearchableListings, searchListingsInDatabase } from "~/modules/search/listing-source.server";
 import { sha256Hex } from "~/modules/reports/seal.server";
 import { reports, type ReportRow } from "~/modules/reports/schema";
 
@@ -120,7 +120,13 @@ describe("a signed report changed by the owner role", () => {
     ["listing_id", () => otherListingId, "listing_id"],
   ];
 
+  // The PostgreSQL search's page of these two listings, whatever their status: the report each result shows.
+  const searchedReports = async () =>
+    (await searchListingsInDatabase(db, { ids: [listingId, otherListingId], statuses: ["draft", "published", "sold", "withdrawn"], hitsPerPage: 5 })).hits.map((hit) => hit.reportId);
+
   it.each(mutations)("%s: the API, the verification and the pages refuse it and name the column", async (column, value, named) => {
+    // The search has verified the credential before the change (it then reads only the credential's digest).
+    expect(await searchedReports()).toContain(signed.id);
     const undo = await tamper(column, value());
     try {
       const api = await fetch(`${testAppOrigin}/api/v1/reports/${signed.id}`);
@@ -144,6 +150,7 @@ describe("a signed report changed by the owner role", () => {
         for (const id of [listingId, otherListingId]) expect((await currentReportForListing(db, id))?.id).not.toBe(signed.id);
         const searchable = await loadSearchableListings(db, [listingId, otherListingId]);
         for (const source of searchable.values()) expect(source.report?.id).not.toBe(signed.id);
+        expect(await searchedReports()).not.toContain(signed.id);
         const listingPage = await (await fetch(`${testAppOrigin}/machines/${listingSlug}`)).text();
         expect(listingPage).not.toContain(`/reports/${signed.id}`);
         expect(listingPage).not.toContain('data-testid="accuracy-panel"');
@@ -157,6 +164,7 @@ describe("a signed report changed by the owner role", () => {
     }
     // Put back as signed, it is shown again.
     expect((await currentReportForListing(db, listingId))?.id).toBe(signed.id);
+    expect(await searchedReports()).toContain(signed.id);
     expect((await fetch(`${testAppOrigin}/api/v1/reports/${signed.id}`)).status).toBe(200);
   });
 
