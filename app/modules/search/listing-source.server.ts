@@ -18,7 +18,7 @@ import {
   type SearchableReport,
 } from "../../../search/document.ts";
 import { supplyClassOf, type ListingSearchQuery, type NumberRange } from "../../../search/query.ts";
-import { listingSearch } from "./schema";
+import { listingSearch, listingSearchCounts } from "./schema";
 import { LISTING_FACETS, LISTING_HIT_ATTRIBUTES, type ListingCursorKey, type ListingFacet, type ListingSearchHit, type ListingSearchRequest, type ListingSearchResult } from "./search.server";
 
 /** A listing as the search sees it, with its current report and when that report was signed. */
@@ -478,6 +478,28 @@ function afterCondition(keys: SortKey[], after: ListingCursorKey): SQL | undefin
 // over the facets index), and each facet's counts are the sums over the other columns.
 const facetColumns: Record<ListingFacet, AnyPgColumn> = { category: s.category, grade: s.grade, verified: s.verified, country: s.country };
 
+const c = listingSearchCounts;
+const countedFacetColumns: Record<ListingFacet, AnyPgColumn> = { category: c.category, grade: c.grade, verified: c.verified, country: c.country };
+
+// The filters listing_search_counts can answer: a listing's status and the facets' own columns. A report is implied
+// by a verified mark or a grade there (the counts hold no listing without one under those values), so that
+// condition is left out.
+const countedFilters = new Set(["statuses", "categories", "grades", "verified", "countries", "hasReport"]);
+
+/** The search's conditions on listing_search_counts, or null when it filters on anything else. */
+function countsConditionsFor(query: ListingSearchQuery, keyed: KeyedCondition[]): KeyedCondition[] | null {
+  const filterOf = (entry: KeyedCondition) => entry.key.slice(0, entry.key.indexOf("#"));
+  if (!keyed.every((entry) => countedFilters.has(filterOf(entry)))) return null;
+  const on: Record<string, () => SQL> = {
+    statuses: () => inArray(c.status, (query.statuses ?? ["published"]) as (typeof listings.status.enumValues)[number][]),
+    categories: () => inArray(c.category, query.categories as (typeof listings.category.enumValues)[number][]),
+    grades: () => inArray(c.grade, query.grades!),
+    verified: () => eq(c.verified, true),
+    countries: () => inArray(c.country, query.countries!),
+  };
+  return keyed.filter((entry) => filterOf(entry) !== "hasReport").map((entry) => ({ key: entry.key, condition: on[filterOf(entry)]!() }));
+}
+
 type DatabaseResult = ListingSearchResult & {
   /** The page's last row's sort values (null past the last page): where a cursor continues. */
   nextKey: ListingCursorKey | null;
@@ -532,27 +554,33 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
       .orderBy(...order);
   };
 
-  // What every search filters on is the scan's condition; what differs is counted per search.
-  const shared = conditions[0]!.filter((entry) => conditions.every((own) => own.some((other) => other.key === entry.key)));
-  const sharedKeys = new Set(shared.map((entry) => entry.key));
-  const ownConditions = conditions.map((own) => allOf(own.filter((entry) => !sharedKeys.has(entry.key))) ?? sql`true`);
-  const anyOwn = ownConditions.length > 1 && conditions.every((own) => own.some((entry) => !sharedKeys.has(entry.key))) ? or(...ownConditions) : undefined;
   const facetNames = LISTING_FACETS.filter((facet) => queries.some((query) => (query.facets ?? LISTING_FACETS).includes(facet)));
-  const counts = queries.map((_, position) =>
-    (queries.length === 1 ? sql`count(*)` : sql`count(*) filter (where ${ownConditions[position]})`).mapWith(Number).as(`count_${position}`),
-  );
 
+  // What every search filters on is the scan's condition; what differs is counted per search. Searches that
+  // filter on the facets' columns alone are counted from listing_search_counts (a few hundred rows), the
+  // others from listing_search.
   type CountRow = Record<string, unknown>;
   const countRows = async (): Promise<CountRow[]> => {
+    const fromCounts = queries.map((query, position) => countsConditionsFor(query, conditions[position]!));
+    const lists = fromCounts.every((list) => list !== null) ? (fromCounts as KeyedCondition[][]) : conditions;
+    const source = lists === conditions ? { table: s, columns: facetColumns, counted: sql`1` } : { table: c, columns: countedFacetColumns, counted: sql`${c.listings}` };
+    const shared = lists[0]!.filter((entry) => lists.every((own) => own.some((other) => other.key === entry.key)));
+    const sharedKeys = new Set(shared.map((entry) => entry.key));
+    const ownConditions = lists.map((own) => allOf(own.filter((entry) => !sharedKeys.has(entry.key))) ?? sql`true`);
+    const anyOwn = ownConditions.length > 1 && lists.every((own) => own.some((entry) => !sharedKeys.has(entry.key))) ? or(...ownConditions) : undefined;
+    const countColumns = Object.fromEntries(
+      queries.map((_, position) => [
+        `count_${position}`,
+        (queries.length === 1 ? sql`coalesce(sum(${source.counted}), 0)` : sql`coalesce(sum(${source.counted}) filter (where ${ownConditions[position]}), 0)`).mapWith(Number),
+      ]),
+    );
     const where = and(allOf(shared), anyOwn);
-    const countColumns = Object.fromEntries(counts.map((column, position) => [`count_${position}`, column]));
-    if (!facetNames.length) return db.select(countColumns).from(s).where(where);
-    const groups = facetNames.map((facet) => facetColumns[facet]);
+    if (!facetNames.length) return db.select(countColumns).from(source.table).where(where);
     return db
-      .select({ ...Object.fromEntries(facetNames.map((facet) => [facet, facetColumns[facet]])), ...countColumns })
-      .from(s)
+      .select({ ...Object.fromEntries(facetNames.map((facet) => [facet, source.columns[facet]])), ...countColumns })
+      .from(source.table)
       .where(where)
-      .groupBy(...groups);
+      .groupBy(...facetNames.map((facet) => source.columns[facet]));
   };
 
   const [pages, grouped] = await Promise.all([

@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { bigint, boolean, date, doublePrecision, index, jsonb, pgTable, smallint, text, timestamp, uuid } from "drizzle-orm/pg-core";
+import { bigint, boolean, date, doublePrecision, index, jsonb, pgTable, smallint, text, timestamp, unique, uuid } from "drizzle-orm/pg-core";
 import { listings, listingStatus, machineCategory } from "../listings/schema";
 
 // What the PostgreSQL search filters, counts and sorts on: one row per listing with its current report's
@@ -61,4 +61,21 @@ export const listingSearch = pgTable(
     // The facets' columns together: the counts of a broad search read this narrow index, not the rows.
     index("listing_search_facets_idx").on(table.status, table.category, table.grade, table.verified, table.country),
   ],
+);
+
+// How many listings each combination of the facets' columns holds, kept in step with listing_search by its own
+// statement triggers (drizzle/0032_listing-search-counts.sql), in the same transaction as every write. A search
+// that filters on nothing but these columns (browsing, a category, grades, verified, countries) counts its
+// facets and total from these few hundred rows instead of every listing it matches.
+export const listingSearchCounts = pgTable(
+  "listing_search_counts",
+  {
+    status: listingStatus("status").notNull(),
+    category: machineCategory("category").notNull(),
+    grade: text("grade"),
+    verified: boolean("verified").notNull(),
+    country: text("country").notNull(),
+    listings: bigint("listings", { mode: "number" }).notNull(),
+  },
+  (table) => [unique("listing_search_counts_facets_key").on(table.status, table.category, table.grade, table.verified, table.country).nullsNotDistinct()],
 );
