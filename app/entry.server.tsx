@@ -27,10 +27,12 @@ try {
 // Once per process, when the server bundle is first loaded. A database that is down is retried inside.
 void startJobWorkers();
 
-// Our server (server/index.mjs) takes the static files' headers from the build, so they have one home, and
-// makes each request's router context here (it tells a page request from a client navigation's data request).
+// Our server (server/index.mjs) takes the static files' headers from the build, so they have one home, makes
+// each request's router context here (it tells a page request from a client navigation's data request), and
+// waits for the app's own stopping (the queue, the counted views, the pool) before it exits.
 export { staticFileHeaders } from "~/modules/security/headers.server";
 export { createLoadContext } from "~/modules/http/page-cache.server";
+export { serverWorkStopped } from "~/modules/jobs/workers.server";
 
 export const streamTimeout = 5_000;
 

@@ -43,8 +43,10 @@ let closing = false;
 function shutDown() {
   if (closing) return;
   closing = true;
-  server.close((error) => {
+  server.close(async (error) => {
     if (error) console.error(error);
+    // The app's own stopping (started by the same signal): counted views written, the queue stopped.
+    await build.entry.module.serverWorkStopped?.().catch((failure) => console.error(failure));
     process.exit(0);
   });
   server.closeIdleConnections();

@@ -4,6 +4,7 @@ import { env } from "~/env.server";
 import { getDatabase } from "~/db/client.server";
 import { declareFileWorkers } from "~/modules/files/abandoned-uploads.server";
 import { declareInspectionWorkers } from "~/modules/inspections/bookings.server";
+import { flushListingViews } from "~/modules/listings/views.server";
 import { declareWatchlistWorkers } from "~/modules/listings/watchlist.server";
 import { declareMailWorker } from "~/modules/mail/mail.server";
 import { declareSearchWorkers } from "~/modules/search/indexing.server";
@@ -51,7 +52,11 @@ function stopOnSignals() {
     process.once(signal, () => {
       stopping ??= (async () => {
         try {
+          // Views counted since the last write are stored first (the server exits within seconds), and
+          // again after the queue has stopped, for the requests that were still being answered.
+          await flushListingViews();
           await stopQueue({ timeoutMs: jobGraceMs });
+          await flushListingViews();
           await closeDatabase();
           await closeSearchConnections();
         } catch (error) {
@@ -65,4 +70,9 @@ function stopOnSignals() {
       })();
     });
   }
+}
+
+/** Resolves when the work stopped on a signal has finished (our server waits for it before it exits). */
+export function serverWorkStopped(): Promise<void> {
+  return stopping ?? Promise.resolve();
 }

@@ -472,13 +472,6 @@ export async function deleteDocument(db: Database, actor: SessionUser, listingId
 // ————— Public pages —————
 
 /** One more view of a public listing today: a counter per listing and day (callers leave out bots and the seller). */
-export async function countListingView(db: Database, listingId: string, now = new Date()) {
-  await db
-    .insert(listingDailyViews)
-    .values({ listingId, day: now.toISOString().slice(0, 10), views: 1 })
-    .onConflictDoUpdate({ target: [listingDailyViews.listingId, listingDailyViews.day], set: { views: sql`${listingDailyViews.views} + 1` } });
-}
-
 const publicStatuses: ListingStatus[] = ["published", "sold"];
 
 /** A listing as buyers see it; drafts and withdrawn listings only for their seller (as a preview) or an admin. */

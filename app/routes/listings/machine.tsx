@@ -10,7 +10,8 @@ import { Badge, Button, ButtonLink, Card, CardBody, CardHeader } from "~/compone
 import { databaseContext } from "~/db/context";
 import { getOptionalUser, requireUser, requireVerifiedUser } from "~/modules/accounts/guards.server";
 import { countryName, isLathe, labelOf, machineCategories, machineConditions } from "~/modules/listings/catalogue";
-import { countListingView, getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
+import { getPublicListing, ListingRuleError, sendInquiry, setWatch } from "~/modules/listings/service.server";
+import { countListingView } from "~/modules/listings/views.server";
 import { inquiryFormSchema } from "~/modules/listings/validation";
 import { MachineHistorySection } from "~/components/machines/machine-history";
 import { RebuildSection } from "~/components/rebuilds/rebuild-panel";
@@ -38,7 +39,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
   if (!found) throw data("There is no machine at this address. It may have been withdrawn, or the link mistyped.", { status: 404 });
-  if (isNewView(request) && found.listing.status === "published" && !found.isOwner) await countListingView(context.get(databaseContext), found.listing.id);
+  // Counted in memory and written in batches: the page waits for no write.
+  if (isNewView(request) && found.listing.status === "published" && !found.isOwner) countListingView(found.listing.id);
   const db = context.get(databaseContext);
   // Independent reads: sent together rather than one after another.
   const [accuracy, rebuild, history] = await Promise.all([

@@ -106,6 +106,14 @@ describe("a seller's tools", () => {
     await signInPage(page, seller.email, seller.password, "/sell");
     const rows = page.locator("tbody tr[data-listing-id]");
     await rows.first().waitFor();
+    // Views are written in batches every few seconds: reload until the buyer's visit is in.
+    const viewsColumn = (await page.locator("thead th").allTextContents()).findIndex((text) => text.startsWith("Views"));
+    const viewsOfNewest = page.locator(`tr[data-listing-id="${newer.listingId}"] td`).nth(viewsColumn);
+    for (let attempt = 0; attempt < 30 && (await viewsOfNewest.textContent()) !== "1"; attempt++) {
+      await page.waitForTimeout(1_000);
+      await page.reload();
+      await rows.first().waitFor();
+    }
     expect(await rows.evaluateAll((found) => found.map((row) => row.getAttribute("data-listing-id")))).toEqual([newer.listingId, older.listingId]);
     const newest = page.locator(`tr[data-listing-id="${newer.listingId}"]`);
     const cells = await newest.locator("td").allTextContents();
