@@ -1,6 +1,6 @@
 // React Router's default Node entry, plus the one thing the app server does besides answering requests:
 // it runs the job queue's workers (mail, search indexing, …) in this same process.
-import { PassThrough } from "node:stream";
+import { Transform, type TransformCallback } from "node:stream";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
@@ -35,6 +35,38 @@ export { createLoadContext } from "~/modules/http/page-cache.server";
 export { serverWorkStopped } from "~/modules/jobs/workers.server";
 
 export const streamTimeout = 5_000;
+
+/**
+ * Passes React's output on in one piece per flush of its queues instead of its 4 KB chunks: every piece goes
+ * through the web stream, the Express answer, compression (which flushes per piece) and the socket, so a
+ * search page sent in 2 or 3 pieces instead of 20 or more costs the server less and compresses better. React
+ * calls `flush()` when it has written all it has ready, so a streamed page still streams.
+ */
+class RenderedPieces extends Transform {
+  private held: Buffer[] = [];
+
+  constructor(private readonly onEnd: () => void) {
+    super();
+  }
+
+  override _transform(chunk: Buffer, _encoding: BufferEncoding, callback: TransformCallback) {
+    this.held.push(chunk);
+    callback();
+  }
+
+  flush() {
+    if (!this.held.length) return;
+    const piece = this.held.length === 1 ? this.held[0]! : Buffer.concat(this.held);
+    this.held = [];
+    this.push(piece);
+  }
+
+  override _flush(callback: TransformCallback) {
+    this.flush();
+    this.onEnd();
+    callback();
+  }
+}
 
 /**
  * Errors React Router caught on the server. A request it answers with a 4xx itself (a GET to an
@@ -93,12 +125,9 @@ export default function handleRequest(
       nonce,
       [readyOption]() {
         shellRendered = true;
-        const body = new PassThrough({
-          final(callback) {
-            clearTimeout(timeoutId);
-            timeoutId = undefined;
-            callback();
-          },
+        const body = new RenderedPieces(() => {
+          clearTimeout(timeoutId);
+          timeoutId = undefined;
         });
         const stream = createReadableStreamFromReadable(body);
         responseHeaders.set("Content-Type", "text/html");
