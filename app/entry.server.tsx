@@ -1,6 +1,6 @@
 // React Router's default Node entry, plus the one thing the app server does besides answering requests:
 // it runs the job queue's workers (mail, search indexing, …) in this same process.
-import { Transform, type TransformCallback } from "node:stream";
+import { Transform, Writable, type TransformCallback } from "node:stream";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
@@ -11,6 +11,7 @@ import { EnvironmentError, env } from "~/env.server";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
 import { entityTag, holdsTag, notModified } from "~/modules/http/conditional.server";
 import { renderFailedContext } from "~/modules/http/page-cache.server";
+import { joinWithNonce, keptPageIdentity, RENDER_NONCE_PLACEHOLDER, renderedPages, splitAroundPlaceholder } from "~/modules/http/rendered-pages.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
 
@@ -108,6 +109,15 @@ export default function handleRequest(
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }
 
+  // A page kept by the digest of its data (rendered-pages.server.ts) is sent without rendering it again.
+  const kept = keptPageIdentity(request, responseStatusCode, routerContext);
+  if (kept) {
+    responseHeaders.set("Content-Type", "text/html");
+    const page = renderedPages.get(kept.key, kept.digest);
+    if (page) return new Response(joinWithNonce(page.parts, nonce), { headers: responseHeaders, status: responseStatusCode });
+    return renderToKeep(routerContext, request, responseHeaders, nonce, kept);
+  }
+
   return new Promise((resolve, reject) => {
     let shellRendered = false;
     const userAgent = request.headers.get("user-agent");
@@ -143,6 +153,50 @@ export default function handleRequest(
         loadContext.set(renderFailedContext, true);
         // Errors inside the shell are logged here; shell errors reject and are logged by React Router.
         if (shellRendered) console.error(error);
+      },
+    });
+  });
+}
+
+/**
+ * Renders a page to be kept: whole (all ready), with the nonce's placeholder, stored, and answered with this
+ * request's nonce. A render that met an error is answered and not kept.
+ */
+function renderToKeep(routerContext: EntryContext, request: Request, responseHeaders: Headers, nonce: string, kept: { key: string; digest: string }) {
+  return new Promise<Response>((resolve, reject) => {
+    let failed = false;
+    const held: Buffer[] = [];
+    const timeoutId = setTimeout(() => abort(), streamTimeout + 1000);
+    const app = (
+      <NonceProvider value={RENDER_NONCE_PLACEHOLDER}>
+        <ServerRouter context={routerContext} url={request.url} nonce={RENDER_NONCE_PLACEHOLDER} />
+      </NonceProvider>
+    );
+    const { pipe, abort } = renderToPipeableStream(app, {
+      nonce: RENDER_NONCE_PLACEHOLDER,
+      onAllReady() {
+        const collector = new Writable({
+          write(chunk: Buffer, _encoding, callback) {
+            held.push(chunk);
+            callback();
+          },
+          final(callback) {
+            clearTimeout(timeoutId);
+            const html = Buffer.concat(held);
+            if (!failed) renderedPages.set(kept.key, kept.digest, html);
+            resolve(new Response(joinWithNonce(splitAroundPlaceholder(html), nonce), { headers: responseHeaders, status: failed ? 500 : 200 }));
+            callback();
+          },
+        });
+        pipe(collector);
+      },
+      onShellError(error: unknown) {
+        clearTimeout(timeoutId);
+        reject(error);
+      },
+      onError(error: unknown) {
+        failed = true;
+        console.error(error);
       },
     });
   });

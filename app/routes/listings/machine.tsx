@@ -35,6 +35,9 @@ export const meta: Route.MetaFunction = ({ data }) =>
       ]
     : [{ title: "Machine not found — Tenthmark" }];
 
+// Rendered once per version of its data for visitors without a session (app/modules/http/rendered-pages.server.ts).
+export const handle = { keepRendered: true };
+
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const found = await getPublicListing(context.get(databaseContext), params.slug, viewer);
@@ -50,7 +53,10 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   ]);
   // The question form's limits are read from its schema here, so that the page's script carries no schema.
   const inquiryConstraint: InquiryConstraint | null = viewer ? getZodConstraint(inquiryFormSchema) : null;
-  return { ...found, accuracy, rebuild, history, now: new Date().toISOString(), units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer), inquiryConstraint };
+  // The page reads the clock by the day only (a report's age in months, by UTC dates): the start of today
+  // makes the same page as the moment of the request, and keeps one rendering for the whole day.
+  const today = `${new Date().toISOString().slice(0, 10)}T00:00:00.000Z`;
+  return { ...found, accuracy, rebuild, history, now: today, units: (viewer?.displayUnits ?? "mm") as DisplayUnits, signedIn: Boolean(viewer), inquiryConstraint };
 }
 
 /** A person's arrival at the page: not a robot, and not this page reloaded or revalidated after its own forms. */

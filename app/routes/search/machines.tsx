@@ -20,6 +20,9 @@ export const meta: Route.MetaFunction = () => [
   { name: "description", content: "Used lathes and machine tools for sale. Filter by inspected spindle run-out, axial slip, parallelism and grade." },
 ];
 
+// Rendered once per search answer for visitors without a session (app/modules/http/rendered-pages.server.ts).
+export const handle = { keepRendered: true };
+
 export async function loader({ request, context }: Route.LoaderArgs) {
   const viewer = await getOptionalUser(request);
   const units: DisplayUnits = viewer?.displayUnits ?? "mm";
