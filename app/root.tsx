@@ -7,6 +7,7 @@ import { SiteFooter } from "~/components/layout/site-footer";
 import { SiteHeader, type HeaderUser } from "~/components/layout/site-header";
 import { databaseMiddleware } from "~/db/middleware.server";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
+import { personalLinks } from "~/modules/accounts/personal-links";
 import { securityMiddleware } from "~/modules/security/middleware.server";
 import { useNonce } from "~/modules/security/nonce";
 
@@ -18,7 +19,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user: HeaderUser = signedIn && {
     name: signedIn.name,
     email: signedIn.email,
-    roles: signedIn.roles,
+    links: personalLinks(signedIn.roles),
     displayUnits: signedIn.displayUnits,
     emailVerified: signedIn.emailVerified,
   };

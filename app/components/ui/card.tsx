@@ -4,7 +4,7 @@ import { cx } from "./cx";
 export function Card({ className, ...props }: HTMLAttributes<HTMLDivElement>) {
   return (
     <div
-      className={cx("rounded-panel border border-ink-200 bg-white shadow-panel", className)}
+      className={cx("ui-card", className)}
       {...props}
     />
   );

@@ -1,6 +1,6 @@
 // Accuracy figures as buyers read and type them: µm for millimetre users, inches for inch users (a dial
 // indicator in inch reads to 0.0001 in, "a tenth"). Stored and searched in µm. Pure: server and browser.
-import { formatDecimal, type DisplayUnits } from "~/modules/units/format";
+import { formatDecimal, type DisplayUnits } from "~/modules/units/lengths";
 
 // 1 in = 25 400 µm exactly (as ~/geometry/units); plain arithmetic here, so that the search page's script
 // does not load the engine's unit checks for numbers the form has already read.

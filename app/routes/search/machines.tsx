@@ -146,7 +146,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             <p className="mt-1 max-w-2xl text-ink-600">
               Filter on what an inspector measured: spindle run-out, axial slip, parallelism, centre height. Figures in{" "}
               {units === "inch" ? "inches" : "µm"}; change your units in{" "}
-              <Link to="/account" className="font-semibold underline underline-offset-2">
+              <Link to="/account" className="ui-text-link">
                 account settings
               </Link>
               .
@@ -166,7 +166,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               value={draft.q}
               onChange={(event) => change("q", event.target.value, false)}
               placeholder="Make, model, town… e.g. toolroom D1-4"
-              className="block h-12 w-full rounded-control border border-ink-300 bg-white px-4 text-base shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400"
+              className="search-words"
             />
           </label>
           <Button type="submit" size="lg">
@@ -178,7 +178,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
           <aside aria-label="Filters">
             <button
               type="button"
-              className="flex w-full items-center justify-between rounded-control border border-ink-300 bg-white px-4 py-3 text-sm font-semibold text-ink-900 lg:hidden"
+              className="search-filters-toggle"
               aria-expanded={filtersOpen}
               aria-controls="search-filters"
               onClick={() => setFiltersOpen((open) => !open)}
@@ -206,12 +206,12 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
 
           <section aria-label="Results" aria-busy={loading} className={cx("min-w-0 transition-opacity", loading && "opacity-60")}>
             {search?.notice ? (
-              <p role="status" className="mb-4 rounded-control border border-caution/30 bg-caution-soft px-4 py-3 text-sm text-ink-800" data-testid="search-notice">
+              <p role="status" className="search-message border-caution/30 bg-caution-soft" data-testid="search-notice">
                 {search.notice}
               </p>
             ) : null}
             {answer.failed ? (
-              <p role="alert" className="mb-4 flex flex-wrap items-center gap-3 rounded-control border border-beyond/30 bg-beyond-soft px-4 py-3 text-sm text-ink-800">
+              <p role="alert" className="search-message flex flex-wrap items-center gap-3 border-beyond/30 bg-beyond-soft">
                 The results could not be loaded. Check your connection and try again.
                 <Button size="sm" variant="secondary" onClick={() => setAttempt((count) => count + 1)}>
                   Try again
@@ -224,7 +224,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                 {search ? (search.totalHits === 1 ? "1 machine" : `${search.totalHits} machines`) : errors ? "Check the filters" : ""}
                 {search?.summary && search.summary !== "Every machine" ? <span className="font-normal text-ink-500"> · {search.summary}</span> : null}
               </h2>
-              <Link to={linkWith("view", list ? "" : "list")} className="ml-auto hidden text-sm font-semibold underline underline-offset-2 md:block">
+              <Link to={linkWith("view", list ? "" : "list")} className="ui-text-link ml-auto hidden text-sm md:block">
                 {list ? "Card view" : "List view"}
               </Link>
               <label className="flex items-center gap-2 text-sm text-ink-700">
@@ -233,7 +233,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                   name="sort"
                   value={draft.sort || (draft.q ? "relevance" : "newest")}
                   onChange={(event) => change("sort", event.target.value, true)}
-                  className="rounded-control border border-ink-300 bg-white py-1.5 pl-2 pr-8 text-sm"
+                  className="ui-control w-auto border-ink-300 py-1.5 pl-2 pr-8 text-sm"
                 >
                   {draft.q ? <option value="relevance">Best match</option> : null}
                   {sorts.map((sort) => (
@@ -259,7 +259,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             {search && search.hits.length ? (
               <p className="mt-3 text-sm text-ink-600">
                 Tick up to four machines, then{" "}
-                <button type="submit" form="compare-form" className="font-semibold text-ink-900 underline underline-offset-2">
+                <button type="submit" form="compare-form" className="ui-text-link text-ink-900">
                   compare the ticked machines
                 </button>
                 .
@@ -300,7 +300,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             {search && search.totalPages > 1 ? (
               <nav aria-label="Pages" className="mt-8 flex flex-wrap items-center justify-center gap-2">
                 {search.page > 1 ? (
-                  <Link to={linkWith("page", search.page - 1)} rel="prev" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={linkWith("page", search.page - 1)} rel="prev" className="search-page-link">
                     ← Previous
                   </Link>
                 ) : null}
@@ -311,16 +311,13 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                       key={page}
                       to={linkWith("page", page)}
                       aria-current={page === search.page ? "page" : undefined}
-                      className={cx(
-                        "min-w-10 rounded-control px-3 py-2 text-center text-sm font-semibold tabular",
-                        page === search.page ? "bg-ink-900 text-white" : "text-ink-700 hover:bg-ink-100",
-                      )}
+                      className="search-page-link min-w-10 text-center tabular"
                     >
                       {page}
                     </Link>
                   ))}
                 {search.page < search.totalPages ? (
-                  <Link to={linkWith("page", search.page + 1)} rel="next" className="rounded-control px-3 py-2 text-sm font-semibold text-ink-700 hover:bg-ink-100">
+                  <Link to={linkWith("page", search.page + 1)} rel="next" className="search-page-link">
                     Next →
                   </Link>
                 ) : null}
@@ -351,14 +348,14 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
       <h2 className="text-base font-bold text-ink-900">Hear about new matches</h2>
       {!account ? (
         <p className="mt-1 text-sm text-ink-600">
-          <Link to={`/sign-in?${new URLSearchParams({ redirectTo: here })}`} className="font-semibold text-ink-900 underline underline-offset-2">
+          <Link to={`/sign-in?${new URLSearchParams({ redirectTo: here })}`} className="ui-text-link text-ink-900">
             Sign in
           </Link>{" "}
           to save this search and get an e-mail when a matching machine is listed or verified.
         </p>
       ) : !account.verified ? (
         <p className="mt-1 text-sm text-ink-600">
-          <Link to={`/verify-email?${new URLSearchParams({ redirectTo: here })}`} className="font-semibold text-ink-900 underline underline-offset-2">
+          <Link to={`/verify-email?${new URLSearchParams({ redirectTo: here })}`} className="ui-text-link text-ink-900">
             Confirm your e-mail address
           </Link>{" "}
           to save searches with alerts.
@@ -366,7 +363,7 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
       ) : saved ? (
         <p className="mt-1 text-sm text-ink-700" role="status">
           Saved as “{saved.name}”. We will e-mail you when a machine matching it is listed or verified.{" "}
-          <Link to="/account/saved-searches" className="font-semibold underline underline-offset-2">
+          <Link to="/account/saved-searches" className="ui-text-link">
             Your saved searches
           </Link>
         </p>
@@ -377,7 +374,7 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
               value={name}
               onChange={(event) => setName(event.target.value)}
               maxLength={120}
-              className="block w-full rounded-control border border-ink-300 bg-white px-3 py-2 text-base shadow-xs focus:outline-none focus:ring-2 focus:ring-brass-400"
+              className="ui-control border-ink-300"
               aria-label="Name of the saved search"
             />
             {fetcher.data?.errors ? (

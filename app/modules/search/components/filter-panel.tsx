@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
-import { lengthUnitLabel, type DisplayUnits } from "~/modules/units/format";
+import { lengthUnitLabel, type DisplayUnits } from "~/modules/units/lengths";
 import { accuracyFilters, deviationUnitLabel } from "../figures";
 import type { MachineSearch } from "../service.server";
 import { inputName, type DraftKey, type SearchDraft } from "./search-form";
@@ -20,8 +20,8 @@ const reportAges = [
   { value: "365", label: "Last 12 months" },
 ];
 
-const control =
-  "block w-full rounded-control border bg-white px-3 py-2 text-base text-ink-900 shadow-xs placeholder:text-ink-400 focus:outline-none focus:ring-2 focus:ring-brass-400";
+// Text fields and menus: `ui-control` in app/app.css.
+const control = "ui-control";
 
 function invalid(errors: Record<string, string[]> | null, ...keys: string[]) {
   return keys.flatMap((key) => errors?.[key] ?? []);
@@ -30,7 +30,7 @@ function invalid(errors: Record<string, string[]> | null, ...keys: string[]) {
 function Group({ title, children }: { title: string; children: ReactNode }) {
   return (
     <fieldset className="border-t border-ink-200 pt-4">
-      <legend className="float-left mb-2 w-full text-sm font-bold text-ink-900">{title}</legend>
+      <legend className="search-group-title">{title}</legend>
       <div className="clear-both space-y-2">{children}</div>
     </fieldset>
   );
@@ -132,10 +132,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
           {grades.map((grade) => (
             <label
               key={grade.value}
-              className={cx(
-                "flex cursor-pointer flex-col items-center rounded-control border px-2 py-1.5 text-sm font-bold has-[:checked]:border-ink-900 has-[:checked]:bg-ink-900 has-[:checked]:text-white has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-brass-400",
-                "border-ink-300 text-ink-800",
-              )}
+              className="search-grade"
             >
               <input
                 type="checkbox"
@@ -157,7 +154,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
         {accuracyFilters.map((filter) => (
           <div key={filter.key}>
             <div className="flex items-baseline justify-between gap-2">
-              <span className="text-sm font-semibold text-ink-800" id={`${filter.param}-label`}>
+              <span className="search-field-label" id={`${filter.param}-label`}>
                 {filter.label}
               </span>
               <span className="text-xs text-ink-500">{deviation}</span>
@@ -167,7 +164,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
           </div>
         ))}
         <label className="block">
-          <span className="text-sm font-semibold text-ink-800">Report measured</span>
+          <span className="search-field-label">Report measured</span>
           <select
             name="reportAgeMax"
             className={cx(control, "border-ink-300")}
@@ -184,14 +181,14 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
       </Group>
 
       <Group title="Size">
-        <p className="text-sm font-semibold text-ink-800">Swing over bed ({length})</p>
+        <p className="search-field-label">Swing over bed ({length})</p>
         <div className="flex items-center gap-2">
           {numberInput("swingMin", `Smallest swing over bed (${length})`, "from", "any")}
           <span className="text-ink-400">–</span>
           {numberInput("swingMax", `Largest swing over bed (${length})`, "to", "any")}
         </div>
         <FieldErrors messages={invalid(errors, "swingMin", "swingMax", "swingMinIn", "swingMaxIn")} />
-        <p className="pt-1 text-sm font-semibold text-ink-800">Between centres ({length})</p>
+        <p className="search-field-label pt-1">Between centres ({length})</p>
         <div className="flex items-center gap-2">
           {numberInput("centresMin", `Shortest distance between centres (${length})`, "from", "any")}
           <span className="text-ink-400">–</span>

@@ -4,18 +4,13 @@ import { Card } from "~/components/ui/card";
 import { cx } from "~/components/ui/cx";
 import type { ListingHit } from "../service.server";
 
-const gradeTones: Record<string, string> = {
-  A: "bg-within text-white",
-  B: "bg-within-soft text-within ring-1 ring-inset ring-within/30",
-  C: "bg-caution-soft text-caution ring-1 ring-inset ring-caution/30",
-  D: "bg-beyond-soft text-beyond ring-1 ring-inset ring-beyond/30",
-  incomplete: "bg-ink-100 text-ink-600 ring-1 ring-inset ring-ink-200",
-};
+// The chip's tones are in app/app.css (`grade-chip-…`).
+const chipGrades = ["A", "B", "C", "D"];
 
 export function GradeChip({ grade, className }: { grade: string; className?: string }) {
   return (
     <span
-      className={cx("inline-flex size-10 shrink-0 items-center justify-center rounded-control text-xl font-extrabold", gradeTones[grade] ?? gradeTones.incomplete, className)}
+      className={cx("grade-chip", `grade-chip-${chipGrades.includes(grade) ? grade : "incomplete"}`, className)}
       role="img"
       aria-label={grade === "incomplete" ? "Report incomplete" : `Grade ${grade}`}
       data-grade={grade}
@@ -55,7 +50,7 @@ export function ResultCard({ hit }: { hit: ListingHit }) {
           </div>
           {display.sizes ? <p className="text-sm text-ink-600 tabular">{display.sizes}</p> : null}
           {display.figures.length ? (
-            <dl className="grid grid-cols-2 gap-x-3 gap-y-1 rounded-control bg-ink-50 px-3 py-2 text-xs" aria-label="Key figures of the current report">
+            <dl className="result-figures" aria-label="Key figures of the current report">
               {display.figures.map((figure) => (
                 <div key={figure.label} className="flex flex-col">
                   <dt className="text-ink-500">{figure.label}</dt>
@@ -80,7 +75,7 @@ export function ResultCard({ hit }: { hit: ListingHit }) {
         </div>
       </div>
       {hit.report ? (
-        <Link to={`/reports/${hit.report.id}`} className="relative z-10 border-t border-ink-200 px-4 py-2.5 text-sm font-semibold text-ink-700 hover:bg-ink-50">
+        <Link to={`/reports/${hit.report.id}`} className="result-report-link">
           Accuracy report of {hit.report.measuredOnText} →
         </Link>
       ) : null}

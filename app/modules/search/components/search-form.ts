@@ -1,7 +1,7 @@
 // The search page's form state: what each field shows, in the reader's units, read from the address and
 // written back to it in µm and mm. No validation library here (the server validates every parameter): this
 // runs in the browser on every change and must stay small.
-import { lengthFromMillimetres, lengthToMillimetres, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/format";
+import { lengthFromMillimetres, lengthToMillimetres, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/lengths";
 import { accuracyFilters, deviationFromInput, deviationInputValue } from "../figures";
 
 export type SearchDraft = {
