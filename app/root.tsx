@@ -91,10 +91,10 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   }
   return (
     <section className="mx-auto max-w-2xl px-4 py-20 text-center sm:px-6">
-      <p className="text-sm font-bold uppercase tracking-wide text-brass-600">Tenthmark</p>
+      <p className="ui-eyebrow text-sm text-brass-600">Tenthmark</p>
       <h1 className="mt-2 text-3xl font-extrabold text-ink-900">{title}</h1>
       <p className="mt-4 text-ink-600">{detail}</p>
-      <Link to="/" className="mt-8 inline-block font-semibold text-ink-900 underline underline-offset-4">
+      <Link to="/" className="ui-text-link mt-8 inline-block text-ink-900 underline-offset-4">
         Back to the home page
       </Link>
     </section>

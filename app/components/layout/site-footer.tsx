@@ -3,7 +3,7 @@ import { NameMark } from "./name-mark";
 
 export function SiteFooter() {
   return (
-    <footer className="mt-16 border-t border-ink-200 bg-white">
+    <footer className="site-footer">
       <div className="mx-auto grid max-w-6xl gap-8 px-4 py-10 sm:px-6 md:grid-cols-[1.4fr_1fr]">
         <div className="space-y-3">
           <NameMark />
@@ -13,11 +13,11 @@ export function SiteFooter() {
           </p>
         </div>
         <div>
-          <h2 className="text-xs font-bold uppercase tracking-wide text-ink-500">Marketplace</h2>
+          <h2 className="ui-eyebrow">Marketplace</h2>
           <ul className="mt-3 space-y-2 text-sm">
-            <li><Link className="text-ink-700 hover:text-ink-900" to="/machines">Machines for sale</Link></li>
-            <li><Link className="text-ink-700 hover:text-ink-900" to="/inspectors">Find an inspector</Link></li>
-            <li><Link className="text-ink-700 hover:text-ink-900" to="/sell">List a machine</Link></li>
+            <li><Link className="site-footer-link" to="/machines">Machines for sale</Link></li>
+            <li><Link className="site-footer-link" to="/inspectors">Find an inspector</Link></li>
+            <li><Link className="site-footer-link" to="/sell">List a machine</Link></li>
           </ul>
         </div>
       </div>

@@ -66,7 +66,7 @@ export function SiteHeader({ user }: { user: HeaderUser }) {
           <ul className="flex flex-col py-2">
             {navigation.map((item) => (
               <li key={item.to}>
-                <Link to={item.to} aria-current={current(item.to)} onClick={() => setMenuOpen(false)} className="block rounded px-2 py-3 text-base font-semibold text-ink-800">
+                <Link to={item.to} aria-current={current(item.to)} onClick={() => setMenuOpen(false)} className="site-menu-link">
                   {item.label}
                 </Link>
               </li>

@@ -36,6 +36,15 @@ export function widerLimits(micrometres: number, units: DisplayUnits, howMany = 
   return steps.filter((step) => step > micrometres + 1e-9).slice(0, howMany);
 }
 
+/**
+ * The accuracy limits' address parameters, in the filter panel's order: all the browser needs (the panel's
+ * labels come from the server, `accuracyFilters`). tests/unit/search/figures.test.ts keeps the two in step.
+ */
+export const accuracyParams = [
+  "runoutMax", "axialSlipMax", "parallelismMax", "centreHeightMax", "flatnessMax", "squarenessMax",
+  "xAccuracyMax", "xRepeatabilityMax", "yAccuracyMax", "yRepeatabilityMax", "zAccuracyMax", "zRepeatabilityMax",
+] as const;
+
 export const accuracyFilters = [
   { key: "maxSpindleRunoutUm", param: "runoutMax", label: "Spindle run-out" },
   { key: "maxAxialSlipUm", param: "axialSlipMax", label: "Axial slip" },

@@ -12,6 +12,7 @@ import { parseListingSearchParams } from "~/modules/search/search-params.server"
 import { searchMachines, type MachineSearch } from "~/modules/search/service.server";
 import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
 import { currencies, type DisplayUnits } from "~/modules/units/format";
+import { accuracyFilters } from "~/modules/search/figures";
 import { supplyClasses } from "../../../search/query.ts";
 import type { Route } from "./+types/machines";
 
@@ -33,6 +34,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
     categories: machineCategories,
     countries: countryOptions,
     currencies,
+    accuracy: accuracyFilters.map(({ param, label }) => ({ param, label })),
     supplies: supplyClasses.map(({ value, label }) => ({ value, label })),
   };
   if (!parsed.success) return { units, account, choices, search: null, errors: parsed.errors };
@@ -219,7 +221,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               </p>
             ) : null}
 
-            <div className="flex flex-wrap items-center justify-between gap-3">
+            <div className="search-row">
               <h2 ref={resultsHeadingRef} tabIndex={-1} className="text-sm font-semibold text-ink-700" aria-live="polite" data-testid="result-count">
                 {search ? (search.totalHits === 1 ? "1 machine" : `${search.totalHits} machines`) : errors ? "Check the filters" : ""}
                 {search?.summary && search.summary !== "Every machine" ? <span className="font-normal text-ink-500"> · {search.summary}</span> : null}
@@ -227,7 +229,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               <Link to={linkWith("view", list ? "" : "list")} className="ui-text-link ml-auto hidden text-sm md:block">
                 {list ? "Card view" : "List view"}
               </Link>
-              <label className="flex items-center gap-2 text-sm text-ink-700">
+              <label className="search-inline-label">
                 Sort
                 <select
                   name="sort"
@@ -284,7 +286,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                     <ul className="mt-3 flex flex-col gap-2">
                       {search.suggestions.map((suggestion) => (
                         <li key={suggestion.filter}>
-                          <Link to={`?${suggestion.queryString}`} className="text-sm font-semibold text-ink-900 underline decoration-brass-400 underline-offset-4 hover:decoration-2">
+                          <Link to={`?${suggestion.queryString}`} className="search-suggestion">
                             {suggestion.text}
                           </Link>
                         </li>
@@ -344,7 +346,7 @@ function SaveSearch({ account, queryString, summary }: { account: { verified: bo
   const here = `/machines${location.search}`;
   const saved = fetcher.data?.saved;
   return (
-    <div className="mt-10 rounded-panel border border-ink-200 bg-white p-5" data-testid="save-search">
+    <div className="search-panel" data-testid="save-search">
       <h2 className="text-base font-bold text-ink-900">Hear about new matches</h2>
       {!account ? (
         <p className="mt-1 text-sm text-ink-600">

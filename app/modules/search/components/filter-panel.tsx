@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
 import { lengthUnitLabel, type DisplayUnits } from "~/modules/units/lengths";
-import { accuracyFilters, deviationUnitLabel } from "../figures";
+import { deviationUnitLabel } from "../figures";
 import type { MachineSearch } from "../service.server";
 import { inputName, type DraftKey, type SearchDraft } from "./search-form";
 
@@ -51,6 +51,8 @@ export type FilterChoices = {
   categories: ReadonlyArray<Choice>;
   countries: ReadonlyArray<Choice>;
   currencies: ReadonlyArray<string>;
+  /** The accuracy limits, each by its address parameter and label. */
+  accuracy: ReadonlyArray<{ param: DraftKey; label: string }>;
   /** The supply classes as the server words them. */
   supplies: ReadonlyArray<Choice>;
 };
@@ -95,12 +97,12 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
   return (
     <div className="space-y-4">
       <Group title="Verification">
-        <label className="flex cursor-pointer items-center justify-between gap-3 rounded-control bg-within-soft/60 px-3 py-2">
+        <label className="search-check rounded-control bg-within-soft/60 px-3 py-2">
           <span className="flex items-center gap-2 text-sm font-semibold text-ink-900">
-            <input type="checkbox" name="verified" value="1" className="size-4 accent-ink-900" checked={draft.verified} onChange={(event) => onChange("verified", event.target.checked, true)} />
+            <input type="checkbox" name="verified" value="1" className="search-box" checked={draft.verified} onChange={(event) => onChange("verified", event.target.checked, true)} />
             Verified only
           </span>
-          {facets ? <span className="text-xs font-semibold text-ink-600 tabular">{facets.verified}</span> : null}
+          {facets ? <span className="search-figure">{facets.verified}</span> : null}
         </label>
         <p className="text-xs text-ink-500">A signed inspection report that graded the machine.</p>
       </Group>
@@ -109,19 +111,19 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
         {choices.categories.map((category) => {
           const counted = facets?.category[category.value] ?? 0;
           return (
-            <label key={category.value} className={cx("flex cursor-pointer items-center justify-between gap-3 text-sm", counted === 0 && !draft.category.includes(category.value) && "text-ink-400")}>
+            <label key={category.value} className={cx("search-check", counted === 0 && !draft.category.includes(category.value) && "text-ink-400")}>
               <span className="flex items-center gap-2">
                 <input
                   type="checkbox"
                   name="category"
                   value={category.value}
-                  className="size-4 accent-ink-900"
+                  className="search-box"
                   checked={draft.category.includes(category.value)}
                   onChange={(event) => toggle("category", category.value, event.target.checked)}
                 />
                 {category.label}
               </span>
-              {facets ? <span className="text-xs tabular">{counted}</span> : null}
+              {facets ? <span className="search-count">{counted}</span> : null}
             </label>
           );
         })}
@@ -151,8 +153,8 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
       </Group>
 
       <Group title={`Accuracy, at most (${deviation})`}>
-        {accuracyFilters.map((filter) => (
-          <div key={filter.key}>
+        {choices.accuracy.map((filter) => (
+          <div key={filter.param}>
             <div className="flex items-baseline justify-between gap-2">
               <span className="search-field-label" id={`${filter.param}-label`}>
                 {filter.label}
@@ -203,7 +205,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
           <span className="text-ink-400">–</span>
           {numberInput("priceMax", "Highest price", "to", "any")}
         </div>
-        <label className="flex items-center gap-2 text-sm text-ink-700">
+        <label className="search-inline-label">
           Currency
           <select
             name="currency"

@@ -31,16 +31,16 @@ export function ResultCard({ hit }: { hit: ListingHit }) {
         {hit.photoUrl ? (
           <img src={hit.photoUrl} alt="" className="aspect-[4/3] w-full object-cover" width={480} height={360} loading="lazy" />
         ) : (
-          <div className="flex aspect-[4/3] w-full items-center justify-center bg-ink-100 text-sm text-ink-500">No photo yet</div>
+          <div className="result-no-photo">No photo yet</div>
         )}
         <div className="flex flex-1 flex-col gap-3 p-4">
           <div className="flex items-start justify-between gap-3">
             <div className="min-w-0">
-              <p className="text-xs font-bold uppercase tracking-wide text-brass-600">
+              <p className="result-kind">
                 {hit.categoryLabel}
                 {hit.year ? ` · ${hit.year}` : ""}
               </p>
-              <h3 className="mt-1 text-lg font-bold leading-snug text-ink-900 group-hover:underline">
+              <h3 className="result-title">
                 <Link to={hit.url} className="after:absolute after:inset-0">
                   {hit.title}
                 </Link>
@@ -61,11 +61,11 @@ export function ResultCard({ hit }: { hit: ListingHit }) {
           ) : null}
           <p className="text-sm text-ink-500">{display.place}</p>
           {/* Ticked cards go to /compare by the page's plain GET form (no script): above the card's stretched link. */}
-          <label className="relative z-10 flex w-fit items-center gap-2 text-sm font-semibold text-ink-700">
-            <input type="checkbox" name="m" value={hit.slug} form="compare-form" className="size-4 accent-ink-900" />
+          <label className="result-compare">
+            <input type="checkbox" name="m" value={hit.slug} form="compare-form" className="search-box" />
             Compare<span className="sr-only"> {hit.title}</span>
           </label>
-          <div className="mt-auto flex flex-wrap items-end justify-between gap-2 pt-1">
+          <div className="result-foot">
             <p className="text-lg font-extrabold text-ink-900 tabular">{display.price}</p>
             <div className="flex flex-wrap justify-end gap-1">
               <Badge>{display.condition}</Badge>

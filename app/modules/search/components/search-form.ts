@@ -2,7 +2,7 @@
 // written back to it in µm and mm. No validation library here (the server validates every parameter): this
 // runs in the browser on every change and must stay small.
 import { lengthFromMillimetres, lengthToMillimetres, MILLIMETRES_PER_INCH, type DisplayUnits } from "~/modules/units/lengths";
-import { accuracyFilters, deviationFromInput, deviationInputValue } from "../figures";
+import { accuracyParams, deviationFromInput, deviationInputValue } from "../figures";
 
 export type SearchDraft = {
   q: string;
@@ -37,7 +37,7 @@ export type SearchDraft = {
 export type DraftKey = keyof SearchDraft;
 
 const lengthKeys = ["swingMin", "swingMax", "centresMin", "centresMax"] as const;
-const deviationKeys = accuracyFilters.map((filter) => filter.param);
+const deviationKeys = accuracyParams;
 
 function positive(text: string | null): number | undefined {
   if (text === null || text.trim() === "") return undefined;
@@ -60,7 +60,7 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
     return um === undefined || um === 0 ? asTyped(key) : deviationInputValue(um, units);
   };
   const list = (key: string) => params.getAll(key).flatMap((value) => value.split(",")).filter(Boolean);
-  return {
+  const draft = {
     q: params.get("q") ?? "",
     category: list("category"),
     grade: list("grade"),
@@ -69,26 +69,14 @@ export function draftFromParams(params: URLSearchParams, units: DisplayUnits): S
     currency: params.get("currency") ?? "EUR",
     priceMin: params.get("priceMin") ?? "",
     priceMax: params.get("priceMax") ?? "",
-    swingMin: length("swingMin"),
-    swingMax: length("swingMax"),
-    centresMin: length("centresMin"),
-    centresMax: length("centresMax"),
-    runoutMax: deviation("runoutMax"),
-    axialSlipMax: deviation("axialSlipMax"),
-    parallelismMax: deviation("parallelismMax"),
-    centreHeightMax: deviation("centreHeightMax"),
-    flatnessMax: deviation("flatnessMax"),
-    squarenessMax: deviation("squarenessMax"),
-    xAccuracyMax: deviation("xAccuracyMax"),
-    xRepeatabilityMax: deviation("xRepeatabilityMax"),
-    yAccuracyMax: deviation("yAccuracyMax"),
-    yRepeatabilityMax: deviation("yRepeatabilityMax"),
-    zAccuracyMax: deviation("zAccuracyMax"),
-    zRepeatabilityMax: deviation("zRepeatabilityMax"),
     reportAgeMax: params.get("reportAgeMax") ?? "",
     supply: params.get("supply") ?? "",
     sort: params.get("sort") ?? "",
-  };
+  } as SearchDraft;
+  // The lengths and limits by their lists, not one line each: this runs in the browser, whose script is held to a budget.
+  for (const key of lengthKeys) draft[key] = length(key);
+  for (const key of deviationKeys) draft[key] = deviation(key);
+  return draft;
 }
 
 /** The address for a form state: µm and mm, in one fixed order, without empty fields; page 1. Values that are
