@@ -151,7 +151,8 @@ export function cachedPage(
   return async ({ request, params, context }, next) => {
     const kind = context.get(requestKindContext);
     const method = request.method.toUpperCase();
-    if (!kind || (method !== "GET" && method !== "HEAD") || hasSessionCookie(request)) return next();
+    const nonce = context.get(cspNonceContext);
+    if (!kind || !nonce || (method !== "GET" && method !== "HEAD") || hasSessionCookie(request)) return next();
     const url = new URL(request.url);
     const routes = url.searchParams.get("_routes");
     url.searchParams.delete("_routes");
@@ -162,8 +163,6 @@ export function cachedPage(
     // Robots are sent the page whole (the server entry waits for all of it), people as it streams: two pages.
     const reader = isbot(request.headers.get("user-agent") ?? "") ? "robot" : "person";
     const key = `${kind}\n${reader}\n${identity.key}\n${routes === null ? "" : routes.split(",").sort().join(",")}`;
-    const nonce = context.get(cspNonceContext);
-    if (!nonce) return next();
 
     const stored = store.get(key, identity.version);
     if (stored) return answerFrom(stored, request, nonce);
