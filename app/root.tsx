@@ -90,7 +90,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
     detail = error.message;
   }
   return (
-    <section className="mx-auto max-w-2xl px-4 py-20 text-center sm:px-6">
+    <section className="error-page">
       <p className="ui-eyebrow text-sm text-brass-600">Tenthmark</p>
       <h1 className="mt-2 text-3xl font-extrabold text-ink-900">{title}</h1>
       <p className="mt-4 text-ink-600">{detail}</p>

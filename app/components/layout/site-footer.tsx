@@ -4,7 +4,7 @@ import { NameMark } from "./name-mark";
 export function SiteFooter() {
   return (
     <footer className="site-footer">
-      <div className="mx-auto grid max-w-6xl gap-8 px-4 py-10 sm:px-6 md:grid-cols-[1.4fr_1fr]">
+      <div className="site-footer-grid">
         <div className="space-y-3">
           <NameMark />
           <p className="max-w-sm text-sm text-ink-600">
@@ -21,7 +21,7 @@ export function SiteFooter() {
           </ul>
         </div>
       </div>
-      <div className="border-t border-ink-100 py-4 text-center text-xs text-ink-500">© {new Date().getFullYear()} Tenthmark</div>
+      <div className="site-footer-end">© {new Date().getFullYear()} Tenthmark</div>
     </footer>
   );
 }

@@ -91,7 +91,7 @@ function AccountSlot({ user }: { user: HeaderUser }) {
           title={user.email}
         >
           <span className="min-w-0 truncate">{user.name}</span>
-          <svg viewBox="0 0 12 12" className="size-3 shrink-0 transition-transform group-open:rotate-180" aria-hidden="true">
+          <svg viewBox="0 0 12 12" className="site-chevron" aria-hidden="true">
             <path d="M2.5 4.5 6 8l3.5-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
           </svg>
         </summary>

@@ -5,15 +5,13 @@ import { Card } from "~/components/ui/card";
 import { cx } from "~/components/ui/cx";
 import { databaseContext } from "~/db/context";
 import { getOptionalUser } from "~/modules/accounts/guards.server";
-import { FilterPanel, type FilterChoices } from "~/modules/search/components/filter-panel";
+import { filterChoices } from "~/modules/search/choices";
+import { FilterPanel } from "~/modules/search/components/filter-panel";
 import { ResultCard } from "~/modules/search/components/result-card";
 import { draftFromParams, paramsFromDraft, type DraftKey, type SearchDraft } from "~/modules/search/components/search-form";
 import { parseListingSearchParams } from "~/modules/search/search-params.server";
 import { searchMachines, type MachineSearch } from "~/modules/search/service.server";
-import { countryOptions, machineCategories } from "~/modules/listings/catalogue";
-import { currencies, type DisplayUnits } from "~/modules/units/format";
-import { accuracyFilters } from "~/modules/search/figures";
-import { supplyClasses } from "../../../search/query.ts";
+import type { DisplayUnits } from "~/modules/units/format";
 import type { Route } from "./+types/machines";
 
 export const meta: Route.MetaFunction = () => [
@@ -29,14 +27,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const units: DisplayUnits = viewer?.displayUnits ?? "mm";
   const account = viewer ? { verified: viewer.emailVerified } : null;
   const parsed = parseListingSearchParams(new URL(request.url).searchParams);
-  // The filter panel's choices as data, not as lists in the page's script (which is held to a budget).
-  const choices: FilterChoices = {
-    categories: machineCategories,
-    countries: countryOptions,
-    currencies,
-    accuracy: accuracyFilters.map(({ param, label }) => ({ param, label })),
-    supplies: supplyClasses.map(({ value, label }) => ({ value, label })),
-  };
+  const choices = filterChoices();
   if (!parsed.success) return { units, account, choices, search: null, errors: parsed.errors };
   const search = await searchMachines(context.get(databaseContext), parsed.query, { units, after: parsed.after });
   return { units, account, choices, search, errors: null };
@@ -51,12 +42,6 @@ export function shouldRevalidate({ currentUrl, nextUrl, formMethod, defaultShoul
 
 type Answer = { key: string; search: MachineSearch | null; errors: Record<string, string[]> | null; failed: boolean };
 
-const sorts = [
-  { value: "newest", label: "Newest first" },
-  { value: "best-accuracy", label: "Best accuracy first" },
-  { value: "price-ascending", label: "Price, lowest first" },
-  { value: "price-descending", label: "Price, highest first" },
-];
 
 export default function MachineSearchPage({ loaderData }: Route.ComponentProps) {
   const { units, account } = loaderData;
@@ -142,7 +127,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
           if (filtersOpen) requestAnimationFrame(() => resultsHeadingRef.current?.focus());
         }}
       >
-        <div className="flex flex-wrap items-end justify-between gap-4">
+        <div className="search-head">
           <div>
             <h1 className="text-3xl font-extrabold text-ink-900">Machines for sale</h1>
             <p className="mt-1 max-w-2xl text-ink-600">
@@ -176,7 +161,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
           </Button>
         </div>
 
-        <div className="mt-6 grid gap-8 lg:grid-cols-[17rem_minmax(0,1fr)]">
+        <div className="search-layout">
           <aside aria-label="Filters">
             <button
               type="button"
@@ -213,7 +198,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               </p>
             ) : null}
             {answer.failed ? (
-              <p role="alert" className="search-message flex flex-wrap items-center gap-3 border-beyond/30 bg-beyond-soft">
+              <p role="alert" className="search-message search-failed">
                 The results could not be loaded. Check your connection and try again.
                 <Button size="sm" variant="secondary" onClick={() => setAttempt((count) => count + 1)}>
                   Try again
@@ -238,7 +223,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
                   className="ui-control w-auto border-ink-300 py-1.5 pl-2 pr-8 text-sm"
                 >
                   {draft.q ? <option value="relevance">Best match</option> : null}
-                  {sorts.map((sort) => (
+                  {loaderData.choices.sorts.map((sort) => (
                     <option key={sort.value} value={sort.value}>
                       {sort.label}
                     </option>
@@ -268,7 +253,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
               </p>
             ) : null}
             {search && search.hits.length ? (
-              <ul className="mt-4 grid gap-3 sm:grid-cols-2 sm:gap-5 xl:grid-cols-3" data-view={list ? "list" : "cards"} data-testid="results">
+              <ul className="search-results" data-view={list ? "list" : "cards"} data-testid="results">
                 {search.hits.map((hit) => (
                   <li key={hit.id}>
                     <ResultCard hit={hit} />
@@ -300,7 +285,7 @@ export default function MachineSearchPage({ loaderData }: Route.ComponentProps) 
             ) : null}
 
             {search && search.totalPages > 1 ? (
-              <nav aria-label="Pages" className="mt-8 flex flex-wrap items-center justify-center gap-2">
+              <nav aria-label="Pages" className="search-pages">
                 {search.page > 1 ? (
                   <Link to={linkWith("page", search.page - 1)} rel="prev" className="search-page-link">
                     ← Previous

@@ -3,22 +3,9 @@ import { Button } from "~/components/ui/button";
 import { cx } from "~/components/ui/cx";
 import { lengthUnitLabel, type DisplayUnits } from "~/modules/units/lengths";
 import { deviationUnitLabel } from "../figures";
+import type { FilterChoices } from "../choices";
 import type { MachineSearch } from "../service.server";
 import { inputName, type DraftKey, type SearchDraft } from "./search-form";
-
-const grades = [
-  { value: "A", label: "A" },
-  { value: "B", label: "B" },
-  { value: "C", label: "C" },
-  { value: "D", label: "D" },
-];
-
-const reportAges = [
-  { value: "", label: "Any age" },
-  { value: "90", label: "Last 3 months" },
-  { value: "180", label: "Last 6 months" },
-  { value: "365", label: "Last 12 months" },
-];
 
 // Text fields and menus: `ui-control` in app/app.css.
 const control = "ui-control";
@@ -43,19 +30,6 @@ function FieldErrors({ messages }: { messages: string[] }) {
     </p>
   ) : null;
 }
-
-type Choice = { value: string; label: string };
-
-/** The panel's fixed choices, sent by the server as data: the page's script carries no lists of its own. */
-export type FilterChoices = {
-  categories: ReadonlyArray<Choice>;
-  countries: ReadonlyArray<Choice>;
-  currencies: ReadonlyArray<string>;
-  /** The accuracy limits, each by its address parameter and label. */
-  accuracy: ReadonlyArray<{ param: DraftKey; label: string }>;
-  /** The supply classes as the server words them. */
-  supplies: ReadonlyArray<Choice>;
-};
 
 type PanelProps = {
   draft: SearchDraft;
@@ -131,7 +105,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
 
       <Group title="Accuracy grade">
         <div className="grid grid-cols-4 gap-2">
-          {grades.map((grade) => (
+          {choices.grades.map((grade) => (
             <label
               key={grade.value}
               className="search-grade"
@@ -173,7 +147,7 @@ export function FilterPanel({ draft, units, facets, choices, errors, onChange, o
             value={draft.reportAgeMax}
             onChange={(event) => onChange("reportAgeMax", event.target.value, true)}
           >
-            {reportAges.map((age) => (
+            {choices.reportAges.map((age) => (
               <option key={age.value} value={age.value}>
                 {age.label}
               </option>

@@ -26,7 +26,7 @@ export function ResultCard({ hit }: { hit: ListingHit }) {
   return (
     // The title is the card's link, stretched over the card by its ::after, so that the link is named by the
     // title alone while grade, figures, price and badges stay text that is read in order (not hidden behind a name).
-    <Card className="group relative flex h-full flex-col overflow-hidden" data-listing-id={hit.id}>
+    <Card className="result-card group" data-listing-id={hit.id}>
       <div className="flex flex-1 flex-col">
         {hit.photoUrl ? (
           <img src={hit.photoUrl} alt="" className="aspect-[4/3] w-full object-cover" width={480} height={360} loading="lazy" />
