@@ -505,28 +505,49 @@ type DatabaseResult = ListingSearchResult & {
   nextKey: ListingCursorKey | null;
 };
 
-/** The buyer's search run against PostgreSQL (searchListingsInDatabaseTogether with one search). */
-export async function searchListingsInDatabase(db: Database, query: ListingSearchRequest, now: Date = new Date()): Promise<DatabaseResult> {
-  const [result] = await searchListingsInDatabaseTogether(db, [query], now);
-  return result!;
+type CountRow = Record<string, unknown>;
+type Prepared<Row> = { execute(): Promise<Row[]> };
+
+// Drizzle builds a statement's text and parameters again on every execute(), which cost the search about a
+// third of its CPU; its `_prepare()` (not in its types) builds them once and returns the unnamed statement that
+// execute() itself runs. Without it (another Drizzle), the builder is run as it is.
+function prepared<Row>(builder: unknown): Prepared<Row> {
+  const preparable = builder as { _prepare?: () => Prepared<Row> } & Prepared<Row>;
+  return typeof preparable._prepare === "function" ? preparable._prepare() : preparable;
 }
 
-/**
- * The buyer's searches run against PostgreSQL: the same filters, sorts, pages and facet counts as the index,
- * with plain word matching instead of the index's ranking and typo tolerance. One query per page asked for
- * (the listing, seller, report and cover joined for its rows only), read after the request's cursor key
- * (`after`, keyset) or else at its page's offset; and one grouped pass over listing_search for every total
- * and facet of every search together: the conditions all searches share filter the rows, and each search
- * counts its own rows with `count(*) filter (where …)`.
- */
-export async function searchListingsInDatabaseTogether(db: Database, queries: ListingSearchRequest[], now: Date = new Date()): Promise<DatabaseResult[]> {
-  const started = performance.now();
-  if (!queries.length) return [];
-  const conditions = queries.map((query) => conditionsFor(query, now));
+type SearchStatements = { pageStatements: (Prepared<PageRow> | null)[]; countStatement: Prepared<CountRow> };
 
-  const pageRows = async (query: ListingSearchRequest, where: SQL | undefined): Promise<PageRow[]> => {
+// The statements of a set of searches, built once and kept for the same searches asked again (their text and
+// parameters only: every answer is read from the database anew). Per database client, since a statement runs on
+// the client it was built with; the most recent few hundred.
+const builtStatements = new WeakMap<Database, Map<string, SearchStatements>>();
+const BUILT_STATEMENTS_KEPT = 300;
+
+function statementsFor(db: Database, queries: ListingSearchRequest[], now: Date): SearchStatements {
+  // The searches as asked, and the day a report's age counts from (the one condition that reads the clock).
+  const key = JSON.stringify([queries, queries.some((query) => query.maxReportAgeDays !== undefined) ? now.toISOString().slice(0, 10) : null]);
+  let kept = builtStatements.get(db);
+  if (!kept) builtStatements.set(db, (kept = new Map()));
+  const known = kept.get(key);
+  if (known) {
+    kept.delete(key);
+    kept.set(key, known);
+    return known;
+  }
+  const statements = buildStatements(db, queries, now);
+  if (kept.size >= BUILT_STATEMENTS_KEPT) kept.delete(kept.keys().next().value!);
+  kept.set(key, statements);
+  return statements;
+}
+
+function buildStatements(db: Database, queries: ListingSearchRequest[], now: Date): SearchStatements {
+  const conditions = queries.map((query) => conditionsFor(query, now));
+  const facetNames = LISTING_FACETS.filter((facet) => queries.some((query) => (query.facets ?? LISTING_FACETS).includes(facet)));
+
+  const pageRows = (query: ListingSearchRequest, where: SQL | undefined): Prepared<PageRow> | null => {
     const hitsPerPage = query.hitsPerPage ?? 20;
-    if (hitsPerPage === 0) return [];
+    if (hitsPerPage === 0) return null;
     // The page's ids first, in order, from listing_search alone (an index read in order that stops at the
     // page's last row); the listing, seller, report and cover are joined for those rows only.
     const keys = sortKeysFor(query);
@@ -545,22 +566,19 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
       .limit(hitsPerPage)
       .offset(after ? 0 : ((query.page ?? 1) - 1) * hitsPerPage)
       .as("page");
-    return db
+    return prepared<PageRow>(db
       .select({ ...pageSelection, cursorKey: ids.cursorKey })
       .from(ids)
       .innerJoin(listings, eq(listings.id, ids.listingId))
       .innerJoin(s, eq(s.listingId, ids.listingId))
       .leftJoin(reports, currentReportOf(s.reportId))
-      .orderBy(...order);
+      .orderBy(...order));
   };
-
-  const facetNames = LISTING_FACETS.filter((facet) => queries.some((query) => (query.facets ?? LISTING_FACETS).includes(facet)));
 
   // What every search filters on is the scan's condition; what differs is counted per search. Searches that
   // filter on the facets' columns alone are counted from listing_search_counts (a few hundred rows), the
   // others from listing_search.
-  type CountRow = Record<string, unknown>;
-  const countRows = async (): Promise<CountRow[]> => {
+  const countRows = (): Prepared<CountRow> => {
     const fromCounts = queries.map((query, position) => countsConditionsFor(query, conditions[position]!));
     const lists = fromCounts.every((list) => list !== null) ? (fromCounts as KeyedCondition[][]) : conditions;
     const source = lists === conditions ? { table: s, columns: facetColumns, counted: sql`1` } : { table: c, columns: countedFacetColumns, counted: sql`${c.listings}` };
@@ -575,17 +593,42 @@ export async function searchListingsInDatabaseTogether(db: Database, queries: Li
       ]),
     );
     const where = and(allOf(shared), anyOwn);
-    if (!facetNames.length) return db.select(countColumns).from(source.table).where(where);
-    return db
-      .select({ ...Object.fromEntries(facetNames.map((facet) => [facet, source.columns[facet]])), ...countColumns })
-      .from(source.table)
-      .where(where)
-      .groupBy(...facetNames.map((facet) => source.columns[facet]));
+    if (!facetNames.length) return prepared<CountRow>(db.select(countColumns).from(source.table).where(where));
+    return prepared<CountRow>(
+      db
+        .select({ ...Object.fromEntries(facetNames.map((facet) => [facet, source.columns[facet]])), ...countColumns })
+        .from(source.table)
+        .where(where)
+        .groupBy(...facetNames.map((facet) => source.columns[facet])),
+    );
   };
 
+  return { pageStatements: queries.map((query, position) => pageRows(query, allOf(conditions[position]!))), countStatement: countRows() };
+}
+
+/** The buyer's search run against PostgreSQL (searchListingsInDatabaseTogether with one search). */
+export async function searchListingsInDatabase(db: Database, query: ListingSearchRequest, now: Date = new Date()): Promise<DatabaseResult> {
+  const [result] = await searchListingsInDatabaseTogether(db, [query], now);
+  return result!;
+}
+
+/**
+ * The buyer's searches run against PostgreSQL: the same filters, sorts, pages and facet counts as the index,
+ * with plain word matching instead of the index's ranking and typo tolerance. One query per page asked for
+ * (the listing, seller, report and cover joined for its rows only), read after the request's cursor key
+ * (`after`, keyset) or else at its page's offset; and one grouped pass over listing_search for every total
+ * and facet of every search together: the conditions all searches share filter the rows, and each search
+ * counts its own rows with `count(*) filter (where …)`.
+ */
+export async function searchListingsInDatabaseTogether(db: Database, queries: ListingSearchRequest[], now: Date = new Date()): Promise<DatabaseResult[]> {
+  const started = performance.now();
+  if (!queries.length) return [];
+  const { pageStatements, countStatement } = statementsFor(db, queries, now);
+  const facetNames = LISTING_FACETS.filter((facet) => queries.some((query) => (query.facets ?? LISTING_FACETS).includes(facet)));
+
   const [pages, grouped] = await Promise.all([
-    Promise.all(queries.map(async (query, position) => sealedPage(db, await pageRows(query, allOf(conditions[position]!))))),
-    countRows(),
+    Promise.all(pageStatements.map(async (statement) => (statement ? sealedPage(db, await statement.execute()) : []))),
+    countStatement.execute(),
   ]);
 
   return queries.map((query, position) => {
