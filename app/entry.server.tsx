@@ -11,7 +11,8 @@ import { EnvironmentError, env } from "~/env.server";
 import { startJobWorkers } from "~/modules/jobs/workers.server";
 import { entityTag, holdsTag, notModified } from "~/modules/http/conditional.server";
 import { renderFailedContext } from "~/modules/http/page-cache.server";
-import { joinWithNonce, keptPageIdentity, RENDER_NONCE_PLACEHOLDER, renderedPages, splitAroundPlaceholder } from "~/modules/http/rendered-pages.server";
+import { joinWithNonce, NONCE_PLACEHOLDER, splitAroundNonce } from "~/modules/http/kept-pages.server";
+import { keptPageIdentity, renderedPages } from "~/modules/http/rendered-pages.server";
 import { applySecurityHeaders, createNonce, cspNonceContext, withSecurityHeaders } from "~/modules/security/headers.server";
 import { NonceProvider } from "~/modules/security/nonce";
 
@@ -168,12 +169,12 @@ function renderToKeep(routerContext: EntryContext, request: Request, responseHea
     const held: Buffer[] = [];
     const timeoutId = setTimeout(() => abort(), streamTimeout + 1000);
     const app = (
-      <NonceProvider value={RENDER_NONCE_PLACEHOLDER}>
-        <ServerRouter context={routerContext} url={request.url} nonce={RENDER_NONCE_PLACEHOLDER} />
+      <NonceProvider value={NONCE_PLACEHOLDER}>
+        <ServerRouter context={routerContext} url={request.url} nonce={NONCE_PLACEHOLDER} />
       </NonceProvider>
     );
     const { pipe, abort } = renderToPipeableStream(app, {
-      nonce: RENDER_NONCE_PLACEHOLDER,
+      nonce: NONCE_PLACEHOLDER,
       onAllReady() {
         const collector = new Writable({
           write(chunk: Buffer, _encoding, callback) {
@@ -183,8 +184,9 @@ function renderToKeep(routerContext: EntryContext, request: Request, responseHea
           final(callback) {
             clearTimeout(timeoutId);
             const html = Buffer.concat(held);
-            if (!failed) renderedPages.set(kept.key, kept.digest, html);
-            resolve(new Response(joinWithNonce(splitAroundPlaceholder(html), nonce), { headers: responseHeaders, status: failed ? 500 : 200 }));
+            // Split around the placeholder once: the pieces are kept and answered with this request's nonce.
+            const parts = failed ? splitAroundNonce(html) : renderedPages.set(kept.key, kept.digest, html);
+            resolve(new Response(joinWithNonce(parts, nonce), { headers: responseHeaders, status: failed ? 500 : 200 }));
             callback();
           },
         });

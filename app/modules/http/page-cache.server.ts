@@ -10,12 +10,12 @@
 // for it (random per process, never sent), stored in pieces around it, and joined with this request's nonce;
 // every security header is set per answer by the security middleware, as for any page.
 // See docs/decisions/page-cache.md.
-import { randomBytes } from "node:crypto";
 import { isbot } from "isbot";
 import { createContext, RouterContextProvider, type MiddlewareFunction } from "react-router";
 import { hasSessionCookie } from "~/modules/accounts/guards.server";
 import { cspNonceContext } from "~/modules/security/headers.server";
 import { holdsTag, notModified } from "./conditional.server";
+import { joinWithNonce, KeptPages, NONCE_PLACEHOLDER, splitAroundNonce } from "./kept-pages.server";
 
 /** A document (HTML) request, or a client-side navigation's data request (`.data`). */
 export type RequestKind = "document" | "data";
@@ -37,12 +37,8 @@ export function createLoadContext(originalUrl: string): RouterContextProvider {
   return context;
 }
 
-/**
- * Stands in for the nonce while a page to be kept is rendered. 192 random bits per process, in hex (no
- * character HTML or JavaScript escapes, so it is written as given); it leaves the process only replaced by a
- * nonce, so no page, address or user text can carry it unless it was guessed.
- */
-export const NONCE_PLACEHOLDER = `n${randomBytes(24).toString("hex")}`;
+// The nonce's placeholder is shared with the rendered pages (kept-pages.server.ts).
+export { NONCE_PLACEHOLDER };
 
 /** What a route says about a request: which page it is and the version of what that page shows. */
 export type PageIdentity = { key: string; version: string };
@@ -59,61 +55,42 @@ type StoredPage = {
 /** The only headers kept with a page; Set-Cookie and the security headers are never stored. */
 const KEPT_HEADERS = ["content-type", "etag", "cache-control", "vary", "last-modified", "x-remix-response"];
 
-/** A byte-bounded store, least recently used first out. */
+/** Whole answers within a byte budget (kept-pages.server.ts); one asked for at another version than it was stored at is dropped. */
 export class PageStore {
-  private readonly pages = new Map<string, StoredPage>();
-  private used = 0;
+  private readonly pages: KeptPages<StoredPage>;
 
-  constructor(
-    readonly budgetBytes: number,
-    readonly largestPageBytes: number,
-  ) {}
+  constructor(budgetBytes: number, largestPageBytes: number) {
+    this.pages = new KeptPages(budgetBytes, largestPageBytes);
+  }
 
   get size() {
     return this.pages.size;
   }
 
   get bytes() {
-    return this.used;
+    return this.pages.bytes;
   }
 
   /** The page kept under `key` if it was stored at `version`; one stored at another version is dropped. */
   get(key: string, version: string): StoredPage | undefined {
     const page = this.pages.get(key);
-    if (!page) return undefined;
-    this.pages.delete(key);
-    if (page.version !== version) {
-      this.used -= page.bytes;
+    if (page && page.version !== version) {
+      this.pages.delete(key);
       return undefined;
     }
-    // Most recently used last.
-    this.pages.set(key, page);
     return page;
   }
 
   set(key: string, page: StoredPage): boolean {
-    this.delete(key);
-    if (page.bytes > this.largestPageBytes) return false;
-    this.pages.set(key, page);
-    this.used += page.bytes;
-    for (const [oldest, stored] of this.pages) {
-      if (this.used <= this.budgetBytes) break;
-      this.pages.delete(oldest);
-      this.used -= stored.bytes;
-    }
-    return true;
+    return this.pages.set(key, page);
   }
 
   delete(key: string) {
-    const page = this.pages.get(key);
-    if (!page) return;
     this.pages.delete(key);
-    this.used -= page.bytes;
   }
 
   clear() {
     this.pages.clear();
-    this.used = 0;
   }
 }
 
@@ -136,7 +113,7 @@ function answerFrom(page: StoredPage, request: Request, nonce: string): Response
   const tag = headers.get("etag");
   if (tag && holdsTag(request, tag)) return notModified(headers);
   if (request.method.toUpperCase() === "HEAD") return new Response(null, { status: 200, headers });
-  return new Response(joinAround(page.parts, nonce), { status: 200, headers });
+  return new Response(joinWithNonce(page.parts, nonce), { status: 200, headers });
 }
 
 /**
@@ -179,7 +156,7 @@ export function cachedPage(
     // Whatever came back (a page, an error page, a 304), the placeholder never leaves: read it whole, keep it if
     // it may be kept, and answer with this request's nonce in its place.
     const body = response.body ? Buffer.from(await response.arrayBuffer()) : null;
-    const parts = body ? splitAround(body, NONCE_PLACEHOLDER) : [];
+    const parts = body ? splitAroundNonce(body) : [];
     const headers = new Headers();
     for (const [name, value] of response.headers) headers.append(name, value.replaceAll(NONCE_PLACEHOLDER, nonce));
     const contentType = headers.get("content-type") ?? "";
@@ -198,29 +175,6 @@ export function cachedPage(
       }
       store.set(key, { version: identity.version, kind, headers: kept, parts, bytes: body.length + key.length + identity.version.length });
     }
-    return new Response(body === null ? null : joinAround(parts, nonce), { status: response.status, statusText: response.statusText, headers });
+    return new Response(body === null ? null : joinWithNonce(parts, nonce), { status: response.status, statusText: response.statusText, headers });
   };
-}
-
-function splitAround(body: Buffer<ArrayBuffer>, marker: string): Buffer<ArrayBuffer>[] {
-  const needle = Buffer.from(marker);
-  const parts: Buffer<ArrayBuffer>[] = [];
-  let from = 0;
-  for (let at = body.indexOf(needle, from); at !== -1; at = body.indexOf(needle, from)) {
-    parts.push(body.subarray(from, at));
-    from = at + needle.length;
-  }
-  parts.push(body.subarray(from));
-  return parts;
-}
-
-function joinAround(parts: Buffer<ArrayBuffer>[], nonce: string): Buffer<ArrayBuffer> {
-  if (parts.length === 1) return parts[0];
-  const nonceBytes = Buffer.from(nonce);
-  const pieces: Buffer[] = [];
-  parts.forEach((part, index) => {
-    if (index > 0) pieces.push(nonceBytes);
-    pieces.push(part);
-  });
-  return Buffer.concat(pieces);
 }

@@ -5,72 +5,51 @@
 // price, photo, report or search result is changed data, so the next request renders anew; nothing is
 // time-based and nothing can be stale. Only for visitors without a session (their header names nobody).
 // The Content-Security-Policy nonce is fresh on every answer: a kept page is rendered with a placeholder for
-// it (random per process, never sent), stored in pieces around it, and joined with this request's nonce.
+// it (kept-pages.server.ts: random per process, never sent), stored in pieces around it, and joined with this
+// request's nonce.
 // See docs/benchmarks.md ("Search and listing pages").
-import { createHash, randomBytes } from "node:crypto";
-import { getSessionCookie } from "better-auth/cookies";
+import { createHash } from "node:crypto";
 import type { EntryContext } from "react-router";
-import { SESSION_COOKIE_PREFIX } from "~/modules/accounts/auth.server";
+import { hasSessionCookie } from "~/modules/accounts/guards.server";
+import { KeptPages, splitAroundNonce } from "./kept-pages.server";
 
-/**
- * Stands in for the nonce while a page to be kept is rendered: 192 random bits per process in hex (nothing
- * HTML or JavaScript escapes), replaced by each answer's nonce, so no page or user text can carry it.
- */
-export const RENDER_NONCE_PLACEHOLDER = `n${randomBytes(24).toString("hex")}`;
+type KeptPage = { digest: string; parts: Buffer<ArrayBuffer>[]; bytes: number };
 
-type KeptPage = { digest: string; parts: Buffer[]; bytes: number };
-
-/** A byte-bounded store of rendered pages by address, least recently used first out. */
+/** Rendered pages by address within a byte budget (kept-pages.server.ts), each answered only for its data's digest. */
 export class RenderedPages {
-  private readonly pages = new Map<string, KeptPage>();
-  private used = 0;
+  private readonly pages: KeptPages<KeptPage>;
 
-  constructor(
-    readonly budgetBytes: number,
-    readonly largestPageBytes: number,
-  ) {}
+  constructor(budgetBytes: number, largestPageBytes: number) {
+    this.pages = new KeptPages(budgetBytes, largestPageBytes);
+  }
 
   get size() {
     return this.pages.size;
   }
 
   get bytes() {
-    return this.used;
+    return this.pages.bytes;
   }
 
   /** The page kept under `key` if it was rendered from data with this digest. */
   get(key: string, digest: string): KeptPage | undefined {
     const page = this.pages.get(key);
-    if (!page || page.digest !== digest) return undefined;
-    // Most recently used last.
-    this.pages.delete(key);
-    this.pages.set(key, page);
-    return page;
+    return page?.digest === digest ? page : undefined;
   }
 
-  set(key: string, digest: string, html: Buffer) {
-    this.delete(key);
-    if (html.length > this.largestPageBytes) return;
-    const page = { digest, parts: splitAroundPlaceholder(html), bytes: html.length + key.length };
-    this.pages.set(key, page);
-    this.used += page.bytes;
-    for (const [oldest, stored] of this.pages) {
-      if (this.used <= this.budgetBytes) break;
-      this.pages.delete(oldest);
-      this.used -= stored.bytes;
-    }
+  /** Keeps a page rendered with the nonce's placeholder; its pieces around the placeholder either way. */
+  set(key: string, digest: string, html: Buffer<ArrayBuffer>): Buffer<ArrayBuffer>[] {
+    const parts = splitAroundNonce(html);
+    this.pages.set(key, { digest, parts, bytes: html.length + key.length });
+    return parts;
   }
 
   delete(key: string) {
-    const page = this.pages.get(key);
-    if (!page) return;
     this.pages.delete(key);
-    this.used -= page.bytes;
   }
 
   clear() {
     this.pages.clear();
-    this.used = 0;
   }
 }
 
@@ -79,33 +58,6 @@ export class RenderedPages {
  * about 25 KB): about three hundred search pages, more listings.
  */
 export const renderedPages = new RenderedPages(24 * 1024 * 1024, 512 * 1024);
-
-const marker = Buffer.from(RENDER_NONCE_PLACEHOLDER);
-
-/** A page rendered with the placeholder, in pieces around its places. */
-export function splitAroundPlaceholder(html: Buffer): Buffer[] {
-  const parts: Buffer[] = [];
-  let from = 0;
-  for (let at = html.indexOf(marker, from); at >= 0; at = html.indexOf(marker, from)) {
-    parts.push(html.subarray(from, at));
-    from = at + marker.length;
-  }
-  parts.push(html.subarray(from));
-  return parts;
-}
-
-/** A kept page's HTML with this answer's nonce in the placeholder's places. */
-export function joinWithNonce(parts: Buffer[], nonce: string): Uint8Array<ArrayBuffer> {
-  // Buffers over the process's own memory (never a SharedArrayBuffer), as a Response body takes them.
-  if (parts.length === 1) return parts[0]! as Uint8Array<ArrayBuffer>;
-  const nonceBytes = Buffer.from(nonce);
-  const pieces: Buffer[] = [];
-  parts.forEach((part, index) => {
-    if (index) pieces.push(nonceBytes);
-    pieces.push(part);
-  });
-  return Buffer.concat(pieces) as Uint8Array<ArrayBuffer>;
-}
 
 /** Thrown by the digest's replacer: a value that JSON would not show whole (a promise, a map…). */
 class NotPlainData extends Error {}
@@ -133,7 +85,7 @@ export function keptPageIdentity(request: Request, statusCode: number, routerCon
   const leaf = handler.matches.at(-1);
   const module = leaf ? routerContext.routeModules[leaf.route.id] : undefined;
   if (!(module?.handle as { keepRendered?: boolean } | undefined)?.keepRendered) return null;
-  if (getSessionCookie(request.headers, { cookiePrefix: SESSION_COOKIE_PREFIX })) return null;
+  if (hasSessionCookie(request)) return null;
   let data: string;
   try {
     data = JSON.stringify(handler.loaderData, plainOnly);

@@ -4,7 +4,8 @@
 import type { EntryContext } from "react-router";
 import { describe, expect, it } from "vitest";
 import { SESSION_COOKIE_PREFIX } from "~/modules/accounts/auth.server";
-import { joinWithNonce, keptPageIdentity, RENDER_NONCE_PLACEHOLDER, RenderedPages, splitAroundPlaceholder } from "~/modules/http/rendered-pages.server";
+import { joinWithNonce, NONCE_PLACEHOLDER, splitAroundNonce } from "~/modules/http/kept-pages.server";
+import { keptPageIdentity, RenderedPages } from "~/modules/http/rendered-pages.server";
 
 function entryContext(loaderData: Record<string, unknown>, options: { keep?: boolean; version?: string; errors?: unknown; actionData?: unknown } = {}) {
   return {
@@ -51,11 +52,11 @@ describe("pages kept by the digest of their data", () => {
   });
 
   it("puts each answer's nonce in every place of the placeholder", () => {
-    const html = Buffer.from(`<script nonce="${RENDER_NONCE_PLACEHOLDER}">1</script><p>page</p><link nonce="${RENDER_NONCE_PLACEHOLDER}"/>`);
-    const parts = splitAroundPlaceholder(html);
+    const html = Buffer.from(`<script nonce="${NONCE_PLACEHOLDER}">1</script><p>page</p><link nonce="${NONCE_PLACEHOLDER}"/>`);
+    const parts = splitAroundNonce(html);
     expect(parts).toHaveLength(3);
     expect(Buffer.from(joinWithNonce(parts, "abc123")).toString()).toBe(`<script nonce="abc123">1</script><p>page</p><link nonce="abc123"/>`);
-    expect(Buffer.from(joinWithNonce(splitAroundPlaceholder(Buffer.from("<p>no script</p>")), "abc123")).toString()).toBe("<p>no script</p>");
+    expect(Buffer.from(joinWithNonce(splitAroundNonce(Buffer.from("<p>no script</p>")), "abc123")).toString()).toBe("<p>no script</p>");
   });
 
   it("answers a kept page only for the digest it was rendered from, within its byte budget, least recently used out first", () => {
