@@ -185,15 +185,7 @@ async function sealedPage(db: Database, rows: PageRow[]): Promise<SealedPageRow[
 
 /** One result as the index answers it: the document's hit attributes only. */
 function hitOf(row: SealedPageRow): ListingSearchHit {
-  const report: SearchableReport | null =
-    row.reportId && row.grade && row.measuredOn
-      ? {
-          id: row.reportId,
-          grade: row.grade as SearchableReport["grade"],
-          measuredOn: new Date(`${row.measuredOn}T00:00:00Z`),
-          keyFigures: { ...emptyFigures, ...((row.keyFigures ?? {}) as Partial<KeyFigures>) },
-        }
-      : null;
+  const report = searchableReportOf(row);
   const document = listingToSearchDocument(
     {
       id: row.id,
@@ -241,17 +233,20 @@ const emptyFigures: KeyFigures = {
   zRepeatability: null,
 };
 
+/** A row's current report as the search document takes it, or null when the row has none (or its seal failed). */
+function searchableReportOf(row: { reportId: string | null; grade: string | null; measuredOn: string | null; keyFigures: unknown }): SearchableReport | null {
+  if (!row.reportId || !row.grade || !row.measuredOn) return null;
+  return {
+    id: row.reportId,
+    grade: row.grade as SearchableReport["grade"],
+    measuredOn: new Date(`${row.measuredOn}T00:00:00Z`),
+    keyFigures: { ...emptyFigures, ...((row.keyFigures ?? {}) as Partial<KeyFigures>) },
+  };
+}
+
 function toSource(row: JoinedRow): SourceListing {
   const { listing } = row;
-  const report: SearchableReport | null =
-    row.reportId && row.grade && row.measuredOn
-      ? {
-          id: row.reportId,
-          grade: row.grade as SearchableReport["grade"],
-          measuredOn: new Date(`${row.measuredOn}T00:00:00Z`),
-          keyFigures: { ...emptyFigures, ...((row.keyFigures ?? {}) as Partial<KeyFigures>) },
-        }
-      : null;
+  const report = searchableReportOf(row);
   return {
     listing: {
       id: listing.id,
