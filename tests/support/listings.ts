@@ -1,9 +1,33 @@
 // Listings through the app under test, as a browser without JavaScript (or the upload script) would send them.
 import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
+import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { getDatabase } from "~/db/client.server";
 import { listingPhotos, listings } from "~/modules/listings/schema";
 import { testAppOrigin } from "./accounts";
+
+/** A published centre lathe written straight to the database (no form, no photos), for tests of what reads listings. */
+export async function insertPublishedLathe(sellerId: string, options: { slugPrefix: string; description: string; priceMinor?: number }) {
+  const [row] = await getDatabase()
+    .insert(listings)
+    .values({
+      sellerId,
+      slug: `${options.slugPrefix}-${randomUUID().slice(0, 8)}`,
+      status: "published",
+      category: "centre_lathe",
+      make: "Varnholt",
+      model: `VL ${Math.floor(Math.random() * 900) + 100}`,
+      city: "Brennwald",
+      country: "DE",
+      priceMinor: options.priceMinor ?? 1_200_000,
+      currency: "EUR",
+      condition: "used",
+      description: options.description,
+      publishedAt: new Date(),
+    })
+    .returning();
+  return row!;
+}
 
 /** A complete, valid centre lathe in millimetres; override single fields to break them. */
 export function validListingFields(overrides: Record<string, string> = {}): Record<string, string> {

@@ -2,38 +2,18 @@
 // (app/modules/http/rendered-pages.server.ts): a kept page is byte for byte the fresh one apart from its
 // nonce, every answer has its own nonce (the same in the page and its Content-Security-Policy), a change of
 // the listing shows at once, and a signed-in visitor always gets a page of their own.
-import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
 import { listings } from "~/modules/listings/schema";
 import { createTestUser, signInCookie, testAppOrigin } from "../../support/accounts";
+import { insertPublishedLathe } from "../../support/listings";
 
 const db = getDatabase();
 // The placeholder a kept page is rendered with: "n" and 48 hex digits. It must never be sent.
 const PLACEHOLDER = /n[0-9a-f]{48}/;
 
-async function publishedLathe(sellerId: string) {
-  const [row] = await db
-    .insert(listings)
-    .values({
-      sellerId,
-      slug: `kept-lathe-${randomUUID().slice(0, 8)}`,
-      status: "published",
-      category: "centre_lathe",
-      make: "Varnholt",
-      model: `VL ${Math.floor(Math.random() * 900) + 100}`,
-      city: "Brennwald",
-      country: "DE",
-      priceMinor: 1_200_000,
-      currency: "EUR",
-      condition: "used",
-      description: "Test lathe for the kept pages",
-      publishedAt: new Date(),
-    })
-    .returning();
-  return row!;
-}
+const publishedLathe = (sellerId: string) => insertPublishedLathe(sellerId, { slugPrefix: "kept-lathe", description: "Test lathe for the kept pages" });
 
 async function load(address: string, headers: Record<string, string> = {}) {
   const response = await fetch(`${testAppOrigin}${address}`, { headers });

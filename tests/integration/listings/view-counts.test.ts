@@ -8,30 +8,11 @@ import { getDatabase } from "~/db/client.server";
 import { listingDailyViews, listings } from "~/modules/listings/schema";
 import { writeViewCounts } from "~/modules/listings/views.server";
 import { createTestUser, testAppOrigin } from "../../support/accounts";
+import { insertPublishedLathe } from "../../support/listings";
 
 const db = getDatabase();
 
-async function publishedLathe(sellerId: string) {
-  const [row] = await db
-    .insert(listings)
-    .values({
-      sellerId,
-      slug: `counted-lathe-${randomUUID().slice(0, 8)}`,
-      status: "published",
-      category: "centre_lathe",
-      make: "Varnholt",
-      model: `VL ${Math.floor(Math.random() * 900) + 100}`,
-      city: "Brennwald",
-      country: "DE",
-      priceMinor: 1_200_000,
-      currency: "EUR",
-      condition: "used",
-      description: "Test lathe for the view counts",
-      publishedAt: new Date(),
-    })
-    .returning();
-  return row!;
-}
+const publishedLathe = (sellerId: string) => insertPublishedLathe(sellerId, { slugPrefix: "counted-lathe", description: "Test lathe for the view counts" });
 
 async function storedViews(listingId: string, day?: string) {
   const rows = await db

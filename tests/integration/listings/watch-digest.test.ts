@@ -1,6 +1,5 @@
 // The watchlist digest: a watcher hears at most once a day, in one message, that a watched machine dropped in
 // price, was verified, or was sold; a price rise is no news; one click (RFC 8058) stops the digests.
-import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getDatabase } from "~/db/client.server";
@@ -11,6 +10,7 @@ import { sendWatchDigests } from "~/modules/listings/watchlist.server";
 import { createTestUser, testAppOrigin, type TestUser } from "../../support/accounts";
 import { emailsTo, latestEmailTo, linkIn } from "../../support/mailbox";
 import { acceptedBooking, completeForm, fileAndSign, inspectorCookie } from "../../support/reports";
+import { insertPublishedLathe } from "../../support/listings";
 
 const db = getDatabase();
 const day = 24 * 60 * 60 * 1000;
@@ -19,27 +19,7 @@ function asSessionUser(user: TestUser): SessionUser {
   return { id: user.id, email: user.email, name: user.name, emailVerified: true, roles: ["buyer"], displayUnits: "mm", inspectorStatus: "none" };
 }
 
-async function lathe(sellerId: string, priceMinor: number) {
-  const [row] = await db
-    .insert(listings)
-    .values({
-      sellerId,
-      slug: `watched-lathe-${randomUUID().slice(0, 8)}`,
-      status: "published",
-      category: "centre_lathe",
-      make: "Varnholt",
-      model: `VL ${Math.floor(Math.random() * 900) + 100}`,
-      city: "Brennwald",
-      country: "DE",
-      priceMinor,
-      currency: "EUR",
-      condition: "used",
-      description: "Test lathe for the watchlist",
-      publishedAt: new Date(),
-    })
-    .returning();
-  return row!;
-}
+const lathe = (sellerId: string, priceMinor: number) => insertPublishedLathe(sellerId, { slugPrefix: "watched-lathe", description: "Test lathe for the watchlist", priceMinor });
 
 const digestsTo = async (address: string) => (await emailsTo(address)).filter((message) => message.tag === "watch-digest");
 
