@@ -43,7 +43,7 @@ export function KeyFigureList({ figures, units, columns = 2, className, category
         return (
           <div key={name} className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
             <dt className="text-ink-600">{KEY_FIGURE_LABELS[name]}</dt>
-            <dd className={cx("font-semibold tabular", value === null ? "text-ink-400" : "text-ink-900")}>
+            <dd className={cx("whitespace-nowrap font-semibold tabular", value === null ? "text-ink-400" : "text-ink-900")}>
               {value === null ? "not measured" : formatDeviation(value, units, { signed: SIGNED_KEY_FIGURES.has(name) })}
             </dd>
           </div>
