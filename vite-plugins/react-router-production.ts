@@ -12,11 +12,12 @@
 // And it leaves out what only runs under React Server Components (`useIsRSCRouterContext()` is true only
 // inside the RSC router, which this app does not use: its client entry hydrates `HydratedRouter`), and the
 // part of `<Scripts>` that writes the server's inline scripts (only under the server's static router; the
-// browser renders them as blank text). A client entry that names RSC keeps the RSC code.
+// browser renders them as blank text). A client entry that names RSC keeps the RSC code. Prefetching goes
+// too while no module of `app/` prefetches (a Link's `prefetch`, `PrefetchPageLinks`, a `links` export).
 //
 // Each edit is anchored on the package's own text. When a chunk that should hold an anchor no longer does
 // (an upgrade moved it), the build goes on unedited there and warns once, never fails.
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import type { Plugin } from "vite";
 
@@ -32,7 +33,7 @@ type Patch = {
   anchor: RegExp;
   replacement: string;
   /** Kept for apps that use what it leaves out. */
-  unless?: "instrumentation" | "rsc";
+  unless?: keyof Keep;
 };
 
 export const PATCHES: Patch[] = [
@@ -84,9 +85,33 @@ export const PATCHES: Patch[] = [
     anchor: /^(\s+let \{ router), static: isStatic, staticContext( \} = useDataRouterContext\d*\(\);)$/m,
     replacement: "$1$2 let isStatic = false, staticContext = void 0;",
   },
+  {
+    // Prefetching: a `<Link prefetch>` other than "none" (the default), `<PrefetchPageLinks>`, or a route's
+    // `links` export naming a page. With none of them in the app, every Link's prefetch state stays false
+    // and its handlers empty, so the hook returns that at once and the page-prefetch components go.
+    what: "prefetching (usePrefetchBehavior)",
+    chunk: "function usePrefetchBehavior(",
+    anchor: /^(function usePrefetchBehavior\(prefetch, theirElementProps\) \{)\n(\s+let frameworkContext = )(React\d*)(\.useContext\(FrameworkContext\);)$/m,
+    replacement: "$1 return [false, $3.useRef(null), {}];\n$2$3$4",
+    unless: "prefetch",
+  },
+  {
+    what: "prefetching (Link's PrefetchPageLinks)",
+    chunk: "function usePrefetchBehavior(",
+    anchor: /^(\s+return )shouldPrefetch( && !isAbsolute \? .*createElement\(PrefetchPageLinks, \{ page: href \}\)\) : link;)$/m,
+    replacement: "$1false$2",
+    unless: "prefetch",
+  },
+  {
+    what: "prefetching (Links' page descriptors)",
+    chunk: "function usePrefetchBehavior(",
+    anchor: /^(\s+\(\{ key, link \}\) => )isPageLinkDescriptor\(link\)( \? .*createElement\()$/m,
+    replacement: "$1false$2",
+    unless: "prefetch",
+  },
 ];
 
-export type Keep = { instrumentation: boolean; rsc: boolean };
+export type Keep = { instrumentation: boolean; rsc: boolean; prefetch: boolean };
 
 /** React Router's browser module `code` with the patches applied, and the patches whose anchor was missing. */
 export function patchReactRouter(code: string, keep: Keep) {
@@ -104,15 +129,28 @@ export function patchReactRouter(code: string, keep: Keep) {
   return { code: out, missing };
 }
 
-/** What the app's client entry uses of what the patches would leave out (React Router's default entry: nothing). */
+/** What the app uses of what the patches would leave out: its client entry (React Router's default one uses
+ * neither instrumentation nor RSC), and any module of `app/` that prefetches or exports `links`. */
 export function keptFor(root: string): Keep {
   const entry = path.join(root, "app", "entry.client.tsx");
   const text = existsSync(entry) ? readFileSync(entry, "utf8") : "";
-  return { instrumentation: text.includes("instrumentations"), rsc: text.includes("RSC") };
+  return { instrumentation: text.includes("instrumentations"), rsc: text.includes("RSC"), prefetch: appPrefetches(path.join(root, "app")) };
+}
+
+const MODULE = /\.(?:ts|tsx|js|jsx|mts|mjs)$/;
+const PREFETCHES = /prefetch|export\s+(?:const|let|var|function|async\s+function)\s+links\b|export\s*\{[^}]*\blinks\b/i;
+
+function appPrefetches(folder: string): boolean {
+  if (!existsSync(folder)) return false;
+  for (const entry of readdirSync(folder, { withFileTypes: true, recursive: true })) {
+    if (!entry.isFile() || !MODULE.test(entry.name)) continue;
+    if (PREFETCHES.test(readFileSync(path.join(entry.parentPath, entry.name), "utf8"))) return true;
+  }
+  return false;
 }
 
 export function reactRouterProduction(): Plugin {
-  let keep: Keep = { instrumentation: false, rsc: false };
+  let keep: Keep = { instrumentation: false, rsc: false, prefetch: false };
   const warned = new Set<string>();
   return {
     name: "tenthmark:react-router-production",
