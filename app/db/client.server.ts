@@ -1,6 +1,7 @@
 import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
 import pg from "pg";
 import { env } from "~/env.server";
+import { keepSearchAnswers } from "~/modules/search/kept-answers.server";
 import * as schema from "./schema";
 
 export type Database = NodePgDatabase<typeof schema> & { $client: pg.Pool };
@@ -20,6 +21,8 @@ export function getDatabase(): Database {
     // An idle client losing its connection (database restarted) must not crash the server.
     pool.on("error", () => {});
     database = drizzle(pool, { schema }) as Database;
+    // The process's searches from PostgreSQL reuse their answers while nothing they read has changed.
+    keepSearchAnswers(database);
   }
   return database;
 }

@@ -4,7 +4,10 @@ import { randomUUID } from "node:crypto";
 import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { getDatabase } from "~/db/client.server";
+import { drizzle } from "drizzle-orm/node-postgres";
+import pg from "pg";
+import { getDatabase, type Database } from "~/db/client.server";
+import * as schema from "~/db/schema";
 import { listings } from "~/modules/listings/schema";
 import { createListingSearch } from "~/modules/search/search.server";
 import { freePort } from "../../scripts/lib/ports.ts";
@@ -79,4 +82,14 @@ export async function ownSearch(options: { searchTimeoutMs?: number; port?: numb
 
 export function getListingsApi(query: string) {
   return fetch(`${testAppOrigin}/api/v1/listings?${query}`, { headers: { accept: "application/json" } });
+}
+
+/**
+ * A second client of the test database whose PostgreSQL searches keep no answers (only the app's own client
+ * does): for tests that write past the triggers, as a hostile database owner would, and must see the search
+ * read the rows anew. Close it with `end()`.
+ */
+export function databaseKeepingNoSearchAnswers() {
+  const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
+  return { db: drizzle(pool, { schema }) as unknown as Database, end: () => pool.end() };
 }

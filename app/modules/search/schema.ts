@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { bigint, boolean, date, doublePrecision, index, jsonb, pgTable, smallint, text, timestamp, unique, uuid } from "drizzle-orm/pg-core";
+import { bigint, boolean, check, date, doublePrecision, index, jsonb, pgTable, smallint, text, timestamp, unique, uuid } from "drizzle-orm/pg-core";
 import { listings, listingStatus, machineCategory } from "../listings/schema";
 
 // What the PostgreSQL search filters, counts and sorts on: one row per listing with its current report's
@@ -78,4 +78,17 @@ export const listingSearchCounts = pgTable(
     listings: bigint("listings", { mode: "number" }).notNull(),
   },
   (table) => [unique("listing_search_counts_facets_key").on(table.status, table.category, table.grade, table.verified, table.country).nullsNotDistinct()],
+);
+
+// One number that every statement changing what a PostgreSQL search can answer moves on, in the same transaction
+// (statement triggers on listings, their photos, listing_search, reports and the signing keys:
+// drizzle/0033_search-generation.sql). A search answer kept in the app's memory is reused only while the number
+// it was read under is still the current one (app/modules/search/kept-results.server.ts).
+export const searchGeneration = pgTable(
+  "search_generation",
+  {
+    id: smallint("id").primaryKey().default(1),
+    generation: bigint("generation", { mode: "number" }).notNull(),
+  },
+  (table) => [check("search_generation_one_row", sql`${table.id} = 1`)],
 );

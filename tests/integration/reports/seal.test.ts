@@ -6,6 +6,7 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestUser, testAppOrigin } from "../../support/accounts";
 import { acceptedBooking, completeForm, db, fileAndSign, inspectorCookie } from "../../support/reports";
+import { databaseKeepingNoSearchAnswers } from "../../support/search";
 import { currentReportForListing } from "~/modules/reports/service.server";
 import { loadSearchableListings, searchListingsInDatabase } from "~/modules/search/listing-source.server";
 import { sha256Hex } from "~/modules/reports/seal.server";
@@ -68,6 +69,7 @@ describe("the app's database role", () => {
 });
 
 describe("a signed report changed by the owner role", () => {
+  const unkept = databaseKeepingNoSearchAnswers();
   let owner: pg.Client;
   let signed: ReportRow;
   let listingSlug: string;
@@ -88,6 +90,7 @@ describe("a signed report changed by the owner role", () => {
   });
   afterAll(async () => {
     await owner.end();
+    await unkept.end();
   });
 
   /** As the owner: the trigger off, one column changed, the trigger on again; returns a function that undoes it. */
@@ -120,9 +123,11 @@ describe("a signed report changed by the owner role", () => {
     ["listing_id", () => otherListingId, "listing_id"],
   ];
 
-  // The PostgreSQL search's page of these two listings, whatever their status: the report each result shows.
+  // The PostgreSQL search's page of these two listings, whatever their status: the report each result shows. Read
+  // by a client that keeps no answers: a write past the triggers does not move the search generation, so the app's
+  // client would give its kept answer (the report as verified before the change) until the next write.
   const searchedReports = async () =>
-    (await searchListingsInDatabase(db, { ids: [listingId, otherListingId], statuses: ["draft", "published", "sold", "withdrawn"], hitsPerPage: 5 })).hits.map((hit) => hit.reportId);
+    (await searchListingsInDatabase(unkept.db, { ids: [listingId, otherListingId], statuses: ["draft", "published", "sold", "withdrawn"], hitsPerPage: 5 })).hits.map((hit) => hit.reportId);
 
   it.each(mutations)("%s: the API, the verification and the pages refuse it and name the column", async (column, value, named) => {
     // The search has verified the credential before the change (it then reads only the credential's digest).
