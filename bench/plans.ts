@@ -67,7 +67,7 @@ async function main() {
         try {
           const { rows } = await client.query(`explain (analyze, buffers) ${statement.sql}`, statement.params);
           const lines = rows.map((row) => String(row["QUERY PLAN"]));
-          const time = lines.find((line) => line.startsWith("Execution Time")) ?? "";
+          const time = ["Planning Time", "Execution Time"].map((label) => lines.find((line) => line.startsWith(label)) ?? "").join(" · ");
           console.log(`\n### statement ${position + 1}: ${time}`);
           if (full) console.log(statement.sql);
           console.log((full ? lines : lines.slice(0, 14)).join("\n"));
