@@ -4,6 +4,7 @@ import { roundToStep } from "./tolerance";
 import { CNC_LATHE_NORMAL as CNC_LATHE_DATA, MACHINING_CENTRE_NORMAL as MACHINING_CENTRE_DATA } from "./profiles-cnc";
 import { KNEE_MILL_NORMAL as KNEE_MILL_DATA, SURFACE_GRINDER_NORMAL as SURFACE_GRINDER_DATA } from "./profiles-milling-grinding";
 import type { MachineForProfile, ProfileTest, ToleranceProfile, ToleranceSpec, ValueSource } from "./types";
+import { deepFreeze } from "../modules/deep-freeze";
 
 // The built-in profiles: the engine's own data, seeded into the database as published versions (the app
 // scores against the database's copy; these stay for the seed, the tests and the bench). Labels as in
@@ -573,12 +574,4 @@ export function suggestProfile(profiles: readonly ToleranceProfile[], machine: M
     .filter((profile) => profile.category === machine.category && sizeFits(profile, machine))
     .sort((a, b) => a.key.localeCompare(b.key));
   return candidates.find((profile) => makerChartFits(profile, machine)) ?? candidates.find((profile) => !profile.scope.maker) ?? null;
-}
-
-function deepFreeze<T>(value: T): T {
-  if (value && typeof value === "object" && !Object.isFrozen(value)) {
-    Object.freeze(value);
-    for (const inner of Object.values(value)) deepFreeze(inner);
-  }
-  return value;
 }

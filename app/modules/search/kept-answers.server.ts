@@ -8,6 +8,7 @@
 // credential is checked before its result is kept), so a database owner who writes past the triggers can
 // keep an answer alive longer, never make one up. See docs/decisions/kept-search-answers.md.
 import type { Database } from "~/db/client.server";
+import { deepFreeze } from "~/modules/deep-freeze";
 
 /** Hits kept at most across all answers (a hit is about a kilobyte): the most recently used answers stay. */
 const KEPT_HITS = 5_000;
@@ -22,14 +23,6 @@ export type KeptAnswers<T> = {
 };
 
 const keptFor = new WeakMap<Database, KeptAnswers<unknown>>();
-
-function deepFreeze<T>(value: T): T {
-  if (value && typeof value === "object" && !Object.isFrozen(value)) {
-    Object.freeze(value);
-    for (const inner of Object.values(value)) deepFreeze(inner);
-  }
-  return value;
-}
 
 function createKeptAnswers<T extends { hits: readonly unknown[] }>(): KeptAnswers<T> {
   const entries = new Map<string, KeptAnswer<T>>();
